@@ -1,0 +1,13 @@
+import { fileURLToPath } from 'node:url';
+import { defineConfig } from 'vitest/config';
+
+export default defineConfig({
+  resolve: {
+    alias: { '@': fileURLToPath(new URL('.', import.meta.url)) },
+  },
+  test: {
+    include: ['calc/**/*.test.ts', 'server/**/*.test.ts', 'shared/**/*.test.ts', 'db/**/*.test.ts'],
+    environment: 'node',
+    pool: 'forks',
+  },
+});
