@@ -1,0 +1,65 @@
+import fs from 'node:fs';
+import path from 'node:path';
+
+import express, { type Request, type Response } from 'express';
+import { toNodeHandler } from 'better-auth/node';
+
+import type { Db } from '@/db';
+
+import { createAuth } from './auth';
+import type { AppDeps } from './deps';
+import { errorHandler, HttpError, sendError } from './http';
+import { jobsRouter } from './routes/jobs';
+import { meRouter } from './routes/me';
+
+export type CreateAppOptions = {
+  db: Db;
+  /** Public origin, used by sign-in for cookies and trusted origins. */
+  baseURL: string;
+  /** Secret that signs session cookies. */
+  secret: string;
+  /** Folder holding the web export (index.html and assets); omitted in API-only tests. */
+  webDir?: string;
+};
+
+const dev = process.env.NODE_ENV !== 'production';
+
+/** Builds the whole app without listening, so tests can drive it on an in-memory database. */
+export function createApp({ db, baseURL, secret, webDir }: CreateAppOptions) {
+  const auth = createAuth({ db, baseURL, secret });
+  const deps: AppDeps = { db, auth };
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+
+  // better-auth reads its own bodies, so it goes before the JSON parser.
+  app.all('/api/auth/{*splat}', toNodeHandler(auth));
+  app.use('/api', express.json({ limit: '200kb' }));
+
+  app.get('/api/health', (_req, res) => {
+    db.$client.prepare('select 1').get();
+    res.json({ ok: true });
+  });
+  app.use('/api', meRouter(deps));
+  app.use('/api/jobs', jobsRouter(deps));
+  app.use('/api', (req, res) => sendError(res, new HttpError(404, 'not_found', `No API route ${req.method} ${req.path}`)));
+
+  if (webDir) serveWeb(app, webDir);
+  app.use(errorHandler);
+  return Object.assign(app, { auth, deps });
+}
+
+/** Serves the static web export. Paths that look like files must exist (404 otherwise); other paths get the app shell. */
+function serveWeb(app: express.Express, webDir: string) {
+  const indexFile = path.join(webDir, 'index.html');
+  app.use(express.static(webDir, { index: false, maxAge: dev ? 0 : '1h' }));
+  app.get('/{*splat}', (req: Request, res: Response) => {
+    if (path.extname(req.path) !== '' || !fs.existsSync(indexFile)) {
+      return sendError(res, new HttpError(404, 'not_found', `No file at ${req.path}`));
+    }
+    res.setHeader('Cache-Control', 'no-cache');
+    res.sendFile(path.resolve(indexFile));
+  });
+}
+
+export type App = ReturnType<typeof createApp>;

@@ -1,0 +1,83 @@
+import { betterAuth } from 'better-auth';
+import { drizzleAdapter } from 'better-auth/adapters/drizzle';
+import { organization } from 'better-auth/plugins';
+import { asc, eq } from 'drizzle-orm';
+
+import type { Db } from '@/db';
+import { schema } from '@/db';
+import { accessControl, shopRoles } from '@/shared/roles';
+
+export type AuthOptions = {
+  db: Db;
+  /** Public origin of the app, for example http://localhost:8080. */
+  baseURL: string;
+  secret: string;
+};
+
+/** Builds better-auth on the given database: e-mail and password, sessions, and shops as organizations with our four roles. */
+export function createAuth({ db, baseURL, secret }: AuthOptions) {
+  return betterAuth({
+    baseURL,
+    secret,
+    trustedOrigins: [baseURL],
+    database: drizzleAdapter(db, {
+      provider: 'sqlite',
+      schema: {
+        users: schema.users,
+        sessions: schema.sessions,
+        accounts: schema.accounts,
+        verifications: schema.verifications,
+        shops: schema.shops,
+        memberships: schema.memberships,
+        invitations: schema.invitations,
+      },
+    }),
+    user: { modelName: 'users' },
+    session: { modelName: 'sessions' },
+    account: { modelName: 'accounts' },
+    verification: { modelName: 'verifications' },
+    emailAndPassword: { enabled: true, minPasswordLength: 10, autoSignIn: true },
+    rateLimit: { enabled: process.env.NODE_ENV === 'production', window: 60, max: 100 },
+    advanced: {
+      useSecureCookies: baseURL.startsWith('https://'),
+      database: { generateId: () => crypto.randomUUID() },
+    },
+    telemetry: { enabled: false },
+    databaseHooks: {
+      session: {
+        create: {
+          // A new session opens in the person's first shop, so every screen has a shop to work in.
+          before: async (session) => {
+            const first = db
+              .select({ shopId: schema.memberships.organizationId })
+              .from(schema.memberships)
+              .where(eq(schema.memberships.userId, session.userId))
+              .orderBy(asc(schema.memberships.createdAt))
+              .limit(1)
+              .get();
+            return { data: { ...session, activeOrganizationId: first?.shopId ?? null } };
+          },
+        },
+      },
+    },
+    plugins: [
+      organization({
+        ac: accessControl,
+        roles: shopRoles,
+        creatorRole: 'builder',
+        schema: {
+          organization: {
+            modelName: 'shops',
+            additionalFields: {
+              kind: { type: 'string', required: true, defaultValue: 'repair', input: true },
+            },
+          },
+          member: { modelName: 'memberships' },
+          invitation: { modelName: 'invitations' },
+        },
+      }),
+    ],
+  });
+}
+
+export type Auth = ReturnType<typeof createAuth>;

@@ -1,0 +1,9 @@
+import type { Db } from '@/db';
+
+import type { Auth } from './auth';
+
+/** What every router is built from. Tests pass an in-memory database; nothing is mocked. */
+export type AppDeps = {
+  db: Db;
+  auth: Auth;
+};

@@ -1,0 +1,71 @@
+import type { NextFunction, Request, Response } from 'express';
+import { z } from 'zod';
+
+import type { ApiErrorBody } from '@/shared/errors';
+
+/** An error the API answers with as-is: status, a stable code, a message that says what to fix. */
+export class HttpError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: string,
+    message: string,
+    readonly fields?: Record<string, string>,
+  ) {
+    super(message);
+  }
+}
+
+export const notFound = (what = 'Record') => new HttpError(404, 'not_found', `${what} not found`);
+export const forbidden = (message = 'Your role in this shop cannot do that') =>
+  new HttpError(403, 'forbidden', message);
+export const conflict = (message: string) => new HttpError(409, 'conflict', message);
+
+/** Turns zod issues into `{ "a.b": "message" }`, keeping the first message per field. */
+export function fieldsFromZod(error: z.ZodError): Record<string, string> {
+  const fields: Record<string, string> = {};
+  for (const issue of error.issues) {
+    const key = issue.path.length ? issue.path.map(String).join('.') : '(body)';
+    if (issue.code === 'unrecognized_keys') {
+      for (const extra of issue.keys) fields[[...issue.path, extra].join('.')] ??= 'Unknown field';
+      continue;
+    }
+    fields[key] ??= issue.message;
+  }
+  return fields;
+}
+
+/** Parses `value` with `schema`, or throws a 400 that names every bad field. */
+export function parse<S extends z.ZodType>(schema: S, value: unknown): z.output<S> {
+  const result = schema.safeParse(value ?? {});
+  if (result.success) return result.data;
+  const fields = fieldsFromZod(result.error);
+  const [first] = Object.entries(fields);
+  const message = first ? `${first[0]}: ${first[1]}` : 'The request is not valid';
+  throw new HttpError(400, 'invalid', message, fields);
+}
+
+export function sendError(res: Response, error: HttpError) {
+  const body: ApiErrorBody = {
+    error: { code: error.code, message: error.message, ...(error.fields ? { fields: error.fields } : {}) },
+  };
+  res.status(error.status).json(body);
+}
+
+/** Express error handler: known errors keep their status; a malformed JSON body is a 400; everything else is a logged 500. */
+export function errorHandler(error: unknown, _req: Request, res: Response, next: NextFunction) {
+  if (res.headersSent) return next(error);
+  if (error instanceof HttpError) return sendError(res, error);
+  const status = (error as { status?: unknown }).status;
+  const type = (error as { type?: unknown }).type;
+  if (type === 'entity.parse.failed') {
+    return sendError(res, new HttpError(400, 'invalid_json', 'The body is not valid JSON', { '(body)': 'Not valid JSON' }));
+  }
+  if (type === 'entity.too.large') {
+    return sendError(res, new HttpError(413, 'too_large', 'The body is too large'));
+  }
+  if (typeof status === 'number' && status >= 400 && status < 500) {
+    return sendError(res, new HttpError(status, 'bad_request', (error as Error).message));
+  }
+  console.error(error);
+  return sendError(res, new HttpError(500, 'internal', 'Something went wrong on our side. Try again.'));
+}

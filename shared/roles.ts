@@ -1,0 +1,59 @@
+import { createAccessControl } from 'better-auth/plugins/access';
+
+/** What each resource allows. One table read by both the server (authorization) and the client (hiding controls). */
+export const statements = {
+  job: ['read', 'create', 'update'],
+  measurement: ['read', 'write'],
+  sheet: ['read', 'write', 'issue'],
+  incoming: ['read', 'respond'],
+  summary: ['read', 'approve'],
+  shop: ['update', 'invite'],
+} as const;
+
+export const accessControl = createAccessControl(statements);
+
+export const shopRoles = {
+  builder: accessControl.newRole({
+    job: ['read', 'create', 'update'],
+    measurement: ['read', 'write'],
+    sheet: ['read', 'write', 'issue'],
+    shop: ['update', 'invite'],
+  }),
+  tech: accessControl.newRole({
+    job: ['read'],
+    measurement: ['read', 'write'],
+    sheet: ['read'],
+  }),
+  grinder: accessControl.newRole({
+    incoming: ['read', 'respond'],
+    shop: ['update', 'invite'],
+  }),
+  customer: accessControl.newRole({
+    summary: ['read', 'approve'],
+  }),
+};
+
+export type ShopRole = keyof typeof shopRoles;
+export const shopRoleNames = Object.keys(shopRoles) as ShopRole[];
+export type Resource = keyof typeof statements;
+export type Permission = { [R in Resource]?: (typeof statements)[R][number][] };
+
+export const shopKinds = ['repair', 'grinding'] as const;
+export type ShopKind = (typeof shopKinds)[number];
+
+export function isShopRole(value: string): value is ShopRole {
+  return value in shopRoles;
+}
+
+/** True when the role grants every action listed. */
+export function roleAllows(role: string | null | undefined, permission: Permission): boolean {
+  if (!role || !isShopRole(role)) return false;
+  return shopRoles[role].authorize(permission).success;
+}
+
+export const roleLabels: Record<ShopRole, string> = {
+  builder: 'Builder',
+  tech: 'Technician',
+  grinder: 'Grinder',
+  customer: 'Vehicle owner',
+};

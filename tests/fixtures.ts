@@ -1,0 +1,115 @@
+import type { AddressInfo } from 'node:net';
+import type { Server } from 'node:http';
+
+import { openDb, schema, type Db } from '@/db';
+import { createApp, type App } from '@/server/app';
+import type { ShopKind, ShopRole } from '@/shared/roles';
+
+export type TestApp = { app: App; db: Db; url: string; close: () => Promise<void> };
+
+/** A real app on an in-memory database, listening on a free loopback port. */
+export async function createTestApp(): Promise<TestApp> {
+  const db = openDb(':memory:');
+  // The origin is only known after listening; sign-in checks it against the request's Origin header.
+  let server: Server | undefined;
+  const port = await new Promise<number>((resolve) => {
+    const probe = createApp({ db, baseURL: 'http://127.0.0.1', secret: 'test-secret-test-secret-test-secret' });
+    const s = probe.listen(0, '127.0.0.1', () => {
+      const p = (s.address() as AddressInfo).port;
+      s.close(() => resolve(p));
+    });
+  });
+  const url = `http://127.0.0.1:${port}`;
+  const app = createApp({ db, baseURL: url, secret: 'test-secret-test-secret-test-secret' });
+  await new Promise<void>((resolve) => {
+    server = app.listen(port, '127.0.0.1', () => resolve());
+  });
+  return {
+    app,
+    db,
+    url,
+    close: () =>
+      new Promise<void>((resolve) => {
+        server?.close(() => resolve());
+      }),
+  };
+}
+
+/** A fetch wrapper that keeps one person's session cookie, like a browser tab. */
+export class Client {
+  private cookies = new Map<string, string>();
+  constructor(readonly baseUrl: string) {}
+
+  async request(method: string, path: string, body?: unknown) {
+    const headers: Record<string, string> = { origin: this.baseUrl };
+    if (body !== undefined) headers['content-type'] = 'application/json';
+    if (this.cookies.size) headers.cookie = [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
+    const res = await fetch(this.baseUrl + path, {
+      method,
+      headers,
+      body: body === undefined ? undefined : typeof body === 'string' ? body : JSON.stringify(body),
+    });
+    for (const line of res.headers.getSetCookie()) {
+      const [pair] = line.split(';');
+      const eq = pair!.indexOf('=');
+      const name = pair!.slice(0, eq);
+      const value = pair!.slice(eq + 1);
+      if (value === '' || /max-age=0/i.test(line)) this.cookies.delete(name);
+      else this.cookies.set(name, value);
+    }
+    const text = await res.text();
+    let json: unknown = null;
+    try {
+      json = text ? JSON.parse(text) : null;
+    } catch {
+      json = text;
+    }
+    return { status: res.status, body: json as Record<string, any> };
+  }
+
+  get = (path: string) => this.request('GET', path);
+  post = (path: string, body?: unknown) => this.request('POST', path, body ?? {});
+  patch = (path: string, body?: unknown) => this.request('PATCH', path, body ?? {});
+}
+
+let counter = 0;
+
+/** Signs a new person up and returns their client. */
+export async function signUp(t: TestApp, name = 'Test Person') {
+  counter += 1;
+  const email = `person${counter}-${Date.now()}@example.test`;
+  const client = new Client(t.url);
+  const res = await client.post('/api/auth/sign-up/email', { name, email, password: 'correct-horse-9' });
+  if (res.status !== 200) throw new Error(`sign-up failed: ${res.status} ${JSON.stringify(res.body)}`);
+  return Object.assign(client, { email, userId: res.body.user.id as string });
+}
+
+/** Creates a shop with a founding member and returns its id. */
+export async function makeShop(t: TestApp, kind: ShopKind = 'repair', name = 'Test shop') {
+  const founder = await signUp(t, `${name} founder`);
+  const res = await founder.post('/api/shops', { name, kind });
+  if (res.status !== 201) throw new Error(`shop failed: ${res.status} ${JSON.stringify(res.body)}`);
+  return { shopId: res.body.activeShop.id as string, founder };
+}
+
+/** Adds a new person to a shop with the given role and signs them in (so their session opens in that shop). */
+export async function memberWithRole(t: TestApp, shopId: string, role: ShopRole) {
+  const person = await signUp(t, `A ${role}`);
+  t.db
+    .insert(schema.memberships)
+    .values({ id: crypto.randomUUID(), organizationId: shopId, userId: person.userId, role })
+    .run();
+  const res = await person.post('/api/me/active-shop', { shopId });
+  if (res.status !== 200) throw new Error(`active shop failed: ${res.status} ${JSON.stringify(res.body)}`);
+  return person;
+}
+
+export function makeJobBody(overrides: Record<string, unknown> = {}) {
+  return {
+    vehicle: 'Test one-ton flatbed, 5.9 L pushrod V8',
+    customerName: 'Test Owner',
+    complaint: 'Ticking at idle, misfire under load',
+    mileage: 161000,
+    ...overrides,
+  };
+}
