@@ -1,4 +1,7 @@
-import { openDb } from '@/db';
+import { count, inArray } from 'drizzle-orm';
+
+import { openDb, schema } from '@/db';
+import { demoAccounts, demoSignInText } from '@/db/seed';
 
 import { createApp } from './app';
 import { readConfig } from './config';
@@ -9,6 +12,12 @@ const app = createApp({ db, baseURL: config.baseURL, secret: config.secret, webD
 
 const server = app.listen(config.port, () => {
   console.log(`Lobewright is serving ${config.baseURL} (database ${config.databasePath})`);
+  const demoUsers = db
+    .select({ n: count() })
+    .from(schema.users)
+    .where(inArray(schema.users.email, demoAccounts.map((a) => a.email)))
+    .get();
+  if (demoUsers?.n) console.log(demoSignInText(config.baseURL));
 });
 
 function shutdown() {

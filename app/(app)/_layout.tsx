@@ -1,0 +1,37 @@
+import { Tabs } from 'expo-router';
+import { useWindowDimensions } from 'react-native';
+
+import { NavBar, type NavItem } from '@/components/nav-bar';
+import { breakpoints, colors } from '@/constants/theme';
+import { useMeQuery } from '@/hooks/use-me';
+import { roleAllows } from '@/shared/roles';
+
+export default function AppLayout() {
+  const { width } = useWindowDimensions();
+  const wide = width >= breakpoints.wide;
+  const me = useMeQuery().data;
+  const role = me?.activeShop?.role;
+  const canSeeJobs = roleAllows(role, { job: ['read'] });
+
+  const items: NavItem[] = [
+    ...(canSeeJobs ? [{ href: '/jobs', match: '/jobs', label: 'Jobs', glyph: '≡', testID: 'nav-jobs' } as const] : []),
+    { href: '/account', match: '/account', label: 'Account', glyph: '◎', testID: 'nav-account' },
+  ];
+
+  return (
+    <Tabs
+      tabBar={() => <NavBar items={items} wide={wide} shopName={me?.activeShop?.name} />}
+      screenOptions={{
+        headerShown: false,
+        tabBarPosition: wide ? 'left' : 'bottom',
+        sceneStyle: { backgroundColor: colors.paper },
+      }}
+    >
+      <Tabs.Screen name="index" options={{ href: null }} />
+      <Tabs.Protected guard={canSeeJobs}>
+        <Tabs.Screen name="jobs" options={{ title: 'Jobs' }} />
+      </Tabs.Protected>
+      <Tabs.Screen name="account" options={{ title: 'Account' }} />
+    </Tabs>
+  );
+}

@@ -1,0 +1,99 @@
+import { Stack, useLocalSearchParams } from 'expo-router';
+import { useState } from 'react';
+import { StyleSheet, Text, useWindowDimensions, View } from 'react-native';
+
+import { Button } from '@/components/button';
+import { JobForm } from '@/components/job-form';
+import { ErrorNotice, Pending } from '@/components/query-state';
+import { Screen, Section } from '@/components/screen';
+import { StatusChip } from '@/components/status-chip';
+import { formatDateTime, formatMiles } from '@/constants/format';
+import { breakpoints, colors, space, type as typeScale } from '@/constants/theme';
+import { ApiError } from '@/hooks/api';
+import { useJobQuery, useSaveJobMutation } from '@/hooks/use-jobs';
+import { useMeQuery } from '@/hooks/use-me';
+import type { Job } from '@/shared/jobs';
+import { roleAllows } from '@/shared/roles';
+
+export default function JobPage() {
+  const { id } = useLocalSearchParams<{ id: string }>();
+  const job = useJobQuery(id);
+  if (job.isPending) return <Pending label="Loading the job…" />;
+  if (job.isError) {
+    const gone = job.error instanceof ApiError && job.error.status === 404;
+    return (
+      <View style={styles.padded}>
+        <ErrorNotice
+          error={gone ? new Error('This job is not in your shop, or it no longer exists.') : job.error}
+          onRetry={gone ? undefined : () => job.refetch()}
+        />
+      </View>
+    );
+  }
+  return <JobDetail job={job.data} />;
+}
+
+function JobDetail({ job }: { job: Job }) {
+  const wide = useWindowDimensions().width >= breakpoints.wide;
+  const canEdit = roleAllows(useMeQuery().data?.activeShop?.role, { job: ['update'] });
+  const save = useSaveJobMutation(job.id);
+  const [editing, setEditing] = useState(false);
+
+  return (
+    <Screen
+      title={job.vehicle}
+      subtitle={`${job.customerName} · ${formatMiles(job.mileage)}`}
+      actions={canEdit && !editing ? <Button label="Edit" variant="secondary" onPress={() => setEditing(true)} testID="edit-job" /> : null}
+      testID="job-screen"
+    >
+      <Stack.Screen options={{ title: job.vehicle }} />
+      {editing ? (
+        <Section title="Edit job">
+          <JobForm
+            job={job}
+            submitLabel="Save changes"
+            busy={save.isPending}
+            onCancel={() => setEditing(false)}
+            onSubmit={async (values) => {
+              await save.mutateAsync({ ...values, version: job.version });
+              setEditing(false);
+            }}
+          />
+        </Section>
+      ) : (
+        <View style={wide ? styles.columns : styles.stack}>
+          <View style={wide ? styles.column : undefined}>
+            <Section title="Complaint">
+              <Text style={styles.body} testID="job-complaint-text">
+                {job.complaint || 'No complaint recorded yet.'}
+              </Text>
+            </Section>
+          </View>
+          <View style={[wide ? styles.column : undefined, styles.stack]}>
+            <Section title="Findings">
+              <Text style={styles.body} testID="job-findings-text">
+                {job.findings || 'Nothing recorded from teardown yet.'}
+              </Text>
+            </Section>
+            <Section title="Record">
+              <StatusChip status={job.status} />
+              <Text style={styles.meta}>Checked in {formatDateTime(job.createdAt)}</Text>
+              <Text style={styles.meta}>
+                Last saved {formatDateTime(job.updatedAt)} (version {job.version})
+              </Text>
+            </Section>
+          </View>
+        </View>
+      )}
+    </Screen>
+  );
+}
+
+const styles = StyleSheet.create({
+  padded: { padding: space.lg },
+  stack: { gap: space.lg },
+  columns: { flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' },
+  column: { flex: 1 },
+  body: { ...typeScale.body, color: colors.ink },
+  meta: { ...typeScale.small, color: colors.inkMuted },
+});

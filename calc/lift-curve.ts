@@ -1,0 +1,347 @@
+/**
+ * Lift-curve synthesis from a lobe spec.
+ *
+ * A regrind sheet gives, per lobe, the lobe lift L, the duration D₂ at 0.050 in
+ * tappet lift and the advertised duration D₁ at a lower height h₁. The curve
+ * built here is symmetric about the lobe centre and hits all three exactly:
+ *
+ *   lift(φ) = L · s(W(τ)),   τ = 1 − |φ| / Φ  (0 at the opening point, 1 at the nose)
+ *
+ * - s is a full-rise motion law (cycloidal, 3-4-5 or 4-5-6-7), so the flank
+ *   starts from rest, rises monotonically and reaches L at the nose;
+ * - W is a smooth, monotone warp of the law's time axis, W(0) = 0, W(1) = 1,
+ *   W(τ) = τ^q / (τ^q + k(1 − τ)); in logit form logit W = q·ln τ − ln(1 − τ) − ln k;
+ * - Φ is half the seat-to-seat event (crank degrees from centre to zero lift).
+ *
+ * Let ξᵢ = s⁻¹(hᵢ / L) be where the law reaches each checking height. Hitting
+ * both durations means W(1 − Dᵢ/2Φ) = ξᵢ for i = 1, 2. Subtracting the two
+ * logit equations, (1 − τ₂)/(1 − τ₁) = D₂/D₁ drops out and
+ *     q · ln(τ₂/τ₁) = Δ − ln(D₁/D₂),   Δ = logit ξ₂ − logit ξ₁,
+ * so q > 0 exactly when the law's odds ratio e^Δ exceeds D₁/D₂. With q = 1
+ * (a Möbius warp, smooth with a finite slope at both ends) Φ has the closed form
+ *     Φ = a·b·(e^Δ − 1) / (b·e^Δ − a),   a = D₁/2, b = D₂/2.
+ * When that Φ would give an unreal ramp (Φ − a > RAMP_MAX) Φ is capped and
+ * q < 1 is solved instead; q must stay above Q_MIN so acceleration stays finite
+ * at the opening point. ln k then follows from either checking point.
+ *
+ * Velocity and acceleration follow by the chain rule and are exact, in inches
+ * per crank degree and inches per crank degree². At the nose they are zero,
+ * because every law here ends its rise with v = a = 0.
+ */
+import { CHECKING_HEIGHT_050 } from './constants';
+import { CalcInputError, fieldPath, requireFinite, requireInRange, requireInteger, requireNonNegative, requirePositive } from './errors';
+import { requireDuration } from './events';
+import { lawA, lawInverseRaw, lawS, lawV, requireMotionLaw, type MotionLawName } from './motion';
+
+/**
+ * Longest ramp the fit may use, crank degrees from the advertised point to zero
+ * lift. Beyond it the ramp is held at this length and the warp exponent q
+ * shrinks below 1 instead.
+ */
+export const RAMP_MAX = 90;
+/** Smallest warp exponent: below 2/3 the acceleration would grow without bound at the opening point. */
+export const Q_MIN = 0.7;
+/** The law the analysis uses unless told otherwise. */
+export const DEFAULT_MOTION_LAW: MotionLawName = 'poly345';
+
+export interface LobeSpec {
+  /** Duration at 0.050 in tappet lift, crank degrees. */
+  duration050: number;
+  /** Advertised duration at advertisedHeight, crank degrees. */
+  advertisedDuration: number;
+  /** Advertised checking height, inches of tappet lift (below 0.050). */
+  advertisedHeight: number;
+  /** Lobe (tappet) lift, inches. */
+  lobeLift: number;
+}
+
+export interface LobeShape {
+  law: MotionLawName;
+  /** Inches. */
+  lobeLift: number;
+  /** Half the seat-to-seat event: crank degrees from the centre to zero lift. */
+  halfEvent: number;
+  /** Seat-to-seat event (lift above zero), crank degrees. */
+  seatToSeat: number;
+  /** Warp exponent q (1 = Möbius warp). */
+  warpExponent: number;
+  /** Warp constant k. */
+  warpScale: number;
+  duration050: number;
+  advertisedDuration: number;
+  advertisedHeight: number;
+}
+
+function logit(p: number): number {
+  return Math.log(p / (1 - p));
+}
+
+/** Validate a lobe spec; throws CalcInputError naming the field. */
+export function requireLobeSpec(input: LobeSpec, prefix?: string): LobeSpec {
+  const duration050 = requireDuration(fieldPath(prefix, 'duration050'), input.duration050);
+  const advertisedDuration = requireDuration(fieldPath(prefix, 'advertisedDuration'), input.advertisedDuration);
+  const advertisedHeight = requireInRange(fieldPath(prefix, 'advertisedHeight'), input.advertisedHeight, {
+    min: 0,
+    max: CHECKING_HEIGHT_050,
+    minOpen: true,
+    maxOpen: true,
+    unit: 'in',
+  });
+  const lobeLift = requireInRange(fieldPath(prefix, 'lobeLift'), input.lobeLift, {
+    min: CHECKING_HEIGHT_050,
+    max: 2,
+    minOpen: true,
+    unit: 'in',
+  });
+  if (!(advertisedDuration > duration050)) {
+    throw new CalcInputError(
+      fieldPath(prefix, 'advertisedDuration'),
+      `must be longer than duration050 (${duration050}°), because it is measured at a lower height`,
+      advertisedDuration,
+    );
+  }
+  return { duration050, advertisedDuration, advertisedHeight, lobeLift };
+}
+
+/** Unchecked kernel of synthesizeLobe; throws CalcInputError when no smooth flank fits. */
+export function synthesizeLobeRaw(spec: LobeSpec, law: MotionLawName, prefix?: string): LobeShape {
+  const { duration050, advertisedDuration, advertisedHeight, lobeLift } = spec;
+  const a = advertisedDuration / 2;
+  const b = duration050 / 2;
+  const xi1 = lawInverseRaw(law, advertisedHeight / lobeLift);
+  const xi2 = lawInverseRaw(law, CHECKING_HEIGHT_050 / lobeLift);
+  const delta = logit(xi2) - logit(xi1);
+  const spread = Math.log(a / b);
+  const tooLong = (): CalcInputError =>
+    new CalcInputError(
+      fieldPath(prefix, 'advertisedDuration'),
+      `${advertisedDuration}° at ${advertisedHeight} in is too long beside ${duration050}° at 0.050 in for a ` +
+        `${lobeLift} in lobe: no smooth lobe fits. Check the sheet's durations and heights` +
+        (law === 'poly4567' ? ', or use the 3-4-5 law, which allows a longer ramp' : ''),
+      advertisedDuration,
+    );
+  if (!(delta > spread)) throw tooLong();
+  const e = Math.exp(delta);
+  let halfEvent = (a * b * (e - 1)) / (b * e - a);
+  let q = 1;
+  if (!(halfEvent <= a + RAMP_MAX)) {
+    halfEvent = a + RAMP_MAX;
+    const t1 = 1 - a / halfEvent;
+    const t2 = 1 - b / halfEvent;
+    q = (delta - spread) / Math.log(t2 / t1);
+    if (!(q >= Q_MIN)) throw tooLong();
+  }
+  const t1 = 1 - a / halfEvent;
+  const lnK = q * Math.log(t1) - Math.log(1 - t1) - logit(xi1);
+  return {
+    law,
+    lobeLift,
+    halfEvent,
+    seatToSeat: 2 * halfEvent,
+    warpExponent: q,
+    warpScale: Math.exp(lnK),
+    duration050,
+    advertisedDuration,
+    advertisedHeight,
+  };
+}
+
+/**
+ * Fit a symmetric lobe to a sheet's lobe lift and its durations at both
+ * checking heights. Throws CalcInputError if the numbers cannot describe one
+ * smooth lobe (for example an advertised duration far too long).
+ */
+export function synthesizeLobe(input: LobeSpec & { law?: MotionLawName }, prefix?: string): LobeShape {
+  const spec = requireLobeSpec(input, prefix);
+  const law = requireMotionLaw(fieldPath(prefix, 'law'), input.law ?? DEFAULT_MOTION_LAW);
+  return synthesizeLobeRaw(spec, law, prefix);
+}
+
+export interface LobePoint {
+  /** Tappet lift, inches. */
+  lift: number;
+  /** Inches per crank degree. */
+  velocity: number;
+  /** Inches per crank degree². */
+  acceleration: number;
+}
+
+const scratch: LobePoint = { lift: 0, velocity: 0, acceleration: 0 };
+
+/** Unchecked: evaluate a shape at `offset` crank degrees from its centre into `out`. */
+export function evalLobeInto(shape: LobeShape, offset: number, out: LobePoint): LobePoint {
+  const phi = shape.halfEvent;
+  const u = offset < 0 ? -offset : offset;
+  if (u >= phi) {
+    out.lift = 0;
+    out.velocity = 0;
+    out.acceleration = 0;
+    return out;
+  }
+  const tau = 1 - u / phi;
+  const k = shape.warpScale;
+  const q = shape.warpExponent;
+  let w: number;
+  let w1: number;
+  let w2: number;
+  if (q === 1) {
+    const den = k + (1 - k) * tau;
+    w = tau / den;
+    w1 = k / (den * den);
+    w2 = (-2 * k * (1 - k)) / (den * den * den);
+  } else {
+    const n = Math.pow(tau, q);
+    const n1 = (q * n) / tau;
+    const n2 = ((q - 1) * n1) / tau;
+    const dn = n + k * (1 - tau);
+    const uu = n1 * (1 - tau) + n;
+    const u1 = n2 * (1 - tau);
+    w = n / dn;
+    w1 = (k * uu) / (dn * dn);
+    w2 = (k * (u1 * dn - 2 * uu * (n1 - k))) / (dn * dn * dn);
+  }
+  const law = shape.law;
+  const L = shape.lobeLift;
+  const v = lawV(law, w);
+  out.lift = L * lawS(law, w);
+  const vel = (L * v * w1) / phi;
+  out.velocity = offset > 0 ? -vel : offset < 0 ? vel : 0;
+  out.acceleration = (L * (lawA(law, w) * w1 * w1 + v * w2)) / (phi * phi);
+  return out;
+}
+
+/**
+ * Tappet lift, velocity and acceleration at `offset` crank degrees from the
+ * lobe centre (negative = opening flank). Inches, in/deg, in/deg².
+ */
+export function lobeLiftAt(shape: LobeShape, offset: number): LobePoint {
+  requireFinite('offset', offset);
+  return evalLobeInto(shape, offset, { lift: 0, velocity: 0, acceleration: 0 });
+}
+
+export interface CurveGrid {
+  /** Crank angle of the first sample, degrees ATDC overlap (negative = before). */
+  start: number;
+  /** Crank degrees between samples. */
+  step: number;
+  /** Number of samples. */
+  count: number;
+}
+
+export interface LiftCurve extends CurveGrid {
+  /** Valve lift at each sample, inches. */
+  lift: Float64Array;
+  /** Valve velocity, inches per crank degree. */
+  velocity: Float64Array;
+  /** Valve acceleration, inches per crank degree². */
+  acceleration: Float64Array;
+  /** Crank angle of maximum lift (the lobe centre), degrees ATDC overlap. */
+  centerline: number;
+  /** Maximum valve lift, inches (lobe lift × rocker ratio − lash). */
+  maxLift: number;
+}
+
+export interface CurveBuffers {
+  lift: Float64Array;
+  velocity: Float64Array;
+  acceleration: Float64Array;
+}
+
+/** Fresh zeroed buffers for one curve. */
+export function createCurveBuffers(count: number): CurveBuffers {
+  return { lift: new Float64Array(count), velocity: new Float64Array(count), acceleration: new Float64Array(count) };
+}
+
+/**
+ * Unchecked: sample valve lift = max(0, rocker × tappet lift − lash) for a
+ * lobe centred at `centerline` on a grid, writing into `out`.
+ */
+export function sampleValveCurveRaw(
+  shape: LobeShape,
+  centerline: number,
+  rockerRatio: number,
+  lash: number,
+  grid: CurveGrid,
+  out: CurveBuffers,
+): LiftCurve {
+  const { start, step, count } = grid;
+  const { lift, velocity, acceleration } = out;
+  const lo = Math.max(0, Math.ceil((centerline - shape.halfEvent - start) / step));
+  const hi = Math.min(count - 1, Math.floor((centerline + shape.halfEvent - start) / step));
+  if (lo > 0) {
+    lift.fill(0, 0, lo);
+    velocity.fill(0, 0, lo);
+    acceleration.fill(0, 0, lo);
+  }
+  const p = scratch;
+  for (let i = lo; i <= hi; i++) {
+    evalLobeInto(shape, start + i * step - centerline, p);
+    const valve = rockerRatio * p.lift - lash;
+    if (valve > 0) {
+      lift[i] = valve;
+      velocity[i] = rockerRatio * p.velocity;
+      acceleration[i] = rockerRatio * p.acceleration;
+    } else {
+      lift[i] = 0;
+      velocity[i] = 0;
+      acceleration[i] = 0;
+    }
+  }
+  const from = Math.max(hi + 1, lo);
+  if (from < count) {
+    lift.fill(0, from);
+    velocity.fill(0, from);
+    acceleration.fill(0, from);
+  }
+  return {
+    start,
+    step,
+    count,
+    lift,
+    velocity,
+    acceleration,
+    centerline,
+    maxLift: rockerRatio * shape.lobeLift - lash,
+  };
+}
+
+export interface SynthesizeCurveInput extends LobeSpec {
+  law?: MotionLawName;
+  /** Lobe centre, crank degrees ATDC overlap (ICL for intake, −ECL for exhaust). */
+  centerline: number;
+  /** Rocker ratio; 1 gives tappet lift. */
+  rockerRatio: number;
+  /** Lash at the valve, inches; 0 for hydraulic. */
+  lash: number;
+  /** Sampling grid; defaults to −360…+360 crank degrees in 0.5° steps. */
+  grid?: CurveGrid;
+}
+
+/** The analysis grid: a whole four-stroke cycle centred on overlap TDC at 0.5° steps. */
+export const CYCLE_GRID: CurveGrid = { start: -360, step: 0.5, count: 1441 };
+
+/** Check a sampling grid. */
+export function requireGrid(grid: CurveGrid, prefix?: string): CurveGrid {
+  return {
+    start: requireFinite(fieldPath(prefix, 'start'), grid.start),
+    step: requirePositive(fieldPath(prefix, 'step'), grid.step, 'crank degrees'),
+    count: requireInteger(fieldPath(prefix, 'count'), grid.count, 2),
+  };
+}
+
+/**
+ * A valve lift curve (lift, velocity, acceleration) sampled on a grid,
+ * synthesised from the lobe spec so that both checking-height durations and
+ * the lobe lift are met exactly.
+ */
+export function synthesizeLiftCurve(input: SynthesizeCurveInput, prefix?: string): LiftCurve {
+  const shape = synthesizeLobe(input, prefix);
+  const centerline = requireInRange(fieldPath(prefix, 'centerline'), input.centerline, { min: -360, max: 360 });
+  const rockerRatio = requireInRange(fieldPath(prefix, 'rockerRatio'), input.rockerRatio, { min: 0.5, max: 3 });
+  const lash = requireNonNegative(fieldPath(prefix, 'lash'), input.lash, 'in');
+  if (!(rockerRatio * shape.lobeLift - lash > 0)) {
+    throw new CalcInputError(fieldPath(prefix, 'lash'), 'must be less than lobe lift × rocker ratio', lash);
+  }
+  const grid = requireGrid(input.grid ?? CYCLE_GRID, fieldPath(prefix, 'grid'));
+  return sampleValveCurveRaw(shape, centerline, rockerRatio, lash, grid, createCurveBuffers(grid.count));
+}

@@ -1,0 +1,11 @@
+import { colors } from './theme';
+
+/** Page-wide rules the web build adds: page colours, a strong focus ring, and print output in black on white. */
+export const pageCss = `
+html, body { background-color: ${colors.paper}; color: ${colors.ink}; }
+:focus-visible { outline: 3px solid ${colors.focus} !important; outline-offset: 2px; }
+@media print {
+  html, body, #root { background: #fff !important; height: auto !important; overflow: visible !important; }
+  [data-print="hide"] { display: none !important; }
+}
+`;

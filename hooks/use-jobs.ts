@@ -1,0 +1,51 @@
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+
+import type { Job, JobCreate, JobPatch } from '@/shared/jobs';
+
+import { api, staleTimes } from './api';
+
+export const jobKeys = {
+  all: ['jobs'] as const,
+  list: () => [...jobKeys.all, 'list'] as const,
+  detail: (id: string) => [...jobKeys.all, 'detail', id] as const,
+};
+
+export function useJobsQuery(enabled = true) {
+  return useQuery({
+    queryKey: jobKeys.list(),
+    staleTime: staleTimes.list,
+    enabled,
+    queryFn: async () => (await api<{ jobs: Job[] }>('/api/jobs')).jobs,
+  });
+}
+
+export function useJobQuery(id: string) {
+  return useQuery({
+    queryKey: jobKeys.detail(id),
+    staleTime: staleTimes.record,
+    queryFn: async () => (await api<{ job: Job }>(`/api/jobs/${encodeURIComponent(id)}`)).job,
+  });
+}
+
+export function useCreateJobMutation() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: async (body: JobCreate) => (await api<{ job: Job }>('/api/jobs', { method: 'POST', body })).job,
+    onSuccess: (job) => {
+      queryClient.setQueryData(jobKeys.detail(job.id), job);
+      return queryClient.invalidateQueries({ queryKey: jobKeys.list() });
+    },
+  });
+}
+
+export function useSaveJobMutation(id: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: async (body: JobPatch) =>
+      (await api<{ job: Job }>(`/api/jobs/${encodeURIComponent(id)}`, { method: 'PATCH', body })).job,
+    onSuccess: (job) => {
+      queryClient.setQueryData(jobKeys.detail(job.id), job);
+      return queryClient.invalidateQueries({ queryKey: jobKeys.list() });
+    },
+  });
+}

@@ -1,0 +1,83 @@
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+
+import type { Me, ShopCreate } from '@/shared/me';
+
+import { api, ApiError, staleTimes } from './api';
+
+export const meKeys = { all: ['me'] as const };
+
+/** The signed-in person, or null when nobody is signed in. */
+export function useMeQuery() {
+  return useQuery({
+    queryKey: meKeys.all,
+    staleTime: staleTimes.session,
+    retry: false,
+    queryFn: async (): Promise<Me | null> => {
+      try {
+        return await api<Me>('/api/me');
+      } catch (error) {
+        if (error instanceof ApiError && error.status === 401) return null;
+        throw error;
+      }
+    },
+  });
+}
+
+/** Forgets every cached record, so nothing of one person or shop shows to the next. */
+function useResetAll() {
+  const queryClient = useQueryClient();
+  return async () => {
+    queryClient.removeQueries({ predicate: (q) => q.queryKey[0] !== meKeys.all[0] });
+    await queryClient.invalidateQueries({ queryKey: meKeys.all });
+  };
+}
+
+export function useSignInMutation() {
+  const reset = useResetAll();
+  return useMutation({
+    mutationFn: (body: { email: string; password: string }) =>
+      api('/api/auth/sign-in/email', { method: 'POST', body }),
+    onSuccess: reset,
+  });
+}
+
+export function useSignUpMutation() {
+  const reset = useResetAll();
+  return useMutation({
+    mutationFn: async (body: { name: string; email: string; password: string; shop: ShopCreate }) => {
+      await api('/api/auth/sign-up/email', {
+        method: 'POST',
+        body: { name: body.name, email: body.email, password: body.password },
+      });
+      return api<Me>('/api/shops', { method: 'POST', body: body.shop });
+    },
+    onSuccess: reset,
+  });
+}
+
+export function useSignOutMutation() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: () => api('/api/auth/sign-out', { method: 'POST', body: {} }),
+    onSuccess: () => {
+      queryClient.clear();
+      queryClient.setQueryData(meKeys.all, null);
+    },
+  });
+}
+
+export function useCreateShopMutation() {
+  const reset = useResetAll();
+  return useMutation({
+    mutationFn: (body: ShopCreate) => api<Me>('/api/shops', { method: 'POST', body }),
+    onSuccess: reset,
+  });
+}
+
+export function useSwitchShopMutation() {
+  const reset = useResetAll();
+  return useMutation({
+    mutationFn: (shopId: string) => api<Me>('/api/me/active-shop', { method: 'POST', body: { shopId } }),
+    onSuccess: reset,
+  });
+}
