@@ -1,0 +1,84 @@
+import { describe, expect, it } from 'vitest';
+import { checkMaximum, checkMinimum, checkRange, DEFAULT_CHECK_LIMITS, resolveCheckLimits, SHOP_SOURCE, worstStatus } from './checks';
+import { CalcInputError } from './errors';
+
+const base = { id: 'coilBind' as const, subject: 'intake', unit: 'in', what: 'Coil-bind margin at max lift' };
+
+describe('default limits', () => {
+  it('carry the trade rules of thumb, marked as having no source', () => {
+    // Common practice, no source: coil-bind margin ≥ 0.060 in, retainer-to-seal ≥ 0.050 in,
+    // PTV ≥ 0.080 in intake and ≥ 0.100 in exhaust, hydraulic preload 0.020–0.060 in.
+    expect(DEFAULT_CHECK_LIMITS.coilBind.min).toBe(0.06);
+    expect(DEFAULT_CHECK_LIMITS.retainerToSeal.min).toBe(0.05);
+    expect(DEFAULT_CHECK_LIMITS.ptvIntake.min).toBe(0.08);
+    expect(DEFAULT_CHECK_LIMITS.ptvExhaust.min).toBe(0.1);
+    expect(DEFAULT_CHECK_LIMITS.hydraulicPreload.min).toBe(0.02);
+    expect(DEFAULT_CHECK_LIMITS.hydraulicPreload.max).toBe(0.06);
+    for (const rule of Object.values(DEFAULT_CHECK_LIMITS)) expect(rule.source).toMatch(/common practice, no source/);
+  });
+});
+
+describe('checkMinimum', () => {
+  it('passes, watches and fails around the limit', () => {
+    const rule = DEFAULT_CHECK_LIMITS.coilBind;
+    const pass = checkMinimum({ ...base, value: 0.15 }, rule);
+    expect(pass.status).toBe('pass');
+    expect(pass.margin).toBeCloseTo(0.09, 12);
+    expect(pass.limit).toBe(0.06);
+    expect(pass.rule).toContain('0.060 in');
+    expect(pass.source).toBe('common practice, no source');
+    expect(checkMinimum({ ...base, value: 0.07 }, rule).status).toBe('watch');
+    expect(checkMinimum({ ...base, value: 0.06 }, rule).status).toBe('watch');
+    const fail = checkMinimum({ ...base, value: 0.04 }, rule);
+    expect(fail.status).toBe('fail');
+    expect(fail.margin).toBeCloseTo(-0.02, 12);
+  });
+});
+
+describe('checkMaximum and checkRange', () => {
+  it('measures margins in the safe direction', () => {
+    const dyn = checkMaximum({ id: 'dynamicCompression', subject: 'engine', unit: ':1', what: 'Dynamic compression', value: 8.0 }, DEFAULT_CHECK_LIMITS.dynamicCompression);
+    expect(dyn.status).toBe('pass');
+    expect(dyn.margin).toBeCloseTo(0.5, 12);
+    expect(checkMaximum({ id: 'dynamicCompression', subject: 'engine', unit: ':1', what: 'x', value: 8.4 }, DEFAULT_CHECK_LIMITS.dynamicCompression).status).toBe('watch');
+    expect(checkMaximum({ id: 'dynamicCompression', subject: 'engine', unit: ':1', what: 'x', value: 8.9 }, DEFAULT_CHECK_LIMITS.dynamicCompression).status).toBe('fail');
+    const pre = { id: 'hydraulicPreload' as const, subject: 'intake', unit: 'in', what: 'Lifter preload' };
+    const mid = checkRange({ ...pre, value: 0.04 }, DEFAULT_CHECK_LIMITS.hydraulicPreload);
+    expect(mid.status).toBe('pass');
+    expect(mid.margin).toBeCloseTo(0.02, 12);
+    const low = checkRange({ ...pre, value: 0.022 }, DEFAULT_CHECK_LIMITS.hydraulicPreload);
+    expect(low.status).toBe('watch');
+    expect(low.limit).toBe(0.02);
+    const high = checkRange({ ...pre, value: 0.07 }, DEFAULT_CHECK_LIMITS.hydraulicPreload);
+    expect(high.status).toBe('fail');
+    expect(high.limit).toBe(0.06);
+    expect(high.margin).toBeCloseTo(-0.01, 12);
+  });
+
+  it('rejects a non-finite value', () => {
+    expect(() => checkMinimum({ ...base, value: Number.NaN }, DEFAULT_CHECK_LIMITS.coilBind)).toThrow(CalcInputError);
+  });
+});
+
+describe('resolveCheckLimits', () => {
+  it('merges a shop override and marks it as the shop setting', () => {
+    const limits = resolveCheckLimits({ ptvIntake: { min: 0.1 }, coilBind: { watchBand: 0.03, source: 'our spring supplier sheet' } });
+    expect(limits.ptvIntake).toEqual({ min: 0.1, watchBand: 0.02, source: SHOP_SOURCE });
+    expect(limits.coilBind.source).toBe('our spring supplier sheet');
+    expect(limits.ptvExhaust).toEqual(DEFAULT_CHECK_LIMITS.ptvExhaust);
+  });
+
+  it('rejects bad overrides naming the field', () => {
+    expect(() => resolveCheckLimits({ ptvIntake: { min: Number.NaN } })).toThrow(/limits.ptvIntake.min/);
+    expect(() => resolveCheckLimits({ coilBind: { watchBand: -1 } })).toThrow(/limits.coilBind.watchBand/);
+    expect(() => resolveCheckLimits({ hydraulicPreload: { min: 0.08 } })).toThrow(/limits.hydraulicPreload.max/);
+  });
+});
+
+describe('worstStatus', () => {
+  it('takes fail over watch over pass', () => {
+    expect(worstStatus([])).toBe('pass');
+    expect(worstStatus([{ status: 'pass' }, { status: 'watch' }])).toBe('watch');
+    expect(worstStatus([{ status: 'watch' }, { status: 'fail' }, { status: 'pass' }])).toBe('fail');
+  });
+});

@@ -1,0 +1,228 @@
+/**
+ * Check rules: each fit check compares a computed value with a limit and
+ * returns pass / watch / fail, the margin, the limit and the rule's source.
+ * Defaults are trade rules of thumb; a shop can override any of them.
+ */
+import { CalcInputError, requireFinite, requireNonNegative } from './errors';
+
+export type CheckStatus = 'pass' | 'watch' | 'fail';
+
+export type CheckId =
+  | 'coilBind'
+  | 'retainerToSeal'
+  | 'ptvIntake'
+  | 'ptvExhaust'
+  | 'hydraulicPreload'
+  | 'dynamicCompression'
+  | 'degreeing'
+  | 'wornLobe';
+
+/** Value must be at least `min`; within `watchBand` above it is "watch". */
+export interface MinimumRule {
+  min: number;
+  watchBand: number;
+  source: string;
+}
+
+/** Value must be at most `max`; within `watchBand` below it is "watch". */
+export interface MaximumRule {
+  max: number;
+  watchBand: number;
+  source: string;
+}
+
+/** Value must lie in [min, max]; within `watchBand` of either end is "watch". */
+export interface RangeRule {
+  min: number;
+  max: number;
+  watchBand: number;
+  source: string;
+}
+
+export interface CheckLimits {
+  /** Coil-bind margin at max lift, inches. */
+  coilBind: MinimumRule;
+  /** Retainer-to-seal clearance at max lift, inches. */
+  retainerToSeal: MinimumRule;
+  /** Intake piston-to-valve clearance, inches. */
+  ptvIntake: MinimumRule;
+  /** Exhaust piston-to-valve clearance, inches. */
+  ptvExhaust: MinimumRule;
+  /** Hydraulic lifter preload, inches of plunger travel. */
+  hydraulicPreload: RangeRule;
+  /** Dynamic compression ratio for pump fuel. */
+  dynamicCompression: MaximumRule;
+  /** Degreed-in ICL difference from the sheet, crank degrees (absolute). */
+  degreeing: MaximumRule;
+  /** Worn lobe: max lift below the median of its siblings, inches. */
+  wornLobe: MaximumRule;
+}
+
+/** A shop's own limits: any subset of any rule. */
+export type CheckLimitOverrides = { [K in keyof CheckLimits]?: Partial<CheckLimits[K]> };
+
+const COMMON = 'common practice, no source';
+
+/** Lobewright's default limits. All are trade rules of thumb. */
+export const DEFAULT_CHECK_LIMITS: Readonly<CheckLimits> = Object.freeze({
+  coilBind: { min: 0.06, watchBand: 0.02, source: COMMON },
+  retainerToSeal: { min: 0.05, watchBand: 0.02, source: COMMON },
+  ptvIntake: { min: 0.08, watchBand: 0.02, source: COMMON },
+  ptvExhaust: { min: 0.1, watchBand: 0.02, source: COMMON },
+  hydraulicPreload: { min: 0.02, max: 0.06, watchBand: 0.005, source: `${COMMON}; follow the lifter maker's range where given` },
+  dynamicCompression: { max: 8.5, watchBand: 0.3, source: `${COMMON}; pump gasoline, iron heads` },
+  degreeing: { max: 2, watchBand: 1, source: COMMON },
+  wornLobe: { max: 0.005, watchBand: 0.002, source: COMMON },
+});
+
+/** Where a rule's number came from when a shop changed it. */
+export const SHOP_SOURCE = 'shop setting';
+
+const KIND: Record<keyof CheckLimits, 'min' | 'max' | 'range'> = {
+  coilBind: 'min',
+  retainerToSeal: 'min',
+  ptvIntake: 'min',
+  ptvExhaust: 'min',
+  hydraulicPreload: 'range',
+  dynamicCompression: 'max',
+  degreeing: 'max',
+  wornLobe: 'max',
+};
+
+/**
+ * Merge a shop's overrides into the defaults and validate them. A rule whose
+ * numbers the shop changed takes the source "shop setting" unless the shop
+ * names one.
+ */
+export function resolveCheckLimits(overrides?: CheckLimitOverrides): CheckLimits {
+  const out = {} as Record<keyof CheckLimits, MinimumRule | MaximumRule | RangeRule>;
+  for (const key of Object.keys(DEFAULT_CHECK_LIMITS) as (keyof CheckLimits)[]) {
+    const base = DEFAULT_CHECK_LIMITS[key];
+    const patch: Record<string, unknown> = { ...(overrides?.[key] ?? {}) };
+    const changed = ['min', 'max', 'watchBand'].some((f) => f in patch && patch[f] !== undefined);
+    const merged: Record<string, unknown> = { ...base };
+    for (const [f, v] of Object.entries(patch)) if (v !== undefined) merged[f] = v;
+    if (changed && typeof patch.source !== 'string') merged.source = SHOP_SOURCE;
+    const field = `limits.${key}`;
+    const watchBand = requireNonNegative(`${field}.watchBand`, merged.watchBand);
+    const source = typeof merged.source === 'string' && merged.source.trim() ? merged.source : SHOP_SOURCE;
+    const kind = KIND[key];
+    if (kind === 'min') {
+      out[key] = { min: requireFinite(`${field}.min`, merged.min), watchBand, source };
+    } else if (kind === 'max') {
+      out[key] = { max: requireFinite(`${field}.max`, merged.max), watchBand, source };
+    } else {
+      const min = requireFinite(`${field}.min`, merged.min);
+      const max = requireFinite(`${field}.max`, merged.max);
+      if (!(max > min)) throw new CalcInputError(`${field}.max`, `must be greater than min (${min})`, max);
+      out[key] = { min, max, watchBand, source };
+    }
+  }
+  return out as unknown as CheckLimits;
+}
+
+export interface CheckResult {
+  id: CheckId;
+  /** Which valve or lobe the check is about, e.g. "intake", "exhaust", "3E". */
+  subject: string;
+  status: CheckStatus;
+  /** The computed value checked. */
+  value: number;
+  /** Distance to the limit in the safe direction; negative = past the limit. */
+  margin: number;
+  /** The limit the margin is measured from. */
+  limit: number;
+  /** Unit of value, margin and limit. */
+  unit: string;
+  /** The rule in words, with its numbers. */
+  rule: string;
+  /** Where the rule comes from. */
+  source: string;
+}
+
+export interface SkippedCheck {
+  id: CheckId;
+  subject: string;
+  /** Why the check did not run, e.g. "not measured". */
+  note: string;
+}
+
+interface CheckBase {
+  id: CheckId;
+  subject: string;
+  value: number;
+  unit: string;
+  /** What is being checked, e.g. "Coil-bind margin at max lift". */
+  what: string;
+}
+
+function fmt(v: number, unit: string): string {
+  const digits = unit === 'in' ? 3 : unit === ':1' ? 1 : 1;
+  return unit === ':1' ? `${v.toFixed(digits)}:1` : `${v.toFixed(digits)} ${unit}`;
+}
+
+/** A value that must be at least the rule's minimum. */
+export function checkMinimum(base: CheckBase, rule: MinimumRule): CheckResult {
+  const value = requireFinite('value', base.value);
+  const margin = value - rule.min;
+  const status: CheckStatus = margin < 0 ? 'fail' : margin < rule.watchBand ? 'watch' : 'pass';
+  return {
+    id: base.id,
+    subject: base.subject,
+    status,
+    value,
+    margin,
+    limit: rule.min,
+    unit: base.unit,
+    rule: `${base.what} at least ${fmt(rule.min, base.unit)}; watch under ${fmt(rule.min + rule.watchBand, base.unit)}`,
+    source: rule.source,
+  };
+}
+
+/** A value that must be at most the rule's maximum. */
+export function checkMaximum(base: CheckBase, rule: MaximumRule): CheckResult {
+  const value = requireFinite('value', base.value);
+  const margin = rule.max - value;
+  const status: CheckStatus = margin < 0 ? 'fail' : margin < rule.watchBand ? 'watch' : 'pass';
+  return {
+    id: base.id,
+    subject: base.subject,
+    status,
+    value,
+    margin,
+    limit: rule.max,
+    unit: base.unit,
+    rule: `${base.what} at most ${fmt(rule.max, base.unit)}; watch over ${fmt(rule.max - rule.watchBand, base.unit)}`,
+    source: rule.source,
+  };
+}
+
+/** A value that must lie inside the rule's range. */
+export function checkRange(base: CheckBase, rule: RangeRule): CheckResult {
+  const value = requireFinite('value', base.value);
+  const low = value - rule.min;
+  const high = rule.max - value;
+  const margin = Math.min(low, high);
+  const status: CheckStatus = margin < 0 ? 'fail' : margin < rule.watchBand ? 'watch' : 'pass';
+  return {
+    id: base.id,
+    subject: base.subject,
+    status,
+    value,
+    margin,
+    limit: low <= high ? rule.min : rule.max,
+    unit: base.unit,
+    rule: `${base.what} between ${fmt(rule.min, base.unit)} and ${fmt(rule.max, base.unit)}; watch within ${fmt(rule.watchBand, base.unit)} of either end`,
+    source: rule.source,
+  };
+}
+
+/** The worst status in a list: fail over watch over pass. */
+export function worstStatus(results: readonly { status: CheckStatus }[]): CheckStatus {
+  let worst: CheckStatus = 'pass';
+  for (const r of results) {
+    if (r.status === 'fail') return 'fail';
+    if (r.status === 'watch') worst = 'watch';
+  }
+  return worst;
+}
