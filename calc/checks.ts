@@ -63,6 +63,13 @@ export type CheckLimitOverrides = { [K in keyof CheckLimits]?: Partial<CheckLimi
 
 const COMMON = 'common practice, no source';
 
+/** Margins within this of a boundary count as on it (inputs carry 0.001 in at best). */
+const EPSILON = 1e-9;
+
+function statusFor(margin: number, watchBand: number): CheckStatus {
+  return margin < -EPSILON ? 'fail' : margin < watchBand - EPSILON ? 'watch' : 'pass';
+}
+
 /** Lobewright's default limits. All are trade rules of thumb. */
 export const DEFAULT_CHECK_LIMITS: Readonly<CheckLimits> = Object.freeze({
   coilBind: { min: 0.06, watchBand: 0.02, source: COMMON },
@@ -95,6 +102,7 @@ const KIND: Record<keyof CheckLimits, 'min' | 'max' | 'range'> = {
  * names one.
  */
 export function resolveCheckLimits(overrides?: CheckLimitOverrides): CheckLimits {
+  if (overrides === undefined || overrides === null) return DEFAULT_CHECK_LIMITS;
   const out = {} as Record<keyof CheckLimits, MinimumRule | MaximumRule | RangeRule>;
   for (const key of Object.keys(DEFAULT_CHECK_LIMITS) as (keyof CheckLimits)[]) {
     const base = DEFAULT_CHECK_LIMITS[key];
@@ -156,6 +164,23 @@ interface CheckBase {
   what: string;
 }
 
+const ruleTextCache = new WeakMap<object, Map<string, string>>();
+
+/** Rule wording depends only on the rule and what is checked: build it once per pair. */
+function ruleText(rule: object, key: string, build: () => string): string {
+  let byKey = ruleTextCache.get(rule);
+  if (!byKey) {
+    byKey = new Map();
+    ruleTextCache.set(rule, byKey);
+  }
+  let text = byKey.get(key);
+  if (text === undefined) {
+    text = build();
+    byKey.set(key, text);
+  }
+  return text;
+}
+
 function fmt(v: number, unit: string): string {
   const digits = unit === 'in' ? 3 : unit === ':1' ? 1 : 1;
   return unit === ':1' ? `${v.toFixed(digits)}:1` : `${v.toFixed(digits)} ${unit}`;
@@ -165,7 +190,7 @@ function fmt(v: number, unit: string): string {
 export function checkMinimum(base: CheckBase, rule: MinimumRule): CheckResult {
   const value = requireFinite('value', base.value);
   const margin = value - rule.min;
-  const status: CheckStatus = margin < 0 ? 'fail' : margin < rule.watchBand ? 'watch' : 'pass';
+  const status = statusFor(margin, rule.watchBand);
   return {
     id: base.id,
     subject: base.subject,
@@ -174,7 +199,7 @@ export function checkMinimum(base: CheckBase, rule: MinimumRule): CheckResult {
     margin,
     limit: rule.min,
     unit: base.unit,
-    rule: `${base.what} at least ${fmt(rule.min, base.unit)}; watch under ${fmt(rule.min + rule.watchBand, base.unit)}`,
+    rule: ruleText(rule, base.what + base.unit, () => `${base.what} at least ${fmt(rule.min, base.unit)}; watch under ${fmt(rule.min + rule.watchBand, base.unit)}`),
     source: rule.source,
   };
 }
@@ -183,7 +208,7 @@ export function checkMinimum(base: CheckBase, rule: MinimumRule): CheckResult {
 export function checkMaximum(base: CheckBase, rule: MaximumRule): CheckResult {
   const value = requireFinite('value', base.value);
   const margin = rule.max - value;
-  const status: CheckStatus = margin < 0 ? 'fail' : margin < rule.watchBand ? 'watch' : 'pass';
+  const status = statusFor(margin, rule.watchBand);
   return {
     id: base.id,
     subject: base.subject,
@@ -192,7 +217,7 @@ export function checkMaximum(base: CheckBase, rule: MaximumRule): CheckResult {
     margin,
     limit: rule.max,
     unit: base.unit,
-    rule: `${base.what} at most ${fmt(rule.max, base.unit)}; watch over ${fmt(rule.max - rule.watchBand, base.unit)}`,
+    rule: ruleText(rule, base.what + base.unit, () => `${base.what} at most ${fmt(rule.max, base.unit)}; watch over ${fmt(rule.max - rule.watchBand, base.unit)}`),
     source: rule.source,
   };
 }
@@ -203,7 +228,7 @@ export function checkRange(base: CheckBase, rule: RangeRule): CheckResult {
   const low = value - rule.min;
   const high = rule.max - value;
   const margin = Math.min(low, high);
-  const status: CheckStatus = margin < 0 ? 'fail' : margin < rule.watchBand ? 'watch' : 'pass';
+  const status = statusFor(margin, rule.watchBand);
   return {
     id: base.id,
     subject: base.subject,
@@ -212,7 +237,11 @@ export function checkRange(base: CheckBase, rule: RangeRule): CheckResult {
     margin,
     limit: low <= high ? rule.min : rule.max,
     unit: base.unit,
-    rule: `${base.what} between ${fmt(rule.min, base.unit)} and ${fmt(rule.max, base.unit)}; watch within ${fmt(rule.watchBand, base.unit)} of either end`,
+    rule: ruleText(
+      rule,
+      base.what + base.unit,
+      () => `${base.what} between ${fmt(rule.min, base.unit)} and ${fmt(rule.max, base.unit)}; watch within ${fmt(rule.watchBand, base.unit)} of either end`,
+    ),
     source: rule.source,
   };
 }

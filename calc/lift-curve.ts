@@ -31,7 +31,7 @@
 import { CHECKING_HEIGHT_050 } from './constants';
 import { CalcInputError, fieldPath, requireFinite, requireInRange, requireInteger, requireNonNegative, requirePositive } from './errors';
 import { requireDuration } from './events';
-import { lawA, lawInverseRaw, lawS, lawV, requireMotionLaw, type MotionLawName } from './motion';
+import { LAW_EVALUATORS, lawInverseRaw, requireMotionLaw, type LawEvaluator, type MotionLawName } from './motion';
 
 /**
  * Longest ramp the fit may use, crank degrees from the advertised point to zero
@@ -166,47 +166,64 @@ export interface LobePoint {
   acceleration: number;
 }
 
-const scratch: LobePoint = { lift: 0, velocity: 0, acceleration: 0 };
 
 /** Unchecked: evaluate a shape at `offset` crank degrees from its centre into `out`. */
 export function evalLobeInto(shape: LobeShape, offset: number, out: LobePoint): LobePoint {
-  const phi = shape.halfEvent;
-  const u = offset < 0 ? -offset : offset;
-  if (u >= phi) {
-    out.lift = 0;
-    out.velocity = 0;
-    out.acceleration = 0;
-    return out;
-  }
-  const tau = 1 - u / phi;
-  const k = shape.warpScale;
-  const q = shape.warpExponent;
+  return evalLobeWith(LAW_EVALUATORS[shape.law], shape, offset, out);
+}
+
+// Scratch for the kernel (typed arrays keep doubles unboxed: no allocation in hot loops).
+const LAW = new Float64Array(3);
+const KERNEL = new Float64Array(3);
+
+/**
+ * Kernel: tappet lift, velocity (closing flank) and acceleration at
+ * |offset| = u < halfEvent, left in KERNEL[0], KERNEL[1], KERNEL[2].
+ */
+function lobeKernel(law: LawEvaluator, lobeLift: number, invPhi: number, k: number, q: number, u: number): void {
+  const tau = 1 - u * invPhi;
   let w: number;
   let w1: number;
   let w2: number;
   if (q === 1) {
-    const den = k + (1 - k) * tau;
-    w = tau / den;
-    w1 = k / (den * den);
-    w2 = (-2 * k * (1 - k)) / (den * den * den);
+    const id = 1 / (k + (1 - k) * tau);
+    w = tau * id;
+    w1 = k * id * id;
+    w2 = -2 * k * (1 - k) * id * id * id;
   } else {
     const n = Math.pow(tau, q);
     const n1 = (q * n) / tau;
     const n2 = ((q - 1) * n1) / tau;
     const dn = n + k * (1 - tau);
+    const idn = 1 / dn;
     const uu = n1 * (1 - tau) + n;
     const u1 = n2 * (1 - tau);
-    w = n / dn;
-    w1 = (k * uu) / (dn * dn);
-    w2 = (k * (u1 * dn - 2 * uu * (n1 - k))) / (dn * dn * dn);
+    w = n * idn;
+    w1 = k * uu * idn * idn;
+    w2 = k * (u1 * dn - 2 * uu * (n1 - k)) * idn * idn * idn;
   }
-  const law = shape.law;
-  const L = shape.lobeLift;
-  const v = lawV(law, w);
-  out.lift = L * lawS(law, w);
-  const vel = (L * v * w1) / phi;
-  out.velocity = offset > 0 ? -vel : offset < 0 ? vel : 0;
-  out.acceleration = (L * (lawA(law, w) * w1 * w1 + v * w2)) / (phi * phi);
+  law(w, LAW);
+  const s = LAW[0] ?? 0;
+  const v = LAW[1] ?? 0;
+  const a = LAW[2] ?? 0;
+  KERNEL[0] = lobeLift * s;
+  KERNEL[1] = -lobeLift * v * w1 * invPhi;
+  KERNEL[2] = lobeLift * (a * w1 * w1 + v * w2) * invPhi * invPhi;
+}
+
+function evalLobeWith(law: LawEvaluator, shape: LobeShape, offset: number, out: LobePoint): LobePoint {
+  const u = offset < 0 ? -offset : offset;
+  if (u >= shape.halfEvent) {
+    out.lift = 0;
+    out.velocity = 0;
+    out.acceleration = 0;
+    return out;
+  }
+  lobeKernel(law, shape.lobeLift, 1 / shape.halfEvent, shape.warpScale, shape.warpExponent, u);
+  const vel = KERNEL[1] ?? 0;
+  out.lift = KERNEL[0] ?? 0;
+  out.velocity = offset > 0 ? vel : offset < 0 ? -vel : 0;
+  out.acceleration = KERNEL[2] ?? 0;
   return out;
 }
 
@@ -239,6 +256,12 @@ export interface LiftCurve extends CurveGrid {
   centerline: number;
   /** Maximum valve lift, inches (lobe lift × rocker ratio − lash). */
   maxLift: number;
+  /** Largest valve speed, inches per crank degree. */
+  peakVelocity: number;
+  /** Largest positive (opening-flank) acceleration, inches per crank degree². */
+  peakAcceleration: number;
+  /** Most negative (nose) acceleration, inches per crank degree² (≤ 0). */
+  peakDeceleration: number;
 }
 
 export interface CurveBuffers {
@@ -273,18 +296,60 @@ export function sampleValveCurveRaw(
     velocity.fill(0, 0, lo);
     acceleration.fill(0, 0, lo);
   }
-  const p = scratch;
-  for (let i = lo; i <= hi; i++) {
-    evalLobeInto(shape, start + i * step - centerline, p);
-    const valve = rockerRatio * p.lift - lash;
-    if (valve > 0) {
-      lift[i] = valve;
-      velocity[i] = rockerRatio * p.velocity;
-      acceleration[i] = rockerRatio * p.acceleration;
+  const law = LAW_EVALUATORS[shape.law];
+  const L = shape.lobeLift;
+  const phi = shape.halfEvent;
+  const invPhi = 1 / phi;
+  const k = shape.warpScale;
+  const q = shape.warpExponent;
+  let peakVelocity = 0;
+  let peakAcceleration = 0;
+  let peakDeceleration = 0;
+  // The lobe is symmetric: when the centre sits on a grid point, evaluate one
+  // flank and mirror it (velocity changes sign).
+  const centreIndex = (centerline - start) / step;
+  const ic = Math.round(centreIndex);
+  const mirrored = Math.abs(centreIndex - ic) < 1e-9 && ic >= lo && ic <= hi;
+  const reach = mirrored ? Math.max(ic - lo, hi - ic) : hi - lo;
+  for (let j = 0; j <= reach; j++) {
+    const offset = mirrored ? j * step : start + (lo + j) * step - centerline;
+    const u = offset < 0 ? -offset : offset;
+    let valve = 0;
+    let vel = 0;
+    let acc = 0;
+    if (u < phi) {
+      lobeKernel(law, L, invPhi, k, q, u);
+      valve = rockerRatio * (KERNEL[0] ?? 0) - lash;
+      if (valve > 0) {
+        const kv = KERNEL[1] ?? 0;
+        vel = rockerRatio * (offset < 0 ? -kv : kv);
+        acc = rockerRatio * (KERNEL[2] ?? 0);
+        if (acc > peakAcceleration) peakAcceleration = acc;
+        if (acc < peakDeceleration) peakDeceleration = acc;
+        const speed = vel < 0 ? -vel : vel;
+        if (speed > peakVelocity) peakVelocity = speed;
+      } else {
+        valve = 0;
+      }
+    }
+    if (mirrored) {
+      const a = ic + j;
+      const b = ic - j;
+      if (a <= hi) {
+        lift[a] = valve;
+        velocity[a] = vel;
+        acceleration[a] = acc;
+      }
+      if (j > 0 && b >= lo) {
+        lift[b] = valve;
+        velocity[b] = -vel;
+        acceleration[b] = acc;
+      }
     } else {
-      lift[i] = 0;
-      velocity[i] = 0;
-      acceleration[i] = 0;
+      const i = lo + j;
+      lift[i] = valve;
+      velocity[i] = vel;
+      acceleration[i] = acc;
     }
   }
   const from = Math.max(hi + 1, lo);
@@ -302,6 +367,9 @@ export function sampleValveCurveRaw(
     acceleration,
     centerline,
     maxLift: rockerRatio * shape.lobeLift - lash,
+    peakVelocity,
+    peakAcceleration,
+    peakDeceleration,
   };
 }
 

@@ -185,9 +185,28 @@ export function liftCurveFromTable(input: { points: readonly LiftReading[]; grid
     velocity[i] = (up - dn) / (2 * step);
     acceleration[i] = (up - 2 * (lift[i] ?? 0) + dn) / (step * step);
   }
-  const peak = peakIndex(table);
-  const top = at(table, peak);
-  return { start, step, count, lift, velocity, acceleration, centerline: top.angle, maxLift: Math.max(0, top.lift * ratio - lash) };
+  let peakVelocity = 0;
+  let peakAcceleration = 0;
+  let peakDeceleration = 0;
+  for (let i = 0; i < count; i++) {
+    peakVelocity = Math.max(peakVelocity, Math.abs(velocity[i] ?? 0));
+    peakAcceleration = Math.max(peakAcceleration, acceleration[i] ?? 0);
+    peakDeceleration = Math.min(peakDeceleration, acceleration[i] ?? 0);
+  }
+  const top = at(table, peakIndex(table));
+  return {
+    start,
+    step,
+    count,
+    lift,
+    velocity,
+    acceleration,
+    centerline: top.angle,
+    maxLift: Math.max(0, top.lift * ratio - lash),
+    peakVelocity,
+    peakAcceleration,
+    peakDeceleration,
+  };
 }
 
 export interface LobeMaxLift {

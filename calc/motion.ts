@@ -133,3 +133,33 @@ export function motionLawInverse(law: MotionLawName, s: number): number {
   const name = requireMotionLaw('law', law);
   return lawInverseRaw(name, requireInRange('s', s, { min: 0, max: 1 }));
 }
+
+/**
+ * Evaluates s, v and a together into out[0], out[1], out[2]; for hot loops
+ * (no checks, no allocation: a Float64Array keeps the doubles unboxed).
+ */
+export type LawEvaluator = (x: number, out: Float64Array) => void;
+
+/** One evaluator per law, resolved once so hot loops make a direct call. */
+export const LAW_EVALUATORS: Readonly<Record<MotionLawName, LawEvaluator>> = Object.freeze({
+  cycloidal(x: number, out: Float64Array): void {
+    const u = TWO_PI * x;
+    const sn = Math.sin(u);
+    out[0] = u < 0.1 ? cycloidalRise(x) : x - sn / TWO_PI;
+    out[1] = 1 - Math.cos(u);
+    out[2] = TWO_PI * sn;
+  },
+  poly345(x: number, out: Float64Array): void {
+    const u = x * (1 - x);
+    out[0] = clampUnit(x * x * x * (10 + x * (-15 + 6 * x)));
+    out[1] = 30 * u * u;
+    out[2] = x * (60 + x * (-180 + 120 * x));
+  },
+  poly4567(x: number, out: Float64Array): void {
+    const x2 = x * x;
+    const u = x * (1 - x);
+    out[0] = clampUnit(x2 * x2 * (35 + x * (-84 + x * (70 - 20 * x))));
+    out[1] = 140 * u * u * u;
+    out[2] = x2 * (420 + x * (-1680 + x * (2100 - 840 * x)));
+  },
+});

@@ -42,6 +42,7 @@ const textColor: Record<Variant, string> = {
 
 const styles = StyleSheet.create({
   base: {
+    alignSelf: 'flex-start',
     minHeight: touchTarget,
     paddingHorizontal: space.lg,
     borderRadius: radius.md,

@@ -80,7 +80,7 @@ const styles = StyleSheet.create({
     borderRadius: radius.md,
   },
   active: { backgroundColor: colors.accentSoft },
-  glyph: { fontFamily: fonts.monoBold, fontSize: 16, color: colors.inkMuted, width: 20, textAlign: 'center' },
+  glyph: { fontFamily: fonts.monoBold, fontSize: 20, color: colors.inkMuted, width: 20, textAlign: 'center' },
   barLabel: { fontFamily: fonts.medium, fontSize: 13, color: colors.inkMuted },
   railLabel: { fontFamily: fonts.medium, fontSize: 16, color: colors.ink },
   activeText: { color: colors.accent, fontFamily: fonts.semibold },

@@ -1,3 +1,4 @@
+import { Link, type Href } from 'expo-router';
 import type { ReactNode } from 'react';
 import { ScrollView, StyleSheet, Text, View } from 'react-native';
 
@@ -9,15 +10,22 @@ type ScreenProps = {
   subtitle?: string;
   /** Controls at the right of the title (or under it on a phone). */
   actions?: ReactNode;
+  /** A link back up, for example to the list this record is in. */
+  back?: { href: Href; label: string };
   children: ReactNode;
   testID?: string;
 };
 
 /** A scrolling page with a heading, capped in width so lines stay readable on a wide screen. */
-export function Screen({ title, subtitle, actions, children, testID }: ScreenProps) {
+export function Screen({ title, subtitle, actions, back, children, testID }: ScreenProps) {
   return (
     <ScrollView style={styles.scroll} contentContainerStyle={styles.content} testID={testID}>
       <View style={styles.page}>
+        {back ? (
+          <Link href={back.href} style={styles.back} testID="back-link" data-print="hide">
+            ← {back.label}
+          </Link>
+        ) : null}
         <View style={styles.header}>
           <View style={styles.titles}>
             <Text role="heading" aria-level={1} style={styles.title}>
@@ -52,6 +60,7 @@ const styles = StyleSheet.create({
   header: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'flex-end', gap: space.md },
   titles: { flexGrow: 1, flexShrink: 1, minWidth: 220, gap: space.xs },
   title: { ...typeScale.display, color: colors.ink },
+  back: { ...typeScale.label, color: colors.accent, alignSelf: 'flex-start', paddingVertical: space.xs, textDecorationLine: 'underline' },
   subtitle: { ...typeScale.body, color: colors.inkMuted },
   actions: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
   section: {

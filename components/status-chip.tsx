@@ -11,6 +11,7 @@ export function StatusChip({ status }: { status: JobStatus }) {
 const styles = StyleSheet.create({
   chip: {
     alignSelf: 'flex-start',
+    flexShrink: 0,
     fontFamily: fonts.semibold,
     fontSize: 13,
     color: colors.accent,

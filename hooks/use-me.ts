@@ -60,8 +60,8 @@ export function useSignOutMutation() {
   return useMutation({
     mutationFn: () => api('/api/auth/sign-out', { method: 'POST', body: {} }),
     onSuccess: () => {
-      queryClient.clear();
       queryClient.setQueryData(meKeys.all, null);
+      queryClient.removeQueries({ predicate: (q) => q.queryKey[0] !== meKeys.all[0] });
     },
   });
 }

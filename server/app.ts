@@ -20,12 +20,14 @@ export type CreateAppOptions = {
   secret: string;
   /** Folder holding the web export (index.html and assets); omitted in API-only tests. */
   webDir?: string;
+  /** In development, forward every non-API request to the Expo dev server at this URL instead of serving webDir. */
+  devWebProxy?: express.RequestHandler;
 };
 
 const dev = process.env.NODE_ENV !== 'production';
 
 /** Builds the whole app without listening, so tests can drive it on an in-memory database. */
-export function createApp({ db, baseURL, secret, webDir }: CreateAppOptions) {
+export function createApp({ db, baseURL, secret, webDir, devWebProxy }: CreateAppOptions) {
   const auth = createAuth({ db, baseURL, secret });
   const deps: AppDeps = { db, auth };
   const app = express();
@@ -44,7 +46,8 @@ export function createApp({ db, baseURL, secret, webDir }: CreateAppOptions) {
   app.use('/api/jobs', jobsRouter(deps));
   app.use('/api', (req, res) => sendError(res, new HttpError(404, 'not_found', `No API route ${req.method} ${req.path}`)));
 
-  if (webDir) serveWeb(app, webDir);
+  if (devWebProxy) app.use(devWebProxy);
+  else if (webDir) serveWeb(app, webDir);
   app.use(errorHandler);
   return Object.assign(app, { auth, deps });
 }

@@ -8,7 +8,14 @@ import { readConfig } from './config';
 
 const config = readConfig();
 const db = openDb(config.databasePath);
-const app = createApp({ db, baseURL: config.baseURL, secret: config.secret, webDir: config.webDir });
+// `npm run dev` sets DEV_WEB_PROXY so one origin serves the API and the Expo dev server's live bundle.
+const devWebProxy = process.env.DEV_WEB_PROXY
+  ? (require('http-proxy-middleware') as typeof import('http-proxy-middleware')).createProxyMiddleware({
+      target: process.env.DEV_WEB_PROXY,
+      ws: true,
+    })
+  : undefined;
+const app = createApp({ db, baseURL: config.baseURL, secret: config.secret, webDir: config.webDir, devWebProxy });
 
 const server = app.listen(config.port, () => {
   console.log(`Lobewright is serving ${config.baseURL} (database ${config.databasePath})`);

@@ -60,7 +60,7 @@ export default function Account() {
       )}
 
       <Section title="Sign out">
-        <Text style={styles.meta}>Signing out clears this device's view of your shop's records.</Text>
+        <Text style={styles.meta}>Signing out clears this device’s view of your shop’s records.</Text>
         <Button label="Sign out" variant="danger" onPress={() => signOut.mutate()} busy={signOut.isPending} testID="sign-out" />
         {signOut.isError ? <ErrorNotice error={signOut.error} /> : null}
       </Section>

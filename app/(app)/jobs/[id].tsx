@@ -44,6 +44,7 @@ function JobDetail({ job }: { job: Job }) {
       title={job.vehicle}
       subtitle={`${job.customerName} · ${formatMiles(job.mileage)}`}
       actions={canEdit && !editing ? <Button label="Edit" variant="secondary" onPress={() => setEditing(true)} testID="edit-job" /> : null}
+      back={{ href: '/jobs', label: 'All jobs' }}
       testID="job-screen"
     >
       <Stack.Screen options={{ title: job.vehicle }} />

@@ -13,7 +13,7 @@ export default function JobsLayout() {
       }}
     >
       <Stack.Screen name="index" options={{ headerShown: false, title: 'Jobs' }} />
-      <Stack.Screen name="[id]" options={{ title: 'Job' }} />
+      <Stack.Screen name="[id]" options={{ headerShown: false, title: 'Job' }} />
     </Stack>
   );
 }

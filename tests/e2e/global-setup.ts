@@ -1,0 +1,68 @@
+import { spawn, type ChildProcess } from 'node:child_process';
+import fs from 'node:fs';
+import net from 'node:net';
+import os from 'node:os';
+import path from 'node:path';
+
+import type { TestProject } from 'vitest/node';
+
+declare module 'vitest' {
+  export interface ProvidedContext {
+    baseUrl: string;
+  }
+}
+
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const server = net.createServer();
+    server.once('error', reject);
+    server.listen(0, '127.0.0.1', () => {
+      const { port } = server.address() as net.AddressInfo;
+      server.close(() => resolve(port));
+    });
+  });
+}
+
+async function waitForHealth(url: string, child: ChildProcess, log: () => string, timeoutMs: number) {
+  const deadline = Date.now() + timeoutMs;
+  while (Date.now() < deadline) {
+    if (child.exitCode !== null) throw new Error(`The server exited (${child.exitCode}):\n${log()}`);
+    try {
+      const res = await fetch(`${url}/api/health`);
+      if (res.ok) return;
+    } catch {
+      // not listening yet
+    }
+    await new Promise((r) => setTimeout(r, 500));
+  }
+  throw new Error(`The server did not become healthy in ${timeoutMs} ms:\n${log()}`);
+}
+
+/** Starts `npm start` (build, migrate, seed, serve) on a free port and a temporary database. */
+export default async function setup(project: TestProject) {
+  fs.mkdirSync(path.resolve(__dirname, 'artifacts'), { recursive: true });
+  // While iterating on a screen, point the tests at a server you already run.
+  if (process.env.E2E_BASE_URL) {
+    project.provide('baseUrl', process.env.E2E_BASE_URL);
+    return;
+  }
+  const port = await freePort();
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'lobewright-e2e-'));
+  const baseUrl = `http://localhost:${port}`;
+  let output = '';
+  const child = spawn('npm', ['start'], {
+    cwd: path.resolve(__dirname, '..', '..'),
+    env: { ...process.env, PORT: String(port), DATABASE_PATH: path.join(dir, 'e2e.sqlite'), NODE_ENV: 'test' },
+    stdio: ['ignore', 'pipe', 'pipe'],
+    detached: true,
+  });
+  child.stdout?.on('data', (d: Buffer) => (output += d.toString()));
+  child.stderr?.on('data', (d: Buffer) => (output += d.toString()));
+  await waitForHealth(baseUrl, child, () => output.slice(-4000), 240_000);
+  project.provide('baseUrl', baseUrl);
+
+  return () => {
+    if (child.pid && child.exitCode === null) process.kill(-child.pid, 'SIGTERM');
+    fs.rmSync(dir, { recursive: true, force: true });
+  };
+}
