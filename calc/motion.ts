@@ -103,18 +103,28 @@ export function motionLaw(law: MotionLawName, x: number): MotionLawPoint {
   return { s: lawS(name, at), v: lawV(name, at), a: lawA(name, at), j: lawJ(name, at) };
 }
 
+/** Leading term of each law near x = 0: s ≈ c·x^p. */
+const LEADING: Readonly<Record<MotionLawName, { c: number; p: number }>> = {
+  cycloidal: { c: (TWO_PI * TWO_PI) / 6, p: 3 },
+  poly345: { c: 10, p: 3 },
+  poly4567: { c: 35, p: 4 },
+};
+
 /**
  * Unchecked inverse of s: the x ∈ [0, 1] where s(x) = target, for target in
- * [0, 1]. Every law here rises monotonically, so safeguarded Newton steps
- * inside a shrinking bracket converge to machine precision.
+ * [0, 1]. Every law here rises monotonically and is antisymmetric about
+ * x = ½, so the lower half is solved and the upper half mirrored. Newton steps
+ * start from the leading term and stay inside a shrinking bracket.
  */
 export function lawInverseRaw(law: MotionLawName, target: number): number {
   if (target <= 0) return 0;
   if (target >= 1) return 1;
+  if (target > 0.5) return 1 - lawInverseRaw(law, 1 - target);
   let lo = 0;
-  let hi = 1;
-  let x = target;
-  for (let i = 0; i < 60; i++) {
+  let hi = 0.5;
+  const lead = LEADING[law];
+  let x = Math.min(0.5, Math.pow(target / lead.c, 1 / lead.p));
+  for (let i = 0; i < 100; i++) {
     const f = lawS(law, x) - target;
     if (f === 0) return x;
     if (f < 0) lo = x;
@@ -122,7 +132,7 @@ export function lawInverseRaw(law: MotionLawName, target: number): number {
     const d = lawV(law, x);
     let next = d > 0 ? x - f / d : Number.NaN;
     if (!(next > lo && next < hi)) next = (lo + hi) / 2;
-    if (Math.abs(next - x) <= 1e-15) return next;
+    if (Math.abs(next - x) <= 1e-16 * Math.max(1, x) || hi - lo <= 1e-16) return next;
     x = next;
   }
   return x;
