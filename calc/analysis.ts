@@ -18,8 +18,9 @@ import {
   type CheckStatus,
   type SkippedCheck,
 } from './checks';
-import { CHECKING_HEIGHT_050, CURVE_STEP_DEG, RAD_PER_DEG } from './constants';
+import { CC_PER_CUBIC_INCH, CHECKING_HEIGHT_050, CURVE_STEP_DEG, RAD_PER_DEG } from './constants';
 import { CalcInputError, requireInRange, requireInteger, requireNonNegative, requirePositive } from './errors';
+import { type DegreeResult } from './degree';
 import { requireIcl, requireLsa, valveEventsRaw, type ValveEvents } from './events';
 import {
   checkCompressionInput,
@@ -42,11 +43,11 @@ import {
   type LiftCurve,
   type LobeShape,
 } from './lift-curve';
+import { findWornLobes, type LobeMaxLift, type WornLobeResult } from './measured';
 import { requireMotionLaw, type MotionLawName } from './motion';
 import { baselineOffsetRaw, ptvSweepRaw, requireBaseline, requireValveAngle, type PtvBaseline, type PtvSweep } from './ptv';
 import { preloadAfterRegrind, type PreloadResult } from './regrind';
 import { requireSpring, springCheckRaw, type SpringCheck } from './springs';
-import { CC_PER_CUBIC_INCH } from './constants';
 
 // ---------------------------------------------------------------------------
 // Input (JSON-friendly)
@@ -158,6 +159,12 @@ export interface PistonCurve extends CurveGrid {
 }
 
 export interface LobeAnalysis {
+  /** Sheet duration at 0.050 in tappet lift, crank degrees. */
+  duration050: number;
+  /** Sheet advertised duration, crank degrees. */
+  advertisedDuration: number;
+  /** Advertised checking height, inches of tappet lift. */
+  advertisedHeight: number;
   /** Inches. */
   lobeLift: number;
   rockerRatio: number;
@@ -188,6 +195,10 @@ export interface EventsAtHeight extends ValveEvents {
 
 export interface ProfileAnalysis {
   law: MotionLawName;
+  /** Lobe separation angle, cam degrees (as given). */
+  lsa: number;
+  /** Installed intake centreline, crank degrees ATDC (as given). */
+  icl: number;
   events: { at050: EventsAtHeight; advertised: EventsAtHeight };
   intake: LobeAnalysis;
   exhaust: LobeAnalysis;
@@ -384,6 +395,9 @@ function lobeAnalysis(lobe: CheckedLobe, centerline: number, spring: SpringInput
   const valveLift = curve.maxLift;
   const s = springCheckRaw(spring, valveLift);
   return {
+    duration050: lobe.shape.duration050,
+    advertisedDuration: lobe.shape.advertisedDuration,
+    advertisedHeight: lobe.shape.advertisedHeight,
     lobeLift: lobe.shape.lobeLift,
     rockerRatio: lobe.rockerRatio,
     lash: lobe.lash,
@@ -552,6 +566,8 @@ export function analyzeProfile(input: AnalysisInput, options?: { workspace?: Ana
 
   return {
     law: c.law,
+    lsa: c.lsa,
+    icl: c.icl,
     events: { at050, advertised },
     intake,
     exhaust,
@@ -598,4 +614,32 @@ function toJson(value: unknown): unknown {
 /** A deep copy safe for JSON.stringify (curves become number arrays). */
 export function analysisToJson(analysis: ProfileAnalysis): ProfileAnalysisJson {
   return toJson(analysis) as ProfileAnalysisJson;
+}
+
+// ---------------------------------------------------------------------------
+// Checks that use measurements outside the profile analysis
+
+/** Check a degreed-in cam against the sheet (|measured ICL − sheet ICL|). */
+export function checkDegreeing(result: DegreeResult, overrides?: CheckLimitOverrides): CheckResult {
+  const limits = resolveCheckLimits(overrides);
+  return checkMaximum(
+    { id: 'degreeing', subject: 'intake', value: Math.abs(result.difference), unit: '°', what: 'Installed ICL difference from the sheet' },
+    limits.degreeing,
+  );
+}
+
+/** Run worn-lobe detection with the shop's threshold and return one check per lobe. */
+export function checkWornLobes(
+  lobes: readonly LobeMaxLift[],
+  overrides?: CheckLimitOverrides,
+): { result: WornLobeResult; checks: CheckResult[] } {
+  const limits = resolveCheckLimits(overrides);
+  const result = findWornLobes({ lobes, threshold: limits.wornLobe.max });
+  const checks = result.lobes.map((row) =>
+    checkMaximum(
+      { id: 'wornLobe', subject: row.id, value: Math.max(0, row.shortfall), unit: 'in', what: 'Max lift below the median of its siblings' },
+      limits.wornLobe,
+    ),
+  );
+  return { result, checks };
 }

@@ -1,4 +1,4 @@
-import fc from 'fast-check';
+import * as fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { CalcInputError } from './errors';
 import { CYCLE_GRID, lobeLiftAt, synthesizeLiftCurve, synthesizeLobe, type LobeShape, type LobeSpec } from './lift-curve';

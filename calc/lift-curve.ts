@@ -394,7 +394,6 @@ export function sampleValveCurveRaw(
     velocity.fill(0, 0, lo);
     acceleration.fill(0, 0, lo);
   }
-  const law = LAW_EVALUATORS[shape.law];
   const L = shape.lobeLift;
   const phi = shape.halfEvent;
   const invPhi = 1 / phi;
