@@ -121,10 +121,10 @@ export function compareProfilesForOwner(input: OwnerComparisonInput): OwnerCompa
   } else {
     const parts: string[] = [];
     if (Math.abs(d.intakeDuration050) >= 1) {
-      parts.push(`the intake valve about ${degrees(d.intakeDuration050)} ${d.intakeDuration050 > 0 ? 'longer' : 'shorter'}`);
+      parts.push(`the intake valve open about ${degrees(d.intakeDuration050)} ${d.intakeDuration050 > 0 ? 'longer' : 'shorter'}`);
     }
     if (Math.abs(d.exhaustDuration050) >= 1) {
-      parts.push(`the exhaust valve about ${degrees(d.exhaustDuration050)} ${d.exhaustDuration050 > 0 ? 'longer' : 'shorter'}`);
+      parts.push(`the exhaust valve ${parts.length ? '' : 'open '}about ${degrees(d.exhaustDuration050)} ${d.exhaustDuration050 > 0 ? 'longer' : 'shorter'}`);
     }
     const tendency =
       avgDuration > 0
@@ -134,7 +134,7 @@ export function compareProfilesForOwner(input: OwnerComparisonInput): OwnerCompa
           : '';
     points.push({
       topic: 'timing',
-      text: `Compared with the ${cur} cam, the ${cand} one holds ${listWords(parts)} of crankshaft rotation (measured at the trade's standard checking point). ${tendency}`.trim(),
+      text: `Compared with the ${cur} cam, the ${cand} one holds ${listWords(parts)} (crankshaft degrees, at the trade's standard checking point). ${tendency}`.trim(),
     });
   }
 
