@@ -390,6 +390,20 @@ export function createAnalysisWorkspace(): AnalysisWorkspace {
 // ---------------------------------------------------------------------------
 // Analysis
 
+/** Check wording, built once (the rule text cache keys on these strings). */
+const WHAT = {
+  intake: {
+    coilBind: 'Coil-bind margin at max intake lift',
+    retainerToSeal: 'Retainer-to-seal clearance at max intake lift',
+    ptv: 'Piston-to-valve clearance, intake',
+  },
+  exhaust: {
+    coilBind: 'Coil-bind margin at max exhaust lift',
+    retainerToSeal: 'Retainer-to-seal clearance at max exhaust lift',
+    ptv: 'Piston-to-valve clearance, exhaust',
+  },
+} as const;
+
 function lobeAnalysis(lobe: CheckedLobe, centerline: number, spring: SpringInput, out: CurveBuffers): LobeAnalysis {
   const curve = sampleValveCurveRaw(lobe.shape, centerline, lobe.rockerRatio, lobe.lash, CYCLE_GRID, out);
   const valveLift = curve.maxLift;
@@ -496,7 +510,7 @@ export function analyzeProfile(input: AnalysisInput, options?: { workspace?: Ana
   ] as const) {
     checks.push(
       checkMinimum(
-        { id: 'coilBind', subject: name, value: lobe.spring.coilBindMargin, unit: 'in', what: `Coil-bind margin at max ${name} lift` },
+        { id: 'coilBind', subject: name, value: lobe.spring.coilBindMargin, unit: 'in', what: WHAT[name].coilBind },
         limits.coilBind,
       ),
       checkMinimum(
@@ -505,7 +519,7 @@ export function analyzeProfile(input: AnalysisInput, options?: { workspace?: Ana
           subject: name,
           value: lobe.spring.retainerToSealClearance,
           unit: 'in',
-          what: `Retainer-to-seal clearance at max ${name} lift`,
+          what: WHAT[name].retainerToSeal,
         },
         limits.retainerToSeal,
       ),
@@ -527,7 +541,7 @@ export function analyzeProfile(input: AnalysisInput, options?: { workspace?: Ana
     const r = ptvSweepRaw(lobe.curve.lift, piston.depth, CYCLE_GRID.start, CYCLE_GRID.step, PTV_I0, PTV_I1, cosAngle, offset, out);
     checks.push(
       checkMinimum(
-        { id, subject: name, value: r.minClearance, unit: 'in', what: `Piston-to-valve clearance, ${name}` },
+        { id, subject: name, value: r.minClearance, unit: 'in', what: WHAT[name].ptv },
         name === 'intake' ? limits.ptvIntake : limits.ptvExhaust,
       ),
     );

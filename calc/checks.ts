@@ -166,7 +166,7 @@ interface CheckBase {
 
 const ruleTextCache = new WeakMap<object, Map<string, string>>();
 
-/** Rule wording depends only on the rule and what is checked: build it once per pair. */
+/** Rule wording depends only on the rule and what is checked (which fixes the unit): build it once per pair. */
 function ruleText(rule: object, key: string, build: () => string): string {
   let byKey = ruleTextCache.get(rule);
   if (!byKey) {
@@ -199,7 +199,7 @@ export function checkMinimum(base: CheckBase, rule: MinimumRule): CheckResult {
     margin,
     limit: rule.min,
     unit: base.unit,
-    rule: ruleText(rule, base.what + base.unit, () => `${base.what} at least ${fmt(rule.min, base.unit)}; watch under ${fmt(rule.min + rule.watchBand, base.unit)}`),
+    rule: ruleText(rule, base.what, () => `${base.what} at least ${fmt(rule.min, base.unit)}; watch under ${fmt(rule.min + rule.watchBand, base.unit)}`),
     source: rule.source,
   };
 }
@@ -217,7 +217,7 @@ export function checkMaximum(base: CheckBase, rule: MaximumRule): CheckResult {
     margin,
     limit: rule.max,
     unit: base.unit,
-    rule: ruleText(rule, base.what + base.unit, () => `${base.what} at most ${fmt(rule.max, base.unit)}; watch over ${fmt(rule.max - rule.watchBand, base.unit)}`),
+    rule: ruleText(rule, base.what, () => `${base.what} at most ${fmt(rule.max, base.unit)}; watch over ${fmt(rule.max - rule.watchBand, base.unit)}`),
     source: rule.source,
   };
 }
@@ -239,7 +239,7 @@ export function checkRange(base: CheckBase, rule: RangeRule): CheckResult {
     unit: base.unit,
     rule: ruleText(
       rule,
-      base.what + base.unit,
+      base.what,
       () => `${base.what} between ${fmt(rule.min, base.unit)} and ${fmt(rule.max, base.unit)}; watch within ${fmt(rule.watchBand, base.unit)} of either end`,
     ),
     source: rule.source,

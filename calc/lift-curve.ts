@@ -268,11 +268,29 @@ export interface CurveBuffers {
   lift: Float64Array;
   velocity: Float64Array;
   acceleration: Float64Array;
+  /**
+   * Index range that may hold non-zero values from an earlier fill; outside
+   * it the buffers are known to be zero. Absent means "anything may be set".
+   */
+  written?: { lo: number; hi: number };
 }
 
 /** Fresh zeroed buffers for one curve. */
 export function createCurveBuffers(count: number): CurveBuffers {
-  return { lift: new Float64Array(count), velocity: new Float64Array(count), acceleration: new Float64Array(count) };
+  return {
+    lift: new Float64Array(count),
+    velocity: new Float64Array(count),
+    acceleration: new Float64Array(count),
+    written: { lo: 0, hi: -1 },
+  };
+}
+
+/** Zero [from, to] of all three arrays. */
+function zeroRange(out: CurveBuffers, from: number, to: number): void {
+  if (to < from) return;
+  out.lift.fill(0, from, to + 1);
+  out.velocity.fill(0, from, to + 1);
+  out.acceleration.fill(0, from, to + 1);
 }
 
 const LAW_CODE: Readonly<Record<MotionLawName, number>> = { cycloidal: 0, poly345: 1, poly4567: 2 };
@@ -389,11 +407,10 @@ export function sampleValveCurveRaw(
   const { lift, velocity, acceleration } = out;
   const lo = Math.max(0, Math.ceil((centerline - shape.halfEvent - start) / step));
   const hi = Math.min(count - 1, Math.floor((centerline + shape.halfEvent - start) / step));
-  if (lo > 0) {
-    lift.fill(0, 0, lo);
-    velocity.fill(0, 0, lo);
-    acceleration.fill(0, 0, lo);
-  }
+  // clear what an earlier fill left outside this event
+  const dirty = out.written ?? { lo: 0, hi: count - 1 };
+  zeroRange(out, dirty.lo, Math.min(dirty.hi, lo - 1));
+  zeroRange(out, Math.max(dirty.lo, hi + 1), dirty.hi);
   const L = shape.lobeLift;
   const phi = shape.halfEvent;
   const invPhi = 1 / phi;
@@ -407,7 +424,8 @@ export function sampleValveCurveRaw(
   const centreIndex = (centerline - start) / step;
   const ic = Math.round(centreIndex);
   const code = LAW_CODE[shape.law];
-  if (Math.abs(centreIndex - ic) < 1e-9 && ic >= lo && ic <= hi) {
+  const mirrored = Math.abs(centreIndex - ic) < 1e-9 && ic >= lo && ic <= hi;
+  if (mirrored) {
     const top = Math.min(hi, ic + Math.max(ic - lo, hi - ic));
     fillFlank(code, L, invPhi, k, q, rockerRatio, lash, ic, top, 0, step, out);
     const bottom = lo;
@@ -428,8 +446,9 @@ export function sampleValveCurveRaw(
       fillFlank(code, L, invPhi, k, q, rockerRatio, lash, i, i, offset < 0 ? -offset : offset, offset < 0 ? -1 : 1, out);
     }
   }
-  // peaks over the event
-  for (let i = lo; i <= hi; i++) {
+  // peaks over the event (one flank is enough when it was mirrored)
+  const peakFrom = mirrored ? ic : lo;
+  for (let i = peakFrom; i <= hi; i++) {
     const v = velocity[i] ?? 0;
     const a = acceleration[i] ?? 0;
     const speed = v < 0 ? -v : v;
@@ -437,12 +456,17 @@ export function sampleValveCurveRaw(
     if (a > peakAcceleration) peakAcceleration = a;
     if (a < peakDeceleration) peakDeceleration = a;
   }
-  const from = Math.max(hi + 1, lo);
-  if (from < count) {
-    lift.fill(0, from);
-    velocity.fill(0, from);
-    acceleration.fill(0, from);
+  if (mirrored) {
+    // points on the opening flank beyond the mirror of the closing flank
+    for (let i = lo; i < 2 * ic - hi; i++) {
+      const v = velocity[i] ?? 0;
+      const a = acceleration[i] ?? 0;
+      if (v > peakVelocity) peakVelocity = v;
+      if (a > peakAcceleration) peakAcceleration = a;
+      if (a < peakDeceleration) peakDeceleration = a;
+    }
   }
+  out.written = hi >= lo ? { lo, hi } : { lo: 0, hi: -1 };
   return {
     start,
     step,
