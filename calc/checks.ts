@@ -72,14 +72,19 @@ function statusFor(margin: number, watchBand: number): CheckStatus {
 
 /** Lobewright's default limits. All are trade rules of thumb. */
 export const DEFAULT_CHECK_LIMITS: Readonly<CheckLimits> = Object.freeze({
-  coilBind: { min: 0.06, watchBand: 0.02, source: COMMON },
-  retainerToSeal: { min: 0.05, watchBand: 0.02, source: COMMON },
-  ptvIntake: { min: 0.08, watchBand: 0.02, source: COMMON },
-  ptvExhaust: { min: 0.1, watchBand: 0.02, source: COMMON },
-  hydraulicPreload: { min: 0.02, max: 0.06, watchBand: 0.005, source: `${COMMON}; follow the lifter maker's range where given` },
-  dynamicCompression: { max: 8.5, watchBand: 0.3, source: `${COMMON}; pump gasoline, iron heads` },
-  degreeing: { max: 2, watchBand: 1, source: COMMON },
-  wornLobe: { max: 0.005, watchBand: 0.002, source: COMMON },
+  coilBind: Object.freeze({ min: 0.06, watchBand: 0.02, source: COMMON }),
+  retainerToSeal: Object.freeze({ min: 0.05, watchBand: 0.02, source: COMMON }),
+  ptvIntake: Object.freeze({ min: 0.08, watchBand: 0.02, source: COMMON }),
+  ptvExhaust: Object.freeze({ min: 0.1, watchBand: 0.02, source: COMMON }),
+  hydraulicPreload: Object.freeze({
+    min: 0.02,
+    max: 0.06,
+    watchBand: 0.005,
+    source: `${COMMON}; follow the lifter maker's range where given`,
+  }),
+  dynamicCompression: Object.freeze({ max: 8.5, watchBand: 0.3, source: `${COMMON}; pump gasoline, iron heads` }),
+  degreeing: Object.freeze({ max: 2, watchBand: 1, source: COMMON }),
+  wornLobe: Object.freeze({ max: 0.005, watchBand: 0.002, source: COMMON }),
 });
 
 /** Where a rule's number came from when a shop changed it. */

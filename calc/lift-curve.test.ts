@@ -1,8 +1,17 @@
 import * as fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { CalcInputError } from './errors';
-import { CYCLE_GRID, lobeLiftAt, synthesizeLiftCurve, synthesizeLobe, type LobeShape, type LobeSpec } from './lift-curve';
-import { durationAtHeight } from './measured';
+import {
+  createCurveBuffers,
+  CYCLE_GRID,
+  lobeLiftAt,
+  sampleValveCurveRaw,
+  synthesizeLiftCurve,
+  synthesizeLobe,
+  type LobeShape,
+  type LobeSpec,
+} from './lift-curve';
+import { analyzeLiftTable, durationAtHeight } from './measured';
 import { MOTION_LAWS, type MotionLawName } from './motion';
 
 // Lobe specs in the range regrind sheets use (common practice, no source): 0.050 durations
@@ -170,6 +179,36 @@ describe('synthesizeLiftCurve', () => {
     expect(durationAtHeight(table, 0.006)).toBeCloseTo(270, 1);
     expect(Math.max(...curve.lift)).toBeCloseTo(0.333, 12);
     expect(curve.lift[(106 - curve.start) / curve.step]).toBeCloseTo(0.333, 12);
+  });
+
+  it('mirrored sampling matches point-by-point evaluation on both flanks', () => {
+    const shape = synthesizeLobe(spec);
+    const curve = synthesizeLiftCurve({ ...spec, centerline: 106, rockerRatio: 1.6, lash: 0 });
+    for (const angle of [-50, 0, 40.5, 100, 106, 150, 212.5, 260]) {
+      const i = (angle - curve.start) / curve.step;
+      const p = lobeLiftAt(shape, angle - 106);
+      expect(curve.lift[i]).toBeCloseTo(1.6 * p.lift, 14);
+      expect(curve.velocity[i]).toBeCloseTo(1.6 * p.velocity, 14);
+      expect(curve.acceleration[i]).toBeCloseTo(1.6 * p.acceleration, 14);
+    }
+    expect(curve.velocity[(60 - curve.start) / curve.step]).toBeGreaterThan(0);
+    expect(curve.velocity[(150 - curve.start) / curve.step]).toBeLessThan(0);
+  });
+
+  it('handles a centreline between grid points and reused buffers', () => {
+    // Off-grid centre: the sampled table still measures back to the sheet and to its centre
+    // (equal-lift method, common practice, no source).
+    const shape = synthesizeLobe(spec);
+    const buffers = createCurveBuffers(CYCLE_GRID.count);
+    sampleValveCurveRaw(shape, -40, 1.5, 0, CYCLE_GRID, buffers); // leave data elsewhere first
+    const curve = sampleValveCurveRaw(shape, 106.3, 1, 0, CYCLE_GRID, buffers);
+    const fresh = synthesizeLiftCurve({ ...spec, centerline: 106.3, rockerRatio: 1, lash: 0 });
+    expect(Array.from(curve.lift)).toEqual(Array.from(fresh.lift));
+    expect(Array.from(curve.velocity)).toEqual(Array.from(fresh.velocity));
+    const table = Array.from(curve.lift, (lift, i) => ({ angle: curve.start + i * curve.step, lift }));
+    expect(durationAtHeight(table, 0.05)).toBeCloseTo(212, 2);
+    expect(analyzeLiftTable({ points: table }).centerline).toBeCloseTo(106.3, 3);
+    expect(curve.peakVelocity).toBeCloseTo(fresh.peakVelocity, 15);
   });
 
   it('scales by rocker ratio and takes off lash', () => {
