@@ -1,6 +1,10 @@
 import { sql } from 'drizzle-orm';
 import { index, integer, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 
+import type { EngineSpec } from '@/shared/engine';
+import type { ProfileSpec } from '@/shared/profile';
+import type { RevisionResults } from '@/shared/sheets';
+
 const createdAt = () =>
   integer('created_at', { mode: 'timestamp_ms' })
     .notNull()
@@ -143,6 +147,90 @@ export const jobs = sqliteTable(
     updatedAt: updatedAt(),
   },
   (t) => [index('jobs_shop_updated_idx').on(t.shopId, t.updatedAt)],
+);
+
+/** The engine on a job (one per job). `spec` is validated by shared/engine.ts before it is written. */
+export const engines = sqliteTable('engines', {
+  jobId: text('job_id')
+    .primaryKey()
+    .references(() => jobs.id, { onDelete: 'cascade' }),
+  shopId: text('shop_id')
+    .notNull()
+    .references(() => shops.id, { onDelete: 'cascade' }),
+  spec: text('spec', { mode: 'json' }).$type<EngineSpec>().notNull(),
+  version: integer('version').notNull().default(1),
+  createdAt: createdAt(),
+  updatedAt: updatedAt(),
+});
+
+/** A cam profile: in the shop's library (job_id null) or copied into a job. */
+export const camProfiles = sqliteTable(
+  'cam_profiles',
+  {
+    id: text('id').primaryKey(),
+    shopId: text('shop_id')
+      .notNull()
+      .references(() => shops.id, { onDelete: 'cascade' }),
+    jobId: text('job_id').references(() => jobs.id, { onDelete: 'cascade' }),
+    sourceProfileId: text('source_profile_id'),
+    label: text('label').notNull(),
+    coreNotes: text('core_notes').notNull().default(''),
+    spec: text('spec', { mode: 'json' }).$type<ProfileSpec>().notNull(),
+    version: integer('version').notNull().default(1),
+    createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [index('cam_profiles_shop_job_idx').on(t.shopId, t.jobId)],
+);
+
+/** A spec sheet on a job: an ordered list of revisions, the latest of which is current. */
+export const specSheets = sqliteTable(
+  'spec_sheets',
+  {
+    id: text('id').primaryKey(),
+    shopId: text('shop_id')
+      .notNull()
+      .references(() => shops.id, { onDelete: 'cascade' }),
+    jobId: text('job_id')
+      .notNull()
+      .references(() => jobs.id, { onDelete: 'cascade' }),
+    title: text('title').notNull(),
+    version: integer('version').notNull().default(1),
+    createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [index('spec_sheets_job_idx').on(t.jobId)],
+);
+
+/**
+ * One revision of a spec sheet. A draft may be edited; an issued revision never
+ * changes (a trigger in the migrations refuses UPDATE and DELETE on it).
+ */
+export const sheetRevisions = sqliteTable(
+  'sheet_revisions',
+  {
+    id: text('id').primaryKey(),
+    sheetId: text('sheet_id')
+      .notNull()
+      .references(() => specSheets.id, { onDelete: 'cascade' }),
+    number: integer('number').notNull(),
+    state: text('state', { enum: ['draft', 'issued'] })
+      .notNull()
+      .default('draft'),
+    label: text('label').notNull(),
+    spec: text('spec', { mode: 'json' }).$type<ProfileSpec>().notNull(),
+    engine: text('engine', { mode: 'json' }).$type<EngineSpec>().notNull(),
+    results: text('results', { mode: 'json' }).$type<RevisionResults>().notNull(),
+    note: text('note').notNull().default(''),
+    createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+    issuedAt: integer('issued_at', { mode: 'timestamp_ms' }),
+    issuedToShopId: text('issued_to_shop_id').references(() => shops.id, { onDelete: 'set null' }),
+  },
+  (t) => [uniqueIndex('sheet_revisions_sheet_number_idx').on(t.sheetId, t.number)],
 );
 
 /** One row per write: who did what to which record, and when. */

@@ -1,0 +1,81 @@
+import { z } from 'zod';
+
+import type { CheckResult, CheckStatus, SkippedCheck } from '@/calc/checks';
+import type { ValveEvents } from '@/calc/events';
+
+import type { EngineSpec } from './engine';
+import { profileLabelSchema, profileSpecSchema, type ProfileSpec } from './profile';
+import { versionSchema } from './numbers';
+
+export const revisionStates = ['draft', 'issued'] as const;
+export type RevisionState = (typeof revisionStates)[number];
+
+/** Start a spec sheet on a job from one of the job's profiles; revision 1 is a draft. */
+export const sheetCreateSchema = z.strictObject({
+  title: z.string({ error: 'Name the sheet' }).trim().min(1, 'Name the sheet').max(120, 'Keep the title under 120 characters'),
+  profileId: z.string({ error: 'Choose the profile to grind' }).min(1, 'Choose the profile to grind'),
+  note: z.string().trim().max(4000).default(''),
+});
+export type SheetCreate = z.input<typeof sheetCreateSchema>;
+
+/**
+ * Save the sheet's profile values and note. Edits the current draft revision;
+ * when the latest revision is issued, starts a new draft revision instead.
+ */
+export const sheetSaveSchema = z.strictObject({
+  version: versionSchema,
+  label: profileLabelSchema.optional(),
+  spec: profileSpecSchema.optional(),
+  note: z.string().trim().max(4000, 'Keep the note under 4000 characters').optional(),
+  /** Re-take the engine snapshot from the job's current engine. */
+  refreshEngine: z.boolean().optional(),
+});
+export type SheetSave = z.input<typeof sheetSaveSchema>;
+
+/** The numbers a revision was saved with, so the sheet never depends on re-running calc. */
+export type RevisionResults = {
+  /** Worst check status. */
+  status: CheckStatus;
+  /** Events at 0.050 in tappet lift, crank degrees. */
+  events050: ValveEvents;
+  /** Events at the advertised checking heights, crank degrees. */
+  eventsAdvertised: ValveEvents;
+  /** Net valve lift, inches. */
+  valveLift: { intake: number; exhaust: number };
+  staticCompression: number;
+  dynamicCompression: number;
+  /** Cylinder volume, cubic inches, whole engine. */
+  displacementCubicInches: number;
+  checks: CheckResult[];
+  skipped: SkippedCheck[];
+};
+
+export type Revision = {
+  id: string;
+  sheetId: string;
+  number: number;
+  state: RevisionState;
+  label: string;
+  spec: ProfileSpec;
+  engine: EngineSpec;
+  results: RevisionResults;
+  note: string;
+  createdBy: string | null;
+  createdAt: string;
+  updatedAt: string;
+  issuedAt: string | null;
+};
+
+export type Sheet = {
+  id: string;
+  shopId: string;
+  jobId: string;
+  title: string;
+  version: number;
+  createdAt: string;
+  updatedAt: string;
+  /** The latest revision (draft or issued). */
+  current: Revision;
+};
+
+export type SheetWithHistory = Sheet & { revisions: Revision[] };
