@@ -131,6 +131,8 @@ export interface RegrindInput {
   stockBaseCircle: number;
   /** Current pushrod length, inches (optional). */
   pushrodLength?: number;
+  /** Lifter plunger travel, inches (optional). */
+  plungerTravel?: number;
 }
 
 export interface AnalysisInput {

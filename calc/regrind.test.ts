@@ -49,6 +49,20 @@ describe('preloadAfterRegrind', () => {
     expect(r.restoredPushrodLength).toBeCloseTo(7.43, 12);
   });
 
+  it('reports where the new preload sits in the plunger travel', () => {
+    // Hand-worked: 0.030 in preload, 0.080 in cut → lifter drops 0.040 in → −0.010 in: the plunger is
+    // fully up and the valvetrain has lash, outside a 0.120 in plunger travel's working range.
+    const r = preloadAfterRegrind({ originalPreload: 0.03, stockBaseCircle: 1.26, regrindBaseCircle: 1.18, plungerTravel: 0.12 });
+    expect(r.newPreload).toBeCloseTo(-0.01, 12);
+    expect(r.withinPlungerTravel).toBe(false);
+    expect(r.plungerTravelLeft).toBeCloseTo(0.12, 12);
+    const ok = preloadAfterRegrind({ originalPreload: 0.05, stockBaseCircle: 1.26, regrindBaseCircle: 1.22, plungerTravel: 0.12 });
+    expect(ok.withinPlungerTravel).toBe(true);
+    expect(() => preloadAfterRegrind({ originalPreload: 0.15, stockBaseCircle: 1.26, regrindBaseCircle: 1.22, plungerTravel: 0.12 })).toThrow(
+      /originalPreload/,
+    );
+  });
+
   it('rejects a regrind with a larger base circle', () => {
     expect(() => preloadAfterRegrind({ originalPreload: 0.04, stockBaseCircle: 1.2, regrindBaseCircle: 1.26 })).toThrow(/regrindBaseCircle/);
     expect(() => preloadAfterRegrind({ originalPreload: Number.NaN, stockBaseCircle: 1.2, regrindBaseCircle: 1.1 })).toThrow(/originalPreload/);

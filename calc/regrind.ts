@@ -30,6 +30,8 @@ export interface PreloadInput {
   regrindBaseCircle: number;
   /** Current pushrod length, inches (optional). */
   pushrodLength?: number;
+  /** Total plunger travel of the lifter, inches (optional, from the lifter maker). */
+  plungerTravel?: number;
 }
 
 export interface PreloadResult {
@@ -43,6 +45,10 @@ export interface PreloadResult {
   pushrodIncrease: number;
   /** Pushrod length that restores it, inches, when the current length is given. */
   restoredPushrodLength: number | null;
+  /** Plunger travel left below the new preload (all of it when there is lash), inches, when plungerTravel is given. */
+  plungerTravelLeft: number | null;
+  /** True when the new preload sits inside the plunger's travel (above 0, below bottoming). */
+  withinPlungerTravel: boolean | null;
 }
 
 /** Preload after a regrind and the pushrod change that restores it. */
@@ -58,13 +64,20 @@ export function preloadAfterRegrind(input: PreloadInput, prefix?: string): Prelo
     regrind,
   );
   const pushrod = input.pushrodLength === undefined ? null : requirePositive(fieldPath(prefix, 'pushrodLength'), input.pushrodLength, 'in');
+  const travel = input.plungerTravel === undefined ? null : requirePositive(fieldPath(prefix, 'plungerTravel'), input.plungerTravel, 'in');
+  if (travel !== null) {
+    requireThat(original <= travel, fieldPath(prefix, 'originalPreload'), `must not exceed plungerTravel (${travel} in)`, original);
+  }
   const baseCircleReduction = stock - regrind;
   const lifterDrop = pushrodChangeRaw(baseCircleReduction);
+  const newPreload = original - lifterDrop;
   return {
     baseCircleReduction,
     lifterDrop,
-    newPreload: original - lifterDrop,
+    newPreload,
     pushrodIncrease: lifterDrop,
     restoredPushrodLength: pushrod === null ? null : pushrod + lifterDrop,
+    plungerTravelLeft: travel === null ? null : travel - Math.max(0, newPreload),
+    withinPlungerTravel: travel === null ? null : newPreload > 0 && newPreload < travel,
   };
 }
