@@ -29,6 +29,8 @@ export const sheetSaveSchema = z.strictObject({
   note: z.string().trim().max(4000, 'Keep the note under 4000 characters').optional(),
   /** Re-take the engine snapshot from the job's current engine. */
   refreshEngine: z.boolean().optional(),
+  /** Keep the current revision as history and save these values as the next revision. */
+  newRevision: z.boolean().optional(),
 });
 export type SheetSave = z.input<typeof sheetSaveSchema>;
 

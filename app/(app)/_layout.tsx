@@ -14,7 +14,12 @@ export default function AppLayout() {
   const canSeeJobs = roleAllows(role, { job: ['read'] });
 
   const items: NavItem[] = [
-    ...(canSeeJobs ? [{ href: '/jobs', match: '/jobs', label: 'Jobs', glyph: '≡', testID: 'nav-jobs' } as const] : []),
+    ...(canSeeJobs
+      ? ([
+          { href: '/jobs', match: '/jobs', label: 'Jobs', glyph: '≡', testID: 'nav-jobs' },
+          { href: '/profiles', match: '/profiles', label: 'Profiles', glyph: '∩', testID: 'nav-profiles' },
+        ] as const)
+      : []),
     { href: '/account', match: '/account', label: 'Account', glyph: '◎', testID: 'nav-account' },
   ];
 
@@ -30,6 +35,7 @@ export default function AppLayout() {
       <Tabs.Screen name="index" options={{ href: null }} />
       <Tabs.Protected guard={canSeeJobs}>
         <Tabs.Screen name="jobs" options={{ title: 'Jobs' }} />
+        <Tabs.Screen name="profiles" options={{ title: 'Profiles' }} />
       </Tabs.Protected>
       <Tabs.Screen name="account" options={{ title: 'Account' }} />
     </Tabs>

@@ -1,19 +1,8 @@
 import { Stack } from 'expo-router';
 
-import { colors, fonts } from '@/constants/theme';
+import { colors } from '@/constants/theme';
 
+/** Job screens carry their own heading and a link back up, so the stack draws no header. */
 export default function JobsLayout() {
-  return (
-    <Stack
-      screenOptions={{
-        headerTintColor: colors.accent,
-        headerStyle: { backgroundColor: colors.surface },
-        headerTitleStyle: { fontFamily: fonts.semibold, color: colors.ink },
-        contentStyle: { backgroundColor: colors.paper },
-      }}
-    >
-      <Stack.Screen name="index" options={{ headerShown: false, title: 'Jobs' }} />
-      <Stack.Screen name="[id]" options={{ headerShown: false, title: 'Job' }} />
-    </Stack>
-  );
+  return <Stack screenOptions={{ headerShown: false, contentStyle: { backgroundColor: colors.paper } }} />;
 }

@@ -1,0 +1,8 @@
+import { Stack } from 'expo-router';
+
+import { colors } from '@/constants/theme';
+
+/** Profile screens carry their own heading and a link back up, so the stack draws no header. */
+export default function ProfilesLayout() {
+  return <Stack screenOptions={{ headerShown: false, contentStyle: { backgroundColor: colors.paper } }} />;
+}

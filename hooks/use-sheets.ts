@@ -1,0 +1,54 @@
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+
+import type { Sheet, SheetCreate, SheetSave, SheetWithHistory } from '@/shared/sheets';
+
+import { api, staleTimes } from './api';
+
+export const sheetKeys = {
+  all: ['sheets'] as const,
+  job: (jobId: string) => [...sheetKeys.all, 'job', jobId] as const,
+  detail: (id: string) => [...sheetKeys.all, 'detail', id] as const,
+};
+
+export function useJobSheetsQuery(jobId: string) {
+  return useQuery({
+    queryKey: sheetKeys.job(jobId),
+    staleTime: staleTimes.list,
+    queryFn: async () => (await api<{ sheets: Sheet[] }>(`/api/jobs/${encodeURIComponent(jobId)}/sheets`)).sheets,
+  });
+}
+
+export function useSheetQuery(id: string) {
+  return useQuery({
+    queryKey: sheetKeys.detail(id),
+    staleTime: staleTimes.record,
+    queryFn: async () => (await api<{ sheet: SheetWithHistory }>(`/api/sheets/${encodeURIComponent(id)}`)).sheet,
+  });
+}
+
+function useSettle() {
+  const queryClient = useQueryClient();
+  return (sheet: SheetWithHistory) => {
+    queryClient.setQueryData(sheetKeys.detail(sheet.id), sheet);
+    return queryClient.invalidateQueries({ queryKey: sheetKeys.job(sheet.jobId) });
+  };
+}
+
+export function useCreateSheetMutation(jobId: string) {
+  const settle = useSettle();
+  return useMutation({
+    mutationFn: async (body: SheetCreate) =>
+      (await api<{ sheet: SheetWithHistory }>(`/api/jobs/${encodeURIComponent(jobId)}/sheets`, { method: 'POST', body })).sheet,
+    onSuccess: settle,
+  });
+}
+
+/** Saves profile values or the note; the server edits the draft or starts the next revision. */
+export function useSaveSheetMutation(id: string) {
+  const settle = useSettle();
+  return useMutation({
+    mutationFn: async (body: SheetSave) =>
+      (await api<{ sheet: SheetWithHistory }>(`/api/sheets/${encodeURIComponent(id)}`, { method: 'PATCH', body })).sheet,
+    onSuccess: settle,
+  });
+}

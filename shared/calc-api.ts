@@ -1,0 +1,73 @@
+import { z } from 'zod';
+
+import type { ProfileAnalysisJson } from '@/calc/analysis';
+
+import { engineSchema } from './engine';
+import { measure } from './numbers';
+import { profileSpecSchema } from './profile';
+
+/** A clearance measured with the old cam, along the valve axis. Inches, crank degrees ATDC overlap. */
+const ptvSideSchema = z.strictObject({
+  clearance: measure('Baseline clearance', 'in', 0, 2),
+  crankAngle: measure('Crank angle of the baseline reading', '° ATDC', -180, 180).optional(),
+  valveLift: measure('Old valve lift at the baseline reading', 'in', 0, 1.5).optional(),
+});
+
+export const ptvBaselineSchema = z.strictObject({
+  intake: ptvSideSchema.optional(),
+  exhaust: ptvSideSchema.optional(),
+});
+
+/** Hydraulic lifter preload with the original cam, to predict it after a smaller regrind base circle. Inches. */
+export const regrindSchema = z.strictObject({
+  originalPreload: measure('Original preload', 'in', 0, 0.25),
+  stockBaseCircle: measure('Stock base circle', 'in', 0.6, 2),
+  pushrodLength: measure('Pushrod length', 'in', 3, 12).optional(),
+  plungerTravel: measure('Plunger travel', 'in', 0.01, 0.5).optional(),
+});
+
+const watchBand = measure('Watch band', 'in or ratio', 0, 5).optional();
+const source = z.string().trim().min(1, 'Name the source, or leave it out').max(200, 'Keep the source under 200 characters').optional();
+const minimumRule = z.strictObject({ min: measure('Minimum', 'in', -1, 5).optional(), watchBand, source });
+const maximumRule = z.strictObject({ max: measure('Maximum', 'in, ratio or °', 0, 30).optional(), watchBand, source });
+const rangeRule = z
+  .strictObject({
+    min: measure('Minimum', 'in', 0, 1).optional(),
+    max: measure('Maximum', 'in', 0, 1).optional(),
+    watchBand,
+    source,
+  })
+  .refine((r) => r.min === undefined || r.max === undefined || r.max > r.min, {
+    path: ['max'],
+    message: 'Maximum must be above the minimum',
+  });
+
+/** A shop's own check limits: any subset of any rule. */
+export const checkLimitsSchema = z.strictObject({
+  coilBind: minimumRule.optional(),
+  retainerToSeal: minimumRule.optional(),
+  ptvIntake: minimumRule.optional(),
+  ptvExhaust: minimumRule.optional(),
+  hydraulicPreload: rangeRule.optional(),
+  dynamicCompression: maximumRule.optional(),
+  degreeing: maximumRule.optional(),
+  wornLobe: maximumRule.optional(),
+});
+
+/** Body of `POST /api/calc/analyze`: one engine, one to three profiles on it. */
+export const calcAnalyzeSchema = z.strictObject({
+  engine: engineSchema,
+  profiles: z
+    .array(profileSpecSchema, { error: 'Send a list of 1 to 3 profiles' })
+    .min(1, 'Send at least one profile')
+    .max(3, 'Send at most three profiles'),
+  ptvBaseline: ptvBaselineSchema.optional(),
+  regrind: regrindSchema.optional(),
+  limits: checkLimitsSchema.optional(),
+  /** False drops the sampled curves (lift, velocity, acceleration, piston motion, PTV sweep). */
+  curves: z.boolean({ error: 'curves is true or false' }).default(true),
+});
+export type CalcAnalyzeRequest = z.input<typeof calcAnalyzeSchema>;
+
+/** One analysis per profile, in the order sent. Without curves the sampled arrays are left out. */
+export type CalcAnalyzeResponse = { analyses: ProfileAnalysisJson[] };
