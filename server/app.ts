@@ -9,8 +9,12 @@ import type { Db } from '@/db';
 import { createAuth } from './auth';
 import type { AppDeps } from './deps';
 import { errorHandler, HttpError, sendError } from './http';
+import { calcRouter, type CalcRateLimit } from './routes/calc';
+import { enginesRouter } from './routes/engines';
 import { jobsRouter } from './routes/jobs';
 import { meRouter } from './routes/me';
+import { profilesRouter } from './routes/profiles';
+import { sheetsRouter } from './routes/sheets';
 
 export type CreateAppOptions = {
   db: Db;
@@ -22,12 +26,14 @@ export type CreateAppOptions = {
   webDir?: string;
   /** In development, forward every non-API request to the Expo dev server at this URL instead of serving webDir. */
   devWebProxy?: express.RequestHandler;
+  /** Requests per person to the calc API (default 60 a minute). */
+  calcRateLimit?: CalcRateLimit;
 };
 
 const dev = process.env.NODE_ENV !== 'production';
 
 /** Builds the whole app without listening, so tests can drive it on an in-memory database. */
-export function createApp({ db, baseURL, secret, webDir, devWebProxy }: CreateAppOptions) {
+export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLimit }: CreateAppOptions) {
   const auth = createAuth({ db, baseURL, secret });
   const deps: AppDeps = { db, auth };
   const app = express();
@@ -44,6 +50,7 @@ export function createApp({ db, baseURL, secret, webDir, devWebProxy }: CreateAp
   });
   app.use('/api', meRouter(deps));
   app.use('/api/jobs', jobsRouter(deps));
+  app.use('/api', enginesRouter(deps), profilesRouter(deps), sheetsRouter(deps), calcRouter(deps, calcRateLimit));
   app.use('/api', (req, res) => sendError(res, new HttpError(404, 'not_found', `No API route ${req.method} ${req.path}`)));
 
   if (devWebProxy) app.use(devWebProxy);

@@ -69,5 +69,13 @@ export const calcAnalyzeSchema = z.strictObject({
 });
 export type CalcAnalyzeRequest = z.input<typeof calcAnalyzeSchema>;
 
-/** One analysis per profile, in the order sent. Without curves the sampled arrays are left out. */
-export type CalcAnalyzeResponse = { analyses: ProfileAnalysisJson[] };
+/** An analysis with its sampled curves (every number array) left out. */
+type WithoutCurves<T> = T extends (infer U)[]
+  ? WithoutCurves<U>[]
+  : T extends object
+    ? { [K in keyof T as T[K] extends number[] ? never : K]: WithoutCurves<T[K]> }
+    : T;
+export type ProfileAnalysisSummaryJson = WithoutCurves<ProfileAnalysisJson>;
+
+/** One analysis per profile, in the order sent; with `curves: false` the sampled arrays are left out. */
+export type CalcAnalyzeResponse = { analyses: ProfileAnalysisJson[] | ProfileAnalysisSummaryJson[] };

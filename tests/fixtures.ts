@@ -1,14 +1,15 @@
 import type { AddressInfo } from 'node:net';
 import type { Server } from 'node:http';
 
+import { DEMO_ENGINE, DEMO_TOWING } from '@/calc/demo';
 import { openDb, schema, type Db } from '@/db';
-import { createApp, type App } from '@/server/app';
+import { createApp, type App, type CreateAppOptions } from '@/server/app';
 import type { ShopKind, ShopRole } from '@/shared/roles';
 
 export type TestApp = { app: App; db: Db; url: string; close: () => Promise<void> };
 
 /** A real app on an in-memory database, listening on a free loopback port. */
-export async function createTestApp(): Promise<TestApp> {
+export async function createTestApp(options: Pick<CreateAppOptions, 'calcRateLimit'> = {}): Promise<TestApp> {
   const db = openDb(':memory:');
   // The origin is only known after listening; sign-in checks it against the request's Origin header.
   let server: Server | undefined;
@@ -20,7 +21,7 @@ export async function createTestApp(): Promise<TestApp> {
     });
   });
   const url = `http://127.0.0.1:${port}`;
-  const app = createApp({ db, baseURL: url, secret: 'test-secret-test-secret-test-secret' });
+  const app = createApp({ db, baseURL: url, secret: 'test-secret-test-secret-test-secret', ...options });
   await new Promise<void>((resolve) => {
     server = app.listen(port, '127.0.0.1', () => resolve());
   });
@@ -70,6 +71,8 @@ export class Client {
   get = (path: string) => this.request('GET', path);
   post = (path: string, body?: unknown) => this.request('POST', path, body ?? {});
   patch = (path: string, body?: unknown) => this.request('PATCH', path, body ?? {});
+  put = (path: string, body?: unknown) => this.request('PUT', path, body ?? {});
+  delete = (path: string) => this.request('DELETE', path);
 }
 
 let counter = 0;
@@ -112,4 +115,37 @@ export function makeJobBody(overrides: Record<string, unknown> = {}) {
     mileage: 161000,
     ...overrides,
   };
+}
+
+/** A valid engine for `PUT /api/jobs/:id/engine` (the invented demo engine). */
+export function makeEngineSpec(overrides: Record<string, unknown> = {}) {
+  return { ...DEMO_ENGINE, spring: { ...DEMO_ENGINE.spring }, firingOrder: '1-8-4-3-6-5-7-2', ...overrides };
+}
+
+/** A valid profile spec (the invented demo towing profile). */
+export function makeProfileSpec(overrides: Record<string, unknown> = {}) {
+  return {
+    ...DEMO_TOWING,
+    intake: { ...DEMO_TOWING.intake },
+    exhaust: { ...DEMO_TOWING.exhaust },
+    baseCircle: DEMO_TOWING.baseCircle ?? null,
+    ...overrides,
+  };
+}
+
+export function makeProfileBody(overrides: Record<string, unknown> = {}) {
+  return { label: 'Test towing profile', coreNotes: 'Test core', spec: makeProfileSpec(), ...overrides };
+}
+
+/** A shop with a builder, a job, the job's engine and one job profile: what a spec sheet needs. */
+export async function makeJobWithEngine(t: TestApp, name = 'Sheet shop') {
+  const { shopId, founder } = await makeShop(t, 'repair', name);
+  const job = await founder.post('/api/jobs', makeJobBody());
+  if (job.status !== 201) throw new Error(`job failed: ${job.status} ${JSON.stringify(job.body)}`);
+  const jobId = job.body.job.id as string;
+  const engine = await founder.put(`/api/jobs/${jobId}/engine`, { version: 0, engine: makeEngineSpec() });
+  if (engine.status !== 201) throw new Error(`engine failed: ${engine.status} ${JSON.stringify(engine.body)}`);
+  const profile = await founder.post(`/api/jobs/${jobId}/profiles`, makeProfileBody());
+  if (profile.status !== 201) throw new Error(`profile failed: ${profile.status} ${JSON.stringify(profile.body)}`);
+  return { shopId, founder, jobId, profileId: profile.body.profile.id as string };
 }
