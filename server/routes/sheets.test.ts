@@ -1,0 +1,250 @@
+import { eq } from 'drizzle-orm';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
+import { schema } from '@/db';
+import { analyzeRecords, revisionResults } from '@/shared/analysis';
+import { engineSchema, type EngineSpec } from '@/shared/engine';
+import { profileSpecSchema, type ProfileSpec } from '@/shared/profile';
+import {
+  createTestApp,
+  makeEngineSpec,
+  makeJobBody,
+  makeJobWithEngine,
+  makeProfileBody,
+  makeProfileSpec,
+  makeShop,
+  memberWithRole,
+  type TestApp,
+} from '@/tests/fixtures';
+
+let t: TestApp;
+beforeAll(async () => {
+  t = await createTestApp();
+});
+afterAll(() => t.close());
+
+/** What calc says about these values, through JSON like the API answer. */
+function expectedResults(engine: unknown, spec: unknown) {
+  const e: EngineSpec = engineSchema.parse(engine);
+  const s: ProfileSpec = profileSpecSchema.parse(spec);
+  return JSON.parse(JSON.stringify(revisionResults(analyzeRecords(e, s))));
+}
+
+/** Marks a revision issued straight in the database (issuing to a grinder comes with its own screens). */
+function issue(revisionId: string) {
+  t.db.$client
+    .prepare(`update sheet_revisions set state = 'issued', issued_at = ? where id = ?`)
+    .run(Date.now(), revisionId);
+}
+
+function rawRevision(id: string) {
+  return t.db.$client.prepare('select * from sheet_revisions where id = ?').get(id);
+}
+
+describe('spec sheets', () => {
+  it('starts a sheet from a job profile and the engine, with calc results in revision 1', async () => {
+    const { founder, jobId, profileId } = await makeJobWithEngine(t);
+    const res = await founder.post(`/api/jobs/${jobId}/sheets`, { title: 'Regrind for cylinder 3 failure', profileId, note: 'First draft' });
+    expect(res.status).toBe(201);
+    const sheet = res.body.sheet;
+    expect(sheet).toMatchObject({ jobId, title: 'Regrind for cylinder 3 failure', version: 1 });
+    expect(sheet.revisions).toHaveLength(1);
+    expect(sheet.current).toEqual(sheet.revisions[0]);
+    expect(sheet.current).toMatchObject({
+      number: 1,
+      state: 'draft',
+      label: makeProfileBody().label,
+      spec: makeProfileSpec(),
+      engine: makeEngineSpec(),
+      note: 'First draft',
+      issuedAt: null,
+    });
+    expect(sheet.current.results).toEqual(expectedResults(makeEngineSpec(), makeProfileSpec()));
+    expect(sheet.current.results.events050.overlap).toBeTypeOf('number');
+
+    const read = await founder.get(`/api/sheets/${sheet.id}`);
+    expect(read.body.sheet).toEqual(sheet);
+    const list = await founder.get(`/api/jobs/${jobId}/sheets`);
+    expect(list.body.sheets).toHaveLength(1);
+    expect(list.body.sheets[0]).toMatchObject({ id: sheet.id, current: sheet.current });
+    expect(list.body.sheets[0]).not.toHaveProperty('revisions');
+  });
+
+  it('edits a draft revision in place, recomputes its results and bumps the sheet version', async () => {
+    const { founder, jobId, profileId } = await makeJobWithEngine(t);
+    const sheet = (await founder.post(`/api/jobs/${jobId}/sheets`, { title: 'Sheet', profileId })).body.sheet;
+    const spec = makeProfileSpec({ intake: { ...makeProfileSpec().intake, duration050: 216 } });
+    const saved = await founder.patch(`/api/sheets/${sheet.id}`, { version: 1, spec, note: 'Longer intake' });
+    expect(saved.status).toBe(200);
+    expect(saved.body.sheet.version).toBe(2);
+    expect(saved.body.sheet.revisions).toHaveLength(1);
+    expect(saved.body.sheet.current).toMatchObject({ id: sheet.current.id, number: 1, state: 'draft', spec, note: 'Longer intake' });
+    expect(saved.body.sheet.current.results).toEqual(expectedResults(makeEngineSpec(), spec));
+    expect(saved.body.sheet.current.results.events050.overlap).toBeGreaterThan(sheet.current.results.events050.overlap);
+
+    const actions = t.db
+      .select({ action: schema.auditLog.action })
+      .from(schema.auditLog)
+      .where(eq(schema.auditLog.entityId, sheet.id))
+      .all()
+      .map((r) => r.action);
+    expect(actions).toEqual(['create', 'update']);
+  });
+
+  it('answers 409 to a save from a stale sheet version and keeps the first save', async () => {
+    const { founder, jobId, profileId } = await makeJobWithEngine(t);
+    const sheet = (await founder.post(`/api/jobs/${jobId}/sheets`, { title: 'Sheet', profileId })).body.sheet;
+    expect((await founder.patch(`/api/sheets/${sheet.id}`, { version: 1, note: 'First writer' })).status).toBe(200);
+    const stale = await founder.patch(`/api/sheets/${sheet.id}`, { version: 1, note: 'Second writer' });
+    expect(stale.status).toBe(409);
+    expect(stale.body.error).toMatchObject({ code: 'conflict', message: expect.stringMatching(/reload/i) });
+    const now = (await founder.get(`/api/sheets/${sheet.id}`)).body.sheet;
+    expect(now).toMatchObject({ version: 2, current: { note: 'First writer' } });
+    expect(now.revisions).toHaveLength(1);
+  });
+
+  it('never changes an issued revision: a save writes revision 2 and leaves revision 1 byte for byte', async () => {
+    const { founder, jobId, profileId } = await makeJobWithEngine(t);
+    const sheet = (await founder.post(`/api/jobs/${jobId}/sheets`, { title: 'Sheet', profileId, note: 'As sent' })).body.sheet;
+    const firstId = sheet.current.id as string;
+    issue(firstId);
+    const before = rawRevision(firstId);
+
+    const spec = makeProfileSpec({ icl: 106 });
+    const saved = await founder.patch(`/api/sheets/${sheet.id}`, { version: 1, spec, label: 'Towing, advanced' });
+    expect(saved.status).toBe(200);
+    const { revisions, current, version } = saved.body.sheet;
+    expect(version).toBe(2);
+    expect(revisions.map((r: { number: number; state: string }) => [r.number, r.state])).toEqual([
+      [1, 'issued'],
+      [2, 'draft'],
+    ]);
+    expect(current).toMatchObject({ number: 2, state: 'draft', spec, label: 'Towing, advanced', note: 'As sent', issuedAt: null });
+    expect(current.id).not.toBe(firstId);
+    expect(current.results).toEqual(expectedResults(makeEngineSpec(), spec));
+    expect(rawRevision(firstId)).toEqual(before);
+    expect(revisions[0].spec).toEqual(makeProfileSpec());
+
+    // The new draft is edited in place until it is issued too.
+    const again = await founder.patch(`/api/sheets/${sheet.id}`, { version: 2, note: 'Second thoughts' });
+    expect(again.body.sheet.revisions).toHaveLength(2);
+    expect(again.body.sheet.current).toMatchObject({ id: current.id, number: 2, note: 'Second thoughts', spec });
+    expect(rawRevision(firstId)).toEqual(before);
+
+    const actions = t.db
+      .select({ action: schema.auditLog.action })
+      .from(schema.auditLog)
+      .where(eq(schema.auditLog.entityId, sheet.id))
+      .all()
+      .map((r) => r.action);
+    expect(actions).toEqual(['create', 'revise', 'update']);
+  });
+
+  it('keeps a draft as history when the builder asks for a new revision', async () => {
+    const { founder, jobId, profileId } = await makeJobWithEngine(t);
+    const sheet = (await founder.post(`/api/jobs/${jobId}/sheets`, { title: 'Sheet', profileId })).body.sheet;
+    const before = rawRevision(sheet.current.id);
+    const saved = await founder.patch(`/api/sheets/${sheet.id}`, { version: 1, newRevision: true, note: 'Option B' });
+    expect(saved.body.sheet.revisions.map((r: { number: number; state: string }) => [r.number, r.state])).toEqual([
+      [1, 'draft'],
+      [2, 'draft'],
+    ]);
+    expect(saved.body.sheet.current).toMatchObject({ number: 2, note: 'Option B' });
+    expect(rawRevision(sheet.current.id)).toEqual(before);
+  });
+
+  it("keeps the engine snapshot until the builder asks to re-take it from the job's engine", async () => {
+    const { founder, jobId, profileId } = await makeJobWithEngine(t);
+    const sheet = (await founder.post(`/api/jobs/${jobId}/sheets`, { title: 'Sheet', profileId })).body.sheet;
+    const newer = makeEngineSpec({ chamberCc: 64 });
+    expect((await founder.put(`/api/jobs/${jobId}/engine`, { version: 1, engine: newer })).status).toBe(200);
+
+    const kept = await founder.patch(`/api/sheets/${sheet.id}`, { version: 1, note: 'Note only' });
+    expect(kept.body.sheet.current.engine).toEqual(makeEngineSpec());
+    const refreshed = await founder.patch(`/api/sheets/${sheet.id}`, { version: 2, refreshEngine: true });
+    expect(refreshed.body.sheet.current.engine).toEqual(newer);
+    expect(refreshed.body.sheet.current.results).toEqual(expectedResults(newer, makeProfileSpec()));
+    expect(refreshed.body.sheet.current.results.staticCompression).toBeGreaterThan(sheet.current.results.staticCompression);
+  });
+
+  it('needs the job engine and one of the job profiles to start a sheet', async () => {
+    const { founder } = await makeShop(t);
+    const job = (await founder.post('/api/jobs', makeJobBody())).body.job;
+    const onJob = (await founder.post(`/api/jobs/${job.id}/profiles`, makeProfileBody())).body.profile;
+    const noEngine = await founder.post(`/api/jobs/${job.id}/sheets`, { title: 'Sheet', profileId: onJob.id });
+    expect(noEngine.status).toBe(409);
+    expect(noEngine.body.error).toMatchObject({ code: 'engine_missing', message: expect.stringMatching(/engine/) });
+
+    await founder.put(`/api/jobs/${job.id}/engine`, { version: 0, engine: makeEngineSpec() });
+    const library = (await founder.post('/api/profiles', makeProfileBody())).body.profile;
+    const otherJob = (await founder.post('/api/jobs', makeJobBody())).body.job;
+    const elsewhere = (await founder.post(`/api/jobs/${otherJob.id}/profiles`, makeProfileBody())).body.profile;
+    for (const profileId of [library.id, elsewhere.id, 'no-such-profile']) {
+      const res = await founder.post(`/api/jobs/${job.id}/sheets`, { title: 'Sheet', profileId });
+      expect(res.status).toBe(400);
+      expect(res.body.error.fields).toEqual({ profileId: "Choose one of this job's profiles" });
+    }
+    expect((await founder.get(`/api/jobs/${job.id}/sheets`)).body.sheets).toEqual([]);
+  });
+
+  it('answers bad values with a 400 that names the field, from zod and from calc', async () => {
+    const { founder, jobId, profileId } = await makeJobWithEngine(t);
+    const sheet = (await founder.post(`/api/jobs/${jobId}/sheets`, { title: 'Sheet', profileId })).body.sheet;
+
+    const empty = await founder.post(`/api/jobs/${jobId}/sheets`, { title: ' ', profileId });
+    expect(empty.body.error.fields).toEqual({ title: 'Name the sheet' });
+
+    const range = await founder.patch(`/api/sheets/${sheet.id}`, {
+      version: 1,
+      spec: makeProfileSpec({ intake: { ...makeProfileSpec().intake, duration050: 90 } }),
+    });
+    expect(range.status).toBe(400);
+    expect(range.body.error.fields).toEqual({ 'spec.intake.duration050': expect.stringMatching(/between 120 and 330/) });
+
+    // Lash with hydraulic lifters passes the form's ranges; calc rejects it and the answer names the sheet's field.
+    const lash = await founder.patch(`/api/sheets/${sheet.id}`, {
+      version: 1,
+      spec: makeProfileSpec({ exhaust: { ...makeProfileSpec().exhaust, lash: 0.016 } }),
+    });
+    expect(lash.status).toBe(400);
+    expect(lash.body.error.code).toBe('invalid_input');
+    expect(Object.keys(lash.body.error.fields)).toEqual(['spec.exhaust.lash']);
+    expect(lash.body.error.fields['spec.exhaust.lash']).toMatch(/hydraulic/);
+
+    const now = (await founder.get(`/api/sheets/${sheet.id}`)).body.sheet;
+    expect(now.version).toBe(1);
+    expect(now.current).toEqual(sheet.current);
+  });
+
+  it("gives a member of another shop 404 for the shop's sheets", async () => {
+    const a = await makeShop(t, 'repair', 'Sheets A');
+    const b = await makeJobWithEngine(t, 'Sheets B');
+    const sheet = (await b.founder.post(`/api/jobs/${b.jobId}/sheets`, { title: 'Sheet', profileId: b.profileId })).body.sheet;
+    expect((await a.founder.get(`/api/sheets/${sheet.id}`)).status).toBe(404);
+    expect((await a.founder.patch(`/api/sheets/${sheet.id}`, { version: 1, note: 'Taken' })).status).toBe(404);
+    expect((await a.founder.get(`/api/jobs/${b.jobId}/sheets`)).status).toBe(404);
+    expect((await a.founder.post(`/api/jobs/${b.jobId}/sheets`, { title: 'x', profileId: b.profileId })).status).toBe(404);
+    expect((await b.founder.get(`/api/sheets/${sheet.id}`)).body.sheet).toEqual(sheet);
+  });
+
+  it('lets a tech read sheets but not start or save one', async () => {
+    const { shopId, founder, jobId, profileId } = await makeJobWithEngine(t);
+    const sheet = (await founder.post(`/api/jobs/${jobId}/sheets`, { title: 'Sheet', profileId })).body.sheet;
+    const tech = await memberWithRole(t, shopId, 'tech');
+    expect((await tech.get(`/api/sheets/${sheet.id}`)).body.sheet).toEqual(sheet);
+    expect((await tech.get(`/api/jobs/${jobId}/sheets`)).body.sheets).toHaveLength(1);
+    expect((await tech.post(`/api/jobs/${jobId}/sheets`, { title: 'Sheet', profileId })).status).toBe(403);
+    const save = await tech.patch(`/api/sheets/${sheet.id}`, { version: 1, note: 'Tech edit' });
+    expect(save.status).toBe(403);
+    expect((await founder.get(`/api/sheets/${sheet.id}`)).body.sheet).toEqual(sheet);
+  });
+
+  it.each(['customer', 'grinder'] as const)('gives a %s 403 on sheets', async (role) => {
+    const { shopId, founder, jobId, profileId } = await makeJobWithEngine(t);
+    const sheet = (await founder.post(`/api/jobs/${jobId}/sheets`, { title: 'Sheet', profileId })).body.sheet;
+    const person = await memberWithRole(t, shopId, role);
+    expect((await person.get(`/api/sheets/${sheet.id}`)).status).toBe(403);
+    expect((await person.get(`/api/jobs/${jobId}/sheets`)).status).toBe(403);
+    expect((await person.patch(`/api/sheets/${sheet.id}`, { version: 1, note: 'x' })).status).toBe(403);
+  });
+});
