@@ -18,7 +18,7 @@ import {
   type Quantity,
   type ShownUnits,
 } from './number-draft';
-import { profileCreateSchema } from './profile';
+import { profileCreateSchema, profileSpecSchema } from './profile';
 import { profileDraftFrom, profileNumberList, profileNumberSpecs } from './profile-fields';
 
 // Sources: conversions by mathjs units through calc/units; form behaviour is Lobewright's own (common practice, no source).
@@ -39,6 +39,8 @@ const metric: ShownUnits = {
 };
 
 const bore = engineNumberSpecs.bore;
+const demoEngine = engineSchema.parse({ ...DEMO_ENGINE, firingOrder: '1-8-4-3-6-5-7-2' });
+const demoTowing = profileSpecSchema.parse(DEMO_TOWING);
 
 describe('parseNumberText', () => {
   it('reads plain, signed, leading-dot and decimal-comma numbers', () => {
@@ -130,10 +132,10 @@ describe('resolveDrafts', () => {
   const extras = (draft: ReturnType<typeof engineDraftFrom>) => ({ lifterType: draft.lifterType, firingOrder: draft.firingOrder });
 
   it('round-trips the demo engine exactly', () => {
-    const draft = engineDraftFrom({ ...DEMO_ENGINE, firingOrder: '1-8-4-3-6-5-7-2' });
+    const draft = engineDraftFrom(demoEngine);
     const result = resolveDrafts(engineNumberList, draft, extras(draft), engineSchema, imperial);
     expect(result.errors).toBeNull();
-    expect(result.values).toEqual({ ...DEMO_ENGINE, firingOrder: '1-8-4-3-6-5-7-2' });
+    expect(result.values).toEqual(demoEngine);
   });
 
   it('names every blank field of a new engine', () => {
@@ -145,14 +147,14 @@ describe('resolveDrafts', () => {
   });
 
   it('puts the schema rule on coil-bind height', () => {
-    const draft = engineDraftFrom(DEMO_ENGINE);
+    const draft = engineDraftFrom(demoEngine);
     draft.spring.coilBindHeight = draftFromText(engineNumberSpecs.coilBindHeight, '1.900', imperial);
     const result = resolveDrafts(engineNumberList, draft, extras(draft), engineSchema, imperial);
     expect(result.errors).toEqual({ 'spring.coilBindHeight': 'Coil-bind height must be below the installed height' });
   });
 
   it('checks a profile, with a blank base circle saved as null', () => {
-    const draft = profileDraftFrom({ label: 'Towing', coreNotes: '', spec: { ...DEMO_TOWING, baseCircle: null } });
+    const draft = profileDraftFrom({ label: 'Towing', coreNotes: '', spec: { ...demoTowing, baseCircle: null } });
     const result = resolveDrafts(profileNumberList, draft, { label: draft.label, coreNotes: draft.coreNotes }, profileCreateSchema, imperial);
     expect(result.errors).toBeNull();
     expect(result.values?.spec.baseCircle).toBeNull();
@@ -161,7 +163,7 @@ describe('resolveDrafts', () => {
   });
 
   it('blames advertised duration when it is not longer than the 0.050 in duration', () => {
-    const draft = profileDraftFrom({ label: 'Towing', coreNotes: '', spec: DEMO_TOWING });
+    const draft = profileDraftFrom({ label: 'Towing', coreNotes: '', spec: demoTowing });
     draft.spec.intake.advertisedDuration = draftFromText(profileNumberSpecs.intake.advertisedDuration, '200', imperial);
     const result = resolveDrafts(profileNumberList, draft, { label: draft.label, coreNotes: draft.coreNotes }, profileCreateSchema, imperial);
     expect(result.errors).toEqual({ 'spec.intake.advertisedDuration': 'Advertised duration must be longer than the duration at 0.050 in' });
