@@ -1,10 +1,14 @@
-import { count, eq } from 'drizzle-orm';
+import { asc, count, eq, isNull } from 'drizzle-orm';
 import { describe, expect, it } from 'vitest';
 
+import { DEMO_STOCK_REGRIND, DEMO_TOWING } from '@/calc/demo';
 import { createAuth } from '@/server/auth';
+import { analyzeRecords, revisionResults } from '@/shared/analysis';
+import { engineSchema } from '@/shared/engine';
+import { profileSpecSchema } from '@/shared/profile';
 
 import { openDb, schema } from './index';
-import { demoAccounts, demoJobId, seedDemo } from './seed';
+import { demoAccounts, demoJobId, demoSheetId, seedDemo } from './seed';
 
 describe('demo seed', () => {
   it('writes both shops, one person per role and the demo job, and adds nothing on a second run', async () => {
@@ -19,5 +23,64 @@ describe('demo seed', () => {
     const job = db.select().from(schema.jobs).where(eq(schema.jobs.id, demoJobId)).get();
     expect(job?.mileage).toBe(161000);
     expect(job?.vehicle).toMatch(/demo/);
+  });
+});
+
+describe('demo comparison data', () => {
+  it('gives the demo job its engine, both demo profiles from the library, and a draft sheet, once', async () => {
+    const db = openDb(':memory:');
+    const auth = createAuth({ db, baseURL: 'http://localhost:8080', secret: 'test-secret-test-secret-test-secret' });
+    await seedDemo(db, auth);
+    await seedDemo(db, auth);
+
+    const engines = db.select().from(schema.engines).all();
+    expect(engines).toHaveLength(1);
+    const engine = engines[0]!;
+    expect(engine.jobId).toBe(demoJobId);
+    expect(engineSchema.parse(engine.spec)).toEqual(engine.spec);
+    expect(engine.spec).toMatchObject({ bore: 4.03, stroke: 3.6, rodLength: 6, chamberCc: 68, cylinders: 8 });
+    expect(engine.spec.firingOrder).toMatch(/^\d(-\d)+$/);
+
+    const library = db
+      .select()
+      .from(schema.camProfiles)
+      .where(isNull(schema.camProfiles.jobId))
+      .orderBy(asc(schema.camProfiles.label))
+      .all();
+    expect(library.map((p) => p.label)).toEqual(['Stock-spec regrind (demo)', 'Towing regrind (demo)']);
+    expect(library.map((p) => p.spec)).toEqual([
+      profileSpecSchema.parse(DEMO_STOCK_REGRIND),
+      profileSpecSchema.parse(DEMO_TOWING),
+    ]);
+    for (const p of library) expect(p.coreNotes).toMatch(/^Demo data\./);
+
+    const onJob = db
+      .select()
+      .from(schema.camProfiles)
+      .where(eq(schema.camProfiles.jobId, demoJobId))
+      .orderBy(asc(schema.camProfiles.label))
+      .all();
+    expect(onJob).toHaveLength(2);
+    onJob.forEach((copy, i) => {
+      expect(copy.sourceProfileId).toBe(library[i]!.id);
+      expect({ label: copy.label, spec: copy.spec, coreNotes: copy.coreNotes }).toEqual({
+        label: library[i]!.label,
+        spec: library[i]!.spec,
+        coreNotes: library[i]!.coreNotes,
+      });
+    });
+
+    const sheets = db.select().from(schema.specSheets).all();
+    expect(sheets.map((s) => [s.id, s.jobId])).toEqual([[demoSheetId, demoJobId]]);
+    const revisions = db
+      .select()
+      .from(schema.sheetRevisions)
+      .where(eq(schema.sheetRevisions.sheetId, demoSheetId))
+      .all();
+    expect(revisions).toHaveLength(1);
+    const rev = revisions[0]!;
+    expect(rev).toMatchObject({ number: 1, state: 'draft', label: 'Towing regrind (demo)', engine: engine.spec });
+    expect(rev.spec).toEqual(library[1]!.spec);
+    expect(rev.results).toEqual(JSON.parse(JSON.stringify(revisionResults(analyzeRecords(engine.spec, rev.spec)))));
   });
 });

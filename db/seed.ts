@@ -1,7 +1,11 @@
 import { eq } from 'drizzle-orm';
 
+import { DEMO_ENGINE, DEMO_STOCK_REGRIND, DEMO_TOWING } from '@/calc/demo';
 import { createAuth, type Auth } from '@/server/auth';
 import { readConfig } from '@/server/config';
+import { analyzeRecords, revisionResults } from '@/shared/analysis';
+import { engineSchema } from '@/shared/engine';
+import { profileCreateSchema } from '@/shared/profile';
 import type { ShopKind, ShopRole } from '@/shared/roles';
 
 import { openDb, schema, type Db } from './index';
@@ -32,6 +36,35 @@ export const demoAccounts: { email: string; name: string; role: ShopRole; shop: 
 ];
 
 export const demoJobId = 'demo-job-flatbed-cam';
+
+/** The demo job's engine: calc's invented demo geometry plus a firing order. */
+export const demoEngine = engineSchema.parse({ ...DEMO_ENGINE, firingOrder: '1-8-4-3-6-5-7-2' });
+
+/** The two library profiles the builder compares; each is also copied into the demo job. */
+export const demoProfiles = [
+  {
+    id: 'demo-profile-stock-regrind',
+    jobCopyId: 'demo-job-profile-stock-regrind',
+    ...profileCreateSchema.parse({
+      label: 'Stock-spec regrind (demo)',
+      coreNotes:
+        "Demo data. Reground on the customer's own core back to the factory events; base circle cleaned up to 1.200 in, which takes the galled cylinder 3 exhaust lobe back to sound metal.",
+      spec: DEMO_STOCK_REGRIND,
+    }),
+  },
+  {
+    id: 'demo-profile-towing',
+    jobCopyId: 'demo-job-profile-towing',
+    ...profileCreateSchema.parse({
+      label: 'Towing regrind (demo)',
+      coreNotes:
+        'Demo data. Same core with a little more lift and duration and a tighter lobe separation for pulling a loaded trailer at low engine speed. Check piston-to-valve clearance with clay before the engine runs.',
+      spec: DEMO_TOWING,
+    }),
+  },
+];
+
+export const demoSheetId = 'demo-sheet-flatbed-towing';
 
 /** Writes the demo shops, people and job. Safe to run again: it only adds what is missing. */
 export async function seedDemo(db: Db, auth: Auth) {
@@ -64,6 +97,39 @@ export async function seedDemo(db: Db, auth: Auth) {
       mileage: 161000,
       status: 'teardown',
       createdBy: builder?.id ?? null,
+    })
+    .onConflictDoNothing()
+    .run();
+
+  const shopId = juniper.id;
+  const createdBy = builder?.id ?? null;
+  db.insert(schema.engines).values({ jobId: demoJobId, shopId, spec: demoEngine }).onConflictDoNothing().run();
+  for (const { id, jobCopyId, label, coreNotes, spec } of demoProfiles) {
+    db.insert(schema.camProfiles)
+      .values([
+        { id, shopId, jobId: null, label, coreNotes, spec, createdBy },
+        { id: jobCopyId, shopId, jobId: demoJobId, sourceProfileId: id, label, coreNotes, spec, createdBy },
+      ])
+      .onConflictDoNothing()
+      .run();
+  }
+  const towing = demoProfiles[1]!;
+  db.insert(schema.specSheets)
+    .values({ id: demoSheetId, shopId, jobId: demoJobId, title: 'Replacement cam for the flatbed (demo)', createdBy })
+    .onConflictDoNothing()
+    .run();
+  db.insert(schema.sheetRevisions)
+    .values({
+      id: `${demoSheetId}-rev-1`,
+      sheetId: demoSheetId,
+      number: 1,
+      state: 'draft',
+      label: towing.label,
+      spec: towing.spec,
+      engine: demoEngine,
+      results: revisionResults(analyzeRecords(demoEngine, towing.spec)),
+      note: 'Demo data. Draft: measure the PTV baseline with the old cam before this goes to the grinder.',
+      createdBy,
     })
     .onConflictDoNothing()
     .run();

@@ -2,10 +2,12 @@ import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { schema } from '@/db';
+import { demoAccounts, demoJobId, demoPassword, demoSheetId, seedDemo } from '@/db/seed';
 import { analyzeRecords, revisionResults } from '@/shared/analysis';
 import { engineSchema, type EngineSpec } from '@/shared/engine';
 import { profileSpecSchema, type ProfileSpec } from '@/shared/profile';
 import {
+  Client,
   createTestApp,
   makeEngineSpec,
   makeJobBody,
@@ -246,5 +248,28 @@ describe('spec sheets', () => {
     expect((await person.get(`/api/sheets/${sheet.id}`)).status).toBe(403);
     expect((await person.get(`/api/jobs/${jobId}/sheets`)).status).toBe(403);
     expect((await person.patch(`/api/sheets/${sheet.id}`, { version: 1, note: 'x' })).status).toBe(403);
+  });
+});
+
+describe('demo data through the API', () => {
+  it('shows the demo builder the engine, both profiles and the draft sheet on the demo job', async () => {
+    await seedDemo(t.db, t.app.auth);
+    const builder = new Client(t.url);
+    const email = demoAccounts.find((a) => a.role === 'builder')!.email;
+    expect((await builder.post('/api/auth/sign-in/email', { email, password: demoPassword })).status).toBe(200);
+
+    expect((await builder.get(`/api/jobs/${demoJobId}/engine`)).body.engine).toMatchObject({ version: 1, engine: { bore: 4.03 } });
+    const onJob = (await builder.get(`/api/jobs/${demoJobId}/profiles`)).body.profiles;
+    expect(onJob.map((p: { label: string }) => p.label).sort()).toEqual(['Stock-spec regrind (demo)', 'Towing regrind (demo)']);
+    const library = (await builder.get('/api/profiles')).body.profiles;
+    expect(onJob.map((p: { sourceProfileId: string }) => p.sourceProfileId).sort()).toEqual(library.map((p: { id: string }) => p.id).sort());
+
+    const sheets = (await builder.get(`/api/jobs/${demoJobId}/sheets`)).body.sheets;
+    expect(sheets.map((s: { id: string }) => s.id)).toEqual([demoSheetId]);
+    const sheet = (await builder.get(`/api/sheets/${demoSheetId}`)).body.sheet;
+    expect(sheet.current).toMatchObject({ number: 1, state: 'draft', label: 'Towing regrind (demo)' });
+    const saved = await builder.patch(`/api/sheets/${demoSheetId}`, { version: sheet.version, newRevision: true, note: 'Demo revision 2' });
+    expect(saved.status).toBe(200);
+    expect(saved.body.sheet.revisions.map((r: { number: number }) => r.number)).toEqual([1, 2]);
   });
 });
