@@ -1,3 +1,4 @@
+import { useRouter, type Href } from 'expo-router';
 import { ActivityIndicator, Pressable, StyleSheet, Text, type PressableProps } from 'react-native';
 
 import { colors, fonts, radius, space, touchTarget } from '@/constants/theme';
@@ -8,15 +9,19 @@ type ButtonProps = Omit<PressableProps, 'children' | 'style'> & {
   label: string;
   variant?: Variant;
   busy?: boolean;
+  /** Navigate here when pressed (announced as a link). */
+  href?: Href;
   testID?: string;
 };
 
 /** A labelled button; shows a spinner and stays disabled while `busy`. */
-export function Button({ label, variant = 'primary', busy = false, disabled, ...rest }: ButtonProps) {
+export function Button({ label, variant = 'primary', busy = false, disabled, href, onPress, ...rest }: ButtonProps) {
+  const router = useRouter();
   const off = disabled || busy;
   return (
     <Pressable
-      accessibilityRole="button"
+      accessibilityRole={href ? 'link' : 'button'}
+      onPress={href ? () => router.push(href) : onPress}
       accessibilityState={{ disabled: off, busy }}
       disabled={off}
       style={({ pressed }) => [

@@ -25,7 +25,12 @@ export const colors = {
   intake: '#1F5F9E',
   exhaust: '#A6261C',
   overlay: 'rgba(28,31,34,0.45)',
+  overlapShade: 'rgba(180,81,15,0.12)',
+  grid: '#DDD6C6',
 } as const;
+
+/** Line colours for the profiles on a plot, in order (first = the baseline profile). */
+export const seriesColors = ['#145C52', '#9A4B0B', '#5B3E96'] as const;
 
 export const space = { xs: 4, sm: 8, md: 12, lg: 16, xl: 24, xxl: 32, xxxl: 48 } as const;
 

@@ -4,6 +4,7 @@ import { StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { JobForm } from '@/components/job-form';
+import { EngineSummary, JobProfiles, JobSheets } from '@/components/job-sections';
 import { ErrorNotice, Pending } from '@/components/query-state';
 import { Screen, Section } from '@/components/screen';
 import { StatusChip } from '@/components/status-chip';
@@ -35,7 +36,9 @@ export default function JobPage() {
 
 function JobDetail({ job }: { job: Job }) {
   const wide = useWindowDimensions().width >= breakpoints.wide;
-  const canEdit = roleAllows(useMeQuery().data?.activeShop?.role, { job: ['update'] });
+  const role = useMeQuery().data?.activeShop?.role;
+  const canEdit = roleAllows(role, { job: ['update'] });
+  const canWrite = roleAllows(role, { sheet: ['write'] });
   const save = useSaveJobMutation(job.id);
   const [editing, setEditing] = useState(false);
 
@@ -63,14 +66,12 @@ function JobDetail({ job }: { job: Job }) {
         </Section>
       ) : (
         <View style={wide ? styles.columns : styles.stack}>
-          <View style={wide ? styles.column : undefined}>
+          <View style={[wide ? styles.column : undefined, styles.stack]}>
             <Section title="Complaint">
               <Text style={styles.body} testID="job-complaint-text">
                 {job.complaint || 'No complaint recorded yet.'}
               </Text>
             </Section>
-          </View>
-          <View style={[wide ? styles.column : undefined, styles.stack]}>
             <Section title="Findings">
               <Text style={styles.body} testID="job-findings-text">
                 {job.findings || 'Nothing recorded from teardown yet.'}
@@ -83,6 +84,11 @@ function JobDetail({ job }: { job: Job }) {
                 Last saved {formatDateTime(job.updatedAt)} (version {job.version})
               </Text>
             </Section>
+          </View>
+          <View style={[wide ? styles.column : undefined, styles.stack]}>
+            <EngineSummary jobId={job.id} canWrite={canWrite} />
+            <JobProfiles jobId={job.id} canWrite={canWrite} />
+            <JobSheets jobId={job.id} />
           </View>
         </View>
       )}
