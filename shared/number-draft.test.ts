@@ -146,6 +146,15 @@ describe('resolveDrafts', () => {
     expect(result.errors?.['spring.seatLoad']).toBe('Enter the seat load');
   });
 
+  it('reports a text field alongside number fields', () => {
+    const draft = profileDraftFrom(null);
+    const result = resolveDrafts(profileNumberList, draft, { label: ' ', coreNotes: '' }, profileCreateSchema, imperial);
+    expect(result.errors?.label).toBe('Name the profile');
+    expect(result.errors?.['spec.intake.duration050']).toBe('Enter the intake duration at 0.050 in');
+    expect(result.errors?.['spec.baseCircle']).toBeUndefined();
+    expect(result.errors?.['spec.intake.lash']).toBeUndefined();
+  });
+
   it('puts the schema rule on coil-bind height', () => {
     const draft = engineDraftFrom(demoEngine);
     draft.spring.coilBindHeight = draftFromText(engineNumberSpecs.coilBindHeight, '1.900', imperial);

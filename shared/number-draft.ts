@@ -171,8 +171,9 @@ export type DraftResult<T> = { values: T; errors: null } | { values: null; error
 
 /**
  * Turns drafts into the record the schema takes. Each number field is checked
- * on its own first, with messages in the unit shown; then the schema checks
- * the rest (cross-field rules such as coil bind below installed height).
+ * on its own, with messages in the unit shown; the schema then checks the
+ * rest (text fields, and cross-field rules such as coil bind below installed
+ * height), and every field keeps its first message.
  */
 export function resolveDrafts<T>(
   specs: readonly NumberSpec[],
@@ -188,11 +189,12 @@ export function resolveDrafts<T>(
     const checked = draft ?? { text: '', unit: spec.unit, value: null };
     const problem = checkDraft(spec, checked, units);
     if (problem) errors[spec.path] = problem;
-    else setAt(record, spec.path, checked.value);
+    // A failed field is left undefined, inside its parent object, so the schema still reaches its siblings.
+    setAt(record, spec.path, problem ? undefined : checked.value);
   }
-  if (Object.keys(errors).length > 0) return { values: null, errors };
   const parsed = schema.safeParse(record);
-  if (parsed.success) return { values: parsed.data, errors: null };
+  if (parsed.success && Object.keys(errors).length === 0) return { values: parsed.data, errors: null };
+  if (parsed.success) return { values: null, errors };
   const byPath = new Map(specs.map((spec) => [spec.path, spec]));
   for (const issue of parsed.error.issues) {
     const path = issue.path.map(String).join('.') || '(form)';
