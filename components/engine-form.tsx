@@ -1,4 +1,4 @@
-import { useEffect, useMemo, useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { Controller, useForm, type FieldPath } from 'react-hook-form';
 import { StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 
@@ -56,26 +56,28 @@ export function EngineForm({ jobId, record, readOnly, onReload }: EngineFormProp
   const [reloading, setReloading] = useState(false);
   const save = useSaveEngineMutation(jobId);
 
-  const resolver = useMemo(
-    () =>
-      draftResolver<EngineDraft, EngineSpec>(
-        engineNumberList,
-        engineSchema,
-        (values) => ({ lifterType: values.lifterType, firingOrder: values.firingOrder }),
-        converter,
-      ),
-    [converter],
+  // Rebuilt each render with the current units; useForm reads its options on every render.
+  const resolver = draftResolver<EngineDraft, EngineSpec>(
+    engineNumberList,
+    engineSchema,
+    (values) => ({ lifterType: values.lifterType, firingOrder: values.firingOrder }),
+    converter,
   );
   const { control, handleSubmit, reset, setError, trigger, formState } = useForm<EngineDraft, unknown, EngineSpec>({
     resolver,
     defaultValues: engineDraftFrom(record?.engine),
   });
 
-  // Messages name a unit; after a switch, say them again in the new one.
+  // Messages name a unit: after a switch, say them again in the new one. Keyed on the choice, not the
+  // converter object (a new one each render), and only on a change, so server messages stay put after a save.
   const { isSubmitted } = formState;
+  const unitsKey = `${lengthSystem} ${volumeUnit} ${converter !== null}`;
+  const shownIn = useRef(unitsKey);
   useEffect(() => {
+    if (shownIn.current === unitsKey) return;
+    shownIn.current = unitsKey;
     if (isSubmitted && converter) void trigger();
-  }, [lengthSystem, volumeUnit, converter, isSubmitted, trigger]);
+  }, [unitsKey, isSubmitted, converter, trigger]);
 
   const submit = handleSubmit(async (engine) => {
     setOutcome(null);

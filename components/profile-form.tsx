@@ -1,4 +1,4 @@
-import { useEffect, useMemo, useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { Controller, useForm, type Control, type FieldPath } from 'react-hook-form';
 import { StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 
@@ -53,25 +53,28 @@ export function ProfileForm({ profile, readOnly, submitLabel, busy, onSubmit, on
   const [outcome, setOutcome] = useState<SaveOutcome | null>(null);
   const [reloading, setReloading] = useState(false);
 
-  const resolver = useMemo(
-    () =>
-      draftResolver<ProfileDraft, ProfileValues>(
-        profileNumberList,
-        profileCreateSchema,
-        (values) => ({ label: values.label, coreNotes: values.coreNotes }),
-        converter,
-      ),
-    [converter],
+  // Rebuilt each render with the current units; useForm reads its options on every render.
+  const resolver = draftResolver<ProfileDraft, ProfileValues>(
+    profileNumberList,
+    profileCreateSchema,
+    (values) => ({ label: values.label, coreNotes: values.coreNotes }),
+    converter,
   );
   const { control, handleSubmit, reset, setError, trigger, formState } = useForm<ProfileDraft, unknown, ProfileValues>({
     resolver,
     defaultValues: profileDraftFrom(profile),
   });
 
+  // Messages name a unit: after a switch, say them again in the new one. Keyed on the choice, not the
+  // converter object (a new one each render), and only on a change, so server messages stay put after a save.
   const { isSubmitted } = formState;
+  const unitsKey = `${lengthSystem} ${converter !== null}`;
+  const shownIn = useRef(unitsKey);
   useEffect(() => {
+    if (shownIn.current === unitsKey) return;
+    shownIn.current = unitsKey;
     if (isSubmitted && converter) void trigger();
-  }, [lengthSystem, converter, isSubmitted, trigger]);
+  }, [unitsKey, isSubmitted, converter, trigger]);
 
   const submit = handleSubmit(async (values) => {
     setOutcome(null);
