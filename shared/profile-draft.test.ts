@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { DEMO_TOWING } from '@/calc/demo';
 
 import { profileSpecSchema } from './profile';
-import { applyDraft, draftText } from './profile-draft';
+import { applyDraft, draftText, sameSpec } from './profile-draft';
 
 const spec = profileSpecSchema.parse(DEMO_TOWING);
 
@@ -30,5 +30,14 @@ describe('profile drafts', () => {
     const result = applyDraft(spec, { 'exhaust.advertisedDuration': '200' });
     expect(result.ok).toBe(false);
     if (!result.ok) expect(result.errors['exhaust.advertisedDuration']).toMatch(/longer than the duration at 0.050/);
+  });
+});
+
+describe('sameSpec', () => {
+  it('ignores key order and notices any changed number', () => {
+    const reordered = { icl: spec.icl, lsa: spec.lsa, baseCircle: spec.baseCircle, exhaust: spec.exhaust, intake: { ...spec.intake } };
+    expect(sameSpec(spec, reordered)).toBe(true);
+    expect(sameSpec(spec, { ...spec, intake: { ...spec.intake, lash: 0.001 } })).toBe(false);
+    expect(sameSpec(spec, { ...spec, baseCircle: null })).toBe(false);
   });
 });

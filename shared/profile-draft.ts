@@ -50,3 +50,14 @@ export function applyDraft(
   for (const issue of parsed.error.issues) errors[issue.path.join('.')] ??= issue.message;
   return { ok: false, errors };
 }
+
+/** True when two specs hold the same numbers (key order does not matter). */
+export function sameSpec(a: ProfileSpec, b: ProfileSpec): boolean {
+  const same = (x: unknown, y: unknown): boolean => {
+    if (x === y) return true;
+    if (typeof x !== 'object' || typeof y !== 'object' || x === null || y === null) return false;
+    const kx = Object.keys(x);
+    return kx.length === Object.keys(y).length && kx.every((k) => same((x as Record<string, unknown>)[k], (y as Record<string, unknown>)[k]));
+  };
+  return same(a, b);
+}

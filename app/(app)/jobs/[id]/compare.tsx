@@ -28,7 +28,7 @@ import { analyzeRecords } from '@/shared/analysis';
 import { allCautions } from '@/shared/cautions';
 import type { EngineSpec } from '@/shared/engine';
 import type { Profile, ProfileSpec } from '@/shared/profile';
-import { applyDraft, type ProfileDraft } from '@/shared/profile-draft';
+import { applyDraft, sameSpec, type ProfileDraft } from '@/shared/profile-draft';
 import { roleAllows } from '@/shared/roles';
 
 type Column = { profile: Profile; spec: ProfileSpec; analysis: ProfileAnalysis | null; error: string | null; fieldErrors: Partial<Record<string, string>> };
@@ -237,6 +237,7 @@ function EditPanel({
   const dirty = Boolean(draft && Object.keys(draft).length);
   const valid = column !== undefined && Object.keys(column.fieldErrors).length === 0 && column.analysis !== null;
   const busy = saveSheet.isPending || createSheet.isPending || saveProfile.isPending;
+  const sameAsSheet = Boolean(sheet && column && sheet.current.label === profile.label && sameSpec(sheet.current.spec, column.spec));
 
   const run = async (action: () => Promise<string>) => {
     setSaved(null);
@@ -280,6 +281,7 @@ function EditPanel({
         />
       ) : null}
       <Text style={styles.note}>Changes recompute at once on this device. Nothing is saved until you choose below.</Text>
+      {sameAsSheet ? <Text style={styles.note}>These values match the sheet’s current revision.</Text> : null}
       <ProfileDraftEditor
         spec={profile.spec}
         draft={draft ?? {}}
@@ -299,7 +301,7 @@ function EditPanel({
             label={sheet ? `Save to sheet as revision ${sheet.current.number + 1}` : 'Start a spec sheet with these values'}
             onPress={toSheet}
             busy={saveSheet.isPending || createSheet.isPending}
-            disabled={!valid || busy || (!sheet && dirty)}
+            disabled={!valid || busy || (!sheet && dirty) || sameAsSheet}
             testID="save-to-sheet"
           />
           <Button label="Save profile" variant="secondary" onPress={toProfile} busy={saveProfile.isPending} disabled={!valid || !dirty || busy} testID="save-profile" />

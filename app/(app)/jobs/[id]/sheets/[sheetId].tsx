@@ -69,7 +69,7 @@ function SheetView({ sheet, back }: { sheet: SheetWithHistory; back: { href: Hre
                 <View key={r.id} role="listitem" style={[styles.historyItem, r.number === shown.number && styles.historyActive]} testID={`history-${r.number}`}>
                   <View style={styles.grow}>
                     <Text style={styles.historyTitle}>
-                      Revision {r.number} · {r.state === 'draft' ? 'draft' : 'issued'}
+                      Revision {r.number} · {r.state === 'issued' ? 'issued' : r.number === current.number ? 'draft' : 'earlier draft'}
                     </Text>
                     <Text style={styles.meta}>
                       {r.label} · {formatDateTime(r.updatedAt)}

@@ -1,0 +1,71 @@
+import type { Browser } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
+import { baseUrl, demo, expectAccessible, launch, openPage, screenshot, shown, signIn, viewports, type ViewportName } from './browser';
+
+let browser: Browser;
+beforeAll(async () => {
+  browser = await launch();
+});
+afterAll(() => browser.close());
+
+describe.each(Object.keys(viewports) as ViewportName[])('compare and revise at %s width', (viewport) => {
+  it('compares the demo profiles, edits the towing intake duration, and saves a new revision', async () => {
+    const { page, errors, close } = await openPage(browser, viewport);
+    await signIn(page, demo.builder);
+    await page.goto(`${baseUrl()}/jobs/demo-job-flatbed-cam`);
+    await shown(page, 'engine-summary').waitFor();
+    await shown(page, 'open-compare').click();
+
+    await shown(page, 'compare-screen').waitFor();
+    const plot = shown(page, 'lift-plot');
+    await plot.locator('path').first().waitFor();
+    // Two profiles, intake and exhaust each.
+    expect(await plot.locator('path').count()).toBe(4);
+    // Overlap at 0.050 in (common practice, no source): stock (204 + 210)/2 − 2·114 = −21, towing (212 + 220)/2 − 2·112 = −8.
+    await expect.poll(() => shown(page, 'cell-at050.overlap-0').textContent()).toContain('−21.0');
+    await expect.poll(() => shown(page, 'cell-at050.overlap-1').textContent()).toContain('−8.0');
+    expect(await shown(page, 'delta-at050.overlap-1').textContent()).toContain('+13.0');
+    await expectAccessible(page);
+    await screenshot(page, `compare-${viewport}`);
+
+    const before = await plot.locator('path').nth(3).getAttribute('d');
+    // Try an intake duration the sheet does not hold yet, so every run writes a real change.
+    const current = await page.request.get(`${baseUrl()}/api/sheets/demo-sheet-flatbed-towing`);
+    const held = ((await current.json()) as { sheet: { current: { spec: { intake: { duration050: number } } } } }).sheet.current.spec.intake.duration050;
+    const duration = held < 226 ? held + 2 : 214;
+    // Overlap at 0.050 in = (Di + De)/2 − 2·LSA, IVC = Di/2 + ICL − 180 (common practice, no source), with De 220, LSA 112, ICL 108.
+    const overlap = (duration + 220) / 2 - 224;
+    const ivc = duration / 2 + 108 - 180;
+    await shown(page, 'draft-intake.duration050').fill(String(duration));
+    await expect.poll(() => shown(page, 'cell-at050.overlap-1').textContent()).toContain(`−${Math.abs(overlap).toFixed(1)}`);
+    expect(await shown(page, 'delta-at050.overlap-1').textContent()).toContain(`+${(overlap + 21).toFixed(1)}`);
+    expect(await shown(page, 'cell-at050.ivc-1').textContent()).toContain(ivc.toFixed(1));
+    expect(await plot.locator('path').nth(3).getAttribute('d')).not.toBe(before);
+
+    await shown(page, 'draft-icl').fill('300');
+    await expect.poll(() => shown(page, 'draft-icl-error').textContent()).toMatch(/between 90 and 135/);
+    expect(await shown(page, 'save-to-sheet').isDisabled()).toBe(true);
+    await shown(page, 'draft-icl').fill('108');
+
+    const label = (await shown(page, 'save-to-sheet').textContent()) ?? '';
+    const next = Number(/revision (\d+)/.exec(label)?.[1]);
+    expect(next).toBeGreaterThan(1);
+    await shown(page, 'save-to-sheet').click();
+    await expect.poll(() => shown(page, 'save-result').textContent()).toContain(`Saved as revision ${next}`);
+    await screenshot(page, `compare-saved-${viewport}`);
+
+    await shown(page, 'open-sheet').click();
+    await shown(page, 'sheet-screen').waitFor();
+    await shown(page, `history-${next}`).waitFor();
+    await shown(page, `history-${next - 1}`).waitFor();
+    expect(await shown(page, 'sheet-duration050').textContent()).toContain(`${duration}.0`);
+    const diff = shown(page, 'revision-diff');
+    await expect.poll(() => diff.textContent()).toContain('Intake duration at 0.050 in (°)');
+    expect(await diff.textContent()).toMatch(new RegExp(`\\d+ → ${duration}`));
+    await expectAccessible(page);
+    await screenshot(page, `sheet-${viewport}`);
+    expect(errors).toEqual([]);
+    await close();
+  });
+});
