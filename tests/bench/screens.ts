@@ -1,0 +1,61 @@
+/**
+ * Screen budgets:
+ * - edit to paint: one keystroke on the compare screen re-parses the typed value, re-runs the analysis of
+ *   the edited profile and of the baseline, and rebuilds the SVG paths (budget 16 ms, one frame at 60 Hz);
+ * - first-load JS: the gzipped entry bundle of the web export (budget 510 KB). Builds dist/ first if missing.
+ *
+ * Run: npm run bench. Exits 1 when a budget is missed.
+ */
+import { execSync } from 'node:child_process';
+import fs from 'node:fs';
+import path from 'node:path';
+import zlib from 'node:zlib';
+
+import { DEMO_ENGINE, DEMO_STOCK_REGRIND, DEMO_TOWING } from '@/calc/demo';
+import { buildPlotPaths } from '@/components/lift-plot-paths';
+import { analyzeRecords } from '@/shared/analysis';
+import { engineSchema } from '@/shared/engine';
+import { profileSpecSchema } from '@/shared/profile';
+import { applyDraft } from '@/shared/profile-draft';
+
+const FRAME_BUDGET_MS = 16;
+const BUNDLE_BUDGET_KB = 510;
+
+const engine = engineSchema.parse({ ...DEMO_ENGINE, firingOrder: '1-8-4-3-6-5-7-2' });
+const stock = profileSpecSchema.parse(DEMO_STOCK_REGRIND);
+const towing = profileSpecSchema.parse(DEMO_TOWING);
+const frame = { width: 760, height: 300, padding: { top: 16, right: 12, bottom: 36, left: 52 }, from: -270, to: 270 };
+
+function editToPaths(keystroke: number): number {
+  const t0 = performance.now();
+  const draft = applyDraft(towing, { 'intake.duration050': String(206 + (keystroke % 20)) });
+  if (!draft.ok) throw new Error('bench draft rejected');
+  const analyses = [analyzeRecords(engine, stock), analyzeRecords(engine, draft.spec)];
+  const paths = buildPlotPaths(analyses, 'lift', frame);
+  if (!paths.series[1]?.intake) throw new Error('no path');
+  return performance.now() - t0;
+}
+
+for (let i = 0; i < 50; i++) editToPaths(i);
+const times = Array.from({ length: 400 }, (_, i) => editToPaths(i)).sort((a, b) => a - b);
+const p50 = times[Math.floor(times.length * 0.5)] ?? Infinity;
+const p95 = times[Math.floor(times.length * 0.95)] ?? Infinity;
+console.log(`edit to new plot paths: median ${p50.toFixed(2)} ms, p95 ${p95.toFixed(2)} ms (budget ${FRAME_BUDGET_MS} ms)`);
+
+const root = path.resolve(__dirname, '..', '..');
+const webDir = path.resolve(root, process.env.WEB_DIR || 'dist');
+const jsDir = path.join(webDir, '_expo', 'static', 'js', 'web');
+if (!fs.existsSync(jsDir)) {
+  console.log('No web export yet: building it (npm run build)…');
+  execSync('npm run build', { cwd: root, stdio: 'inherit' });
+}
+const entry = fs.readdirSync(jsDir).find((f) => f.startsWith('entry-') && f.endsWith('.js'));
+if (!entry) throw new Error(`No entry bundle in ${jsDir}`);
+const gzippedKb = zlib.gzipSync(fs.readFileSync(path.join(jsDir, entry)), { level: 9 }).length / 1024;
+console.log(`first-load JS gzipped: ${gzippedKb.toFixed(0)} KB (budget ${BUNDLE_BUDGET_KB} KB; lazy chunks such as unit conversion not counted)`);
+
+const missed = [p95 > FRAME_BUDGET_MS && 'edit to paint', gzippedKb > BUNDLE_BUDGET_KB && 'first-load JS'].filter(Boolean);
+if (missed.length) {
+  console.error(`screen bench: OVER BUDGET (${missed.join(', ')})`);
+  process.exit(1);
+}
