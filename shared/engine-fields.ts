@@ -63,7 +63,7 @@ export const engineNumberSpecs = {
     label: 'Valve angle',
     quantity: null,
     unit: '°',
-    digits: 1,
+    digits: 0,
     hint: 'Valve stem to the bore axis',
     ...range(shape.valveAngle),
   },

@@ -52,6 +52,7 @@ describe.each(Object.keys(viewports) as ViewportName[])('at %s width', (viewport
     expect(await value(page, 'engine-chamberCc')).toBe('68.0');
     expect(await value(page, 'engine-spring-coilBindHeight')).toBe('1.150');
 
+    const seededSeatLoad = await value(page, 'engine-spring-seatLoad');
     const seatLoad = viewport === 'phone' ? '118' : '121';
     await shown(page, 'engine-spring-seatLoad').fill(seatLoad);
     await shown(page, 'engine-save').click();
@@ -62,6 +63,12 @@ describe.each(Object.keys(viewports) as ViewportName[])('at %s width', (viewport
     expect(await value(page, 'engine-spring-seatLoad')).toBe(seatLoad);
     expect(await value(page, 'engine-spring-coilBindHeight')).toBe('1.150');
     expect(await value(page, 'engine-bore')).toBe('4.030');
+
+    // Put the demo engine back as seeded, for the tests that read it.
+    await shown(page, 'engine-spring-seatLoad').fill(seededSeatLoad);
+    await shown(page, 'engine-save').click();
+    await expect.poll(() => shown(page, 'engine-notice-saved').textContent()).toMatch(/Engine saved/);
+    expect(await value(page, 'engine-spring-seatLoad')).toBe(seededSeatLoad);
     expect(errors).toEqual([]);
     await close();
   });

@@ -53,5 +53,5 @@ export default function Profiles() {
 const styles = StyleSheet.create({
   list: { gap: space.md },
   grid: { flexDirection: 'row', flexWrap: 'wrap' },
-  gridItem: { flexBasis: '48%', flexGrow: 1 },
+  gridItem: { flexBasis: '45%', flexGrow: 1, maxWidth: '49.4%' },
 });
