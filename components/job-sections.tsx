@@ -1,3 +1,4 @@
+import { Link } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
@@ -83,9 +84,13 @@ export function JobProfiles({ jobId, canWrite }: { jobId: string; canWrite: bool
       ) : (
         <View role="list" style={styles.list}>
           {profiles.data.map((p) => (
-            <View key={p.id} role="listitem" style={styles.item} testID={`job-profile-${p.id}`}>
-              <Text style={styles.itemTitle}>{p.label}</Text>
-              <Text style={styles.itemMeta}>{profileLine(p)}</Text>
+            <View key={p.id} role="listitem">
+              <Link href={{ pathname: '/profiles/[id]', params: { id: p.id } }} style={styles.item} testID={`job-profile-${p.id}`}>
+                <View style={styles.grow}>
+                  <Text style={styles.itemTitle}>{p.label}</Text>
+                  <Text style={styles.itemMeta}>{profileLine(p)}</Text>
+                </View>
+              </Link>
             </View>
           ))}
         </View>
@@ -96,6 +101,9 @@ export function JobProfiles({ jobId, canWrite }: { jobId: string; canWrite: bool
         ) : null}
         {canWrite ? (
           <Button label={copying ? 'Close the library' : 'Copy from the library'} variant="secondary" onPress={() => setCopying((c) => !c)} testID="copy-from-library" />
+        ) : null}
+        {canWrite ? (
+          <Button label="Write a new profile" variant="quiet" href={`/profiles/new?job=${jobId}`} testID="new-job-profile" />
         ) : null}
       </View>
       {copying ? (
@@ -166,7 +174,7 @@ const styles = StyleSheet.create({
   factLabel: { ...typeScale.small, color: colors.inkMuted },
   factValue: { ...typeScale.number, color: colors.ink },
   list: { gap: space.sm },
-  item: { gap: 2, padding: space.md, borderRadius: radius.md, borderWidth: 1, borderColor: colors.line, backgroundColor: colors.paper },
+  item: { display: 'flex', gap: 2, padding: space.md, borderRadius: radius.md, borderWidth: 1, borderColor: colors.line, backgroundColor: colors.paper },
   row: { flexDirection: 'row', alignItems: 'center', gap: space.md, flexWrap: 'wrap' },
   grow: { flex: 1, minWidth: 180, gap: 2 },
   itemTitle: { fontFamily: fonts.semibold, fontSize: 16, color: colors.ink },
