@@ -25,6 +25,24 @@ export async function api<T>(path: string, init: { method?: string; body?: unkno
   } catch {
     throw new ApiError(0, 'offline', 'Cannot reach the Lobewright server. Check the connection and try again.');
   }
+  return readAnswer<T>(res);
+}
+
+/**
+ * Sends files (and any text fields) as multipart form data to our own origin.
+ * The browser sets the multipart boundary; errors come back as ApiError like api().
+ */
+export async function upload<T>(path: string, form: FormData, init: { method?: string } = {}): Promise<T> {
+  let res: Response;
+  try {
+    res = await fetch(path, { method: init.method ?? 'POST', credentials: 'same-origin', body: form });
+  } catch {
+    throw new ApiError(0, 'offline', 'Cannot reach the Lobewright server. Check the connection and try again.');
+  }
+  return readAnswer<T>(res);
+}
+
+async function readAnswer<T>(res: Response): Promise<T> {
   const text = await res.text();
   const data: unknown = text ? safeJson(text) : null;
   if (!res.ok) {

@@ -1,0 +1,32 @@
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+
+import type { FitCheckRun } from '@/shared/measurements';
+
+import { api, staleTimes } from './api';
+
+export const fitCheckKeys = {
+  all: ['fit-checks'] as const,
+  sheet: (sheetId: string) => [...fitCheckKeys.all, 'sheet', sheetId] as const,
+};
+
+/** Earlier runs on a sheet, newest first. */
+export function useFitCheckRunsQuery(sheetId: string | null) {
+  return useQuery({
+    queryKey: fitCheckKeys.sheet(sheetId ?? ''),
+    staleTime: staleTimes.list,
+    enabled: sheetId !== null,
+    queryFn: async () => {
+      const runs = (await api<{ runs: FitCheckRun[] }>(`/api/sheets/${encodeURIComponent(sheetId ?? '')}/fit-checks`)).runs;
+      return [...runs].sort((a, b) => (a.createdAt < b.createdAt ? 1 : a.createdAt > b.createdAt ? -1 : 0));
+    },
+  });
+}
+
+/** Runs every check against the sheet's current revision with the job's measurements and the shop's limits. */
+export function useRunFitChecksMutation(sheetId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: async () => (await api<{ run: FitCheckRun }>(`/api/sheets/${encodeURIComponent(sheetId)}/fit-checks`, { method: 'POST', body: {} })).run,
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: fitCheckKeys.sheet(sheetId) }),
+  });
+}

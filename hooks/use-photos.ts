@@ -1,0 +1,54 @@
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+
+import type { Photo } from '@/shared/measurements';
+
+import { api, staleTimes, upload } from './api';
+import { appendPickedFile, type PickedFile } from './form-file';
+
+export const photoKeys = {
+  all: ['photos'] as const,
+  job: (jobId: string) => [...photoKeys.all, 'job', jobId] as const,
+};
+
+export function useJobPhotosQuery(jobId: string) {
+  return useQuery({
+    queryKey: photoKeys.job(jobId),
+    staleTime: staleTimes.list,
+    queryFn: async () => (await api<{ photos: Photo[] }>(`/api/jobs/${encodeURIComponent(jobId)}/photos`)).photos,
+  });
+}
+
+function useSettle(jobId: string) {
+  const queryClient = useQueryClient();
+  return () => queryClient.invalidateQueries({ queryKey: photoKeys.job(jobId) });
+}
+
+/** Sends up to six photos in one request (field `files`). */
+export function useUploadPhotosMutation(jobId: string) {
+  const settle = useSettle(jobId);
+  return useMutation({
+    mutationFn: async (files: readonly PickedFile[]) => {
+      const form = new FormData();
+      for (const file of files) appendPickedFile(form, 'files', file);
+      return (await upload<{ photos: Photo[] }>(`/api/jobs/${encodeURIComponent(jobId)}/photos`, form)).photos;
+    },
+    onSuccess: settle,
+  });
+}
+
+export function useSavePhotoMutation(jobId: string) {
+  const settle = useSettle(jobId);
+  return useMutation({
+    mutationFn: async ({ id, ...body }: { id: string; caption?: string; shareable?: boolean }) =>
+      (await api<{ photo: Photo }>(`/api/photos/${encodeURIComponent(id)}`, { method: 'PATCH', body })).photo,
+    onSuccess: settle,
+  });
+}
+
+export function useDeletePhotoMutation(jobId: string) {
+  const settle = useSettle(jobId);
+  return useMutation({
+    mutationFn: (id: string) => api(`/api/photos/${encodeURIComponent(id)}`, { method: 'DELETE' }),
+    onSuccess: settle,
+  });
+}

@@ -1,0 +1,30 @@
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+
+import type { CheckLimitOverrides, CheckLimits } from '@/calc/checks';
+
+import { api, staleTimes } from './api';
+
+export type ShopLimitsAnswer = { limits: CheckLimitOverrides; version: number; resolved: CheckLimits };
+
+export const shopLimitKeys = { all: ['shop-limits'] as const };
+
+/** The shop's own limits, its version, and the limits the checks use (defaults merged, each with its source). */
+export function useShopLimitsQuery() {
+  return useQuery({
+    queryKey: shopLimitKeys.all,
+    staleTime: staleTimes.record,
+    queryFn: () => api<ShopLimitsAnswer>('/api/shop/limits'),
+  });
+}
+
+/** Saves the whole set of overrides; a stale version is a 409. Builders only. */
+export function useSaveShopLimitsMutation() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (body: { version: number; limits: CheckLimitOverrides }) => api<ShopLimitsAnswer>('/api/shop/limits', { method: 'PUT', body }),
+    onSuccess: (answer) => {
+      queryClient.setQueryData(shopLimitKeys.all, answer);
+      return queryClient.invalidateQueries({ queryKey: shopLimitKeys.all });
+    },
+  });
+}
