@@ -1,7 +1,9 @@
 import { sql } from 'drizzle-orm';
 import { index, integer, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 
+import type { CheckLimitOverrides } from '@/calc/checks';
 import type { EngineSpec } from '@/shared/engine';
+import type { FitCheckRun, MeasurementData, MeasurementKind } from '@/shared/measurements';
 import type { ProfileSpec } from '@/shared/profile';
 import type { RevisionResults } from '@/shared/sheets';
 
@@ -142,6 +144,8 @@ export const jobs = sqliteTable(
       .notNull()
       .default('intake'),
     version: integer('version').notNull().default(1),
+    /** When the default checklist was written (first read); null until then, so removed items stay removed. */
+    checklistSeededAt: integer('checklist_seeded_at', { mode: 'timestamp_ms' }),
     createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
@@ -247,4 +251,100 @@ export const auditLog = sqliteTable(
     createdAt: createdAt(),
   },
   (t) => [index('audit_entity_idx').on(t.entity, t.entityId)],
+);
+
+/** A measurement on a job. `data` is validated by the schema of its `kind` (shared/measurements.ts) before it is written. */
+export const measurements = sqliteTable(
+  'measurements',
+  {
+    id: text('id').primaryKey(),
+    shopId: text('shop_id')
+      .notNull()
+      .references(() => shops.id, { onDelete: 'cascade' }),
+    jobId: text('job_id')
+      .notNull()
+      .references(() => jobs.id, { onDelete: 'cascade' }),
+    kind: text('kind', { enum: ['ptv-baseline', 'springs', 'pushrod', 'degree', 'lobes'] })
+      .$type<MeasurementKind>()
+      .notNull(),
+    data: text('data', { mode: 'json' }).$type<MeasurementData[MeasurementKind]>().notNull(),
+    note: text('note').notNull().default(''),
+    version: integer('version').notNull().default(1),
+    createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [index('measurements_job_kind_idx').on(t.jobId, t.kind, t.createdAt)],
+);
+
+/** A photo on a job; the file lives under the data folder as uploads/<shop_id>/<stored_name>. */
+export const photos = sqliteTable(
+  'photos',
+  {
+    id: text('id').primaryKey(),
+    shopId: text('shop_id')
+      .notNull()
+      .references(() => shops.id, { onDelete: 'cascade' }),
+    jobId: text('job_id')
+      .notNull()
+      .references(() => jobs.id, { onDelete: 'cascade' }),
+    storedName: text('stored_name').notNull().unique(),
+    originalName: text('original_name').notNull(),
+    mimeType: text('mime_type', { enum: ['image/jpeg', 'image/png', 'image/webp'] }).notNull(),
+    size: integer('size').notNull(),
+    caption: text('caption').notNull().default(''),
+    shareable: integer('shareable', { mode: 'boolean' }).notNull().default(false),
+    createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+  },
+  (t) => [index('photos_job_idx').on(t.jobId, t.createdAt)],
+);
+
+/** One item of a job's checklist; ticked with who and when. */
+export const checklistItems = sqliteTable(
+  'checklist_items',
+  {
+    id: text('id').primaryKey(),
+    shopId: text('shop_id')
+      .notNull()
+      .references(() => shops.id, { onDelete: 'cascade' }),
+    jobId: text('job_id')
+      .notNull()
+      .references(() => jobs.id, { onDelete: 'cascade' }),
+    label: text('label').notNull(),
+    position: integer('position').notNull(),
+    doneAt: integer('done_at', { mode: 'timestamp_ms' }),
+    doneBy: text('done_by').references(() => users.id, { onDelete: 'set null' }),
+  },
+  (t) => [index('checklist_items_job_idx').on(t.jobId, t.position)],
+);
+
+/** A shop's own check limits (overrides of calc's defaults). No row = defaults. */
+export const shopSettings = sqliteTable('shop_settings', {
+  shopId: text('shop_id')
+    .primaryKey()
+    .references(() => shops.id, { onDelete: 'cascade' }),
+  limits: text('limits', { mode: 'json' }).$type<CheckLimitOverrides>().notNull(),
+  version: integer('version').notNull().default(1),
+});
+
+/** One run of the fit checks against one sheet revision, kept with it. */
+export const fitCheckRuns = sqliteTable(
+  'fit_check_runs',
+  {
+    id: text('id').primaryKey(),
+    shopId: text('shop_id')
+      .notNull()
+      .references(() => shops.id, { onDelete: 'cascade' }),
+    sheetId: text('sheet_id')
+      .notNull()
+      .references(() => specSheets.id, { onDelete: 'cascade' }),
+    revisionId: text('revision_id')
+      .notNull()
+      .references(() => sheetRevisions.id, { onDelete: 'cascade' }),
+    results: text('results', { mode: 'json' }).$type<FitCheckRun['results']>().notNull(),
+    createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+  },
+  (t) => [index('fit_check_runs_sheet_idx').on(t.sheetId, t.createdAt)],
 );

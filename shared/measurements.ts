@@ -1,6 +1,6 @@
 import { z } from 'zod';
 
-import type { CheckResult, CheckLimitOverrides, SkippedCheck } from '@/calc/checks';
+import type { CheckLimits, CheckResult, CheckLimitOverrides, SkippedCheck } from '@/calc/checks';
 import type { DegreeResult } from '@/calc/degree';
 import type { LiftTableAnalysis, WornLobeResult } from '@/calc/measured';
 import type { PreloadResult } from '@/calc/regrind';
@@ -22,14 +22,20 @@ export const ptvBaselineSchema = z.strictObject({
 });
 
 /** Valve springs as measured: per valve, per head, or one set for all. */
-const springReading = z.strictObject({
-  where: z.string().trim().min(1, 'Say which valve or head, e.g. "3E" or "left head"').max(40),
-  installedHeight: measure('Installed height', 'in', 0.9, 2.6),
-  seatLoad: measure('Seat load', 'lbf', 10, 600),
-  rate: measure('Spring rate', 'lbf/in', 50, 2000),
-  coilBindHeight: measure('Coil-bind height', 'in', 0.5, 2.2),
-  retainerToSeal: measure('Retainer-to-seal at seat', 'in', 0.1, 1.5),
-});
+const springReading = z
+  .strictObject({
+    /** Which valve or head; a name ending in I or E (e.g. "3E") is checked at that valve's lift, anything else at the larger of the two. */
+    where: z.string().trim().min(1, 'Say which valve or head, e.g. "3E" or "left head"').max(40),
+    installedHeight: measure('Installed height', 'in', 0.9, 2.6),
+    seatLoad: measure('Seat load', 'lbf', 10, 600),
+    rate: measure('Spring rate', 'lbf/in', 50, 2000),
+    coilBindHeight: measure('Coil-bind height', 'in', 0.5, 2.2),
+    retainerToSeal: measure('Retainer-to-seal at seat', 'in', 0.1, 1.5),
+  })
+  .refine((s) => s.coilBindHeight < s.installedHeight, {
+    path: ['coilBindHeight'],
+    message: 'Coil-bind height must be below the installed height',
+  });
 export const springsSchema = z.strictObject({ springs: z.array(springReading).min(1, 'Add at least one spring').max(32) });
 
 /** Pushrod and preload: checking pushrod at zero lash, lifter plunger travel, target preload. Inches. */
@@ -120,6 +126,8 @@ export const photoLimits = { maxBytes: 10 * 1024 * 1024, maxFiles: 6 } as const;
 export type Photo = {
   id: string;
   jobId: string;
+  /** The file name as uploaded (the stored file has a generated name). */
+  originalName: string;
   caption: string;
   mimeType: (typeof photoMimeTypes)[number];
   size: number;
@@ -133,9 +141,25 @@ export const photoPatchSchema = z.strictObject({
   shareable: z.boolean().optional(),
 });
 
+/** Lobe-table CSV upload (`POST /api/jobs/:jobId/measurements/lobes`, multipart field `file`). */
+export const lobeCsvLimits = { maxBytes: 1024 * 1024, minRows: 5 } as const;
+
 /** The job checklist. */
 export const checklistAddSchema = z.strictObject({ label: z.string().trim().min(1, 'Write the item').max(200, 'Keep it under 200 characters') });
 export const checklistPatchSchema = z.strictObject({ done: z.boolean({ error: 'Say whether it is done' }) });
+/** Items every regrind job starts with (written on the first read of a job's checklist). */
+export const defaultChecklistLabels = [
+  'New lifters go in with the new cam; the old ones are not reused',
+  'Torque-to-yield head bolts replaced with new ones, not reused',
+  'New head gaskets, intake gaskets and valve stem seals',
+  'Timing set inspected, or replaced if worn',
+  'Pushrods and rockers kept in order for reassembly',
+  'Cam degreed in and the installed ICL recorded',
+  'Piston-to-valve clearance checked with checking springs or clay',
+  'Spring installed height and coil bind checked',
+  "Break-in done as the cam and lifter maker says, with the oil additive they call for",
+] as const;
+
 export type ChecklistItem = {
   id: string;
   jobId: string;
@@ -147,6 +171,52 @@ export type ChecklistItem = {
 
 /** The shop's own check limits (overrides of calc's defaults). */
 export type ShopLimits = { limits: CheckLimitOverrides; version: number };
+/** `GET /api/shop/limits`: the overrides, plus every rule as it applies (with its source) and calc's defaults. */
+export type ShopLimitsResponse = ShopLimits & { resolved: CheckLimits; defaults: CheckLimits };
+
+const limitNumber = (label: string) =>
+  z.number({ error: `${label} must be a number` }).refine(Number.isFinite, `${label} must be a finite number`);
+const watchBand = limitNumber('Watch band').refine((v) => v >= 0, 'Watch band cannot be negative');
+const source = z.string().trim().min(1, 'Name the source or leave it out').max(200, 'Keep the source under 200 characters');
+const minimumOverride = z.strictObject({ min: limitNumber('Minimum').optional(), watchBand: watchBand.optional(), source: source.optional() });
+const maximumOverride = z.strictObject({ max: limitNumber('Maximum').optional(), watchBand: watchBand.optional(), source: source.optional() });
+const rangeOverride = z
+  .strictObject({
+    min: limitNumber('Minimum').optional(),
+    max: limitNumber('Maximum').optional(),
+    watchBand: watchBand.optional(),
+    source: source.optional(),
+  })
+  .refine((r) => r.min === undefined || r.max === undefined || r.max > r.min, {
+    path: ['max'],
+    message: 'Maximum must be above the minimum',
+  });
+
+/** `PUT /api/shop/limits`. Rule names are calc's; unknown names or fields are refused. Version 0 creates the shop's first settings. */
+export const shopLimitsSaveSchema = z.strictObject({
+  version: versionSchema,
+  limits: z.strictObject({
+    coilBind: minimumOverride.optional(),
+    retainerToSeal: minimumOverride.optional(),
+    ptvIntake: minimumOverride.optional(),
+    ptvExhaust: minimumOverride.optional(),
+    hydraulicPreload: rangeOverride.optional(),
+    dynamicCompression: maximumOverride.optional(),
+    degreeing: maximumOverride.optional(),
+    wornLobe: maximumOverride.optional(),
+  }),
+});
+export type ShopLimitsSave = z.input<typeof shopLimitsSaveSchema>;
+
+/**
+ * A predicted PTV sweep as stored (JSON: `clearance` is a plain array), with
+ * the baseline reading that governed it: every reading is swept and the one
+ * predicting the smallest clearance is kept.
+ */
+export type FitCheckPtv = Omit<PtvSweep, 'clearance'> & {
+  clearance: number[];
+  baseline: { crankAngle: number; clearance: number; valveLift: number };
+};
 
 /** One run of the fit checks against a sheet revision, saved with that revision. */
 export type FitCheckRun = {
@@ -160,8 +230,16 @@ export type FitCheckRun = {
     status: 'pass' | 'watch' | 'fail';
     checks: CheckResult[];
     skipped: SkippedCheck[];
-    ptv: { intake: PtvSweep | null; exhaust: PtvSweep | null };
-    springs: { where: string; openLoad: number; coilBindMargin: number; retainerToSealMargin: number }[];
+    ptv: { intake: FitCheckPtv | null; exhaust: FitCheckPtv | null };
+    springs: {
+      where: string;
+      /** Valve lift the spring was checked at, inches (intake, exhaust, or the larger when `where` names neither). */
+      valveLift: number;
+      openLoad: number;
+      openHeight: number;
+      coilBindMargin: number;
+      retainerToSealMargin: number;
+    }[];
     preload: PreloadResult | null;
     degree: (DegreeResult & { trueTdcOffset: number }) | null;
     lobes: { analyses: { id: string; table: LiftTableAnalysis }[]; worn: WornLobeResult | null } | null;
