@@ -1,4 +1,5 @@
 import fs from 'node:fs';
+import os from 'node:os';
 import path from 'node:path';
 
 import express, { type Request, type Response } from 'express';
@@ -10,11 +11,16 @@ import { createAuth } from './auth';
 import type { AppDeps } from './deps';
 import { errorHandler, HttpError, sendError } from './http';
 import { calcRouter, type CalcRateLimit } from './routes/calc';
+import { checklistRouter } from './routes/checklist';
 import { enginesRouter } from './routes/engines';
+import { fitChecksRouter } from './routes/fit-checks';
 import { jobsRouter } from './routes/jobs';
+import { measurementsRouter } from './routes/measurements';
 import { meRouter } from './routes/me';
+import { photosRouter } from './routes/photos';
 import { profilesRouter } from './routes/profiles';
 import { sheetsRouter } from './routes/sheets';
+import { shopLimitsRouter } from './routes/shop-limits';
 
 export type CreateAppOptions = {
   db: Db;
@@ -28,14 +34,16 @@ export type CreateAppOptions = {
   devWebProxy?: express.RequestHandler;
   /** Requests per person to the calc API (default 60 a minute). */
   calcRateLimit?: CalcRateLimit;
+  /** Folder for uploaded photos (one sub-folder per shop); default `uploads` beside the database. Tests pass a temp folder. */
+  uploadsDir?: string;
 };
 
 const dev = process.env.NODE_ENV !== 'production';
 
 /** Builds the whole app without listening, so tests can drive it on an in-memory database. */
-export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLimit }: CreateAppOptions) {
+export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLimit, uploadsDir }: CreateAppOptions) {
   const auth = createAuth({ db, baseURL, secret });
-  const deps: AppDeps = { db, auth };
+  const deps: AppDeps = { db, auth, uploadsDir: path.resolve(uploadsDir ?? defaultUploadsDir(db)) };
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
@@ -51,12 +59,20 @@ export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLi
   app.use('/api', meRouter(deps));
   app.use('/api/jobs', jobsRouter(deps));
   app.use('/api', enginesRouter(deps), profilesRouter(deps), sheetsRouter(deps), calcRouter(deps, calcRateLimit));
+  app.use('/api', measurementsRouter(deps), photosRouter(deps), checklistRouter(deps), shopLimitsRouter(deps), fitChecksRouter(deps));
   app.use('/api', (req, res) => sendError(res, new HttpError(404, 'not_found', `No API route ${req.method} ${req.path}`)));
 
   if (devWebProxy) app.use(devWebProxy);
   else if (webDir) serveWeb(app, webDir);
   app.use(errorHandler);
   return Object.assign(app, { auth, deps });
+}
+
+/** `uploads` in the database's folder (the data folder); a temp folder for an in-memory database. */
+function defaultUploadsDir(db: Db): string {
+  const file = db.$client.name;
+  if (!file || file === ':memory:') return path.join(os.tmpdir(), 'lobewright-uploads');
+  return path.join(path.dirname(file), 'uploads');
 }
 
 /** Serves the static web export. Paths that look like files must exist (404 otherwise); other paths get the app shell. */

@@ -6,4 +6,6 @@ import type { Auth } from './auth';
 export type AppDeps = {
   db: Db;
   auth: Auth;
+  /** Absolute folder for uploaded files, one sub-folder per shop. */
+  uploadsDir: string;
 };

@@ -1,27 +1,31 @@
+import fs from 'node:fs';
 import type { AddressInfo } from 'node:net';
 import type { Server } from 'node:http';
+import os from 'node:os';
+import path from 'node:path';
 
 import { DEMO_ENGINE, DEMO_TOWING } from '@/calc/demo';
 import { openDb, schema, type Db } from '@/db';
 import { createApp, type App, type CreateAppOptions } from '@/server/app';
 import type { ShopKind, ShopRole } from '@/shared/roles';
 
-export type TestApp = { app: App; db: Db; url: string; close: () => Promise<void> };
+export type TestApp = { app: App; db: Db; url: string; uploadsDir: string; close: () => Promise<void> };
 
 /** A real app on an in-memory database, listening on a free loopback port. */
 export async function createTestApp(options: Pick<CreateAppOptions, 'calcRateLimit'> = {}): Promise<TestApp> {
   const db = openDb(':memory:');
+  const uploadsDir = fs.mkdtempSync(path.join(os.tmpdir(), 'lobewright-test-uploads-'));
   // The origin is only known after listening; sign-in checks it against the request's Origin header.
   let server: Server | undefined;
   const port = await new Promise<number>((resolve) => {
-    const probe = createApp({ db, baseURL: 'http://127.0.0.1', secret: 'test-secret-test-secret-test-secret' });
+    const probe = createApp({ db, baseURL: 'http://127.0.0.1', secret: 'test-secret-test-secret-test-secret', uploadsDir });
     const s = probe.listen(0, '127.0.0.1', () => {
       const p = (s.address() as AddressInfo).port;
       s.close(() => resolve(p));
     });
   });
   const url = `http://127.0.0.1:${port}`;
-  const app = createApp({ db, baseURL: url, secret: 'test-secret-test-secret-test-secret', ...options });
+  const app = createApp({ db, baseURL: url, secret: 'test-secret-test-secret-test-secret', uploadsDir, ...options });
   await new Promise<void>((resolve) => {
     server = app.listen(port, '127.0.0.1', () => resolve());
   });
@@ -29,9 +33,13 @@ export async function createTestApp(options: Pick<CreateAppOptions, 'calcRateLim
     app,
     db,
     url,
+    uploadsDir,
     close: () =>
       new Promise<void>((resolve) => {
-        server?.close(() => resolve());
+        server?.close(() => {
+          fs.rmSync(uploadsDir, { recursive: true, force: true });
+          resolve();
+        });
       }),
   };
 }
@@ -43,12 +51,13 @@ export class Client {
 
   async request(method: string, path: string, body?: unknown) {
     const headers: Record<string, string> = { origin: this.baseUrl };
-    if (body !== undefined) headers['content-type'] = 'application/json';
+    const form = body instanceof FormData;
+    if (body !== undefined && !form) headers['content-type'] = 'application/json';
     if (this.cookies.size) headers.cookie = [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
     const res = await fetch(this.baseUrl + path, {
       method,
       headers,
-      body: body === undefined ? undefined : typeof body === 'string' ? body : JSON.stringify(body),
+      body: body === undefined ? undefined : form ? body : typeof body === 'string' ? body : JSON.stringify(body),
     });
     for (const line of res.headers.getSetCookie()) {
       const [pair] = line.split(';');
@@ -73,6 +82,21 @@ export class Client {
   patch = (path: string, body?: unknown) => this.request('PATCH', path, body ?? {});
   put = (path: string, body?: unknown) => this.request('PUT', path, body ?? {});
   delete = (path: string) => this.request('DELETE', path);
+  /** A multipart form post (fetch sets the boundary). */
+  upload = (path: string, form: FormData) => this.request('POST', path, form);
+  /** The raw response, for files. */
+  fetchRaw = (path: string) =>
+    fetch(this.baseUrl + path, {
+      headers: { origin: this.baseUrl, cookie: [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ') },
+    });
+}
+
+/** A multipart form with files: `[field, name, bytes, type]`. */
+export function formWith(files: [field: string, name: string, bytes: Uint8Array<ArrayBuffer> | string, type: string][], fields: Record<string, string> = {}) {
+  const form = new FormData();
+  for (const [field, name, bytes, type] of files) form.append(field, new Blob([bytes], { type }), name);
+  for (const [k, v] of Object.entries(fields)) form.append(k, v);
+  return form;
 }
 
 let counter = 0;

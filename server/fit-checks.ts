@@ -1,0 +1,219 @@
+/**
+ * The fit checks a tech runs against a spec sheet revision: predicted PTV from
+ * the measured baseline, each measured spring at the revision's valve lift,
+ * lifter preload after the regrind, the degreed-in ICL, and the measured lobes.
+ * Pure: the route loads the records and stores what this returns.
+ */
+import { analyzeLiftTable, type LiftTableAnalysis, type WornLobeResult } from '@/calc/measured';
+import { checkDegreeing, checkWornLobes, PTV_SWEEP } from '@/calc/analysis';
+import { checkMinimum, resolveCheckLimits, worstStatus, type CheckLimitOverrides, type CheckResult, type SkippedCheck } from '@/calc/checks';
+import { CHECKING_HEIGHT_050 } from '@/calc/constants';
+import { degreeCam } from '@/calc/degree';
+import { isCalcInputError } from '@/calc/errors';
+import { CYCLE_GRID } from '@/calc/lift-curve';
+import { ptvSweep } from '@/calc/ptv';
+import { retainerToSealMargin, springCheck } from '@/calc/springs';
+import { analyzeRecords } from '@/shared/analysis';
+import type { EngineSpec } from '@/shared/engine';
+import type { FitCheckPtv, FitCheckRun, MeasurementData } from '@/shared/measurements';
+import type { ProfileSpec } from '@/shared/profile';
+
+import { renamePrefixes, runCalc } from './calc';
+
+export type FitCheckInput = {
+  engine: EngineSpec;
+  spec: ProfileSpec;
+  measured: Partial<MeasurementData>;
+  limits: CheckLimitOverrides;
+};
+
+export type FitCheckResults = FitCheckRun['results'];
+
+/** Calc's field paths renamed to the measurement (or sheet) the tech would fix. */
+const fitCheckFields = renamePrefixes([
+  ['regrind.regrindBaseCircle', 'spec.baseCircle'],
+  ['regrind.pushrodLength', 'pushrod.currentLength'],
+  ['regrind', 'pushrod'],
+  ['profile', 'spec'],
+]);
+
+/** A spring named "3E" or "7I" is checked at that valve's lift; anything else (a head, "all") at the larger. */
+function springValve(where: string): 'intake' | 'exhaust' | 'both' {
+  if (/\d\s*I$/i.test(where.trim())) return 'intake';
+  if (/\d\s*E$/i.test(where.trim())) return 'exhaust';
+  return 'both';
+}
+
+export function runFitChecks({ engine, spec, measured, limits: overrides }: FitCheckInput): FitCheckResults {
+  const limits = runCalc(() => resolveCheckLimits(overrides));
+  const checks: CheckResult[] = [];
+  const skipped: SkippedCheck[] = [];
+
+  const pushrod = measured.pushrod;
+  const regrind =
+    pushrod && pushrod.originalPreload !== null
+      ? {
+          originalPreload: pushrod.originalPreload,
+          stockBaseCircle: pushrod.stockBaseCircle,
+          plungerTravel: pushrod.plungerTravel,
+          ...(pushrod.currentLength !== null ? { pushrodLength: pushrod.currentLength } : {}),
+        }
+      : undefined;
+  const analysis = runCalc(() => analyzeRecords(engine, spec, { regrind, limits: overrides }), fitCheckFields);
+  const valveLift = { intake: analysis.intake.valveLift, exhaust: analysis.exhaust.valveLift };
+
+  // Predicted piston-to-valve clearance: every baseline reading is swept; the smallest prediction governs.
+  const ptv: FitCheckResults['ptv'] = { intake: null, exhaust: null };
+  const baseline = measured['ptv-baseline'];
+  for (const valve of ['intake', 'exhaust'] as const) {
+    const id = valve === 'intake' ? 'ptvIntake' : 'ptvExhaust';
+    if (!baseline) {
+      skipped.push({ id, subject: valve, note: 'not measured: record a PTV baseline with the old cam (clay or checking springs)' });
+      continue;
+    }
+    let best: FitCheckPtv | null = null;
+    baseline[valve].forEach((reading, i) => {
+      const sweep = runCalc(
+        () =>
+          ptvSweep(
+            {
+              stroke: engine.stroke,
+              rodLength: engine.rodLength,
+              valveAngle: engine.valveAngle,
+              baseline: reading,
+              curve: { start: CYCLE_GRID.start, step: CYCLE_GRID.step, lift: analysis[valve].curve.lift },
+              from: PTV_SWEEP.from,
+              to: PTV_SWEEP.to,
+            },
+            `ptv-baseline.${valve}.${i}`,
+          ),
+        renamePrefixes([[`ptv-baseline.${valve}.${i}.baseline`, `ptv-baseline.${valve}.${i}`]]),
+      );
+      if (!best || sweep.minClearance < best.minClearance) {
+        best = { ...sweep, clearance: Array.from(sweep.clearance), baseline: { ...reading } };
+      }
+    });
+    const governing = best as FitCheckPtv | null;
+    if (!governing) continue;
+    ptv[valve] = governing;
+    checks.push(
+      checkMinimum(
+        { id, subject: valve, value: governing.minClearance, unit: 'in', what: `Predicted piston-to-valve clearance, ${valve}` },
+        valve === 'intake' ? limits.ptvIntake : limits.ptvExhaust,
+      ),
+    );
+  }
+
+  // Each measured spring at the revision's max valve lift.
+  const springs: FitCheckResults['springs'] = [];
+  if (!measured.springs) {
+    const note = 'not measured: record installed height, seat load, rate, coil-bind height and retainer-to-seal';
+    skipped.push({ id: 'coilBind', subject: 'springs', note }, { id: 'retainerToSeal', subject: 'springs', note });
+  } else {
+    measured.springs.springs.forEach((s, i) => {
+      const valve = springValve(s.where);
+      const lift = valve === 'both' ? Math.max(valveLift.intake, valveLift.exhaust) : valveLift[valve];
+      const prefix = `springs.springs.${i}`;
+      const sc = runCalc(() => springCheck({ ...s, valveLift: lift }, prefix));
+      const r2s = runCalc(() => retainerToSealMargin({ retainerToSeal: s.retainerToSeal, valveLift: lift }, prefix)).clearanceAtMaxLift;
+      springs.push({
+        where: s.where,
+        valveLift: lift,
+        openLoad: sc.openLoad,
+        openHeight: sc.openHeight,
+        coilBindMargin: sc.coilBindMargin,
+        retainerToSealMargin: r2s,
+      });
+      checks.push(
+        checkMinimum({ id: 'coilBind', subject: s.where, value: sc.coilBindMargin, unit: 'in', what: 'Coil-bind margin at max lift' }, limits.coilBind),
+        checkMinimum(
+          { id: 'retainerToSeal', subject: s.where, value: r2s, unit: 'in', what: 'Retainer-to-seal clearance at max lift' },
+          limits.retainerToSeal,
+        ),
+      );
+    });
+  }
+
+  // Preload after the regrind (the analysis skips it for solid lifters or missing numbers).
+  checks.push(...analysis.checks.filter((c) => c.id === 'hydraulicPreload'));
+  for (const s of analysis.skipped.filter((c) => c.id === 'hydraulicPreload')) {
+    skipped.push(
+      pushrod && pushrod.originalPreload === null && s.note.startsWith('not measured')
+        ? { ...s, note: 'not measured: record the preload with the old cam' }
+        : s,
+    );
+  }
+
+  // Degreeing: true TDC from the piston stops, then the ICL from the equal-lift flank readings.
+  let degree: FitCheckResults['degree'] = null;
+  const readings = measured.degree;
+  if (!readings) {
+    skipped.push({ id: 'degreeing', subject: 'intake', note: 'not measured: record the piston-stop and flank readings at cam install' });
+  } else {
+    const trueTdcOffset = (readings.stopAfter - readings.stopBefore) / 2;
+    const result = runCalc(
+      () =>
+        degreeCam({
+          openingAngle: readings.openingAngle - trueTdcOffset,
+          closingAngle: readings.closingAngle - trueTdcOffset,
+          sheetIcl: spec.icl,
+        }),
+      renamePrefixes([
+        ['openingAngle', 'degree.openingAngle'],
+        ['closingAngle', 'degree.closingAngle'],
+        ['sheetIcl', 'spec.icl'],
+      ]),
+    );
+    degree = { ...result, trueTdcOffset };
+    checks.push(checkDegreeing(result, overrides));
+  }
+
+  // Measured lobes: each table analysed; worn lobes against their own kind.
+  let lobes: FitCheckResults['lobes'] = null;
+  if (!measured.lobes) {
+    skipped.push({ id: 'wornLobe', subject: 'lobes', note: 'not measured: upload a lobe table (CSV)' });
+  } else {
+    const analyses: { id: string; table: LiftTableAnalysis }[] = [];
+    const maxLifts = measured.lobes.lobes.map((l) => ({ id: l.id, maxLift: Math.max(...l.points.map((p) => p.lift)) }));
+    for (const lobe of measured.lobes.lobes) {
+      const kind = lobe.id.endsWith('I') ? spec.intake : spec.exhaust;
+      const top = Math.max(...lobe.points.map((p) => p.lift));
+      const heights = [...new Set([kind.advertisedHeight, CHECKING_HEIGHT_050])].filter((h) => h < top).sort((a, b) => a - b);
+      try {
+        analyses.push({ id: lobe.id, table: analyzeLiftTable({ points: lobe.points, heights }) });
+      } catch (error) {
+        if (!isCalcInputError(error)) throw error;
+        skipped.push({ id: 'wornLobe', subject: lobe.id, note: `table not analysed: ${error.message}` });
+      }
+    }
+    let worn: WornLobeResult | null = null;
+    for (const [suffix, name] of [
+      ['I', 'intake'],
+      ['E', 'exhaust'],
+    ] as const) {
+      const group = maxLifts.filter((l) => l.id.endsWith(suffix));
+      if (group.length === 0) continue;
+      if (group.length < 2) {
+        skipped.push({ id: 'wornLobe', subject: group[0]?.id ?? name, note: `only one ${name} lobe measured: nothing to compare it with` });
+        continue;
+      }
+      const found = runCalc(() => checkWornLobes(group, overrides), renamePrefixes([['lobes', 'lobes.lobes']]));
+      checks.push(...found.checks);
+      worn = worn
+        ? { lobes: [...worn.lobes, ...found.result.lobes], worn: [...worn.worn, ...found.result.worn], threshold: found.result.threshold }
+        : found.result;
+    }
+    lobes = { analyses, worn };
+  }
+
+  return {
+    status: worstStatus(checks),
+    checks,
+    skipped,
+    ptv,
+    springs,
+    preload: analysis.preload,
+    degree,
+    lobes,
+  };
+}
