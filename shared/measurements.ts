@@ -101,11 +101,11 @@ export const measurementCreateSchema = z.discriminatedUnion('kind', [
 ]);
 export type MeasurementCreate = z.input<typeof measurementCreateSchema>;
 
-/** Replace a measurement's data and note (same kind), guarded by version. */
+/** Replace a measurement's data and/or note (same kind), guarded by version. `data` is checked with the schema of the stored kind. */
 export const measurementPatchSchema = z.strictObject({
   version: versionSchema,
   note: z.string().trim().max(2000).optional(),
-  data: z.unknown(),
+  data: z.unknown().optional(),
 });
 
 export type Measurement<K extends MeasurementKind = MeasurementKind> = {
