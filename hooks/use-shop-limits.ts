@@ -1,10 +1,11 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
-import type { CheckLimitOverrides, CheckLimits } from '@/calc/checks';
+import type { ShopLimitsResponse, ShopLimitsSave } from '@/shared/measurements';
 
 import { api, staleTimes } from './api';
 
-export type ShopLimitsAnswer = { limits: CheckLimitOverrides; version: number; resolved: CheckLimits };
+/** The overrides and version, every rule as it applies (with its source), and calc's defaults. */
+export type ShopLimitsAnswer = ShopLimitsResponse;
 
 export const shopLimitKeys = { all: ['shop-limits'] as const };
 
@@ -21,7 +22,7 @@ export function useShopLimitsQuery() {
 export function useSaveShopLimitsMutation() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (body: { version: number; limits: CheckLimitOverrides }) => api<ShopLimitsAnswer>('/api/shop/limits', { method: 'PUT', body }),
+    mutationFn: (body: ShopLimitsSave) => api<ShopLimitsAnswer>('/api/shop/limits', { method: 'PUT', body }),
     onSuccess: (answer) => {
       queryClient.setQueryData(shopLimitKeys.all, answer);
       return queryClient.invalidateQueries({ queryKey: shopLimitKeys.all });
