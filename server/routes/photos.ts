@@ -2,7 +2,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 
 import { Router, type Request } from 'express';
-import { and, asc, eq } from 'drizzle-orm';
+import { and, asc, eq, sql } from 'drizzle-orm';
 import multer from 'multer';
 
 import { schema } from '@/db';
@@ -49,7 +49,11 @@ function readHead(file: string): Uint8Array {
 }
 
 function removeQuietly(file: string) {
-  fs.rm(file, { force: true }, () => undefined);
+  try {
+    fs.rmSync(file, { force: true });
+  } catch (error) {
+    console.error(`Could not remove ${file}`, error);
+  }
 }
 
 /**
@@ -102,7 +106,7 @@ export function photosRouter({ db, auth, uploadsDir }: AppDeps) {
       .select()
       .from(schema.photos)
       .where(and(eq(schema.photos.jobId, req.params.jobId), eq(schema.photos.shopId, ctx.shop.id)))
-      .orderBy(asc(schema.photos.createdAt), asc(schema.photos.id))
+      .orderBy(asc(schema.photos.createdAt), asc(sql`${schema.photos}.rowid`))
       .all();
     res.json({ photos: rows.map(toPhoto) });
   });
