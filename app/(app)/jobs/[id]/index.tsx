@@ -3,7 +3,9 @@ import { useState } from 'react';
 import { StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 
 import { Button } from '@/components/button';
+import { JobChecklist } from '@/components/job-checklist';
 import { JobForm } from '@/components/job-form';
+import { JobPhotos } from '@/components/job-photos';
 import { EngineSummary, JobProfiles, JobSheets } from '@/components/job-sections';
 import { ErrorNotice, Pending } from '@/components/query-state';
 import { Screen, Section } from '@/components/screen';
@@ -39,6 +41,7 @@ function JobDetail({ job }: { job: Job }) {
   const role = useMeQuery().data?.activeShop?.role;
   const canEdit = roleAllows(role, { job: ['update'] });
   const canWrite = roleAllows(role, { sheet: ['write'] });
+  const canMeasure = roleAllows(role, { measurement: ['write'] });
   const save = useSaveJobMutation(job.id);
   const [editing, setEditing] = useState(false);
 
@@ -77,6 +80,7 @@ function JobDetail({ job }: { job: Job }) {
                 {job.findings || 'Nothing recorded from teardown yet.'}
               </Text>
             </Section>
+            <JobPhotos jobId={job.id} canWrite={canMeasure} />
             <Section title="Record">
               <StatusChip status={job.status} />
               <Text style={styles.meta}>Checked in {formatDateTime(job.createdAt)}</Text>
@@ -86,9 +90,22 @@ function JobDetail({ job }: { job: Job }) {
             </Section>
           </View>
           <View style={[wide ? styles.column : undefined, styles.stack]}>
+            <Section title="On the bench">
+              <Text style={styles.meta}>Measurements from the engine, the fit checks against a spec sheet, and the job checklist.</Text>
+              <View style={styles.links}>
+                <Button label="Measurements" href={{ pathname: '/jobs/[id]/measurements', params: { id: job.id } }} testID="open-measurements" />
+                <Button
+                  label="Fit checks"
+                  variant="secondary"
+                  href={{ pathname: '/jobs/[id]/fit-checks', params: { id: job.id } }}
+                  testID="open-fit-checks"
+                />
+              </View>
+            </Section>
             <EngineSummary jobId={job.id} canWrite={canWrite} />
             <JobProfiles jobId={job.id} canWrite={canWrite} />
             <JobSheets jobId={job.id} />
+            <JobChecklist jobId={job.id} canWrite={canMeasure} />
           </View>
         </View>
       )}
@@ -103,4 +120,5 @@ const styles = StyleSheet.create({
   column: { flex: 1 },
   body: { ...typeScale.body, color: colors.ink },
   meta: { ...typeScale.small, color: colors.inkMuted },
+  links: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
 });
