@@ -1,3 +1,5 @@
+import fs from 'node:fs';
+
 import { asc, count, eq, isNull } from 'drizzle-orm';
 import { describe, expect, it } from 'vitest';
 
@@ -5,8 +7,10 @@ import { DEMO_STOCK_REGRIND, DEMO_TOWING } from '@/calc/demo';
 import { createAuth } from '@/server/auth';
 import { analyzeRecords, revisionResults } from '@/shared/analysis';
 import { engineSchema } from '@/shared/engine';
+import { defaultChecklistLabels } from '@/shared/measurements';
 import { profileSpecSchema } from '@/shared/profile';
 
+import { demoLobeCsv, demoLobeIds, demoLobesFile } from './demo-lobes';
 import { openDb, schema } from './index';
 import { demoAccounts, demoJobId, demoSheetId, seedDemo } from './seed';
 
@@ -82,5 +86,30 @@ describe('demo comparison data', () => {
     expect(rev).toMatchObject({ number: 1, state: 'draft', label: 'Towing regrind (demo)', engine: engine.spec });
     expect(rev.spec).toEqual(library[1]!.spec);
     expect(rev.results).toEqual(JSON.parse(JSON.stringify(revisionResults(analyzeRecords(engine.spec, rev.spec)))));
+  });
+});
+
+describe('demo measurements, checklist and lobe table', () => {
+  it('gives the demo job its PTV baseline, springs, pushrod readings and checklist once, and no lobe table', async () => {
+    const db = openDb(':memory:');
+    const auth = createAuth({ db, baseURL: 'http://localhost:8080', secret: 'test-secret-test-secret-test-secret' });
+    await seedDemo(db, auth);
+    await seedDemo(db, auth);
+    const rows = db.select().from(schema.measurements).where(eq(schema.measurements.jobId, demoJobId)).all();
+    expect(rows.map((r) => r.kind).sort()).toEqual(['ptv-baseline', 'pushrod', 'springs']);
+    for (const r of rows) expect(r.note).toMatch(/^Demo data\./);
+    const ptv = rows.find((r) => r.kind === 'ptv-baseline')!.data as { intake: { crankAngle: number }[]; exhaust: { crankAngle: number }[] };
+    expect(ptv.intake.map((x) => x.crankAngle)).toEqual([-10, 10]);
+    expect(ptv.exhaust.map((x) => x.crankAngle)).toEqual([-10, 10]);
+    const items = db.select().from(schema.checklistItems).where(eq(schema.checklistItems.jobId, demoJobId)).orderBy(asc(schema.checklistItems.position)).all();
+    expect(items.map((i) => i.label)).toEqual([...defaultChecklistLabels]);
+  });
+
+  it('ships the demo lobe table exactly as its generator writes it: 16 lobes, labelled demo data', () => {
+    const text = fs.readFileSync(demoLobesFile, 'utf8');
+    expect(text).toBe(demoLobeCsv());
+    expect(text.split('\n')[0]).toMatch(/^# Lobewright demo data \(invented\)/);
+    expect(text.split('\n')[1]).toBe(['angle', ...demoLobeIds].join(','));
+    expect(demoLobeIds).toHaveLength(16);
   });
 });

@@ -3,8 +3,10 @@ import { eq } from 'drizzle-orm';
 import { DEMO_ENGINE, DEMO_STOCK_REGRIND, DEMO_TOWING } from '@/calc/demo';
 import { createAuth, type Auth } from '@/server/auth';
 import { readConfig } from '@/server/config';
+import { seedChecklist } from '@/server/routes/checklist';
 import { analyzeRecords, revisionResults } from '@/shared/analysis';
 import { engineSchema } from '@/shared/engine';
+import { measurementCreateSchema } from '@/shared/measurements';
 import { profileCreateSchema } from '@/shared/profile';
 import type { ShopKind, ShopRole } from '@/shared/roles';
 
@@ -65,6 +67,62 @@ export const demoProfiles = [
 ];
 
 export const demoSheetId = 'demo-sheet-flatbed-towing';
+
+/**
+ * The tech's measurements on the demo job (invented): PTV baseline with clay
+ * and the old cam, the springs as measured on each head, and the pushrod and
+ * preload readings. The lobe table is not seeded: the tech uploads
+ * assets/demo/lobes-demo.csv in the demo.
+ */
+export const demoMeasurements = [
+  {
+    id: 'demo-measurement-ptv-baseline',
+    ...measurementCreateSchema.parse({
+      kind: 'ptv-baseline',
+      note: 'Demo data. Clay on cylinder 1 with the old cam, light checking springs; thinnest clay over each relief.',
+      data: {
+        method: 'clay',
+        intake: [
+          { crankAngle: -10, clearance: 0.205, valveLift: 0.046 },
+          { crankAngle: 10, clearance: 0.19, valveLift: 0.098 },
+        ],
+        exhaust: [
+          { crankAngle: -10, clearance: 0.178, valveLift: 0.101 },
+          { crankAngle: 10, clearance: 0.214, valveLift: 0.041 },
+        ],
+      },
+    }),
+  },
+  {
+    id: 'demo-measurement-springs',
+    ...measurementCreateSchema.parse({
+      kind: 'springs',
+      note: 'Demo data. Installed heights measured with the retainers and locks in place.',
+      data: {
+        springs: [
+          { where: 'left head', installedHeight: 1.8, seatLoad: 116, rate: 318, coilBindHeight: 1.15, retainerToSeal: 0.64 },
+          { where: 'right head', installedHeight: 1.795, seatLoad: 117, rate: 321, coilBindHeight: 1.15, retainerToSeal: 0.635 },
+          { where: '3E', installedHeight: 1.765, seatLoad: 121, rate: 320, coilBindHeight: 1.15, retainerToSeal: 0.62 },
+        ],
+      },
+    }),
+  },
+  {
+    id: 'demo-measurement-pushrod',
+    ...measurementCreateSchema.parse({
+      kind: 'pushrod',
+      note: 'Demo data. Checking pushrod set to zero lash on cylinder 1 intake with the old cam on its base circle.',
+      data: {
+        checkingLength: 7.352,
+        currentLength: 7.4,
+        plungerTravel: 0.12,
+        targetPreload: 0.045,
+        originalPreload: 0.048,
+        stockBaseCircle: 1.25,
+      },
+    }),
+  },
+];
 
 /** Writes the demo shops, people and job. Safe to run again: it only adds what is missing. */
 export async function seedDemo(db: Db, auth: Auth) {
@@ -133,6 +191,15 @@ export async function seedDemo(db: Db, auth: Auth) {
     })
     .onConflictDoNothing()
     .run();
+
+  const tech = db.select().from(schema.users).where(eq(schema.users.email, demoAccounts[1]!.email)).get();
+  for (const m of demoMeasurements) {
+    db.insert(schema.measurements)
+      .values({ id: m.id, shopId, jobId: demoJobId, kind: m.kind, data: m.data, note: m.note, createdBy: tech?.id ?? null })
+      .onConflictDoNothing()
+      .run();
+  }
+  db.transaction((tx) => seedChecklist(tx, shopId, demoJobId, createdBy, (i) => `demo-checklist-${i + 1}`));
 }
 
 export function demoSignInText(baseURL: string) {
