@@ -12,6 +12,7 @@ export default function AppLayout() {
   const me = useMeQuery().data;
   const role = me?.activeShop?.role;
   const canSeeJobs = roleAllows(role, { job: ['read'] });
+  const canSeeLimits = roleAllows(role, { measurement: ['read'] });
 
   const items: NavItem[] = [
     ...(canSeeJobs
@@ -20,6 +21,7 @@ export default function AppLayout() {
           { href: '/profiles', match: '/profiles', label: 'Profiles', glyph: '∩', testID: 'nav-profiles' },
         ] as const)
       : []),
+    ...(canSeeLimits ? ([{ href: '/settings', match: '/settings', label: 'Settings', glyph: '⚙', testID: 'nav-settings' }] as const) : []),
     { href: '/account', match: '/account', label: 'Account', glyph: '◎', testID: 'nav-account' },
   ];
 
@@ -36,6 +38,9 @@ export default function AppLayout() {
       <Tabs.Protected guard={canSeeJobs}>
         <Tabs.Screen name="jobs" options={{ title: 'Jobs' }} />
         <Tabs.Screen name="profiles" options={{ title: 'Profiles' }} />
+      </Tabs.Protected>
+      <Tabs.Protected guard={canSeeLimits}>
+        <Tabs.Screen name="settings" options={{ title: 'Settings' }} />
       </Tabs.Protected>
       <Tabs.Screen name="account" options={{ title: 'Account' }} />
     </Tabs>
