@@ -51,7 +51,13 @@ function loadItem(db: Pick<Db, 'select'>, shopId: string, id: string) {
  * Writes the default items on a job the first time its checklist is read,
  * and marks the job so items the shop removes stay removed.
  */
-export function seedChecklist(tx: Tx, shopId: string, jobId: string, userId: string | null, idFor = (_i: number) => crypto.randomUUID()) {
+export function seedChecklist(
+  tx: Tx,
+  shopId: string,
+  jobId: string,
+  userId: string | null,
+  idFor: (index: number) => string = () => crypto.randomUUID(),
+) {
   const job = tx
     .select({ seededAt: schema.jobs.checklistSeededAt })
     .from(schema.jobs)
