@@ -17,6 +17,17 @@ const updatedAt = () =>
     .default(sql`(unixepoch('subsec') * 1000)`)
     .$onUpdate(() => new Date());
 
+/** The owning shop; rows go when the shop goes. */
+const shopRef = () =>
+  text('shop_id')
+    .notNull()
+    .references(() => shops.id, { onDelete: 'cascade' });
+/** The owning job; rows go when the job goes. */
+const jobRef = () =>
+  text('job_id')
+    .notNull()
+    .references(() => jobs.id, { onDelete: 'cascade' });
+
 // Sign-in tables, shaped as better-auth's drizzle adapter expects them.
 
 export const users = sqliteTable('users', {
@@ -96,9 +107,7 @@ export const memberships = sqliteTable(
   'memberships',
   {
     id: text('id').primaryKey(),
-    organizationId: text('shop_id')
-      .notNull()
-      .references(() => shops.id, { onDelete: 'cascade' }),
+    organizationId: shopRef(),
     userId: text('user_id')
       .notNull()
       .references(() => users.id, { onDelete: 'cascade' }),
@@ -110,9 +119,7 @@ export const memberships = sqliteTable(
 
 export const invitations = sqliteTable('invitations', {
   id: text('id').primaryKey(),
-  organizationId: text('shop_id')
-    .notNull()
-    .references(() => shops.id, { onDelete: 'cascade' }),
+  organizationId: shopRef(),
   email: text('email').notNull(),
   role: text('role'),
   status: text('status').notNull().default('pending'),
@@ -130,9 +137,7 @@ export const jobs = sqliteTable(
   'jobs',
   {
     id: text('id').primaryKey(),
-    shopId: text('shop_id')
-      .notNull()
-      .references(() => shops.id, { onDelete: 'cascade' }),
+    shopId: shopRef(),
     vehicle: text('vehicle').notNull(),
     customerName: text('customer_name').notNull(),
     complaint: text('complaint').notNull().default(''),
@@ -158,9 +163,7 @@ export const engines = sqliteTable('engines', {
   jobId: text('job_id')
     .primaryKey()
     .references(() => jobs.id, { onDelete: 'cascade' }),
-  shopId: text('shop_id')
-    .notNull()
-    .references(() => shops.id, { onDelete: 'cascade' }),
+  shopId: shopRef(),
   spec: text('spec', { mode: 'json' }).$type<EngineSpec>().notNull(),
   version: integer('version').notNull().default(1),
   createdAt: createdAt(),
@@ -172,9 +175,7 @@ export const camProfiles = sqliteTable(
   'cam_profiles',
   {
     id: text('id').primaryKey(),
-    shopId: text('shop_id')
-      .notNull()
-      .references(() => shops.id, { onDelete: 'cascade' }),
+    shopId: shopRef(),
     jobId: text('job_id').references(() => jobs.id, { onDelete: 'cascade' }),
     sourceProfileId: text('source_profile_id'),
     label: text('label').notNull(),
@@ -193,12 +194,8 @@ export const specSheets = sqliteTable(
   'spec_sheets',
   {
     id: text('id').primaryKey(),
-    shopId: text('shop_id')
-      .notNull()
-      .references(() => shops.id, { onDelete: 'cascade' }),
-    jobId: text('job_id')
-      .notNull()
-      .references(() => jobs.id, { onDelete: 'cascade' }),
+    shopId: shopRef(),
+    jobId: jobRef(),
     title: text('title').notNull(),
     version: integer('version').notNull().default(1),
     createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
@@ -258,12 +255,8 @@ export const measurements = sqliteTable(
   'measurements',
   {
     id: text('id').primaryKey(),
-    shopId: text('shop_id')
-      .notNull()
-      .references(() => shops.id, { onDelete: 'cascade' }),
-    jobId: text('job_id')
-      .notNull()
-      .references(() => jobs.id, { onDelete: 'cascade' }),
+    shopId: shopRef(),
+    jobId: jobRef(),
     kind: text('kind', { enum: ['ptv-baseline', 'springs', 'pushrod', 'degree', 'lobes'] })
       .$type<MeasurementKind>()
       .notNull(),
@@ -282,12 +275,8 @@ export const photos = sqliteTable(
   'photos',
   {
     id: text('id').primaryKey(),
-    shopId: text('shop_id')
-      .notNull()
-      .references(() => shops.id, { onDelete: 'cascade' }),
-    jobId: text('job_id')
-      .notNull()
-      .references(() => jobs.id, { onDelete: 'cascade' }),
+    shopId: shopRef(),
+    jobId: jobRef(),
     storedName: text('stored_name').notNull().unique(),
     originalName: text('original_name').notNull(),
     mimeType: text('mime_type', { enum: ['image/jpeg', 'image/png', 'image/webp'] }).notNull(),
@@ -305,12 +294,8 @@ export const checklistItems = sqliteTable(
   'checklist_items',
   {
     id: text('id').primaryKey(),
-    shopId: text('shop_id')
-      .notNull()
-      .references(() => shops.id, { onDelete: 'cascade' }),
-    jobId: text('job_id')
-      .notNull()
-      .references(() => jobs.id, { onDelete: 'cascade' }),
+    shopId: shopRef(),
+    jobId: jobRef(),
     label: text('label').notNull(),
     position: integer('position').notNull(),
     doneAt: integer('done_at', { mode: 'timestamp_ms' }),
@@ -333,9 +318,7 @@ export const fitCheckRuns = sqliteTable(
   'fit_check_runs',
   {
     id: text('id').primaryKey(),
-    shopId: text('shop_id')
-      .notNull()
-      .references(() => shops.id, { onDelete: 'cascade' }),
+    shopId: shopRef(),
     sheetId: text('sheet_id')
       .notNull()
       .references(() => specSheets.id, { onDelete: 'cascade' }),
