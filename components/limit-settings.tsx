@@ -128,7 +128,7 @@ export function LimitSettings({ answer, canEdit, onReload }: { answer: ShopLimit
                 <Button
                   label="Reset to default"
                   variant="quiet"
-                  aria-label={`Reset ${r.title.toLowerCase()} to the default`}
+                  aria-label={`Reset to default: ${r.title.toLowerCase()}`}
                   onPress={() => setDraft((d) => ({ ...d, [r.key]: Object.fromEntries(r.parts.map((p) => [p, ''])) }))}
                   testID={`limit-${r.key}-reset`}
                 />

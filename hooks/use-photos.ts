@@ -23,13 +23,13 @@ function useSettle(jobId: string) {
   return () => queryClient.invalidateQueries({ queryKey: photoKeys.job(jobId) });
 }
 
-/** Sends up to six photos in one request (field `files`). */
+/** Sends up to six photos in one request (multipart field `photos`, as the server names it). */
 export function useUploadPhotosMutation(jobId: string) {
   const settle = useSettle(jobId);
   return useMutation({
     mutationFn: async (files: readonly PickedFile[]) => {
       const form = new FormData();
-      for (const file of files) appendPickedFile(form, 'files', file);
+      for (const file of files) appendPickedFile(form, 'photos', file);
       return (await upload<{ photos: Photo[] }>(`/api/jobs/${encodeURIComponent(jobId)}/photos`, form)).photos;
     },
     onSuccess: settle,

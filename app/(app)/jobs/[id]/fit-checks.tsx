@@ -89,7 +89,6 @@ function SheetRuns({ sheetId }: { sheetId: string }) {
               <View key={r.id} role="listitem">
               <Pressable
                 role="button"
-                aria-label={`Show the run of ${formatDateTime(r.createdAt)} on revision ${r.revisionNumber}: ${r.results.status}`}
                 aria-pressed={active}
                 onPress={() => setShownId(r.id)}
                 style={[styles.historyItem, active && styles.historyActive]}
