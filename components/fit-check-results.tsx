@@ -84,7 +84,10 @@ export function FitCheckResults({ run }: { run: FitCheckRun }) {
         </Text>
       </View>
       {groups.map((g) => {
-        const checks = r.checks.filter((c) => g.ids.includes(c.id));
+        const all = r.checks.filter((c) => g.ids.includes(c.id));
+        // Sixteen passing lobes say less than the one that is not: list the rest as a count.
+        const checks = g.key === 'lobes' ? all.filter((c) => c.status !== 'pass') : all;
+        const hiddenPasses = all.length - checks.length;
         const skipped = r.skipped.filter((s) => g.ids.includes(s.id));
         if (checks.length === 0 && skipped.length === 0) return null;
         const caution =
@@ -101,6 +104,11 @@ export function FitCheckResults({ run }: { run: FitCheckRun }) {
             <View style={wide && caution ? styles.beside : styles.stack}>
               <View style={[styles.stack, wide && caution ? styles.main : null]}>
                 <CheckList checks={checks} skipped={skipped} testID={`fit-${g.key}`} />
+                {hiddenPasses > 0 ? (
+                  <Text style={styles.detail} testID={`fit-${g.key}-passing`}>
+                    {hiddenPasses} other lobe{hiddenPasses === 1 ? '' : 's'} pass.
+                  </Text>
+                ) : null}
                 {details[g.key]}
               </View>
               {caution ? <View style={wide ? styles.side : null}>{caution}</View> : null}

@@ -84,9 +84,9 @@ export function LobeOverlay({ lobeId, points, centerline, spec, specName, height
 const styles = StyleSheet.create({
   box: { width: '100%', gap: space.sm },
   legend: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md, alignItems: 'center' },
-  legendItem: { flexDirection: 'row', alignItems: 'center', gap: space.xs },
+  legendItem: { flexDirection: 'row', alignItems: 'center', gap: space.xs, flexShrink: 1 },
   swatch: { width: 18, height: 4, borderRadius: 2 },
   dashed: { backgroundColor: colors.inkMuted },
-  legendText: { ...typeScale.small, color: colors.ink, fontFamily: fonts.medium },
+  legendText: { ...typeScale.small, color: colors.ink, fontFamily: fonts.medium, flexShrink: 1 },
   axis: { ...typeScale.small, color: colors.inkMuted },
 });

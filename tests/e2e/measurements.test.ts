@@ -127,6 +127,8 @@ describe.each(Object.keys(viewports) as ViewportName[])('the tech on the bench a
     });
     expect(await shown(page, 'degree-true-tdc').textContent()).toContain('2.0° ATDC');
     expect(await shown(page, 'degree-icl').textContent()).toBe('110.0° ATDC');
+    await shown(page, 'degree-save').click();
+    await shown(page, 'degree-saved').waitFor();
     await expectAccessible(page);
     await screenshot(page, `measurements-${viewport}`);
 
@@ -148,6 +150,8 @@ describe.each(Object.keys(viewports) as ViewportName[])('the tech on the bench a
     expect(springText).toMatch(/(Pass|Watch|Fail)Coil-bind margin/);
     expect(springText).toMatch(/(Pass|Watch|Fail)Retainer-to-seal/);
     expect(await shown(page, 'fit-lobes').textContent()).toMatch(/(Watch|Fail)Lobe wear \(3E\)/);
+    expect(await shown(page, 'fit-lobes-passing').textContent()).toBe('15 other lobes pass.');
+    expect(await shown(page, 'fit-degree').textContent()).toMatch(/(Pass|Watch|Fail)Cam degreed in/);
     expect(await shown(page, 'caution-ptv').textContent()).toContain('Predictions do not replace measurement');
     expect(await shown(page, 'caution-springs').textContent()).toContain('service manual');
     await expectAccessible(page);
