@@ -106,7 +106,7 @@ function PhotoCard({ jobId, photo, canWrite }: { jobId: string; photo: Photo; ca
     <View role="listitem" style={styles.card} testID={`photo-${photo.id}`}>
       <Image source={{ uri: photo.url }} style={styles.thumb} resizeMode="cover" alt={name} accessibilityLabel={name} testID="photo-thumb" />
       <Text style={styles.meta}>
-        {photo.originalName} · {(photo.size / 1024).toFixed(0)} KB · {formatDateTime(photo.createdAt)}
+        {photo.originalName} · {photo.size < 1024 ? `${photo.size} bytes` : `${(photo.size / 1024).toFixed(0)} KB`} · {formatDateTime(photo.createdAt)}
       </Text>
       {canWrite ? (
         <>

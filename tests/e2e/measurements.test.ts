@@ -181,6 +181,11 @@ describe.each(Object.keys(viewports) as ViewportName[])('the tech on the bench a
     expect(await shown(page, 'checklist-done-0').textContent()).toMatch(/^Done by Obie Lusk \(demo tech\), \w{3} \d{1,2}, \d{4}/);
     await expectAccessible(page);
     await screenshot(page, `job-bench-${viewport}`);
+
+    // Delete the test photo (a second press confirms), so the demo job keeps only the photos people took.
+    await card.locator('[data-testid="photo-delete"]').click();
+    await card.locator('[data-testid="photo-delete-confirm"]').click();
+    await expect.poll(() => photos.count()).toBe(photosBefore);
     expect(errors).toEqual([]);
     await close();
   });
