@@ -2,17 +2,24 @@
  * Screen budgets:
  * - edit to paint: one keystroke on the compare screen re-parses the typed value, re-runs the analysis of
  *   the edited profile and of the baseline, and rebuilds the SVG paths (budget 16 ms, one frame at 60 Hz);
- * - first-load JS: the gzipped entry bundle of the web export (budget 510 KB). Builds dist/ first if missing.
+ * - first-load JS: every script Chromium fetches to show the sign-in page from the web export, gzipped
+ *   (budget 510 KB). Route chunks for other screens and unit conversion load later and are not counted.
+ *   Builds dist/ first if missing.
  *
  * Run: npm run bench. Exits 1 when a budget is missed.
  */
 import { execSync } from 'node:child_process';
 import fs from 'node:fs';
+import type { AddressInfo } from 'node:net';
 import path from 'node:path';
 import zlib from 'node:zlib';
 
+import { chromium } from 'playwright-core';
+
 import { DEMO_ENGINE, DEMO_STOCK_REGRIND, DEMO_TOWING } from '@/calc/demo';
 import { buildPlotPaths } from '@/components/lift-plot-paths';
+import { openDb } from '@/db';
+import { createApp } from '@/server/app';
 import { analyzeRecords } from '@/shared/analysis';
 import { engineSchema } from '@/shared/engine';
 import { profileSpecSchema } from '@/shared/profile';
@@ -44,18 +51,45 @@ console.log(`edit to new plot paths: median ${p50.toFixed(2)} ms, p95 ${p95.toFi
 
 const root = path.resolve(__dirname, '..', '..');
 const webDir = path.resolve(root, process.env.WEB_DIR || 'dist');
-const jsDir = path.join(webDir, '_expo', 'static', 'js', 'web');
-if (!fs.existsSync(jsDir)) {
+if (!fs.existsSync(path.join(webDir, 'index.html'))) {
   console.log('No web export yet: building it (npm run build)…');
   execSync('npm run build', { cwd: root, stdio: 'inherit' });
 }
-const entry = fs.readdirSync(jsDir).find((f) => f.startsWith('entry-') && f.endsWith('.js'));
-if (!entry) throw new Error(`No entry bundle in ${jsDir}`);
-const gzippedKb = zlib.gzipSync(fs.readFileSync(path.join(jsDir, entry)), { level: 9 }).length / 1024;
-console.log(`first-load JS gzipped: ${gzippedKb.toFixed(0)} KB (budget ${BUNDLE_BUDGET_KB} KB; lazy chunks such as unit conversion not counted)`);
 
-const missed = [p95 > FRAME_BUDGET_MS && 'edit to paint', gzippedKb > BUNDLE_BUDGET_KB && 'first-load JS'].filter(Boolean);
-if (missed.length) {
-  console.error(`screen bench: OVER BUDGET (${missed.join(', ')})`);
-  process.exit(1);
+/** Serves the export, opens /sign-in in Chromium, and adds up the gzipped size of every script it fetched. */
+async function firstLoadKb(): Promise<number> {
+  const app = createApp({ db: openDb(':memory:'), baseURL: 'http://127.0.0.1', secret: 'bench-secret-bench-secret-bench-secret', webDir });
+  const server = await new Promise<ReturnType<typeof app.listen>>((resolve) => {
+    const s = app.listen(0, '127.0.0.1', () => resolve(s));
+  });
+  const browser = await chromium.launch({
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--no-first-run'],
+  });
+  try {
+    const page = await browser.newPage();
+    const scripts = new Set<string>();
+    page.on('response', (res) => {
+      const url = new URL(res.url());
+      if (url.pathname.endsWith('.js')) scripts.add(url.pathname);
+    });
+    await page.goto(`http://127.0.0.1:${(server.address() as AddressInfo).port}/sign-in`);
+    await page.getByTestId('sign-in-email').waitFor();
+    let bytes = 0;
+    for (const script of scripts) bytes += zlib.gzipSync(fs.readFileSync(path.join(webDir, script)), { level: 9 }).length;
+    return bytes / 1024;
+  } finally {
+    await browser.close();
+    server.close();
+  }
 }
+
+firstLoadKb().then((gzippedKb) => {
+  console.log(`first-load JS gzipped: ${gzippedKb.toFixed(0)} KB (budget ${BUNDLE_BUDGET_KB} KB; scripts fetched to show the sign-in page)`);
+
+  const missed = [p95 > FRAME_BUDGET_MS && 'edit to paint', gzippedKb > BUNDLE_BUDGET_KB && 'first-load JS'].filter(Boolean);
+  if (missed.length) {
+    console.error(`screen bench: OVER BUDGET (${missed.join(', ')})`);
+    process.exit(1);
+  }
+});
