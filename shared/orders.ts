@@ -1,0 +1,119 @@
+import { z } from 'zod';
+
+import type { Revision } from './sheets';
+import { versionSchema } from './numbers';
+
+/**
+ * A grind order: one issued revision of a spec sheet, sent to one grinding shop.
+ * Lobewright's own stage names; the server enforces the moves in `orderMoves`.
+ */
+export const orderStages = ['sent', 'quoted', 'changes-asked', 'grinding', 'shipped', 'received', 'installed'] as const;
+export type OrderStage = (typeof orderStages)[number];
+
+export const orderStageLabels: Record<OrderStage, string> = {
+  sent: 'Sent to grinder',
+  quoted: 'Accepted and quoted',
+  'changes-asked': 'Changes asked',
+  grinding: 'On the grinder',
+  shipped: 'Shipped',
+  received: 'Received at the shop',
+  installed: 'Installed',
+};
+
+/** Who may make each move, from which stage. Anything else is a 409. */
+export const orderMoves: Record<OrderStage, { to: OrderStage; by: 'grinder' | 'builder' }[]> = {
+  sent: [
+    { to: 'quoted', by: 'grinder' },
+    { to: 'changes-asked', by: 'grinder' },
+  ],
+  quoted: [{ to: 'grinding', by: 'grinder' }],
+  'changes-asked': [],
+  grinding: [{ to: 'shipped', by: 'grinder' }],
+  shipped: [{ to: 'received', by: 'builder' }],
+  received: [{ to: 'installed', by: 'builder' }],
+  installed: [],
+};
+
+/** Builder issues the sheet's current draft revision to one grinding shop. */
+export const issueSchema = z.strictObject({
+  version: versionSchema,
+  grinderShopId: z.string({ error: 'Choose the grinding shop' }).min(1, 'Choose the grinding shop'),
+  note: z.string().trim().max(2000, 'Keep the note under 2000 characters').default(''),
+});
+export type IssueBody = z.input<typeof issueSchema>;
+
+const money = z.number({ error: 'Price must be a number' }).min(0, 'Price cannot be negative').max(100_000, 'Price looks too high');
+
+/** One move of an order; the fields a move needs are required by the server for that move. */
+export const orderMoveSchema = z.strictObject({
+  version: versionSchema,
+  to: z.enum(orderStages, { error: `Stage is one of: ${orderStages.join(', ')}` }),
+  /** Required to quote. */
+  quote: z
+    .strictObject({
+      priceCents: money.int('Price is in whole cents'),
+      leadTimeDays: z.number({ error: 'Lead time must be a number of days' }).int().min(0).max(365),
+    })
+    .optional(),
+  /** Required to ask for changes; optional otherwise. */
+  message: z.string().trim().max(4000, 'Keep the message under 4000 characters').optional(),
+  /** Required to ship. */
+  shipping: z
+    .strictObject({
+      carrier: z.string().trim().min(1, 'Name the carrier').max(80),
+      tracking: z.string().trim().min(1, 'Enter the tracking text').max(120),
+    })
+    .optional(),
+});
+export type OrderMove = z.input<typeof orderMoveSchema>;
+
+export const messageSchema = z.strictObject({
+  body: z.string({ error: 'Write a message' }).trim().min(1, 'Write a message').max(4000, 'Keep the message under 4000 characters'),
+});
+
+export type OrderMessage = {
+  id: string;
+  orderId: string;
+  body: string;
+  author: { id: string | null; name: string; shopName: string; side: 'builder' | 'grinder' };
+  createdAt: string;
+};
+
+export type OrderEvent = { id: number; action: string; by: string; at: string; detail: Record<string, unknown> | null };
+
+export type Order = {
+  id: string;
+  sheetId: string;
+  sheetTitle: string;
+  revisionId: string;
+  revisionNumber: number;
+  /** Short checksum of the issued revision's content (first 12 hex of SHA-256 over its canonical JSON). */
+  checksum: string;
+  repairShop: { id: string; name: string };
+  grinderShop: { id: string; name: string };
+  stage: OrderStage;
+  quote: { priceCents: number; leadTimeDays: number } | null;
+  shipping: { carrier: string; tracking: string } | null;
+  issuedAt: string;
+  updatedAt: string;
+  version: number;
+};
+
+/** What the grinder and the builder see on an order's page. */
+export type OrderDetail = Order & {
+  revision: Revision;
+  /** The job's vehicle line (no owner details go to the grinder). */
+  vehicle: string;
+  messages: OrderMessage[];
+  events: OrderEvent[];
+};
+
+/** A stored e-mail in the local outbox (the default transport). */
+export type OutboxMessage = {
+  id: string;
+  to: string;
+  subject: string;
+  text: string;
+  html: string;
+  createdAt: string;
+};
