@@ -11,3 +11,19 @@ const wholeNumber = new Intl.NumberFormat('en-US', { maximumFractionDigits: 0 })
 export const formatDate = (iso: string) => dateFormat.format(new Date(iso));
 export const formatDateTime = (iso: string) => dateTimeFormat.format(new Date(iso));
 export const formatMiles = (miles: number | null) => (miles == null ? 'Odometer not recorded' : `${wholeNumber.format(miles)} mi`);
+
+const money = new Intl.NumberFormat('en-US', { style: 'currency', currency: 'USD' });
+
+/** Whole cents as dollars, e.g. 48500 → "$485.00". */
+export const formatCents = (cents: number) => money.format(cents / 100);
+
+/** How long ago, in plain words: "just now", "5 minutes", "3 hours", "2 days". */
+export function formatAge(iso: string, now: number = Date.now()): string {
+  const minutes = Math.max(0, Math.floor((now - new Date(iso).getTime()) / 60_000));
+  if (minutes < 1) return 'just now';
+  const plural = (n: number, unit: string) => `${n} ${unit}${n === 1 ? '' : 's'}`;
+  if (minutes < 60) return plural(minutes, 'minute');
+  const hours = Math.floor(minutes / 60);
+  if (hours < 24) return plural(hours, 'hour');
+  return plural(Math.floor(hours / 24), 'day');
+}
