@@ -4,6 +4,7 @@ import { index, integer, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqli
 import type { CheckLimitOverrides } from '@/calc/checks';
 import type { EngineSpec } from '@/shared/engine';
 import type { FitCheckRun, MeasurementData, MeasurementKind } from '@/shared/measurements';
+import type { Order, OrderStage } from '@/shared/orders';
 import type { ProfileSpec } from '@/shared/profile';
 import type { RevisionResults } from '@/shared/sheets';
 
@@ -330,4 +331,74 @@ export const fitCheckRuns = sqliteTable(
     createdAt: createdAt(),
   },
   (t) => [index('fit_check_runs_sheet_idx').on(t.sheetId, t.createdAt)],
+);
+
+/** A grind order: one issued sheet revision sent to one grinding shop, moving through the stages in shared/orders.ts. */
+export const grindOrders = sqliteTable(
+  'grind_orders',
+  {
+    id: text('id').primaryKey(),
+    repairShopId: text('repair_shop_id')
+      .notNull()
+      .references(() => shops.id, { onDelete: 'cascade' }),
+    grinderShopId: text('grinder_shop_id')
+      .notNull()
+      .references(() => shops.id, { onDelete: 'cascade' }),
+    sheetId: text('sheet_id')
+      .notNull()
+      .references(() => specSheets.id, { onDelete: 'cascade' }),
+    /** The issued revision; one order per revision. */
+    revisionId: text('revision_id')
+      .notNull()
+      .unique()
+      .references(() => sheetRevisions.id),
+    /** Short checksum of the revision's content (shared/checksum.ts). */
+    checksum: text('checksum').notNull(),
+    stage: text('stage', { enum: ['sent', 'quoted', 'changes-asked', 'grinding', 'shipped', 'received', 'installed'] })
+      .$type<OrderStage>()
+      .notNull()
+      .default('sent'),
+    quote: text('quote', { mode: 'json' }).$type<NonNullable<Order['quote']>>(),
+    shipping: text('shipping', { mode: 'json' }).$type<NonNullable<Order['shipping']>>(),
+    version: integer('version').notNull().default(1),
+    issuedBy: text('issued_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [
+    index('grind_orders_grinder_idx').on(t.grinderShopId, t.createdAt),
+    index('grind_orders_sheet_idx').on(t.sheetId, t.createdAt),
+  ],
+);
+
+/** One message in an order's thread between the repair shop and the grinding shop. */
+export const orderMessages = sqliteTable(
+  'order_messages',
+  {
+    id: text('id').primaryKey(),
+    orderId: text('order_id')
+      .notNull()
+      .references(() => grindOrders.id, { onDelete: 'cascade' }),
+    authorUserId: text('author_user_id').references(() => users.id, { onDelete: 'set null' }),
+    authorShopId: text('author_shop_id')
+      .notNull()
+      .references(() => shops.id, { onDelete: 'cascade' }),
+    body: text('body').notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index('order_messages_order_idx').on(t.orderId, t.createdAt)],
+);
+
+/** E-mail kept by the local transport (the default when no SMTP_URL is set). */
+export const outbox = sqliteTable(
+  'outbox',
+  {
+    id: text('id').primaryKey(),
+    to: text('to').notNull(),
+    subject: text('subject').notNull(),
+    text: text('text').notNull(),
+    html: text('html').notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index('outbox_created_idx').on(t.createdAt)],
 );
