@@ -18,10 +18,11 @@ export function useJobSheetsQuery(jobId: string) {
   });
 }
 
-export function useSheetQuery(id: string) {
+export function useSheetQuery(id: string, enabled = true) {
   return useQuery({
     queryKey: sheetKeys.detail(id),
     staleTime: staleTimes.record,
+    enabled,
     queryFn: async () => (await api<{ sheet: SheetWithHistory }>(`/api/sheets/${encodeURIComponent(id)}`)).sheet,
   });
 }
