@@ -38,6 +38,13 @@ export async function requireShopRole(
   req: Request,
   permission: Permission,
 ): Promise<InShop> {
+  const ctx = await requireMember(auth, db, req);
+  if (!roleAllows(ctx.role, permission)) throw forbidden();
+  return ctx;
+}
+
+/** The person's membership in their active shop, whatever the role (routes that decide by record, like orders). */
+export async function requireMember(auth: Auth, db: Db, req: Request): Promise<InShop> {
   const signed = await requireSignedIn(auth, req);
   if (!signed.activeShopId) throw forbidden('Choose a shop first: you are not working in any shop');
   const row = db
@@ -54,6 +61,5 @@ export async function requireShopRole(
     )
     .get();
   if (!row || !isShopRole(row.role)) throw forbidden('You are no longer a member of this shop');
-  if (!roleAllows(row.role, permission)) throw forbidden();
   return { ...signed, shop: { id: row.id, name: row.name, kind: row.kind }, role: row.role };
 }

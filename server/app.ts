@@ -10,13 +10,16 @@ import type { Db } from '@/db';
 import { createAuth } from './auth';
 import type { AppDeps } from './deps';
 import { errorHandler, HttpError, sendError } from './http';
+import { createMailer, type Mailer } from './mail';
 import { calcRouter, type CalcRateLimit } from './routes/calc';
 import { checklistRouter } from './routes/checklist';
+import { devOutboxRouter } from './routes/dev-outbox';
 import { enginesRouter } from './routes/engines';
 import { fitChecksRouter } from './routes/fit-checks';
 import { jobsRouter } from './routes/jobs';
 import { measurementsRouter } from './routes/measurements';
 import { meRouter } from './routes/me';
+import { ordersRouter } from './routes/orders';
 import { photosRouter } from './routes/photos';
 import { profilesRouter } from './routes/profiles';
 import { sheetsRouter } from './routes/sheets';
@@ -36,14 +39,24 @@ export type CreateAppOptions = {
   calcRateLimit?: CalcRateLimit;
   /** Folder for uploaded photos (one sub-folder per shop); default `uploads` beside the database. Tests pass a temp folder. */
   uploadsDir?: string;
+  /** Sends e-mail; default: the local transport that keeps each message in the outbox table. */
+  mailer?: Mailer;
+  /** Development tools such as the outbox API (`/api/dev/*`); default on unless NODE_ENV is production. */
+  devTools?: boolean;
 };
 
 const dev = process.env.NODE_ENV !== 'production';
 
 /** Builds the whole app without listening, so tests can drive it on an in-memory database. */
-export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLimit, uploadsDir }: CreateAppOptions) {
+export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLimit, uploadsDir, mailer, devTools = dev }: CreateAppOptions) {
   const auth = createAuth({ db, baseURL, secret });
-  const deps: AppDeps = { db, auth, uploadsDir: path.resolve(uploadsDir ?? defaultUploadsDir(db)) };
+  const deps: AppDeps = {
+    db,
+    auth,
+    uploadsDir: path.resolve(uploadsDir ?? defaultUploadsDir(db)),
+    mailer: mailer ?? createMailer({ db }),
+    publicUrl: baseURL,
+  };
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
@@ -60,6 +73,8 @@ export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLi
   app.use('/api/jobs', jobsRouter(deps));
   app.use('/api', enginesRouter(deps), profilesRouter(deps), sheetsRouter(deps), calcRouter(deps, calcRateLimit));
   app.use('/api', measurementsRouter(deps), photosRouter(deps), checklistRouter(deps), shopLimitsRouter(deps), fitChecksRouter(deps));
+  app.use('/api', ordersRouter(deps));
+  if (devTools) app.use('/api', devOutboxRouter(deps));
   app.use('/api', (req, res) => sendError(res, new HttpError(404, 'not_found', `No API route ${req.method} ${req.path}`)));
 
   if (devWebProxy) app.use(devWebProxy);

@@ -13,5 +13,8 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env) {
     secret: secret || 'lobewright-local-development-secret-change-me',
     databasePath: env.DATABASE_PATH || 'data/lobewright.sqlite',
     webDir: env.WEB_DIR || 'dist',
+    /** Unset: e-mail is kept in the database's outbox table. */
+    smtpUrl: env.SMTP_URL || undefined,
+    mailFrom: env.MAIL_FROM || undefined,
   };
 }

@@ -1,6 +1,7 @@
 import type { Db } from '@/db';
 
 import type { Auth } from './auth';
+import type { Mailer } from './mail';
 
 /** What every router is built from. Tests pass an in-memory database; nothing is mocked. */
 export type AppDeps = {
@@ -8,4 +9,8 @@ export type AppDeps = {
   auth: Auth;
   /** Absolute folder for uploaded files, one sub-folder per shop. */
   uploadsDir: string;
+  /** Sends e-mail (the outbox table unless SMTP_URL is set). */
+  mailer: Mailer;
+  /** Public origin for links in e-mail (createApp's baseURL). */
+  publicUrl: string;
 };

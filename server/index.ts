@@ -5,6 +5,7 @@ import { demoAccounts, demoSignInText } from '@/db/seed';
 
 import { createApp } from './app';
 import { readConfig } from './config';
+import { createMailer } from './mail';
 
 const config = readConfig();
 const db = openDb(config.databasePath);
@@ -15,10 +16,12 @@ const devWebProxy = process.env.DEV_WEB_PROXY
       ws: true,
     })
   : undefined;
-const app = createApp({ db, baseURL: config.baseURL, secret: config.secret, webDir: config.webDir, devWebProxy });
+const mailer = createMailer({ db, smtpUrl: config.smtpUrl, from: config.mailFrom });
+const app = createApp({ db, baseURL: config.baseURL, secret: config.secret, webDir: config.webDir, devWebProxy, mailer });
 
 const server = app.listen(config.port, () => {
   console.log(`Lobewright is serving ${config.baseURL} (database ${config.databasePath})`);
+  console.log(mailer.kind === 'smtp' ? 'E-mail goes out through SMTP_URL' : 'E-mail is kept in the outbox (no SMTP_URL); open the dev mailbox to read it');
   const demoUsers = db
     .select({ n: count() })
     .from(schema.users)

@@ -1,0 +1,97 @@
+import type { MailMessage } from './index';
+
+/** What an order e-mail needs to say; everything here is already checked by the route. */
+export type OrderMailFacts = {
+  orderId: string;
+  publicUrl: string;
+  sheetTitle: string;
+  revisionNumber: number;
+  checksum: string;
+  repairShopName: string;
+  grinderShopName: string;
+  quote?: { priceCents: number; leadTimeDays: number } | null;
+  shipping?: { carrier: string; tracking: string } | null;
+  message?: string | null;
+};
+
+export type OrderMailKind = 'issued' | 'quoted' | 'changes-asked' | 'shipped';
+
+/** The order's page in the app. */
+export function orderLink(publicUrl: string, orderId: string) {
+  return `${publicUrl.replace(/\/+$/, '')}/orders/${encodeURIComponent(orderId)}`;
+}
+
+function escapeHtml(s: string) {
+  return s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+}
+
+function dollars(cents: number) {
+  return `$${(cents / 100).toFixed(2)}`;
+}
+
+/** Subject, lines of text and the call to action for each kind of order mail (Lobewright's own wording). */
+function content(kind: OrderMailKind, f: OrderMailFacts): { subject: string; lines: string[]; action: string } {
+  const sheet = `"${f.sheetTitle}" revision ${f.revisionNumber} (checksum ${f.checksum})`;
+  switch (kind) {
+    case 'issued':
+      return {
+        subject: `New spec sheet from ${f.repairShopName}: ${f.sheetTitle}, rev ${f.revisionNumber}`,
+        lines: [
+          `${f.repairShopName} has sent you ${sheet} to grind.`,
+          'The revision is frozen: what you open is exactly what they sent.',
+          ...(f.message ? [`Their note: ${f.message}`] : []),
+          'Open it to accept with a quote or to ask for changes.',
+        ],
+        action: 'Open the spec sheet',
+      };
+    case 'quoted':
+      return {
+        subject: `${f.grinderShopName} quoted ${f.sheetTitle}, rev ${f.revisionNumber}`,
+        lines: [
+          `${f.grinderShopName} accepted ${sheet}.`,
+          ...(f.quote ? [`Price: ${dollars(f.quote.priceCents)}. Lead time: ${f.quote.leadTimeDays} days.`] : []),
+          ...(f.message ? [`Their note: ${f.message}`] : []),
+        ],
+        action: 'See the quote',
+      };
+    case 'changes-asked':
+      return {
+        subject: `${f.grinderShopName} asks for changes to ${f.sheetTitle}, rev ${f.revisionNumber}`,
+        lines: [
+          `${f.grinderShopName} will not grind ${sheet} as it stands.`,
+          `What they ask: ${f.message ?? ''}`,
+          'Edit the sheet to start a new revision, then send it again.',
+        ],
+        action: 'Read their request',
+      };
+    case 'shipped':
+      return {
+        subject: `Your cam is on its way: ${f.sheetTitle}, rev ${f.revisionNumber}`,
+        lines: [
+          `${f.grinderShopName} shipped the cam ground to ${sheet}.`,
+          ...(f.shipping ? [`Carrier: ${f.shipping.carrier}. Tracking: ${f.shipping.tracking}.`] : []),
+          ...(f.message ? [`Their note: ${f.message}`] : []),
+          'Mark it received when it arrives, and check the checksum on the box against your sheet.',
+        ],
+        action: 'Follow the order',
+      };
+  }
+}
+
+/** One order e-mail to one person, with a plain-text and an HTML part that both link to the order. */
+export function orderMail(kind: OrderMailKind, to: { email: string; name: string }, facts: OrderMailFacts): MailMessage {
+  const { subject, lines, action } = content(kind, facts);
+  const link = orderLink(facts.publicUrl, facts.orderId);
+  const greeting = `Hello ${to.name},`;
+  const footer = 'Sent by Lobewright for the shops on this order.';
+  const text = [greeting, '', ...lines, '', `${action}: ${link}`, '', footer, ''].join('\n');
+  const html = [
+    '<!doctype html><html><body style="font-family:sans-serif;color:#111;background:#fff">',
+    `<p>${escapeHtml(greeting)}</p>`,
+    ...lines.map((l) => `<p>${escapeHtml(l)}</p>`),
+    `<p><a href="${escapeHtml(link)}">${escapeHtml(action)}</a></p>`,
+    `<p style="font-size:12px;color:#555">${escapeHtml(footer)}</p>`,
+    '</body></html>',
+  ].join('\n');
+  return { to: to.email, subject, text, html };
+}
