@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { schema } from '@/db';
+import { demoAccounts, demoJobId, demoPassword, demoSheetId, seedDemo } from '@/db/seed';
 import { revisionChecksum } from '@/shared/checksum';
 import { orderMoves, orderStages, type OrderStage } from '@/shared/orders';
 import {
@@ -382,6 +383,44 @@ describe('development mailbox', { timeout: 30_000 }, () => {
       expect((await person.get(`/api/dev/outbox/${mine.id}`)).status).toBe(404);
     } finally {
       await prod.close();
+    }
+  });
+});
+
+describe('demo data', { timeout: 60_000 }, () => {
+  it('lets the demo builder issue the demo sheet to the demo grinding shop, whose grinder sees it and quotes it', async () => {
+    const demo = await createTestApp();
+    try {
+      await seedDemo(demo.db, demo.app.auth);
+      const signIn = async (role: string) => {
+        const client = new Client(demo.url);
+        const email = demoAccounts.find((a) => a.role === role)!.email;
+        expect((await client.post('/api/auth/sign-in/email', { email, password: demoPassword })).status).toBe(200);
+        return client;
+      };
+      const builder = await signIn('builder');
+      const grinder = await signIn('grinder');
+      const shops = (await builder.get('/api/grinding-shops')).body.shops;
+      expect(shops).toHaveLength(1);
+      const kestrel = shops[0];
+      expect(kestrel.name).toMatch(/demo/);
+      expect((await grinder.get('/api/incoming')).body.orders).toEqual([]);
+
+      const sheet = (await builder.get(`/api/sheets/${demoSheetId}`)).body.sheet;
+      const res = await builder.post(`/api/sheets/${demoSheetId}/issue`, { version: sheet.version, grinderShopId: kestrel.id });
+      expect(res.status).toBe(201);
+      const incoming = (await grinder.get('/api/incoming')).body.orders;
+      expect(incoming.map((o: { id: string }) => o.id)).toEqual([res.body.order.id]);
+      const detail = (await grinder.get(`/api/orders/${res.body.order.id}`)).body.order;
+      const job = demo.db.select().from(schema.jobs).all().find((j) => j.id === demoJobId)!;
+      expect(detail.vehicle).toBe(job.vehicle);
+      expect(JSON.stringify(detail)).not.toContain(job.customerName);
+      const grinderEmail = demoAccounts.find((a) => a.role === 'grinder')!.email;
+      expect(demo.db.select().from(schema.outbox).all().map((m) => m.to)).toEqual([grinderEmail]);
+      const quoted = await grinder.post(`/api/orders/${detail.id}/move`, { version: 1, to: 'quoted', ...extras('quoted') });
+      expect(quoted.status).toBe(200);
+    } finally {
+      await demo.close();
     }
   });
 });
