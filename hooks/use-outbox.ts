@@ -10,14 +10,13 @@ export const outboxKeys = {
   detail: (id: string) => [...outboxKeys.all, 'detail', id] as const,
 };
 
-/** True in a development build; the dev mailbox never shows in production. */
-export const mailboxBuild = process.env.NODE_ENV !== 'production';
-
 /**
  * The local outbox (dev mail transport). Answers null when the server has no
- * mailbox (404 in production), so callers can hide the screen.
+ * mailbox: a server run with NODE_ENV=production answers 404, so callers hide the screen.
+ * The server decides, not the bundle: `expo export` always bundles with NODE_ENV=production,
+ * even for the build a developer serves locally with the outbox on.
  */
-export function useOutboxQuery(enabled = mailboxBuild) {
+export function useOutboxQuery(enabled = true) {
   return useQuery({
     queryKey: outboxKeys.list(),
     staleTime: staleTimes.record,
@@ -38,7 +37,7 @@ export function useOutboxMessageQuery(id: string | null) {
   return useQuery({
     queryKey: outboxKeys.detail(id ?? ''),
     staleTime: staleTimes.session,
-    enabled: mailboxBuild && id !== null,
+    enabled: id !== null,
     queryFn: async () => (await api<{ message: OutboxMessage }>(`/api/dev/outbox/${encodeURIComponent(id ?? '')}`)).message,
   });
 }

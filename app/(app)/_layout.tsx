@@ -4,6 +4,7 @@ import { useWindowDimensions } from 'react-native';
 import { NavBar, type NavItem } from '@/components/nav-bar';
 import { breakpoints, colors } from '@/constants/theme';
 import { useMeQuery } from '@/hooks/use-me';
+import { useOutboxQuery } from '@/hooks/use-outbox';
 import { roleAllows } from '@/shared/roles';
 
 export default function AppLayout() {
@@ -13,6 +14,10 @@ export default function AppLayout() {
   const role = me?.activeShop?.role;
   const canSeeJobs = roleAllows(role, { job: ['read'] });
   const canSeeLimits = roleAllows(role, { measurement: ['read'] });
+  const canSeeIncoming = roleAllows(role, { incoming: ['read'] });
+  // The dev mailbox shows only when the server keeps an outbox; a production server answers 404 (→ null).
+  const outbox = useOutboxQuery(Boolean(me));
+  const canSeeMailbox = Array.isArray(outbox.data);
 
   const items: NavItem[] = [
     ...(canSeeJobs
@@ -21,7 +26,9 @@ export default function AppLayout() {
           { href: '/profiles', match: '/profiles', label: 'Profiles', glyph: '∩', testID: 'nav-profiles' },
         ] as const)
       : []),
+    ...(canSeeIncoming ? ([{ href: '/incoming', match: '/incoming', label: 'Incoming', glyph: '⇲', testID: 'nav-incoming' }] as const) : []),
     ...(canSeeLimits ? ([{ href: '/settings', match: '/settings', label: 'Settings', glyph: '⚙', testID: 'nav-settings' }] as const) : []),
+    ...(canSeeMailbox ? ([{ href: '/mailbox', match: '/mailbox', label: 'Mailbox', glyph: '✉', testID: 'nav-mailbox' }] as const) : []),
     { href: '/account', match: '/account', label: 'Account', glyph: '◎', testID: 'nav-account' },
   ];
 
@@ -41,6 +48,13 @@ export default function AppLayout() {
       </Tabs.Protected>
       <Tabs.Protected guard={canSeeLimits}>
         <Tabs.Screen name="settings" options={{ title: 'Settings' }} />
+      </Tabs.Protected>
+      <Tabs.Protected guard={canSeeIncoming}>
+        <Tabs.Screen name="incoming" options={{ title: 'Incoming' }} />
+      </Tabs.Protected>
+      <Tabs.Screen name="orders" options={{ href: null, title: 'Grind order' }} />
+      <Tabs.Protected guard={outbox.data !== null}>
+        <Tabs.Screen name="mailbox" options={{ href: null, title: 'Dev mailbox' }} />
       </Tabs.Protected>
       <Tabs.Screen name="account" options={{ title: 'Account' }} />
     </Tabs>

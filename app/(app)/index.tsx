@@ -6,5 +6,7 @@ import { roleAllows } from '@/shared/roles';
 /** The start page sends each role to where its work is. */
 export default function Home() {
   const role = useMeQuery().data?.activeShop?.role;
-  return <Redirect href={roleAllows(role, { job: ['read'] }) ? '/jobs' : '/account'} />;
+  if (roleAllows(role, { job: ['read'] })) return <Redirect href="/jobs" />;
+  if (roleAllows(role, { incoming: ['read'] })) return <Redirect href="/incoming" />;
+  return <Redirect href="/account" />;
 }

@@ -64,7 +64,6 @@ function MailRow({ message, active, onOpen }: { message: OutboxMessage; active: 
     <View role="listitem">
       <Pressable
         role="button"
-        aria-label={`Open “${message.subject}” to ${message.to}`}
         onPress={onOpen}
         style={[styles.row, active && styles.rowActive]}
         testID={`outbox-${message.id}`}

@@ -1,7 +1,7 @@
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import { baseUrl, demo, expectAccessible, launch, openPage, screenshot, signIn, viewports, type ViewportName } from './browser';
+import { baseUrl, demo, expectAccessible, launch, openPage, screenshot, shown, signIn, viewports, type ViewportName } from './browser';
 
 let browser: Browser;
 beforeAll(async () => {
@@ -25,17 +25,19 @@ describe.each(Object.keys(viewports) as ViewportName[])('each demo role at %s wi
   });
 
   it.each([
-    ['grinder', demo.grinder, /Grinder at Kestrel Valley Regrind \(demo\)/],
-    ['customer', demo.customer, /Vehicle owner at Juniper Flats Engine Works \(demo\)/],
-  ] as const)('keeps the %s out of the shop jobs and shows their account', async (role, email, roleText) => {
+    ['grinder', demo.grinder, /Grinder at Kestrel Valley Regrind \(demo\)/, 'incoming-screen'],
+    ['customer', demo.customer, /Vehicle owner at Juniper Flats Engine Works \(demo\)/, 'account-screen'],
+  ] as const)('keeps the %s out of the shop jobs and starts them where their work is', async (role, email, roleText, home) => {
     const { page, errors, close } = await openPage(browser, viewport);
     await signIn(page, email);
-    await page.getByTestId('account-screen').waitFor();
-    await expect.poll(() => page.getByTestId('account-role').textContent()).toMatch(roleText);
+    await shown(page, home).waitFor();
     expect(await page.getByTestId('nav-jobs').count()).toBe(0);
     await page.goto(`${baseUrl()}/jobs`);
-    await page.getByTestId('account-screen').waitFor();
+    await shown(page, home).waitFor();
     expect(await page.getByTestId('jobs-screen').count()).toBe(0);
+    await shown(page, 'nav-account').click();
+    await shown(page, 'account-screen').waitFor();
+    await expect.poll(() => shown(page, 'account-role').textContent()).toMatch(roleText);
     await expectAccessible(page);
     await screenshot(page, `${role}-account-${viewport}`);
     expect(errors).toEqual([]);

@@ -3,6 +3,7 @@ import { useMemo } from 'react';
 import { ScrollView, StyleSheet, Text, View } from 'react-native';
 
 import { LiftPlot } from '@/components/lift-plot';
+import { NoPrint } from '@/components/no-print';
 import { PrintButton } from '@/components/print-button';
 import { ErrorNotice, Pending } from '@/components/query-state';
 import { RevisionView } from '@/components/revision-view';
@@ -32,12 +33,14 @@ function PrintSheet({ order }: { order: OrderDetail }) {
   const analysis = useMemo(() => analyzeRecords(r.engine, r.spec), [r.engine, r.spec]);
   return (
     <View style={styles.sheet}>
-      <View style={styles.tools} data-print="hide">
-        <Link href={{ pathname: '/orders/[id]', params: { id: order.id } } as Href} style={styles.back} testID="print-back">
-          ← Back to the order
-        </Link>
-        <PrintButton />
-      </View>
+      <NoPrint>
+        <View style={styles.tools}>
+          <Link href={{ pathname: '/orders/[id]', params: { id: order.id } } as Href} style={styles.back} testID="print-back">
+            ← Back to the order
+          </Link>
+          <PrintButton />
+        </View>
+      </NoPrint>
       <View style={styles.masthead}>
         <View style={styles.grow}>
           <Text style={styles.kicker}>Lobewright grind sheet</Text>

@@ -8,6 +8,7 @@ import { ChoiceGroup } from '@/components/choice-group';
 import { ErrorNotice, Pending } from '@/components/query-state';
 import { RevisionView } from '@/components/revision-view';
 import { Screen, Section } from '@/components/screen';
+import { IssuePanel, SheetOrders } from '@/components/sheet-orders';
 import { formatDateTime } from '@/constants/format';
 import { breakpoints, colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
 import { ApiError } from '@/hooks/api';
@@ -35,7 +36,9 @@ export default function SheetPage() {
 
 function SheetView({ sheet, back }: { sheet: SheetWithHistory; back: { href: Href; label: string } }) {
   const wide = useWindowDimensions().width >= breakpoints.wide;
-  const canWrite = roleAllows(useMeQuery().data?.activeShop?.role, { sheet: ['write'] });
+  const role = useMeQuery().data?.activeShop?.role;
+  const canWrite = roleAllows(role, { sheet: ['write'] });
+  const canIssue = roleAllows(role, { sheet: ['issue'] });
   const current = sheet.current;
   const [shownNumber, setShownNumber] = useState<number | null>(null);
   const shown = sheet.revisions.find((r) => r.number === shownNumber) ?? current;
@@ -63,6 +66,8 @@ function SheetView({ sheet, back }: { sheet: SheetWithHistory; back: { href: Hre
           {canWrite && shown.number === current.number ? <NoteEditor sheet={sheet} /> : null}
         </View>
         <View style={[wide ? styles.side : undefined, styles.stack]}>
+          {canIssue ? <IssuePanel sheet={sheet} /> : null}
+          <SheetOrders sheetId={sheet.id} canMove={canIssue} />
           <Section title="Revision history">
             <View role="list" style={styles.history}>
               {[...sheet.revisions].reverse().map((r) => (

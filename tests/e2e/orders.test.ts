@@ -1,0 +1,176 @@
+import type { Browser, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
+import { baseUrl, demo, expectAccessible, launch, openPage, screenshot, shown, signIn, viewports, type ViewportName } from './browser';
+
+const sheetPath = '/jobs/demo-job-flatbed-cam/sheets/demo-sheet-flatbed-towing';
+const grinderName = /Kestrel Valley Regrind \(demo\)/;
+
+let browser: Browser;
+beforeAll(async () => {
+  browser = await launch();
+});
+afterAll(() => browser.close());
+
+/** The builder reloads the sheet page and waits for this revision's order to show the stage. */
+async function builderSees(page: Page, revision: number, stage: string) {
+  await page.goto(`${baseUrl()}${sheetPath}`);
+  await shown(page, 'sheet-screen').waitFor();
+  await expect.poll(() => shown(page, `sheet-order-stage-${revision}`).textContent()).toBe(stage);
+}
+
+describe.each(Object.keys(viewports) as ViewportName[])('grind order from issue to shipped at %s width', (viewport) => {
+  it('builder issues the demo sheet, the grinder quotes, grinds and ships it, the builder follows each stage', async () => {
+    const builder = await openPage(browser, viewport);
+    const grinder = await openPage(browser, viewport);
+    const b = builder.page;
+    const g = grinder.page;
+
+    // Builder: start a fresh draft when an earlier run left the latest revision issued.
+    await signIn(b, demo.builder);
+    await b.goto(`${baseUrl()}${sheetPath}`);
+    await shown(b, 'sheet-screen').waitFor();
+    const sheetTitle = (await shown(b, 'sheet-screen').locator('[role="heading"][aria-level="1"]').first().textContent()) ?? '';
+    expect(sheetTitle.length).toBeGreaterThan(0);
+    if ((await shown(b, 'revision-state').textContent()) === 'Issued') {
+      await shown(b, 'sheet-note').fill(`Regrind on the customer's core; browser run ${Date.now()}.`);
+      await shown(b, 'save-note').click();
+      await expect.poll(() => shown(b, 'revision-state').textContent()).toBe('Draft');
+    }
+    const subtitle = (await shown(b, 'sheet-screen').textContent()) ?? '';
+    const revision = Number(/Revision (\d+) \(draft/.exec(subtitle)?.[1]);
+    expect(revision).toBeGreaterThan(0);
+
+    // Builder: issue to the demo grinding shop, with a confirm step.
+    await shown(b, 'issue-shop').getByRole('radio', { name: grinderName }).click();
+    await shown(b, 'issue-note').fill('Core is the original; keep the base circle as stated.');
+    await shown(b, 'issue-start').click();
+    await expect.poll(() => shown(b, 'issue-confirm-box').textContent()).toContain(`Send revision ${revision}`);
+    await expectAccessible(b);
+    await shown(b, 'issue-confirm').click();
+    await expect.poll(() => shown(b, 'revision-state').textContent()).toBe('Issued');
+    await expect.poll(() => shown(b, `sheet-order-stage-${revision}`).textContent()).toBe('Sent to grinder');
+    await shown(b, 'issue-frozen').waitFor();
+    const orderHref = (await shown(b, `open-order-${revision}`).getAttribute('href')) ?? '';
+    const orderId = /\/orders\/([^/?#]+)/.exec(orderHref)?.[1] ?? '';
+    expect(orderId).not.toBe('');
+    await expectAccessible(b);
+    await screenshot(b, `orders-sheet-issued-${viewport}`);
+
+    // Grinder: the inbox starts them, and the new sheet is there with its revision.
+    await signIn(g, demo.grinder);
+    await shown(g, 'incoming-screen').waitFor();
+    const card = shown(g, `incoming-${orderId}`);
+    await expect.poll(() => card.textContent()).toContain(`Revision ${revision}`);
+    expect(await card.textContent()).toContain('Juniper Flats Engine Works (demo)');
+    expect(await card.textContent()).toContain('Sent to grinder');
+    expect(await card.textContent()).toMatch(/Sent (just now|\d+ (minute|hour|day)s? ago)/);
+    await expectAccessible(g);
+    await screenshot(g, `orders-incoming-${viewport}`);
+
+    // Grinder: open it, check the checksum matches the builder's, quote.
+    await card.click();
+    await shown(g, 'order-screen').waitFor();
+    const checksum = ((await shown(g, 'order-checksum').textContent()) ?? '').trim();
+    expect(checksum).toMatch(/^[0-9a-f]{12}$/);
+    await shown(b, `open-order-${revision}`).click();
+    await shown(b, 'order-screen').waitFor();
+    expect(((await shown(b, 'order-checksum').textContent()) ?? '').trim()).toBe(checksum);
+    expect(await shown(g, 'order-revision').textContent()).toContain(String(revision));
+    expect(await shown(g, 'order-notes').textContent()).toBeTruthy();
+    expect(await shown(g, 'order-screen').textContent()).toContain('Lifters');
+    // The grinder's moves from "sent" are quote or ask for changes; the builder has none yet.
+    expect(await shown(b, 'order-screen').getByTestId('order-moves').count()).toBe(0);
+    await shown(g, 'move-quoted').click();
+    await shown(g, 'confirm-quoted').click();
+    await expect.poll(() => shown(g, 'quote-price-error').textContent()).toContain('price in dollars');
+    await shown(g, 'quote-price').fill('485.00');
+    await shown(g, 'quote-lead-time').fill('6');
+    await expectAccessible(g);
+    await screenshot(g, `orders-quote-form-${viewport}`);
+    await shown(g, 'confirm-quoted').click();
+    await expect.poll(() => shown(g, 'order-stage').textContent()).toBe('Accepted and quoted');
+    expect(await shown(g, 'order-quote').textContent()).toContain('$485.00');
+    await builderSees(b, revision, 'Accepted and quoted');
+    expect(await shown(b, `sheet-order-quote-${revision}`).textContent()).toContain('6 days');
+
+    // Grinder: a message, then start grinding; the builder sees both.
+    await shown(g, 'message-body').fill('Core journals measure fine; grinding starts tomorrow morning.');
+    await shown(g, 'message-send').click();
+    await expect.poll(() => shown(g, 'order-messages').textContent()).toContain('grinding starts tomorrow');
+    await shown(g, 'move-grinding').click();
+    await expect.poll(() => shown(g, 'order-stage').textContent()).toBe('On the grinder');
+    await builderSees(b, revision, 'On the grinder');
+
+    // Grinder: ship with carrier and tracking.
+    const tracking = `KV-DEMO-${Date.now()}`;
+    await shown(g, 'move-shipped').click();
+    await shown(g, 'ship-carrier').fill('Ridgeback Parcel (demo)');
+    await shown(g, 'ship-tracking').fill(tracking);
+    await shown(g, 'confirm-shipped').click();
+    await expect.poll(() => shown(g, 'order-stage').textContent()).toBe('Shipped');
+    expect(await shown(g, 'order-shipping').textContent()).toContain(tracking);
+    expect(await shown(g, 'order-events').textContent()).toContain('Shipped');
+    expect(await shown(g, 'order-screen').getByTestId('order-moves').count()).toBe(0);
+    await expectAccessible(g);
+    await screenshot(g, `orders-grinder-shipped-${viewport}`);
+
+    await builderSees(b, revision, 'Shipped');
+    expect(await shown(b, `sheet-order-shipping-${revision}`).textContent()).toContain(tracking);
+    await screenshot(b, `orders-sheet-shipped-${viewport}`);
+
+    // Builder: the order page holds the grinder's message and the whole history.
+    await b.goto(`${baseUrl()}/orders/${orderId}`);
+    await shown(b, 'order-screen').waitFor();
+    await expect.poll(() => shown(b, 'order-messages').textContent()).toContain('grinding starts tomorrow');
+    const history = (await shown(b, 'order-events').textContent()) ?? '';
+    for (const stage of ['Sent to grinder', 'Accepted and quoted', 'On the grinder', 'Shipped']) expect(history).toContain(stage);
+    expect(await shown(b, 'move-received').isVisible()).toBe(true);
+    await expectAccessible(b);
+    await screenshot(b, `orders-builder-order-${viewport}`);
+
+    // Dev mailbox: the issue, quote and ship mails for this revision.
+    await shown(b, 'nav-mailbox').click();
+    await shown(b, 'mailbox-screen').waitFor();
+    const outbox = shown(b, 'outbox-list');
+    await expect.poll(() => outbox.textContent()).toContain(`${sheetTitle}, rev ${revision}`);
+    const list = (await outbox.textContent()) ?? '';
+    expect(list).toContain(`New spec sheet from Juniper Flats Engine Works (demo): ${sheetTitle}, rev ${revision}`);
+    expect(list).toContain(`quoted ${sheetTitle}, rev ${revision}`);
+    expect(list).toContain(`Your cam is on its way: ${sheetTitle}, rev ${revision}`);
+    await outbox.getByRole('button', { name: new RegExp(`on its way: .*rev ${revision}\\s*To `) }).first().click();
+    await expect.poll(() => shown(b, 'mail-text').textContent()).toContain(`/orders/${orderId}`);
+    expect(await shown(b, 'mail-reader').textContent()).toContain(`To ${demo.builder}`);
+    await expect.poll(() => shown(b, 'mail-html').getAttribute('sandbox')).toBe('');
+    await expectAccessible(b);
+    await screenshot(b, `orders-mailbox-${viewport}`);
+
+    // Print-ready sheet: checksum, revision, both shops, the lift curve; no navigation when printed.
+    await b.goto(`${baseUrl()}/orders/${orderId}/print`);
+    await shown(b, 'print-screen').waitFor();
+    await expect.poll(() => shown(b, 'print-checksum').textContent()).toBe(checksum);
+    expect(await shown(b, 'print-revision').textContent()).toContain(String(revision));
+    const sheet = (await shown(b, 'print-screen').textContent()) ?? '';
+    expect(sheet).toContain('Juniper Flats Engine Works (demo)');
+    expect(sheet).toContain('Kestrel Valley Regrind (demo)');
+    await shown(b, 'print-plot').locator('path').first().waitFor();
+    expect(await shown(b, 'print-plot').locator('path').count()).toBe(2);
+    await expectAccessible(b);
+    await screenshot(b, `orders-print-${viewport}`);
+    await b.emulateMedia({ media: 'print' });
+    expect(await b.locator('[role="navigation"]').first().isVisible()).toBe(false);
+    expect(await b.getByTestId('print-sheet').isVisible()).toBe(false);
+    await screenshot(b, `orders-print-media-${viewport}`);
+    await b.emulateMedia({ media: 'screen' });
+
+    // Builder: the cam arrives.
+    await b.goto(`${baseUrl()}${sheetPath}`);
+    await shown(b, `sheet-order-${revision}`).getByRole('button', { name: 'Mark received' }).click();
+    await expect.poll(() => shown(b, `sheet-order-stage-${revision}`).textContent()).toBe('Received at the shop');
+
+    expect(builder.errors).toEqual([]);
+    expect(grinder.errors).toEqual([]);
+    await builder.close();
+    await grinder.close();
+  }, 240_000);
+});
