@@ -160,6 +160,9 @@ describe.each(Object.keys(viewports) as ViewportName[])('grind order from issue 
     await b.emulateMedia({ media: 'print' });
     expect(await b.locator('[role="navigation"]').first().isVisible()).toBe(false);
     expect(await b.getByTestId('print-sheet').isVisible()).toBe(false);
+    // On paper the sheet flows as one block: the checksum and the curve are laid out, not collapsed to nothing.
+    expect(await shown(b, 'print-checksum').textContent()).toBe(checksum);
+    expect((await shown(b, 'print-plot').boundingBox())?.height ?? 0).toBeGreaterThan(200);
     await screenshot(b, `orders-print-media-${viewport}`);
     await b.emulateMedia({ media: 'screen' });
 
