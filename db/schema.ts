@@ -402,3 +402,112 @@ export const outbox = sqliteTable(
   },
   (t) => [index('outbox_created_idx').on(t.createdAt)],
 );
+
+/** The owner's page on a job: the builder's plain words about what failed (one row per job, written on first save). */
+export const ownerPages = sqliteTable('owner_pages', {
+  jobId: text('job_id')
+    .primaryKey()
+    .references(() => jobs.id, { onDelete: 'cascade' }),
+  shopId: shopRef(),
+  whatFailed: text('what_failed').notNull().default(''),
+  version: integer('version').notNull().default(1),
+  updatedAt: updatedAt(),
+});
+
+/** One choice offered to the owner: a spec sheet revision with a price, a deposit and a lead time. */
+export const ownerOptions = sqliteTable(
+  'owner_options',
+  {
+    id: text('id').primaryKey(),
+    shopId: shopRef(),
+    jobId: jobRef(),
+    sheetId: text('sheet_id')
+      .notNull()
+      .references(() => specSheets.id, { onDelete: 'cascade' }),
+    revisionId: text('revision_id')
+      .notNull()
+      .references(() => sheetRevisions.id, { onDelete: 'cascade' }),
+    checksum: text('checksum').notNull(),
+    title: text('title').notNull(),
+    ownerNote: text('owner_note').notNull().default(''),
+    priceCents: integer('price_cents').notNull(),
+    depositCents: integer('deposit_cents').notNull(),
+    leadTimeDays: integer('lead_time_days').notNull(),
+    position: integer('position').notNull(),
+    version: integer('version').notNull().default(1),
+    createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [index('owner_options_job_idx').on(t.jobId, t.position)],
+);
+
+/** A link that opens the owner's page without an account. Only a SHA-256 of the token is kept. */
+export const shareLinks = sqliteTable(
+  'share_links',
+  {
+    id: text('id').primaryKey(),
+    shopId: shopRef(),
+    jobId: jobRef(),
+    tokenHash: text('token_hash').notNull().unique(),
+    email: text('email'),
+    expiresAt: integer('expires_at', { mode: 'timestamp_ms' }).notNull(),
+    revokedAt: integer('revoked_at', { mode: 'timestamp_ms' }),
+    lastOpenedAt: integer('last_opened_at', { mode: 'timestamp_ms' }),
+    createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+  },
+  (t) => [index('share_links_job_idx').on(t.jobId, t.createdAt)],
+);
+
+/** The owner's approval of one option; bound to the exact revision by its checksum. One per job. */
+export const ownerApprovals = sqliteTable('owner_approvals', {
+  id: text('id').primaryKey(),
+  shopId: shopRef(),
+  jobId: text('job_id')
+    .notNull()
+    .unique()
+    .references(() => jobs.id, { onDelete: 'cascade' }),
+  optionId: text('option_id')
+    .notNull()
+    .references(() => ownerOptions.id),
+  revisionId: text('revision_id')
+    .notNull()
+    .references(() => sheetRevisions.id),
+  checksum: text('checksum').notNull(),
+  optionTitle: text('option_title').notNull(),
+  priceCents: integer('price_cents').notNull(),
+  depositCents: integer('deposit_cents').notNull(),
+  approverName: text('approver_name').notNull(),
+  shareLinkId: text('share_link_id').references(() => shareLinks.id, { onDelete: 'set null' }),
+  createdAt: createdAt(),
+});
+
+/** A deposit: one checkout session at the payment service; paid when its completed event arrives. */
+export const payments = sqliteTable(
+  'payments',
+  {
+    id: text('id').primaryKey(),
+    shopId: shopRef(),
+    jobId: jobRef(),
+    approvalId: text('approval_id')
+      .notNull()
+      .references(() => ownerApprovals.id, { onDelete: 'cascade' }),
+    checkoutSessionId: text('checkout_session_id').notNull().unique(),
+    amountCents: integer('amount_cents').notNull(),
+    currency: text('currency').notNull(),
+    state: text('state', { enum: ['open', 'paid'] })
+      .notNull()
+      .default('open'),
+    paidAt: integer('paid_at', { mode: 'timestamp_ms' }),
+    createdAt: createdAt(),
+  },
+  (t) => [index('payments_job_idx').on(t.jobId, t.createdAt)],
+);
+
+/** Every payment-service event handled once; a replayed event id is ignored. */
+export const paymentEvents = sqliteTable('payment_events', {
+  id: text('id').primaryKey(),
+  type: text('type').notNull(),
+  receivedAt: createdAt(),
+});

@@ -12,7 +12,7 @@ import { profileSpecSchema } from '@/shared/profile';
 
 import { demoLobeCsv, demoLobeIds, demoLobesFile } from './demo-lobes';
 import { openDb, schema } from './index';
-import { demoAccounts, demoJobId, demoSheetId, seedDemo } from './seed';
+import { demoAccounts, demoJobId, demoSheetId, demoStockSheetId, seedDemo } from './seed';
 
 describe('demo seed', () => {
   it('writes both shops, one person per role and the demo job, and adds nothing on a second run', async () => {
@@ -31,7 +31,7 @@ describe('demo seed', () => {
 });
 
 describe('demo comparison data', () => {
-  it('gives the demo job its engine, both demo profiles from the library, and a draft sheet, once', async () => {
+  it('gives the demo job its engine, both demo profiles from the library, and a draft sheet for each, once', async () => {
     const db = openDb(':memory:');
     const auth = createAuth({ db, baseURL: 'http://localhost:8080', secret: 'test-secret-test-secret-test-secret' });
     await seedDemo(db, auth);
@@ -74,8 +74,11 @@ describe('demo comparison data', () => {
       });
     });
 
-    const sheets = db.select().from(schema.specSheets).all();
-    expect(sheets.map((s) => [s.id, s.jobId])).toEqual([[demoSheetId, demoJobId]]);
+    const sheets = db.select().from(schema.specSheets).orderBy(asc(schema.specSheets.id)).all();
+    expect(sheets.map((s) => [s.id, s.jobId])).toEqual([
+      [demoStockSheetId, demoJobId],
+      [demoSheetId, demoJobId],
+    ]);
     const revisions = db
       .select()
       .from(schema.sheetRevisions)

@@ -1,12 +1,16 @@
-import { eq } from 'drizzle-orm';
+import { and, eq, isNull, like } from 'drizzle-orm';
 
 import { DEMO_ENGINE, DEMO_STOCK_REGRIND, DEMO_TOWING } from '@/calc/demo';
 import { createAuth, type Auth } from '@/server/auth';
 import { readConfig } from '@/server/config';
+import { shareUrl } from '@/server/mail/owner-mail';
 import { seedChecklist } from '@/server/routes/checklist';
+import { hashShareToken, newShareToken } from '@/server/routes/owner';
 import { analyzeRecords, revisionResults } from '@/shared/analysis';
+import { revisionChecksum } from '@/shared/checksum';
 import { engineSchema } from '@/shared/engine';
 import { measurementCreateSchema } from '@/shared/measurements';
+import { shareLinkLimits } from '@/shared/owner';
 import { profileCreateSchema } from '@/shared/profile';
 import type { ShopKind, ShopRole } from '@/shared/roles';
 
@@ -67,6 +71,33 @@ export const demoProfiles = [
 ];
 
 export const demoSheetId = 'demo-sheet-flatbed-towing';
+export const demoStockSheetId = 'demo-sheet-flatbed-stock';
+
+/** What the builder tells the owner, and the two options offered (invented prices and lead times). */
+export const demoOwnerPage = {
+  whatFailed:
+    'Demo data. One of the sixteen lifters (the part that rides on the camshaft and opens a valve) stopped rolling on cylinder 3. Its small bearings broke up and it scraped the camshaft lobe under it, which is now worn about 0.012 in (0.3 mm) lower than its neighbours. That is the ticking you heard and the loss of pull when towing. The camshaft has to be replaced or reground, all sixteen lifters are replaced with it, and the metal debris is cleaned out of the engine.',
+  options: [
+    {
+      id: 'demo-option-stock',
+      sheetId: demoStockSheetId,
+      title: 'Stock-spec regrind (demo)',
+      ownerNote: 'Demo data. Your own camshaft reground back to the factory timing. Drives as it did before the failure.',
+      priceCents: 68_500,
+      depositCents: 20_000,
+      leadTimeDays: 6,
+    },
+    {
+      id: 'demo-option-towing',
+      sheetId: demoSheetId,
+      title: 'Towing regrind (demo)',
+      ownerNote: 'Demo data. Your own camshaft reground with a little more lift and duration, aimed at pulling the livestock trailer at low engine speed.',
+      priceCents: 76_000,
+      depositCents: 22_500,
+      leadTimeDays: 8,
+    },
+  ],
+} as const;
 
 /**
  * The tech's measurements on the demo job (invented): PTV baseline with clay
@@ -192,6 +223,32 @@ export async function seedDemo(db: Db, auth: Auth) {
     .onConflictDoNothing()
     .run();
 
+  // The stock-spec sheet first, an hour older, so the towing sheet stays the most recent one.
+  const stock = demoProfiles[0]!;
+  const anHourAgo = new Date(Date.now() - 3600_000);
+  db.insert(schema.specSheets)
+    .values({ id: demoStockSheetId, shopId, jobId: demoJobId, title: 'Stock-spec regrind for the flatbed (demo)', createdBy, createdAt: anHourAgo, updatedAt: anHourAgo })
+    .onConflictDoNothing()
+    .run();
+  db.insert(schema.sheetRevisions)
+    .values({
+      id: `${demoStockSheetId}-rev-1`,
+      sheetId: demoStockSheetId,
+      number: 1,
+      state: 'draft',
+      label: stock.label,
+      spec: stock.spec,
+      engine: demoEngine,
+      results: revisionResults(analyzeRecords(demoEngine, stock.spec)),
+      note: "Demo data. Back to the factory events on the customer's own core.",
+      createdBy,
+      createdAt: anHourAgo,
+      updatedAt: anHourAgo,
+    })
+    .onConflictDoNothing()
+    .run();
+  seedOwnerPage(db, shopId, createdBy);
+
   const tech = db.select().from(schema.users).where(eq(schema.users.email, demoAccounts[1]!.email)).get();
   for (const m of demoMeasurements) {
     db.insert(schema.measurements)
@@ -200,6 +257,44 @@ export async function seedDemo(db: Db, auth: Auth) {
       .run();
   }
   db.transaction((tx) => seedChecklist(tx, shopId, demoJobId, createdBy, (i) => `demo-checklist-${i + 1}`));
+}
+
+/** The owner's page on the demo job: the words about what failed and the two options, each bound to its sheet's first revision. */
+function seedOwnerPage(db: Db, shopId: string, createdBy: string | null) {
+  db.insert(schema.ownerPages).values({ jobId: demoJobId, shopId, whatFailed: demoOwnerPage.whatFailed }).onConflictDoNothing().run();
+  demoOwnerPage.options.forEach((option, i) => {
+    const revision = db.select().from(schema.sheetRevisions).where(eq(schema.sheetRevisions.id, `${option.sheetId}-rev-1`)).get();
+    if (!revision) return;
+    db.insert(schema.ownerOptions)
+      .values({ ...option, shopId, jobId: demoJobId, revisionId: revision.id, checksum: revisionChecksum(revision), position: i + 1, createdBy })
+      .onConflictDoNothing()
+      .run();
+  });
+}
+
+/**
+ * A fresh share link for the demo owner, printed by the seed (only the token's
+ * hash is stored, so an earlier link cannot be printed again). Earlier demo
+ * links are withdrawn so one stays open.
+ */
+export function newDemoShareLink(db: Db, baseURL: string) {
+  const token = newShareToken();
+  db.transaction((tx) => {
+    tx.update(schema.shareLinks)
+      .set({ revokedAt: new Date() })
+      .where(and(like(schema.shareLinks.id, 'demo-link-%'), isNull(schema.shareLinks.revokedAt)))
+      .run();
+    tx.insert(schema.shareLinks)
+      .values({
+        id: `demo-link-${crypto.randomUUID()}`,
+        shopId: juniper.id,
+        jobId: demoJobId,
+        tokenHash: hashShareToken(token),
+        expiresAt: new Date(Date.now() + shareLinkLimits.defaultDays * 24 * 3600 * 1000),
+      })
+      .run();
+  });
+  return shareUrl(baseURL, token);
 }
 
 export function demoSignInText(baseURL: string) {
@@ -213,6 +308,7 @@ if (require.main === module) {
   seedDemo(db, createAuth({ db, baseURL: config.baseURL, secret: config.secret }))
     .then(() => {
       console.log(`Demo data is in ${config.databasePath}.`);
+      console.log(`Demo owner's summary (no sign-in needed): ${newDemoShareLink(db, config.baseURL)}`);
       db.$client.close();
     })
     .catch((error: unknown) => {

@@ -11,6 +11,7 @@ import { createAuth } from './auth';
 import type { AppDeps } from './deps';
 import { errorHandler, HttpError, sendError } from './http';
 import { createMailer, type Mailer } from './mail';
+import type { Payments } from './payments';
 import { calcRouter, type CalcRateLimit } from './routes/calc';
 import { checklistRouter } from './routes/checklist';
 import { devOutboxRouter } from './routes/dev-outbox';
@@ -20,8 +21,10 @@ import { jobsRouter } from './routes/jobs';
 import { measurementsRouter } from './routes/measurements';
 import { meRouter } from './routes/me';
 import { ordersRouter } from './routes/orders';
+import { ownerRouter } from './routes/owner';
 import { photosRouter } from './routes/photos';
 import { profilesRouter } from './routes/profiles';
+import { paymentWebhook, shareRouter, type ShareRateLimit } from './routes/share';
 import { sheetsRouter } from './routes/sheets';
 import { shopLimitsRouter } from './routes/shop-limits';
 
@@ -43,12 +46,16 @@ export type CreateAppOptions = {
   mailer?: Mailer;
   /** Development tools such as the outbox API (`/api/dev/*`); default on unless NODE_ENV is production. */
   devTools?: boolean;
+  /** Deposit payments (the payment SDK, pointed at the local fake or the real service); unset, deposits answer 503. */
+  payments?: Payments;
+  /** Requests per address to the owner's share pages (default 120 a minute). */
+  shareRateLimit?: ShareRateLimit;
 };
 
 const dev = process.env.NODE_ENV !== 'production';
 
 /** Builds the whole app without listening, so tests can drive it on an in-memory database. */
-export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLimit, uploadsDir, mailer, devTools = dev }: CreateAppOptions) {
+export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLimit, uploadsDir, mailer, devTools = dev, payments, shareRateLimit }: CreateAppOptions) {
   const auth = createAuth({ db, baseURL, secret });
   const deps: AppDeps = {
     db,
@@ -56,6 +63,7 @@ export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLi
     uploadsDir: path.resolve(uploadsDir ?? defaultUploadsDir(db)),
     mailer: mailer ?? createMailer({ db }),
     publicUrl: baseURL,
+    payments,
   };
   const app = express();
   app.disable('x-powered-by');
@@ -63,6 +71,8 @@ export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLi
 
   // better-auth reads its own bodies, so it goes before the JSON parser.
   app.all('/api/auth/{*splat}', toNodeHandler(auth));
+  // The payment webhook's signature covers the raw body, so it is read before the JSON parser too.
+  app.use('/api', paymentWebhook(deps));
   app.use('/api', express.json({ limit: '200kb' }));
 
   app.get('/api/health', (_req, res) => {
@@ -73,7 +83,7 @@ export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLi
   app.use('/api/jobs', jobsRouter(deps));
   app.use('/api', enginesRouter(deps), profilesRouter(deps), sheetsRouter(deps), calcRouter(deps, calcRateLimit));
   app.use('/api', measurementsRouter(deps), photosRouter(deps), checklistRouter(deps), shopLimitsRouter(deps), fitChecksRouter(deps));
-  app.use('/api', ordersRouter(deps));
+  app.use('/api', ordersRouter(deps), ownerRouter(deps), shareRouter(deps, shareRateLimit));
   if (devTools) app.use('/api', devOutboxRouter(deps));
   app.use('/api', (req, res) => sendError(res, new HttpError(404, 'not_found', `No API route ${req.method} ${req.path}`)));
 

@@ -16,5 +16,19 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env) {
     /** Unset: e-mail is kept in the database's outbox table. */
     smtpUrl: env.SMTP_URL || undefined,
     mailFrom: env.MAIL_FROM || undefined,
+    payments: readPaymentConfig(env),
   };
+}
+
+/** The real payment service when STRIPE_SECRET_KEY is set (its webhook secret is then required); otherwise the local fake. */
+function readPaymentConfig(env: NodeJS.ProcessEnv) {
+  const currency = (env.PAYMENT_CURRENCY || 'usd').toLowerCase();
+  if (!/^[a-z]{3}$/.test(currency)) throw new Error(`PAYMENT_CURRENCY must be a three-letter currency code, got ${env.PAYMENT_CURRENCY}`);
+  if (env.STRIPE_SECRET_KEY) {
+    if (!env.STRIPE_WEBHOOK_SECRET) throw new Error('Set STRIPE_WEBHOOK_SECRET (the webhook signing secret) together with STRIPE_SECRET_KEY');
+    return { kind: 'service' as const, secretKey: env.STRIPE_SECRET_KEY, webhookSecret: env.STRIPE_WEBHOOK_SECRET, currency };
+  }
+  const fakePort = Number(env.PAYMENTS_FAKE_PORT ?? 0);
+  if (!Number.isInteger(fakePort) || fakePort < 0 || fakePort > 65535) throw new Error(`PAYMENTS_FAKE_PORT must be a port number, got ${env.PAYMENTS_FAKE_PORT}`);
+  return { kind: 'local-fake' as const, fakePort, currency };
 }

@@ -2,6 +2,7 @@ import type { Db } from '@/db';
 
 import type { Auth } from './auth';
 import type { Mailer } from './mail';
+import type { Payments } from './payments';
 
 /** What every router is built from. Tests pass an in-memory database; nothing is mocked. */
 export type AppDeps = {
@@ -13,4 +14,6 @@ export type AppDeps = {
   mailer: Mailer;
   /** Public origin for links in e-mail (createApp's baseURL). */
   publicUrl: string;
+  /** Deposits through the payment SDK (the local fake unless STRIPE_SECRET_KEY is set); unset: deposits answer 503. */
+  payments?: Payments;
 };

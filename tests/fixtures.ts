@@ -7,12 +7,14 @@ import path from 'node:path';
 import { DEMO_ENGINE, DEMO_TOWING } from '@/calc/demo';
 import { openDb, schema, type Db } from '@/db';
 import { createApp, type App, type CreateAppOptions } from '@/server/app';
+import { startLocalPayments } from '@/server/payments';
+import type { FakePaymentService } from '@/server/payments/fake-service';
 import type { ShopKind, ShopRole } from '@/shared/roles';
 
-export type TestApp = { app: App; db: Db; url: string; uploadsDir: string; close: () => Promise<void> };
+export type TestApp = { app: App; db: Db; url: string; uploadsDir: string; paymentService: FakePaymentService; close: () => Promise<void> };
 
 /** A real app on an in-memory database, listening on a free loopback port. */
-export async function createTestApp(options: Pick<CreateAppOptions, 'calcRateLimit' | 'devTools'> = {}): Promise<TestApp> {
+export async function createTestApp(options: Pick<CreateAppOptions, 'calcRateLimit' | 'devTools' | 'shareRateLimit'> = {}): Promise<TestApp> {
   const db = openDb(':memory:');
   const uploadsDir = fs.mkdtempSync(path.join(os.tmpdir(), 'lobewright-test-uploads-'));
   // The origin is only known after listening; sign-in checks it against the request's Origin header.
@@ -25,7 +27,9 @@ export async function createTestApp(options: Pick<CreateAppOptions, 'calcRateLim
     });
   });
   const url = `http://127.0.0.1:${port}`;
-  const app = createApp({ db, baseURL: url, secret: 'test-secret-test-secret-test-secret', uploadsDir, ...options });
+  // Deposits go to the local fake payment service, as they do when the app runs without STRIPE_SECRET_KEY.
+  const { payments, service: paymentService } = await startLocalPayments({ publicUrl: url, listenHost: '127.0.0.1' });
+  const app = createApp({ db, baseURL: url, secret: 'test-secret-test-secret-test-secret', uploadsDir, payments, ...options });
   await new Promise<void>((resolve) => {
     server = app.listen(port, '127.0.0.1', () => resolve());
   });
@@ -34,11 +38,12 @@ export async function createTestApp(options: Pick<CreateAppOptions, 'calcRateLim
     db,
     url,
     uploadsDir,
+    paymentService,
     close: () =>
       new Promise<void>((resolve) => {
         server?.close(() => {
           fs.rmSync(uploadsDir, { recursive: true, force: true });
-          resolve();
+          void paymentService.close().then(() => resolve());
         });
       }),
   };

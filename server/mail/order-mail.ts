@@ -1,3 +1,4 @@
+import { composeMail } from './compose';
 import type { MailMessage } from './index';
 
 /** What an order e-mail needs to say; everything here is already checked by the route. */
@@ -19,10 +20,6 @@ export type OrderMailKind = 'issued' | 'quoted' | 'changes-asked' | 'shipped';
 /** The order's page in the app. */
 export function orderLink(publicUrl: string, orderId: string) {
   return `${publicUrl.replace(/\/+$/, '')}/orders/${encodeURIComponent(orderId)}`;
-}
-
-function escapeHtml(s: string) {
-  return s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 }
 
 function dollars(cents: number) {
@@ -81,17 +78,5 @@ function content(kind: OrderMailKind, f: OrderMailFacts): { subject: string; lin
 /** One order e-mail to one person, with a plain-text and an HTML part that both link to the order. */
 export function orderMail(kind: OrderMailKind, to: { email: string; name: string }, facts: OrderMailFacts): MailMessage {
   const { subject, lines, action } = content(kind, facts);
-  const link = orderLink(facts.publicUrl, facts.orderId);
-  const greeting = `Hello ${to.name},`;
-  const footer = 'Sent by Lobewright for the shops on this order.';
-  const text = [greeting, '', ...lines, '', `${action}: ${link}`, '', footer, ''].join('\n');
-  const html = [
-    '<!doctype html><html><body style="font-family:sans-serif;color:#111;background:#fff">',
-    `<p>${escapeHtml(greeting)}</p>`,
-    ...lines.map((l) => `<p>${escapeHtml(l)}</p>`),
-    `<p><a href="${escapeHtml(link)}">${escapeHtml(action)}</a></p>`,
-    `<p style="font-size:12px;color:#555">${escapeHtml(footer)}</p>`,
-    '</body></html>',
-  ].join('\n');
-  return { to: to.email, subject, text, html };
+  return composeMail({ to, subject, lines, action, link: orderLink(facts.publicUrl, facts.orderId), footer: 'Sent by Lobewright for the shops on this order.' });
 }

@@ -144,7 +144,7 @@ function loadDetail(db: Reader, order: Order): OrderDetail {
 }
 
 /** Members of `shopId` with `role`, for mail. */
-function recipients(db: Reader, shopId: string, role: 'builder' | 'grinder') {
+export function recipients(db: Reader, shopId: string, role: 'builder' | 'grinder') {
   return db
     .select({ email: schema.users.email, name: schema.users.name })
     .from(schema.memberships)

@@ -1,7 +1,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
 
-import { Router, type Request } from 'express';
+import { Router, type Request, type Response } from 'express';
 import { and, asc, eq, sql } from 'drizzle-orm';
 import multer from 'multer';
 
@@ -46,6 +46,23 @@ function readHead(file: string): Uint8Array {
   } finally {
     fs.closeSync(fd);
   }
+}
+
+/** Streams a stored photo with headers that keep browsers from guessing its type. */
+export async function sendPhotoFile(res: Response, uploadsDir: string, row: Pick<PhotoRow, 'id' | 'shopId' | 'storedName' | 'mimeType'>) {
+  const file = path.join(uploadsDir, row.shopId, row.storedName);
+  if (!fs.existsSync(file)) throw new HttpError(404, 'not_found', "This photo's file is missing from the server");
+  res.setHeader('Content-Type', row.mimeType);
+  res.setHeader('Content-Length', String(fs.statSync(file).size));
+  res.setHeader('X-Content-Type-Options', 'nosniff');
+  res.setHeader('Cache-Control', 'private, max-age=3600');
+  res.setHeader('Content-Disposition', `inline; filename="photo-${row.id}${extensionFor[row.mimeType]}"`);
+  await new Promise<void>((resolve, reject) => {
+    const stream = fs.createReadStream(file);
+    stream.on('error', reject);
+    stream.on('end', () => resolve());
+    stream.pipe(res);
+  });
 }
 
 function removeQuietly(file: string) {
@@ -182,19 +199,7 @@ export function photosRouter({ db, auth, uploadsDir }: AppDeps) {
     const ctx = await readerOr404(req);
     const row = db.select().from(schema.photos).where(inShop(ctx.shop.id, req.params.id)).get();
     if (!row) throw notFound('Photo');
-    const file = path.join(uploadsDir, row.shopId, row.storedName);
-    if (!fs.existsSync(file)) throw new HttpError(404, 'not_found', "This photo's file is missing from the server");
-    res.setHeader('Content-Type', row.mimeType);
-    res.setHeader('Content-Length', String(fs.statSync(file).size));
-    res.setHeader('X-Content-Type-Options', 'nosniff');
-    res.setHeader('Cache-Control', 'private, max-age=3600');
-    res.setHeader('Content-Disposition', `inline; filename="photo-${row.id}${extensionFor[row.mimeType]}"`);
-    await new Promise<void>((resolve, reject) => {
-      const stream = fs.createReadStream(file);
-      stream.on('error', reject);
-      stream.on('end', () => resolve());
-      stream.pipe(res);
-    });
+    await sendPhotoFile(res, uploadsDir, row);
   });
 
   router.patch('/photos/:id', async (req, res) => {

@@ -2,7 +2,7 @@ import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { schema } from '@/db';
-import { demoAccounts, demoJobId, demoPassword, demoSheetId, seedDemo } from '@/db/seed';
+import { demoAccounts, demoJobId, demoPassword, demoSheetId, demoStockSheetId, seedDemo } from '@/db/seed';
 import { analyzeRecords, revisionResults } from '@/shared/analysis';
 import { engineSchema, type EngineSpec } from '@/shared/engine';
 import { profileSpecSchema, type ProfileSpec } from '@/shared/profile';
@@ -252,7 +252,7 @@ describe('spec sheets', () => {
 });
 
 describe('demo data through the API', () => {
-  it('shows the demo builder the engine, both profiles and the draft sheet on the demo job', async () => {
+  it('shows the demo builder the engine, both profiles and the draft sheets on the demo job', async () => {
     await seedDemo(t.db, t.app.auth);
     const builder = new Client(t.url);
     const email = demoAccounts.find((a) => a.role === 'builder')!.email;
@@ -265,7 +265,8 @@ describe('demo data through the API', () => {
     expect(onJob.map((p: { sourceProfileId: string }) => p.sourceProfileId).sort()).toEqual(library.map((p: { id: string }) => p.id).sort());
 
     const sheets = (await builder.get(`/api/jobs/${demoJobId}/sheets`)).body.sheets;
-    expect(sheets.map((s: { id: string }) => s.id)).toEqual([demoSheetId]);
+    // Most recently changed first: the towing sheet, then the stock-spec sheet.
+    expect(sheets.map((s: { id: string }) => s.id)).toEqual([demoSheetId, demoStockSheetId]);
     const sheet = (await builder.get(`/api/sheets/${demoSheetId}`)).body.sheet;
     expect(sheet.current).toMatchObject({ number: 1, state: 'draft', label: 'Towing regrind (demo)' });
     const saved = await builder.patch(`/api/sheets/${demoSheetId}`, { version: sheet.version, newRevision: true, note: 'Demo revision 2' });

@@ -228,7 +228,8 @@ function EditPanel({
   canWrite: boolean;
 }) {
   const sheets = useJobSheetsQuery(jobId);
-  const sheet = sheets.data?.[0];
+  // The sheet that holds this profile; with none, the most recently changed sheet.
+  const sheet = sheets.data?.find((s) => s.current.label === profile.label) ?? sheets.data?.[0];
   const saveSheet = useSaveSheetMutation(sheet?.id ?? '');
   const createSheet = useCreateSheetMutation(jobId);
   const saveProfile = useSaveProfileMutation(profile.id);

@@ -1,0 +1,63 @@
+import { formatMoney } from '@/shared/owner';
+
+import { composeMail } from './compose';
+import type { MailMessage } from './index';
+
+/** The owner's page, opened from a share link. */
+export function shareUrl(publicUrl: string, token: string) {
+  return `${publicUrl.replace(/\/+$/, '')}/share/${token}`;
+}
+
+/** The job's owner desk in the app, for the builder. */
+export function ownerDeskUrl(publicUrl: string, jobId: string) {
+  return `${publicUrl.replace(/\/+$/, '')}/jobs/${encodeURIComponent(jobId)}/owner`;
+}
+
+type Person = { email: string; name: string };
+
+/** The link to the owner, from the shop. */
+export function shareLinkMail(to: Person, f: { shopName: string; vehicle: string; url: string; expiresAt: Date }): MailMessage {
+  return composeMail({
+    to,
+    subject: `${f.shopName}: the cam options for your ${f.vehicle}`,
+    lines: [
+      `${f.shopName} has written up what failed in your engine and the camshaft options they propose, with prices.`,
+      'Open the page to read it. You can approve an option and pay the deposit there; no account is needed.',
+      `The link works until ${f.expiresAt.toUTCString()}. Keep it to yourself: anyone with it can read the page.`,
+    ],
+    action: 'Read the summary',
+    link: f.url,
+    footer: `Sent by Lobewright for ${f.shopName}.`,
+  });
+}
+
+export type OwnerEventFacts = {
+  publicUrl: string;
+  jobId: string;
+  vehicle: string;
+  optionTitle: string;
+  approverName: string;
+  checksum: string;
+  amountCents?: number;
+  currency?: string;
+};
+
+/** To the builders: the owner approved an option, or paid the deposit. */
+export function ownerEventMail(kind: 'approved' | 'paid', to: Person, f: OwnerEventFacts): MailMessage {
+  const amount = f.amountCents === undefined ? '' : formatMoney(f.amountCents, f.currency);
+  const content =
+    kind === 'approved'
+      ? {
+          subject: `Approved: ${f.optionTitle} for the ${f.vehicle}`,
+          lines: [
+            `${f.approverName} approved "${f.optionTitle}" for the ${f.vehicle}.`,
+            `The approval is bound to the sheet revision with checksum ${f.checksum}.`,
+            'The deposit is next; you will hear when it is paid.',
+          ],
+        }
+      : {
+          subject: `Deposit paid: ${amount} for the ${f.vehicle}`,
+          lines: [`The deposit of ${amount} for "${f.optionTitle}" on the ${f.vehicle} is paid.`, `Approved revision checksum: ${f.checksum}.`],
+        };
+  return composeMail({ to, ...content, action: "Open the job's owner page", link: ownerDeskUrl(f.publicUrl, f.jobId), footer: 'Sent by Lobewright for your shop.' });
+}

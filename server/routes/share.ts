@@ -1,0 +1,240 @@
+import express, { Router, type Request } from 'express';
+import { and, desc, eq } from 'drizzle-orm';
+import { rateLimit } from 'express-rate-limit';
+import type Stripe from 'stripe';
+
+import type { Db } from '@/db';
+import { schema } from '@/db';
+import { approveSchema, depositConfirmSchema, type Payment } from '@/shared/owner';
+
+import { audit } from '../audit';
+import type { AppDeps } from '../deps';
+import { conflict, HttpError, notFound, parse } from '../http';
+import { ownerEventMail, shareUrl, type OwnerEventFacts } from '../mail/owner-mail';
+import { loadApproval, loadOwnerView, toApproval, toPayment } from '../owner-view';
+import { hashShareToken } from './owner';
+import { recipients } from './orders';
+import { sendPhotoFile } from './photos';
+
+type Tx = Pick<Db, 'select' | 'insert' | 'update'>;
+type LinkRow = typeof schema.shareLinks.$inferSelect;
+
+/** Tokens are 32 random bytes in base64url: exactly 43 characters. */
+const TOKEN_SHAPE = /^[A-Za-z0-9_-]{43}$/;
+
+/** Missing, wrong, revoked and expired all look the same. */
+const linkGone = () => new HttpError(404, 'not_found', 'This link does not open a summary: it may have expired or been withdrawn. Ask the shop for a new one.');
+
+function activeLink(db: Pick<Db, 'select'>, token: string): LinkRow {
+  if (!TOKEN_SHAPE.test(token)) throw linkGone();
+  const row = db.select().from(schema.shareLinks).where(eq(schema.shareLinks.tokenHash, hashShareToken(token))).get();
+  if (!row || row.revokedAt || row.expiresAt.getTime() <= Date.now()) throw linkGone();
+  return row;
+}
+
+export type ShareRateLimit = { windowMs: number; limit: number };
+
+/** Marks the payment for `session` paid, once; returns whether this call did it. */
+function markPaid(tx: Tx, session: Pick<Stripe.Checkout.Session, 'id' | 'amount_total' | 'currency'>, via: 'webhook' | 'return') {
+  const row = tx.select().from(schema.payments).where(eq(schema.payments.checkoutSessionId, session.id)).get();
+  if (!row || row.state === 'paid') return { payment: row, newlyPaid: false };
+  const payment = tx
+    .update(schema.payments)
+    .set({ state: 'paid', paidAt: new Date(), amountCents: session.amount_total ?? row.amountCents, currency: session.currency ?? row.currency })
+    .where(and(eq(schema.payments.id, row.id), eq(schema.payments.state, 'open')))
+    .returning()
+    .get();
+  audit(tx, { shopId: row.shopId, userId: null, action: 'paid', entity: 'payment', entityId: row.id, detail: { jobId: row.jobId, amountCents: payment.amountCents, via } });
+  return { payment, newlyPaid: true };
+}
+
+type MailDeps = Pick<AppDeps, 'db' | 'mailer' | 'publicUrl'>;
+
+/** Mails every builder of the shop; a failure is logged and never undoes the write. */
+async function tellBuilders({ db, mailer, publicUrl }: MailDeps, kind: 'approved' | 'paid', jobId: string, shopId: string, facts: Omit<OwnerEventFacts, 'publicUrl' | 'jobId' | 'vehicle'>) {
+  const job = db.select({ vehicle: schema.jobs.vehicle }).from(schema.jobs).where(eq(schema.jobs.id, jobId)).get();
+  for (const person of recipients(db, shopId, 'builder')) {
+    try {
+      await mailer.send(ownerEventMail(kind, person, { ...facts, publicUrl, jobId, vehicle: job?.vehicle ?? 'vehicle' }));
+    } catch (error) {
+      console.error(`Job ${jobId}: could not send the ${kind} mail to ${person.email}`, error);
+    }
+  }
+}
+
+async function tellBuildersPaid(deps: MailDeps, payment: typeof schema.payments.$inferSelect) {
+  const approval = loadApproval(deps.db, payment.jobId);
+  if (!approval) return;
+  await tellBuilders(deps, 'paid', payment.jobId, payment.shopId, {
+    optionTitle: approval.optionTitle,
+    approverName: approval.approverName,
+    checksum: approval.checksum,
+    amountCents: payment.amountCents,
+    currency: payment.currency,
+  });
+}
+
+/**
+ * The owner's page, opened with a share link (no account): read it, approve
+ * an option, pay the deposit. Also the payment service's webhook.
+ */
+export function shareRouter(deps: AppDeps, limit: ShareRateLimit = { windowMs: 60_000, limit: 120 }) {
+  const { db, publicUrl, uploadsDir, payments } = deps;
+  const router = Router();
+  // Slows anyone trying tokens: a real owner opens a handful of pages a minute.
+  router.use('/share', rateLimit({ ...limit, standardHeaders: 'draft-8', legacyHeaders: false, handler: (_req, res) => res.status(429).json({ error: { code: 'rate_limited', message: 'Too many requests: wait a minute and try again' } }) }));
+
+  function requirePayments() {
+    if (!payments) throw new HttpError(503, 'payments_off', 'Card payments are not set up on this server; the shop can take the deposit in person');
+    return payments;
+  }
+
+  router.get('/share/:token', (req, res) => {
+    const token = req.params.token;
+    const link = activeLink(db, token);
+    db.update(schema.shareLinks).set({ lastOpenedAt: new Date() }).where(eq(schema.shareLinks.id, link.id)).run();
+    res.setHeader('Cache-Control', 'no-store');
+    res.setHeader('Referrer-Policy', 'no-referrer');
+    res.json({ view: loadOwnerView(db, link, (id) => `/api/share/${token}/photos/${id}`) });
+  });
+
+  router.get('/share/:token/photos/:photoId', async (req, res) => {
+    const link = activeLink(db, req.params.token);
+    const row = db
+      .select()
+      .from(schema.photos)
+      .where(and(eq(schema.photos.id, req.params.photoId), eq(schema.photos.jobId, link.jobId), eq(schema.photos.shopId, link.shopId), eq(schema.photos.shareable, true)))
+      .get();
+    if (!row) throw notFound('Photo');
+    await sendPhotoFile(res, uploadsDir, row);
+  });
+
+  router.post('/share/:token/approve', async (req, res) => {
+    const body = parse(approveSchema, req.body);
+    const approval = db.transaction((tx) => {
+      const link = activeLink(tx, req.params.token);
+      if (loadApproval(tx, link.jobId)) throw conflict('An option is already approved for this job; call the shop to change it');
+      const option = tx
+        .select()
+        .from(schema.ownerOptions)
+        .where(and(eq(schema.ownerOptions.id, body.optionId), eq(schema.ownerOptions.jobId, link.jobId), eq(schema.ownerOptions.shopId, link.shopId)))
+        .get();
+      if (!option) throw new HttpError(400, 'invalid', 'optionId: Choose one of the options on this page', { optionId: 'Choose one of the options on this page' });
+      if (option.checksum !== body.checksum) throw conflict('The shop changed this option after you opened the page: reload it and read it again');
+      const row = tx
+        .insert(schema.ownerApprovals)
+        .values({
+          id: crypto.randomUUID(),
+          shopId: link.shopId,
+          jobId: link.jobId,
+          optionId: option.id,
+          revisionId: option.revisionId,
+          checksum: option.checksum,
+          optionTitle: option.title,
+          priceCents: option.priceCents,
+          depositCents: option.depositCents,
+          approverName: body.name,
+          shareLinkId: link.id,
+        })
+        .returning()
+        .get();
+      audit(tx, { shopId: link.shopId, userId: null, action: 'approve', entity: 'owner-approval', entityId: row.id, detail: { jobId: link.jobId, optionId: option.id, checksum: option.checksum, name: body.name, shareLinkId: link.id } });
+      return row;
+    });
+    await tellBuilders(deps, 'approved', approval.jobId, approval.shopId, { optionTitle: approval.optionTitle, approverName: approval.approverName, checksum: approval.checksum });
+    res.status(201).json({ approval: toApproval(approval) });
+  });
+
+  router.post('/share/:token/deposit', async (req, res) => {
+    const token = req.params.token;
+    const service = requirePayments();
+    const check = () => {
+      const link = activeLink(db, token);
+      const approval = loadApproval(db, link.jobId);
+      if (!approval) throw conflict('Approve an option before paying the deposit');
+      const paid = db.select({ id: schema.payments.id }).from(schema.payments).where(and(eq(schema.payments.jobId, link.jobId), eq(schema.payments.state, 'paid'))).get();
+      if (paid) throw conflict('The deposit is already paid');
+      if (approval.depositCents <= 0) throw conflict('The shop asks no deposit for this option');
+      return { link, approval };
+    };
+    const { approval } = check();
+    const paymentId = crypto.randomUUID();
+    const back = shareUrl(publicUrl, token);
+    // The session is created before the row: the payment service must not be called inside a transaction.
+    const session = await service.stripe.checkout.sessions.create({
+      mode: 'payment',
+      client_reference_id: paymentId,
+      metadata: { paymentId, jobId: approval.jobId },
+      success_url: `${back}?deposit={CHECKOUT_SESSION_ID}`,
+      cancel_url: back,
+      line_items: [{ quantity: 1, price_data: { currency: service.currency, unit_amount: approval.depositCents, product_data: { name: `Deposit: ${approval.optionTitle}` } } }],
+    });
+    if (!session.url) throw new HttpError(502, 'payment_service', 'The payment service did not return a page to pay on; try again');
+    db.transaction((tx) => {
+      const { link } = check();
+      tx.insert(schema.payments)
+        .values({ id: paymentId, shopId: link.shopId, jobId: link.jobId, approvalId: approval.id, checkoutSessionId: session.id, amountCents: approval.depositCents, currency: service.currency })
+        .run();
+      audit(tx, { shopId: link.shopId, userId: null, action: 'create', entity: 'payment', entityId: paymentId, detail: { jobId: link.jobId, amountCents: approval.depositCents } });
+    });
+    res.status(201).json({ url: session.url });
+  });
+
+  router.post('/share/:token/deposit/confirm', async (req, res) => {
+    const body = parse(depositConfirmSchema, req.body);
+    const service = requirePayments();
+    const link = activeLink(db, req.params.token);
+    const known = db
+      .select()
+      .from(schema.payments)
+      .where(and(eq(schema.payments.checkoutSessionId, body.sessionId), eq(schema.payments.jobId, link.jobId)))
+      .orderBy(desc(schema.payments.createdAt))
+      .get();
+    if (!known) throw notFound('Payment');
+    let payment: Payment = toPayment(known);
+    if (known.state === 'open') {
+      const session = await service.stripe.checkout.sessions.retrieve(body.sessionId);
+      if (session.payment_status === 'paid') {
+        const done = db.transaction((tx) => markPaid(tx, session, 'return'));
+        if (done.payment) payment = toPayment(done.payment);
+        if (done.newlyPaid && done.payment) await tellBuildersPaid(deps, done.payment);
+      }
+    }
+    res.json({ payment });
+  });
+
+  return router;
+}
+
+/**
+ * The payment service's webhook. Reads the raw body (the signature covers its
+ * exact bytes), so it is mounted before the JSON parser. A bad signature is a
+ * 400 and changes nothing; an event id seen before is acknowledged and ignored.
+ */
+export function paymentWebhook(deps: AppDeps) {
+  const { db, payments } = deps;
+  const router = Router();
+  router.post('/payments/webhook', express.raw({ type: '*/*', limit: '256kb' }), async (req: Request, res) => {
+    if (!payments) throw new HttpError(503, 'payments_off', 'Payments are not set up on this server');
+    const signature = req.headers['stripe-signature'];
+    if (typeof signature !== 'string' || !Buffer.isBuffer(req.body)) {
+      throw new HttpError(400, 'bad_signature', 'The event is not signed', { 'stripe-signature': 'Missing signature header' });
+    }
+    let event: Stripe.Event;
+    try {
+      event = payments.stripe.webhooks.constructEvent(req.body, signature, payments.webhookSecret);
+    } catch {
+      throw new HttpError(400, 'bad_signature', 'The event signature does not match', { 'stripe-signature': 'Signature does not match the body' });
+    }
+    const outcome = db.transaction((tx) => {
+      const fresh = tx.insert(schema.paymentEvents).values({ id: event.id, type: event.type }).onConflictDoNothing().run();
+      if (fresh.changes === 0) return { duplicate: true, paid: undefined };
+      if (event.type !== 'checkout.session.completed' || event.data.object.payment_status !== 'paid') return { duplicate: false, paid: undefined };
+      const done = markPaid(tx, event.data.object, 'webhook');
+      return { duplicate: false, paid: done.newlyPaid ? done.payment : undefined };
+    });
+    if (outcome.paid) await tellBuildersPaid(deps, outcome.paid);
+    res.json({ received: true, duplicate: outcome.duplicate });
+  });
+  return router;
+}

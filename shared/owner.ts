@@ -1,0 +1,191 @@
+import { z } from 'zod';
+
+import type { OwnerComparison } from '@/calc/compare';
+
+import type { CheckStatus } from '@/calc/checks';
+import { versionSchema } from './numbers';
+
+/**
+ * What the vehicle's owner sees: the shop's plain-words account of what failed,
+ * the options the builder offers (each bound to one sheet revision), a price,
+ * an approval and a deposit. Opened from a share link; no account needed.
+ */
+
+export const shareLinkLimits = { defaultDays: 30, maxDays: 90, tokenBytes: 32 } as const;
+
+const cents = (label: string) =>
+  z
+    .number({ error: `${label} must be a number of cents` })
+    .int(`${label} is in whole cents`)
+    .min(0, `${label} cannot be negative`)
+    .max(10_000_000, `${label} looks too high`);
+
+const ownerText = (max: number) => z.string({ error: 'Must be text' }).trim().max(max, `Keep it under ${max} characters`);
+
+/** The builder's words for the owner about what failed (never the internal findings). */
+export const ownerPageSchema = z.strictObject({
+  version: versionSchema,
+  whatFailed: ownerText(4000),
+});
+export type OwnerPageSave = z.input<typeof ownerPageSchema>;
+
+const optionFields = {
+  title: z.string({ error: 'Name the option' }).trim().min(1, 'Name the option').max(120, 'Keep the name under 120 characters'),
+  ownerNote: ownerText(2000).default(''),
+  priceCents: cents('Price'),
+  depositCents: cents('Deposit'),
+  leadTimeDays: z
+    .number({ error: 'Lead time must be a number of days' })
+    .int('Lead time is whole days')
+    .min(0, 'Lead time cannot be negative')
+    .max(365, 'Lead time is at most 365 days'),
+};
+
+function depositWithinPrice(value: { priceCents?: number; depositCents?: number }, ctx: z.RefinementCtx) {
+  if (value.priceCents !== undefined && value.depositCents !== undefined && value.depositCents > value.priceCents) {
+    ctx.addIssue({ code: 'custom', path: ['depositCents'], message: 'The deposit cannot be more than the price' });
+  }
+}
+
+/** Offer one of the job's spec sheets to the owner; it is bound to the sheet's latest revision. */
+export const ownerOptionCreateSchema = z.strictObject({ sheetId: z.string({ error: 'Choose the spec sheet' }).min(1, 'Choose the spec sheet'), ...optionFields }).superRefine(depositWithinPrice);
+export type OwnerOptionCreate = z.input<typeof ownerOptionCreateSchema>;
+
+export const ownerOptionPatchSchema = z
+  .strictObject({
+    version: versionSchema,
+    title: optionFields.title.optional(),
+    ownerNote: ownerText(2000).optional(),
+    priceCents: optionFields.priceCents.optional(),
+    depositCents: optionFields.depositCents.optional(),
+    leadTimeDays: optionFields.leadTimeDays.optional(),
+    /** Bind the option to the sheet's latest revision (after the builder changed the sheet). */
+    refreshRevision: z.boolean().optional(),
+  })
+  .superRefine(depositWithinPrice);
+export type OwnerOptionPatch = z.input<typeof ownerOptionPatchSchema>;
+
+export const shareLinkCreateSchema = z.strictObject({
+  expiresInDays: z
+    .number({ error: 'Days must be a number' })
+    .int('Days are whole days')
+    .min(1, 'A link lasts at least 1 day')
+    .max(shareLinkLimits.maxDays, `A link lasts at most ${shareLinkLimits.maxDays} days`)
+    .default(shareLinkLimits.defaultDays),
+  /** Send the link to the owner by e-mail as well. */
+  email: z.email('Enter an e-mail address like name@example.com').max(254).optional(),
+});
+export type ShareLinkCreate = z.input<typeof shareLinkCreateSchema>;
+
+/** The owner approves one option, naming the exact revision they read by its checksum. */
+export const approveSchema = z.strictObject({
+  optionId: z.string({ error: 'Choose an option' }).min(1, 'Choose an option'),
+  checksum: z.string({ error: 'Send the checksum shown with the option' }).regex(/^[0-9a-f]{12}$/, 'The checksum is 12 hex digits'),
+  name: z.string({ error: 'Type your name' }).trim().min(1, 'Type your name').max(120, 'Keep the name under 120 characters'),
+  agree: z.literal(true, { error: 'Tick the box to approve' }),
+});
+export type ApproveBody = z.input<typeof approveSchema>;
+
+export const depositConfirmSchema = z.strictObject({
+  sessionId: z.string({ error: 'Send the payment session' }).min(1, 'Send the payment session').max(255),
+});
+
+export type OwnerOption = {
+  id: string;
+  sheetId: string;
+  revisionId: string;
+  revisionNumber: number;
+  /** Checksum of the bound revision (shared/checksum.ts): the owner approves exactly this. */
+  checksum: string;
+  title: string;
+  ownerNote: string;
+  priceCents: number;
+  depositCents: number;
+  leadTimeDays: number;
+  version: number;
+  /** True when the sheet has a newer revision than the one the owner would see. */
+  stale: boolean;
+};
+
+export type ShareLinkState = 'active' | 'expired' | 'revoked';
+
+export type ShareLink = {
+  id: string;
+  state: ShareLinkState;
+  email: string | null;
+  createdAt: string;
+  expiresAt: string;
+  revokedAt: string | null;
+  lastOpenedAt: string | null;
+};
+
+export type Approval = {
+  id: string;
+  optionId: string;
+  optionTitle: string;
+  revisionId: string;
+  checksum: string;
+  name: string;
+  at: string;
+};
+
+export type PaymentState = 'open' | 'paid';
+
+export type Payment = {
+  id: string;
+  state: PaymentState;
+  amountCents: number;
+  currency: string;
+  paidAt: string | null;
+  createdAt: string;
+};
+
+/** The builder's view of everything the owner sees and did. */
+export type OwnerDesk = {
+  jobId: string;
+  whatFailed: string;
+  version: number;
+  options: OwnerOption[];
+  links: ShareLink[];
+  approval: Approval | null;
+  payments: Payment[];
+};
+
+/** One option as the owner reads it. */
+export type OwnerViewOption = {
+  id: string;
+  title: string;
+  ownerNote: string;
+  priceCents: number;
+  depositCents: number;
+  leadTimeDays: number;
+  checksum: string;
+  revisionNumber: number;
+  /** Worst fit-check status worked out from the numbers. */
+  status: CheckStatus;
+  /** Plain words against the first option (the reference); null for the reference itself. */
+  comparison: OwnerComparison | null;
+  /** The fit sentence for every option, the reference included. */
+  fit: string;
+  /** Key figures in owner-readable units. */
+  figures: { intakeLiftIn: number; exhaustLiftIn: number; intakeDuration050: number; exhaustDuration050: number };
+};
+
+/** The share page: only what the owner should see. */
+export type OwnerView = {
+  shopName: string;
+  vehicle: string;
+  customerName: string;
+  whatFailed: string;
+  photos: { id: string; caption: string; url: string }[];
+  options: OwnerViewOption[];
+  cautions: string[];
+  approval: Approval | null;
+  payment: Payment | null;
+  expiresAt: string;
+};
+
+/** "$1,234.50" from cents. */
+export function formatMoney(cents: number, currency = 'usd'): string {
+  return new Intl.NumberFormat('en-US', { style: 'currency', currency: currency.toUpperCase() }).format(cents / 100);
+}
