@@ -1,0 +1,311 @@
+import { randomBytes } from 'node:crypto';
+
+import Stripe from 'stripe';
+import { eq } from 'drizzle-orm';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
+import { schema } from '@/db';
+import { revisionChecksum } from '@/shared/checksum';
+import type { OwnerView } from '@/shared/owner';
+import { localFakeKeys } from '@/server/payments';
+import { Client, createTestApp, makeJobWithEngine, memberWithRole, makeShop, type TestApp } from '@/tests/fixtures';
+
+let t: TestApp;
+beforeAll(async () => {
+  t = await createTestApp();
+});
+afterAll(() => t.close());
+
+const INTERNAL_FINDINGS = 'INTERNAL: lifter bore 3E scored, bill the core charge twice';
+const INTERNAL_SHEET_NOTE = 'INTERNAL: grinder owes us for the last core';
+
+/** A job with internal findings, a sheet, an owner page with one option, and a share link. */
+async function sharedJob(name = 'Owner shop') {
+  const s = await makeJobWithEngine(t, name);
+  const builder = s.founder;
+  const job = (await builder.get(`/api/jobs/${s.jobId}`)).body.job;
+  expect((await builder.patch(`/api/jobs/${s.jobId}`, { version: job.version, findings: INTERNAL_FINDINGS })).status).toBe(200);
+  const sheet = (await builder.post(`/api/jobs/${s.jobId}/sheets`, { title: 'Towing regrind', profileId: s.profileId, note: INTERNAL_SHEET_NOTE })).body.sheet;
+  const page = await builder.put(`/api/jobs/${s.jobId}/owner`, { version: 0, whatFailed: 'A lifter stopped rolling and wore the cam lobe.' });
+  expect(page.status).toBe(200);
+  const option = await builder.post(`/api/jobs/${s.jobId}/owner/options`, {
+    sheetId: sheet.id,
+    title: 'Towing regrind',
+    ownerNote: 'More pull at low speed.',
+    priceCents: 76_000,
+    depositCents: 22_500,
+    leadTimeDays: 8,
+  });
+  expect(option.status).toBe(201);
+  const link = await builder.post(`/api/jobs/${s.jobId}/share-links`, {});
+  expect(link.status).toBe(201);
+  return { ...s, builder, sheet, desk: option.body.desk, token: link.body.token as string, linkId: link.body.link.id as string };
+}
+
+const owner = () => new Client(t.url);
+
+function webhookBody(sessionId: string, eventId = `evt_test_${randomBytes(8).toString('hex')}`) {
+  return JSON.stringify({
+    id: eventId,
+    object: 'event',
+    type: 'checkout.session.completed',
+    data: { object: { id: sessionId, object: 'checkout.session', payment_status: 'paid', amount_total: 22_500, currency: 'usd' } },
+  });
+}
+
+async function postWebhook(payload: string, signature: string) {
+  const res = await fetch(`${t.url}/api/payments/webhook`, { method: 'POST', headers: { 'content-type': 'application/json', 'stripe-signature': signature }, body: payload });
+  return { status: res.status, body: (await res.json()) as Record<string, any> };
+}
+
+const signer = new Stripe(localFakeKeys.apiKey);
+const sign = (payload: string, secret: string = localFakeKeys.webhookSecret) => signer.webhooks.generateTestHeaderString({ payload, secret });
+
+describe('share links', () => {
+  it('are 256-bit random tokens stored only as a hash', async () => {
+    const s = await sharedJob('Hash shop');
+    expect(s.token).toMatch(/^[A-Za-z0-9_-]{43}$/);
+    const row = t.db.select().from(schema.shareLinks).where(eq(schema.shareLinks.id, s.linkId)).get()!;
+    expect(row.tokenHash).not.toContain(s.token);
+    expect(row.tokenHash).toMatch(/^[0-9a-f]{64}$/);
+    // 30 days by default.
+    expect(row.expiresAt.getTime() - row.createdAt.getTime()).toBeGreaterThan(29.9 * 24 * 3600 * 1000);
+    expect(row.expiresAt.getTime() - row.createdAt.getTime()).toBeLessThan(30.1 * 24 * 3600 * 1000);
+  });
+
+  it('refuse guessed tokens: random, near-miss and malformed ones all get 404', async () => {
+    const s = await sharedJob('Guess shop');
+    const o = owner();
+    const flipped = (s.token[0] === 'A' ? 'B' : 'A') + s.token.slice(1);
+    const guesses = [flipped, s.token.slice(0, -1), `${s.token}A`, '', 'null', '../../etc/passwd', ...Array.from({ length: 20 }, () => randomBytes(32).toString('base64url'))];
+    for (const guess of guesses) {
+      const res = await o.get(`/api/share/${encodeURIComponent(guess)}`);
+      expect([404], `token ${guess}`).toContain(res.status);
+    }
+    expect((await o.get(`/api/share/${s.token}`)).status).toBe(200);
+  });
+
+  it('stop working when revoked or expired', async () => {
+    const s = await sharedJob('Revoke shop');
+    const o = owner();
+    expect((await o.get(`/api/share/${s.token}`)).status).toBe(200);
+    const revoked = await s.builder.post(`/api/share-links/${s.linkId}/revoke`);
+    expect(revoked.body.link.state).toBe('revoked');
+    expect((await o.get(`/api/share/${s.token}`)).status).toBe(404);
+
+    const next = await s.builder.post(`/api/jobs/${s.jobId}/share-links`, { expiresInDays: 1 });
+    expect((await o.get(`/api/share/${next.body.token}`)).status).toBe(200);
+    t.db.update(schema.shareLinks).set({ expiresAt: new Date(Date.now() - 1000) }).where(eq(schema.shareLinks.id, next.body.link.id)).run();
+    expect((await o.get(`/api/share/${next.body.token}`)).status).toBe(404);
+    const desk = (await s.builder.get(`/api/jobs/${s.jobId}/owner`)).body.desk;
+    expect(desk.links.map((l: { state: string }) => l.state).sort()).toEqual(['expired', 'revoked']);
+  });
+
+  it('are made and revoked by builders of the shop only', async () => {
+    const s = await sharedJob('Who shop');
+    const tech = await memberWithRole(t, s.shopId, 'tech');
+    expect((await tech.post(`/api/jobs/${s.jobId}/share-links`, {})).status).toBe(403);
+    expect((await tech.post(`/api/share-links/${s.linkId}/revoke`)).status).toBe(403);
+    const other = await makeShop(t, 'repair', 'Other repair');
+    expect((await other.founder.post(`/api/jobs/${s.jobId}/share-links`, {})).status).toBe(404);
+    expect((await other.founder.post(`/api/share-links/${s.linkId}/revoke`)).status).toBe(404);
+    expect((await owner().post(`/api/jobs/${s.jobId}/share-links`, {})).status).toBe(401);
+    expect((await s.builder.post(`/api/jobs/${s.jobId}/share-links`, { expiresInDays: 400 })).body.error.fields).toHaveProperty('expiresInDays');
+  });
+
+  it('can be mailed to the owner through the outbox', async () => {
+    const s = await sharedJob('Mail link shop');
+    const res = await s.builder.post(`/api/jobs/${s.jobId}/share-links`, { email: 'owner-mail-link@example.test' });
+    expect(res.body.emailed).toBe(true);
+    const mail = t.db.select().from(schema.outbox).all().find((m) => m.to === 'owner-mail-link@example.test')!;
+    expect(mail.text).toContain(res.body.url);
+    expect(mail.text).not.toContain(INTERNAL_FINDINGS);
+  });
+});
+
+describe('the owner view', () => {
+  it('shows the owner words, options, comparison and cautions, and leaks nothing internal', async () => {
+    const s = await sharedJob('Leak shop');
+    // A photo the builder did not mark shareable stays out.
+    t.db.insert(schema.photos).values({ id: 'private-photo', shopId: s.shopId, jobId: s.jobId, storedName: 'private-photo.jpg', originalName: 'secret.jpg', mimeType: 'image/jpeg', size: 10, caption: 'INTERNAL caption' }).run();
+    const res = await owner().get(`/api/share/${s.token}`);
+    expect(res.status).toBe(200);
+    const view = res.body.view as OwnerView;
+    expect(view.whatFailed).toBe('A lifter stopped rolling and wore the cam lobe.');
+    expect(view.options).toHaveLength(1);
+    expect(view.options[0]).toMatchObject({ title: 'Towing regrind', priceCents: 76_000, depositCents: 22_500, leadTimeDays: 8 });
+    expect(view.cautions.join(' ')).toMatch(/emissions/i);
+    expect(view.cautions.join(' ')).toMatch(/measures piston-to-valve clearance/i);
+    expect(view.photos).toEqual([]);
+    const text = JSON.stringify(res.body);
+    for (const secret of [INTERNAL_FINDINGS, INTERNAL_SHEET_NOTE, 'Test core', 'INTERNAL caption', 'secret.jpg', s.shopId, s.sheet.id]) expect(text).not.toContain(secret);
+    expect(res.body.view).not.toHaveProperty('findings');
+    expect(res.body.view.options[0]).not.toHaveProperty('revisionId');
+  });
+
+  it('compares each option with the first in plain words', async () => {
+    const s = await sharedJob('Compare shop');
+    const stock = await s.builder.post(`/api/jobs/${s.jobId}/profiles`, {
+      label: 'Stock-spec',
+      coreNotes: '',
+      spec: { ...s.sheet.current.spec, intake: { ...s.sheet.current.spec.intake, duration050: s.sheet.current.spec.intake.duration050 - 8 } },
+    });
+    const stockSheet = (await s.builder.post(`/api/jobs/${s.jobId}/sheets`, { title: 'Stock', profileId: stock.body.profile.id })).body.sheet;
+    await s.builder.post(`/api/jobs/${s.jobId}/owner/options`, { sheetId: stockSheet.id, title: 'Stock-spec', priceCents: 60_000, depositCents: 20_000, leadTimeDays: 5 });
+    const view = (await owner().get(`/api/share/${s.token}`)).body.view as OwnerView;
+    expect(view.options.map((o) => o.title)).toEqual(['Towing regrind', 'Stock-spec']);
+    expect(view.options[0]!.comparison).toBeNull();
+    // 8° less intake duration at 0.050 in, said in words (hand-worked from the two specs).
+    expect(view.options[1]!.comparison!.points.find((p) => p.topic === 'timing')!.text).toMatch(/intake valve open about 8° shorter/);
+    expect(view.options[1]!.fit).toMatch(/fit checks/);
+  });
+});
+
+describe('approval', () => {
+  it('binds the exact revision checksum and notifies the builders', async () => {
+    const s = await sharedJob('Approve shop');
+    const o = owner();
+    const view = (await o.get(`/api/share/${s.token}`)).body.view as OwnerView;
+    const option = view.options[0]!;
+    const revision = t.db.select().from(schema.sheetRevisions).where(eq(schema.sheetRevisions.sheetId, s.sheet.id)).get()!;
+    expect(option.checksum).toBe(revisionChecksum(revision));
+
+    const missing = await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, name: '' });
+    expect(missing.status).toBe(400);
+    expect(Object.keys(missing.body.error.fields).sort()).toEqual(['agree', 'name']);
+    const wrong = await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: '0123456789ab', name: 'Test Owner', agree: true });
+    expect(wrong.status).toBe(409);
+
+    const ok = await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, name: 'Test Owner', agree: true });
+    expect(ok.status).toBe(201);
+    expect(ok.body.approval).toMatchObject({ optionId: option.id, checksum: revisionChecksum(revision), revisionId: revision.id, name: 'Test Owner' });
+    expect((await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, name: 'Again', agree: true })).status).toBe(409);
+
+    const mail = t.db.select().from(schema.outbox).all().find((m) => m.to === s.builder.email && m.subject.startsWith('Approved: Towing regrind'));
+    expect(mail?.text).toContain(revisionChecksum(revision));
+    // Options are locked once approved.
+    const desk = (await s.builder.get(`/api/jobs/${s.jobId}/owner`)).body.desk;
+    expect(desk.approval.checksum).toBe(option.checksum);
+    expect((await s.builder.patch(`/api/owner-options/${option.id}`, { version: desk.options[0].version, priceCents: 1 })).status).toBe(409);
+    expect((await s.builder.delete(`/api/owner-options/${option.id}`)).status).toBe(409);
+  });
+
+  it('refuses an option the builder changed after the owner opened the page', async () => {
+    const s = await sharedJob('Stale shop');
+    const o = owner();
+    const before = ((await o.get(`/api/share/${s.token}`)).body.view as OwnerView).options[0]!;
+    const edited = await s.builder.patch(`/api/sheets/${s.sheet.id}`, { version: s.sheet.version, note: 'Changed after sharing', newRevision: true });
+    expect(edited.status).toBe(200);
+    const desk = (await s.builder.get(`/api/jobs/${s.jobId}/owner`)).body.desk;
+    expect(desk.options[0].stale).toBe(true);
+    const refreshed = await s.builder.patch(`/api/owner-options/${before.id}`, { version: desk.options[0].version, refreshRevision: true });
+    expect(refreshed.body.desk.options[0].stale).toBe(false);
+    const res = await o.post(`/api/share/${s.token}/approve`, { optionId: before.id, checksum: before.checksum, name: 'Test Owner', agree: true });
+    expect(res.status).toBe(409);
+  });
+});
+
+describe('deposit payment', () => {
+  async function approved(name: string) {
+    const s = await sharedJob(name);
+    const o = owner();
+    const option = ((await o.get(`/api/share/${s.token}`)).body.view as OwnerView).options[0]!;
+    expect((await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, name: 'Test Owner', agree: true })).status).toBe(201);
+    return { ...s, o };
+  }
+
+  it('goes through the local fake: checkout, pay page, signed webhook, paid on the job', async () => {
+    const s = await approved('Pay shop');
+    expect((await s.o.post(`/api/share/${s.token}/deposit/confirm`, { sessionId: 'cs_nothing' })).status).toBe(404);
+    const start = await s.o.post(`/api/share/${s.token}/deposit`);
+    expect(start.status).toBe(201);
+    const payUrl = new URL(start.body.url);
+    const page = await fetch(payUrl);
+    expect(await page.text()).toContain('$225.00');
+    // Paying sends the signed event and returns the owner to the share page.
+    const paid = await fetch(payUrl, { method: 'POST', redirect: 'manual' });
+    expect(paid.status).toBe(303);
+    const back = new URL(paid.headers.get('location')!);
+    expect(back.pathname).toBe(`/share/${s.token}`);
+    const sessionId = back.searchParams.get('deposit')!;
+
+    const view = (await s.o.get(`/api/share/${s.token}`)).body.view as OwnerView;
+    expect(view.payment).toMatchObject({ state: 'paid', amountCents: 22_500, currency: 'usd' });
+    expect(new Date(view.payment!.paidAt!).getTime()).toBeGreaterThan(Date.now() - 60_000);
+    const confirm = await s.o.post(`/api/share/${s.token}/deposit/confirm`, { sessionId });
+    expect(confirm.body.payment.state).toBe('paid');
+    const desk = (await s.builder.get(`/api/jobs/${s.jobId}/owner`)).body.desk;
+    expect(desk.payments[0]).toMatchObject({ state: 'paid', amountCents: 22_500 });
+    expect(t.db.select().from(schema.outbox).all().some((m) => m.to === s.builder.email && m.subject.startsWith('Deposit paid: $225.00'))).toBe(true);
+    expect((await s.o.post(`/api/share/${s.token}/deposit`)).status).toBe(409);
+  });
+
+  it('needs an approval first', async () => {
+    const s = await sharedJob('Unapproved shop');
+    expect((await owner().post(`/api/share/${s.token}/deposit`)).status).toBe(409);
+  });
+
+  it('reconciles on return with a retrieve when the webhook has not arrived', async () => {
+    const s = await approved('Return shop');
+    const start = await s.o.post(`/api/share/${s.token}/deposit`);
+    const sessionId = new URL(start.body.url).pathname.split('/').pop()!;
+    // The service marks it paid but the event never reaches the app.
+    const session = t.paymentService.sessions.get(sessionId)!;
+    Object.assign(session, { status: 'complete', payment_status: 'paid' });
+    expect(((await s.o.get(`/api/share/${s.token}`)).body.view as OwnerView).payment?.state).toBe('open');
+    const confirm = await s.o.post(`/api/share/${s.token}/deposit/confirm`, { sessionId });
+    expect(confirm.body.payment).toMatchObject({ state: 'paid', amountCents: 22_500 });
+  });
+});
+
+describe('payment webhook', () => {
+  async function openPayment(name: string) {
+    const s = await sharedJob(name);
+    const o = owner();
+    const option = ((await o.get(`/api/share/${s.token}`)).body.view as OwnerView).options[0]!;
+    await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, name: 'Test Owner', agree: true });
+    const start = await o.post(`/api/share/${s.token}/deposit`);
+    const sessionId = new URL(start.body.url).pathname.split('/').pop()!;
+    const payment = () => t.db.select().from(schema.payments).where(eq(schema.payments.checkoutSessionId, sessionId)).get()!;
+    return { sessionId, payment };
+  }
+
+  it('accepts a valid signature (generateTestHeaderString) and marks the payment paid', async () => {
+    const { sessionId, payment } = await openPayment('Hook ok shop');
+    const payload = webhookBody(sessionId);
+    const res = await postWebhook(payload, sign(payload));
+    expect(res).toEqual({ status: 200, body: { received: true, duplicate: false } });
+    expect(payment()).toMatchObject({ state: 'paid', amountCents: 22_500 });
+  });
+
+  it('rejects a tampered body, a wrong secret or a missing header with 400 and changes nothing', async () => {
+    const { sessionId, payment } = await openPayment('Hook bad shop');
+    const payload = webhookBody(sessionId);
+    const tampered = payload.replace('22500', '1');
+    for (const [body, signature] of [
+      [tampered, sign(payload)],
+      [payload, sign(payload, 'whsec_someone_else')],
+      [payload, 't=1,v1=00'],
+    ] as const) {
+      const res = await postWebhook(body, signature);
+      expect(res.status).toBe(400);
+      expect(res.body.error.code).toBe('bad_signature');
+    }
+    const missing = await fetch(`${t.url}/api/payments/webhook`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: payload });
+    expect(missing.status).toBe(400);
+    expect(payment().state).toBe('open');
+    expect(t.db.select().from(schema.paymentEvents).all().some((e) => payload.includes(e.id))).toBe(false);
+  });
+
+  it('ignores a replayed event', async () => {
+    const { sessionId, payment } = await openPayment('Hook replay shop');
+    const payload = webhookBody(sessionId, 'evt_test_replayed_once');
+    expect((await postWebhook(payload, sign(payload))).body.duplicate).toBe(false);
+    const paidAt = payment().paidAt;
+    const auditRows = t.db.select().from(schema.auditLog).where(eq(schema.auditLog.entityId, payment().id)).all().length;
+    const replay = await postWebhook(payload, sign(payload));
+    expect(replay).toEqual({ status: 200, body: { received: true, duplicate: true } });
+    expect(payment().paidAt).toEqual(paidAt);
+    expect(t.db.select().from(schema.auditLog).where(eq(schema.auditLog.entityId, payment().id)).all().length).toBe(auditRows);
+  });
+});
