@@ -26,6 +26,8 @@ function Navigator() {
       <Stack.Protected guard={!signedIn}>
         <Stack.Screen name="(auth)" />
       </Stack.Protected>
+      {/* The owner's summary opens from a share link, signed in or not. */}
+      <Stack.Screen name="share/[token]" />
       <Stack.Screen name="+not-found" />
     </Stack>
   );

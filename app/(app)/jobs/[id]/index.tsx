@@ -6,6 +6,7 @@ import { Button } from '@/components/button';
 import { JobChecklist } from '@/components/job-checklist';
 import { JobForm } from '@/components/job-form';
 import { JobPhotos } from '@/components/job-photos';
+import { OwnerSection } from '@/components/owner-desk';
 import { EngineSummary, JobProfiles, JobSheets } from '@/components/job-sections';
 import { ErrorNotice, Pending } from '@/components/query-state';
 import { Screen, Section } from '@/components/screen';
@@ -105,6 +106,7 @@ function JobDetail({ job }: { job: Job }) {
             <EngineSummary jobId={job.id} canWrite={canWrite} />
             <JobProfiles jobId={job.id} canWrite={canWrite} />
             <JobSheets jobId={job.id} />
+            <OwnerSection jobId={job.id} />
             <JobChecklist jobId={job.id} canWrite={canMeasure} />
           </View>
         </View>

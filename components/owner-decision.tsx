@@ -1,0 +1,134 @@
+import { useState } from 'react';
+import { Linking, Platform, Pressable, StyleSheet, Text, View } from 'react-native';
+
+import { formatDateTime } from '@/constants/format';
+import { colors, fonts, radius, space } from '@/constants/theme';
+import { ApiError } from '@/hooks/api';
+import { useApproveMutation, useStartDepositMutation } from '@/hooks/use-owner';
+import { formatMoney, type OwnerView, type OwnerViewOption } from '@/shared/owner';
+
+import { Button } from './button';
+import { TextField } from './text-field';
+import { ownerType } from './owner-type';
+
+/** Opens the payment page in this tab, so the owner comes back here when done. */
+function goTo(url: string) {
+  if (Platform.OS === 'web') window.location.assign(url);
+  else void Linking.openURL(url);
+}
+
+/** Approve the chosen option (name + a tick), then pay the deposit; shows what is already done. */
+export function OwnerDecision({ token, view, chosen }: { token: string; view: OwnerView; chosen: OwnerViewOption | undefined }) {
+  const approve = useApproveMutation(token);
+  const deposit = useStartDepositMutation(token);
+  const [name, setName] = useState(view.customerName.replace(/\s*\(demo\)$/, ''));
+  const [agree, setAgree] = useState(false);
+  const fields = approve.error instanceof ApiError ? approve.error.fields : {};
+  const approvedOption = view.approval ? view.options.find((o) => o.id === view.approval!.optionId) : undefined;
+
+  if (view.approval) {
+    const paid = view.payment?.state === 'paid' ? view.payment : null;
+    const depositCents = approvedOption?.depositCents ?? 0;
+    return (
+      <View style={styles.box} testID="owner-decision">
+        <Text role="heading" aria-level={2} style={styles.heading}>
+          Your decision
+        </Text>
+        <Text style={styles.body} testID="owner-approved">
+          {view.approval.name} approved “{view.approval.optionTitle}” on {formatDateTime(view.approval.at)}.
+        </Text>
+        <Text style={styles.small}>
+          The shop grinds exactly the sheet you approved: checksum <Text style={styles.mono}>{view.approval.checksum}</Text>.
+        </Text>
+        {paid ? (
+          <View style={styles.paid} role="status" testID="deposit-paid">
+            <Text style={styles.paidTitle}>Deposit paid</Text>
+            <Text style={styles.paidBody}>
+              {formatMoney(paid.amountCents, paid.currency)} on {formatDateTime(paid.paidAt!)}. Thank you; the shop has been told.
+            </Text>
+          </View>
+        ) : depositCents > 0 ? (
+          <>
+            <Text style={styles.body}>
+              To start the work, pay the deposit of {formatMoney(depositCents)}. The rest is due when the engine is back together.
+            </Text>
+            <Button
+              label={`Pay the ${formatMoney(depositCents)} deposit`}
+              busy={deposit.isPending}
+              onPress={() => deposit.mutate(undefined, { onSuccess: ({ url }) => goTo(url) })}
+              testID="pay-deposit"
+            />
+            {deposit.error ? (
+              <Text role="alert" style={styles.error}>
+                {deposit.error.message}
+              </Text>
+            ) : null}
+          </>
+        ) : (
+          <Text style={styles.body}>The shop asks no deposit for this option.</Text>
+        )}
+      </View>
+    );
+  }
+
+  return (
+    <View style={styles.box} testID="owner-decision">
+      <Text role="heading" aria-level={2} style={styles.heading}>
+        Approve an option
+      </Text>
+      {chosen ? (
+        <Text style={styles.body} testID="owner-chosen">
+          You chose “{chosen.title}”: {formatMoney(chosen.priceCents)}, with a {formatMoney(chosen.depositCents)} deposit.
+        </Text>
+      ) : (
+        <Text style={styles.body}>Choose one of the options above first.</Text>
+      )}
+      <TextField label="Your name" value={name} onChangeText={setName} autoComplete="name" error={fields.name} testID="approver-name" />
+      <Pressable
+        role="checkbox"
+        aria-checked={agree}
+        onPress={() => setAgree((a) => !a)}
+        style={styles.agree}
+        testID="approve-agree"
+        accessibilityLabel="I approve this option and its price, and I have read the cautions"
+      >
+        <View style={[styles.tick, agree && styles.tickOn]}>{agree ? <Text style={styles.tickMark}>✓</Text> : null}</View>
+        <Text style={styles.agreeText}>I approve this option and its price, and I have read the cautions.</Text>
+      </Pressable>
+      {fields.agree ? (
+        <Text role="alert" style={styles.error}>
+          {fields.agree}
+        </Text>
+      ) : null}
+      <Button
+        label="Approve"
+        busy={approve.isPending}
+        disabled={!chosen}
+        onPress={() => chosen && approve.mutate({ optionId: chosen.id, checksum: chosen.checksum, name, agree: agree as true })}
+        testID="approve"
+      />
+      {approve.error && !Object.keys(fields).length ? (
+        <Text role="alert" style={styles.error}>
+          {approve.error.message}
+        </Text>
+      ) : null}
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  box: { gap: space.md, padding: space.lg, borderRadius: radius.lg, borderWidth: 2, borderColor: colors.ink, backgroundColor: colors.surface },
+  heading: { ...ownerType.heading, color: colors.ink },
+  body: { ...ownerType.body, color: colors.ink },
+  small: { ...ownerType.small, color: colors.inkMuted },
+  mono: { fontFamily: fonts.mono },
+  error: { ...ownerType.body, color: colors.fail },
+  agree: { flexDirection: 'row', alignItems: 'center', gap: space.md, minHeight: 56 },
+  tick: { width: 30, height: 30, borderRadius: radius.sm, borderWidth: 3, borderColor: colors.ink, alignItems: 'center', justifyContent: 'center', backgroundColor: colors.surface },
+  tickOn: { backgroundColor: colors.accent, borderColor: colors.accent },
+  tickMark: { color: colors.accentInk, fontFamily: fonts.bold, fontSize: 20, lineHeight: 22 },
+  agreeText: { ...ownerType.body, color: colors.ink, flexShrink: 1 },
+  paid: { gap: space.xs, padding: space.lg, borderRadius: radius.md, backgroundColor: colors.passSoft, borderLeftWidth: 6, borderLeftColor: colors.pass },
+  paidTitle: { ...ownerType.heading, color: colors.pass },
+  paidBody: { ...ownerType.body, color: colors.ink },
+});
