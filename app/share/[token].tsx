@@ -8,6 +8,7 @@ import { ownerType } from '@/components/owner-type';
 import { ErrorNotice, Pending } from '@/components/query-state';
 import { colors, radius, space } from '@/constants/theme';
 import { useConfirmDepositMutation, useOwnerViewQuery } from '@/hooks/use-owner';
+import { formatMoney } from '@/shared/owner';
 
 /**
  * The owner's summary, opened from a share link with no account: what failed,
@@ -42,7 +43,8 @@ export default function OwnerSummaryScreen() {
   const reference = v.options[0];
   const chosen = v.options.find((o) => o.id === (v.approval?.optionId ?? chosenId));
   return (
-    <ScrollView style={styles.scroll} contentContainerStyle={styles.content} testID="owner-summary">
+    // Focusable so the page scrolls from the keyboard even when nothing on it is left to press.
+    <ScrollView style={styles.scroll} contentContainerStyle={styles.content} testID="owner-summary" tabIndex={0} aria-label="Your summary">
       <Stack.Screen options={{ title: `Your ${v.vehicle}` }} />
       <View style={styles.page}>
         <View style={styles.header}>
@@ -53,6 +55,13 @@ export default function OwnerSummaryScreen() {
           <Text style={styles.small}>Prepared for {v.customerName}. This page works until {new Date(v.expiresAt).toLocaleDateString('en-US', { dateStyle: 'long' })}.</Text>
         </View>
         {confirm.isPending ? <Pending label="Checking your payment…" /> : null}
+        {v.approval ? (
+          <Text style={styles.banner} role="status" testID="owner-status-top">
+            {v.payment?.state === 'paid'
+              ? `You approved “${v.approval.optionTitle}” and paid the ${formatMoney(v.payment.amountCents, v.payment.currency)} deposit. Thank you.`
+              : `You approved “${v.approval.optionTitle}”. The deposit is below.`}
+          </Text>
+        ) : null}
 
         <View style={styles.block}>
           <Text role="heading" aria-level={2} style={styles.heading}>
@@ -114,6 +123,7 @@ const styles = StyleSheet.create({
   body: { ...ownerType.body, color: colors.ink },
   small: { ...ownerType.small, color: colors.inkMuted },
   block: { gap: space.md },
+  banner: { ...ownerType.strong, color: colors.accentInk, backgroundColor: colors.pass, padding: space.lg, borderRadius: radius.md, overflow: 'hidden' },
   photo: { gap: space.xs },
   image: { width: '100%', aspectRatio: 4 / 3, borderRadius: radius.md, backgroundColor: colors.sunken },
   cautions: { gap: space.sm, padding: space.lg, borderRadius: radius.lg, borderLeftWidth: 8, borderLeftColor: colors.watch, backgroundColor: colors.watchSoft },

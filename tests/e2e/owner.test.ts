@@ -1,0 +1,108 @@
+import type { Browser } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
+import { baseUrl, demo, expectAccessible, launch, openPage, screenshot, shown, signIn } from './browser';
+
+const jobPath = '/jobs/demo-job-flatbed-cam';
+
+let browser: Browser;
+beforeAll(async () => {
+  browser = await launch();
+});
+afterAll(() => browser.close());
+
+describe('owner summary, approval and deposit', () => {
+  it('the builder shares the demo job; the owner reads it at 390 px with no account, approves the towing option and pays; the builder sees both', async () => {
+    const builder = await openPage(browser, 'wide');
+    const owner = await openPage(browser, 'phone');
+    const b = builder.page;
+    const o = owner.page;
+
+    // Builder, wide: the owner's page of the demo job, with both options, and a new link.
+    await signIn(b, demo.builder);
+    await b.goto(`${baseUrl()}${jobPath}`);
+    await shown(b, 'open-owner-desk').click();
+    await shown(b, 'owner-desk-screen').waitFor();
+    expect(await shown(b, 'desk-option-0').textContent()).toContain('Stock-spec regrind (demo)');
+    expect(await shown(b, 'desk-option-1').textContent()).toContain('Towing regrind (demo)');
+    expect(await shown(b, 'desk-approval').textContent()).toBe('Not approved yet.');
+    await shown(b, 'share-link-create').click();
+    const url = (await shown(b, 'share-link-url').textContent()) ?? '';
+    expect(url).toMatch(new RegExp(`^${baseUrl()}/share/[A-Za-z0-9_-]{43}$`));
+    await expectAccessible(b);
+    await screenshot(b, 'owner-desk-wide');
+
+    // Owner, phone, no account: the summary.
+    await o.goto(url);
+    await shown(o, 'owner-summary').waitFor();
+    const heading = (await o.locator('[role="heading"][aria-level="1"]:visible').first().textContent()) ?? '';
+    expect(heading).toContain('One-ton flatbed');
+    expect(await shown(o, 'owner-what-failed').textContent()).toContain('stopped rolling');
+    const cautions = (await shown(o, 'owner-cautions').textContent()) ?? '';
+    expect(cautions).toMatch(/emissions/i);
+    expect(cautions).toMatch(/measures piston-to-valve clearance/i);
+    const towing = (await shown(o, 'owner-option-demo-option-towing').textContent()) ?? '';
+    expect(towing).toContain('$760.00');
+    expect(towing).toContain('$225.00');
+    expect(towing).toContain('8 days');
+    expect(towing).toMatch(/Compared with the Stock-spec regrind \(demo\) cam/);
+    // Nothing internal reaches the owner: not the findings, not the sheet note, not the core notes.
+    const page = (await shown(o, 'owner-summary').textContent()) ?? '';
+    expect(page).not.toContain('Bearing debris in the oil pan');
+    expect(page).not.toContain('measure the PTV baseline with the old cam before this goes to the grinder');
+    expect(page).not.toContain('tighter lobe separation');
+    // Nothing wider than the phone.
+    expect(await o.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+    await expectAccessible(o);
+    await o.setViewportSize({ width: 390, height: 3200 });
+    await screenshot(o, 'owner-summary-phone');
+    await o.setViewportSize({ width: 390, height: 844 });
+
+    // Approve the towing option.
+    await shown(o, 'choose-option-demo-option-towing').click();
+    expect(await shown(o, 'owner-chosen').textContent()).toContain('Towing regrind (demo)');
+    await shown(o, 'approver-name').fill('Delia Carrow');
+    await shown(o, 'approve').click();
+    await expect.poll(() => o.locator('[role="alert"]:visible').first().textContent()).toContain('Tick the box');
+    await shown(o, 'approve-agree').click();
+    await shown(o, 'approve').click();
+    await expect.poll(() => shown(o, 'owner-approved').textContent()).toContain('Delia Carrow approved “Towing regrind (demo)”');
+    await screenshot(o, 'owner-approved-phone');
+
+    // Pay through the local fake payment service and come back.
+    await shown(o, 'pay-deposit').click();
+    await o.waitForURL((u) => u.pathname.startsWith('/pay/'));
+    expect(await o.locator('.amount').textContent()).toBe('$225.00');
+    await screenshot(o, 'owner-pay-page-phone');
+    await o.getByRole('button', { name: /Pay \$225\.00/ }).click();
+    await o.waitForURL((u) => u.pathname.startsWith('/share/'));
+    await expect.poll(() => shown(o, 'deposit-paid').textContent(), { timeout: 15_000 }).toMatch(/Deposit paid\$225\.00 on /);
+    expect(await shown(o, 'owner-status-top').textContent()).toContain('paid the $225.00 deposit');
+    await expectAccessible(o);
+    await o.setViewportSize({ width: 390, height: 3200 });
+    await screenshot(o, 'owner-paid-phone');
+    expect(owner.errors).toEqual([]);
+
+    // Builder: the approval and the payment, on the owner's page and on the job.
+    await b.reload();
+    await shown(b, 'owner-desk-screen').waitFor();
+    await expect.poll(() => shown(b, 'desk-approval').textContent()).toContain('Delia Carrow approved “Towing regrind (demo)”');
+    expect(await shown(b, 'desk-payment').textContent()).toMatch(/^Deposit paid: \$225\.00 on /);
+    expect(await shown(b, 'share-link-row').textContent()).toContain('last opened');
+    await screenshot(b, 'owner-desk-paid-wide');
+    await b.setViewportSize({ width: 390, height: 844 });
+    await b.goto(`${baseUrl()}${jobPath}`);
+    await expect.poll(() => shown(b, 'desk-payment').textContent()).toContain('Deposit paid: $225.00');
+    expect(await b.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+    await screenshot(b, 'owner-on-job-phone');
+
+    // And the builder was told by e-mail, through the outbox.
+    const outbox = (await (await b.request.get(`${baseUrl()}/api/dev/outbox`)).json()) as { messages: { to: string; subject: string }[] };
+    const subjects = outbox.messages.filter((m) => m.to === demo.builder).map((m) => m.subject);
+    expect(subjects).toContain('Approved: Towing regrind (demo) for the One-ton flatbed, 5.9 L pushrod V8 (demo)');
+    expect(subjects.some((s) => s.startsWith('Deposit paid: $225.00'))).toBe(true);
+    expect(builder.errors).toEqual([]);
+    await builder.close();
+    await owner.close();
+  });
+});
