@@ -290,6 +290,8 @@ export function newDemoShareLink(db: Db, baseURL: string) {
         shopId: juniper.id,
         jobId: demoJobId,
         tokenHash: hashShareToken(token),
+        // The demo owner's account finds the page too.
+        email: demoAccounts.find((a) => a.role === 'customer')!.email,
         expiresAt: new Date(Date.now() + shareLinkLimits.defaultDays * 24 * 3600 * 1000),
       })
       .run();

@@ -72,8 +72,12 @@ export const shareLinkCreateSchema = z.strictObject({
     .min(1, 'A link lasts at least 1 day')
     .max(shareLinkLimits.maxDays, `A link lasts at most ${shareLinkLimits.maxDays} days`)
     .default(shareLinkLimits.defaultDays),
-  /** Send the link to the owner by e-mail as well. */
-  email: z.email('Enter an e-mail address like name@example.com').max(254).optional(),
+  /** Send the link to the owner by e-mail as well; an owner signed in with this address (customer role) also finds the page under their account. */
+  email: z
+    .email('Enter an e-mail address like name@example.com')
+    .max(254, 'Keep the address under 254 characters')
+    .transform((e) => e.toLowerCase())
+    .optional(),
 });
 export type ShareLinkCreate = z.input<typeof shareLinkCreateSchema>;
 

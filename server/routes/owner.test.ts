@@ -309,3 +309,33 @@ describe('payment webhook', () => {
     expect(t.db.select().from(schema.auditLog).where(eq(schema.auditLog.entityId, payment().id)).all().length).toBe(auditRows);
   });
 });
+
+describe('an owner with an account', () => {
+  it('finds the summary sent to their e-mail, approves it signed in, and sees nothing else', async () => {
+    const s = await sharedJob('Account owner shop');
+    const customer = await memberWithRole(t, s.shopId, 'customer');
+    expect((await customer.get('/api/my/jobs')).body.jobs).toEqual([]);
+    expect((await customer.get(`/api/my/jobs/${s.jobId}`)).status).toBe(404);
+    // The builder sends a link to the owner's address (any case).
+    await s.builder.post(`/api/jobs/${s.jobId}/share-links`, { email: customer.email.toUpperCase() });
+    const list = (await customer.get('/api/my/jobs')).body.jobs;
+    expect(list).toEqual([{ jobId: s.jobId, vehicle: expect.any(String), shopName: 'Account owner shop', approved: false, paid: false }]);
+    const view = (await customer.get(`/api/my/jobs/${s.jobId}`)).body.view as OwnerView;
+    expect(JSON.stringify(view)).not.toContain(INTERNAL_FINDINGS);
+    const option = view.options[0]!;
+    const approved = await customer.post(`/api/my/jobs/${s.jobId}/approve`, { optionId: option.id, checksum: option.checksum, name: 'Signed Owner', agree: true });
+    expect(approved.status).toBe(201);
+    const audit = t.db.select().from(schema.auditLog).where(eq(schema.auditLog.entityId, approved.body.approval.id)).get()!;
+    expect(audit.userId).toBe(customer.userId);
+    const start = await customer.post(`/api/my/jobs/${s.jobId}/deposit`);
+    expect(start.status).toBe(201);
+    const paid = await fetch(start.body.url, { method: 'POST', redirect: 'manual' });
+    expect(new URL(paid.headers.get('location')!).pathname).toBe(`/my/${s.jobId}`);
+    expect((await customer.get('/api/my/jobs')).body.jobs[0]).toMatchObject({ approved: true, paid: true });
+    // Staff and other shops' owners do not get this route.
+    expect((await s.builder.get('/api/my/jobs')).status).toBe(403);
+    const elsewhere = await makeShop(t, 'repair', 'Elsewhere');
+    const otherOwner = await memberWithRole(t, elsewhere.shopId, 'customer');
+    expect((await otherOwner.get(`/api/my/jobs/${s.jobId}`)).status).toBe(404);
+  });
+});

@@ -1,5 +1,5 @@
 import express, { Router, type Request } from 'express';
-import { and, desc, eq } from 'drizzle-orm';
+import { and, desc, eq, gt, isNull } from 'drizzle-orm';
 import { rateLimit } from 'express-rate-limit';
 import type Stripe from 'stripe';
 
@@ -7,6 +7,7 @@ import type { Db } from '@/db';
 import { schema } from '@/db';
 import { approveSchema, depositConfirmSchema, type Payment } from '@/shared/owner';
 
+import { requireShopRole } from '../access';
 import { audit } from '../audit';
 import type { AppDeps } from '../deps';
 import { conflict, HttpError, notFound, parse } from '../http';
@@ -74,45 +75,95 @@ async function tellBuildersPaid(deps: MailDeps, payment: typeof schema.payments.
   });
 }
 
+/** Which share link a request acts through, and where its API and page live. */
+type Resolved = { link: LinkRow; apiBase: string; pageUrl: string; userId?: string };
+type Resolve = (req: Request, tx: Pick<Db, 'select'>) => Resolved | Promise<Resolved>;
+
 /**
- * The owner's page, opened with a share link (no account): read it, approve
- * an option, pay the deposit. Also the payment service's webhook.
+ * The owner's page: read it, approve an option, pay the deposit. Mounted twice:
+ * at /share/:token for anyone holding the link (no account), and at
+ * /my/jobs/:jobId for a signed-in owner (customer role) the link was sent to.
  */
 export function shareRouter(deps: AppDeps, limit: ShareRateLimit = { windowMs: 60_000, limit: 120 }) {
-  const { db, publicUrl, uploadsDir, payments } = deps;
+  const { db, auth, publicUrl } = deps;
   const router = Router();
   // Slows anyone trying tokens: a real owner opens a handful of pages a minute.
   router.use('/share', rateLimit({ ...limit, standardHeaders: 'draft-8', legacyHeaders: false, handler: (_req, res) => res.status(429).json({ error: { code: 'rate_limited', message: 'Too many requests: wait a minute and try again' } }) }));
+
+  const byToken: Resolve = (req, tx) => {
+    const token = String(req.params.token);
+    return { link: activeLink(tx, token), apiBase: `/api/share/${token}`, pageUrl: shareUrl(publicUrl, token) };
+  };
+  mountOwnerRoutes(router, '/share/:token', byToken, deps);
+
+  // A signed-in owner: the newest open link of the job that was sent to their e-mail.
+  const byAccount = async (req: Request) => {
+    const ctx = await requireShopRole(auth, db, req, { summary: ['read'] });
+    return { ctx, links: ownLinks(db, ctx.shop.id, ctx.user.email) };
+  };
+  router.get('/my/jobs', async (req, res) => {
+    const { ctx, links } = await byAccount(req);
+    const jobs = [...new Map(links.map((l) => [l.jobId, l])).values()].map((l) => {
+      const view = loadOwnerView(db, l, () => '');
+      return { jobId: l.jobId, vehicle: view.vehicle, shopName: ctx.shop.name, approved: view.approval !== null, paid: view.payment?.state === 'paid' };
+    });
+    res.json({ jobs });
+  });
+  const mine: Resolve = async (req) => {
+    const jobId = String(req.params.jobId);
+    const { ctx, links } = await byAccount(req);
+    const link = links.find((l) => l.jobId === jobId);
+    if (!link) throw notFound('Summary');
+    return { link, userId: ctx.user.id, apiBase: `/api/my/jobs/${encodeURIComponent(jobId)}`, pageUrl: `${publicUrl.replace(/\/+$/, '')}/my/${encodeURIComponent(jobId)}` };
+  };
+  mountOwnerRoutes(router, '/my/jobs/:jobId', mine, deps);
+  return router;
+}
+
+/** Open links of the shop sent to this e-mail, newest first. */
+function ownLinks(db: Pick<Db, 'select'>, shopId: string, email: string) {
+  return db
+    .select()
+    .from(schema.shareLinks)
+    .where(and(eq(schema.shareLinks.shopId, shopId), eq(schema.shareLinks.email, email.toLowerCase()), isNull(schema.shareLinks.revokedAt), gt(schema.shareLinks.expiresAt, new Date())))
+    .orderBy(desc(schema.shareLinks.createdAt))
+    .all();
+}
+
+function mountOwnerRoutes(router: Router, at: string, resolve: Resolve, deps: AppDeps) {
+  const { db, uploadsDir, payments } = deps;
 
   function requirePayments() {
     if (!payments) throw new HttpError(503, 'payments_off', 'Card payments are not set up on this server; the shop can take the deposit in person');
     return payments;
   }
 
-  router.get('/share/:token', (req, res) => {
-    const token = req.params.token;
-    const link = activeLink(db, token);
+  router.get(at, async (req, res) => {
+    const { link, apiBase } = await resolve(req, db);
     db.update(schema.shareLinks).set({ lastOpenedAt: new Date() }).where(eq(schema.shareLinks.id, link.id)).run();
     res.setHeader('Cache-Control', 'no-store');
     res.setHeader('Referrer-Policy', 'no-referrer');
-    res.json({ view: loadOwnerView(db, link, (id) => `/api/share/${token}/photos/${id}`) });
+    res.json({ view: loadOwnerView(db, link, (id) => `${apiBase}/photos/${id}`) });
   });
 
-  router.get('/share/:token/photos/:photoId', async (req, res) => {
-    const link = activeLink(db, req.params.token);
+  router.get(`${at}/photos/:photoId`, async (req, res) => {
+    const { link } = await resolve(req, db);
     const row = db
       .select()
       .from(schema.photos)
-      .where(and(eq(schema.photos.id, req.params.photoId), eq(schema.photos.jobId, link.jobId), eq(schema.photos.shopId, link.shopId), eq(schema.photos.shareable, true)))
+      .where(and(eq(schema.photos.id, String(req.params.photoId)), eq(schema.photos.jobId, link.jobId), eq(schema.photos.shopId, link.shopId), eq(schema.photos.shareable, true)))
       .get();
     if (!row) throw notFound('Photo');
     await sendPhotoFile(res, uploadsDir, row);
   });
 
-  router.post('/share/:token/approve', async (req, res) => {
+  router.post(`${at}/approve`, async (req, res) => {
     const body = parse(approveSchema, req.body);
+    // Resolve first (it may read the session); the checks and the write then share one transaction.
+    const resolved = await resolve(req, db);
     const approval = db.transaction((tx) => {
-      const link = activeLink(tx, req.params.token);
+      const link = tx.select().from(schema.shareLinks).where(eq(schema.shareLinks.id, resolved.link.id)).get();
+      if (!link || link.revokedAt || link.expiresAt.getTime() <= Date.now()) throw linkGone();
       if (loadApproval(tx, link.jobId)) throw conflict('An option is already approved for this job; call the shop to change it');
       const option = tx
         .select()
@@ -138,18 +189,18 @@ export function shareRouter(deps: AppDeps, limit: ShareRateLimit = { windowMs: 6
         })
         .returning()
         .get();
-      audit(tx, { shopId: link.shopId, userId: null, action: 'approve', entity: 'owner-approval', entityId: row.id, detail: { jobId: link.jobId, optionId: option.id, checksum: option.checksum, name: body.name, shareLinkId: link.id } });
+      audit(tx, { shopId: link.shopId, userId: resolved.userId ?? null, action: 'approve', entity: 'owner-approval', entityId: row.id, detail: { jobId: link.jobId, optionId: option.id, checksum: option.checksum, name: body.name, shareLinkId: link.id } });
       return row;
     });
     await tellBuilders(deps, 'approved', approval.jobId, approval.shopId, { optionTitle: approval.optionTitle, approverName: approval.approverName, checksum: approval.checksum });
     res.status(201).json({ approval: toApproval(approval) });
   });
 
-  router.post('/share/:token/deposit', async (req, res) => {
-    const token = req.params.token;
+  router.post(`${at}/deposit`, async (req, res) => {
     const service = requirePayments();
+    const resolved = await resolve(req, db);
     const check = () => {
-      const link = activeLink(db, token);
+      const link = resolved.link;
       const approval = loadApproval(db, link.jobId);
       if (!approval) throw conflict('Approve an option before paying the deposit');
       const paid = db.select({ id: schema.payments.id }).from(schema.payments).where(and(eq(schema.payments.jobId, link.jobId), eq(schema.payments.state, 'paid'))).get();
@@ -159,7 +210,7 @@ export function shareRouter(deps: AppDeps, limit: ShareRateLimit = { windowMs: 6
     };
     const { approval } = check();
     const paymentId = crypto.randomUUID();
-    const back = shareUrl(publicUrl, token);
+    const back = resolved.pageUrl;
     // The session is created before the row: the payment service must not be called inside a transaction.
     const session = await service.stripe.checkout.sessions.create({
       mode: 'payment',
@@ -180,10 +231,10 @@ export function shareRouter(deps: AppDeps, limit: ShareRateLimit = { windowMs: 6
     res.status(201).json({ url: session.url });
   });
 
-  router.post('/share/:token/deposit/confirm', async (req, res) => {
+  router.post(`${at}/deposit/confirm`, async (req, res) => {
     const body = parse(depositConfirmSchema, req.body);
     const service = requirePayments();
-    const link = activeLink(db, req.params.token);
+    const { link } = await resolve(req, db);
     const known = db
       .select()
       .from(schema.payments)
@@ -202,9 +253,8 @@ export function shareRouter(deps: AppDeps, limit: ShareRateLimit = { windowMs: 6
     }
     res.json({ payment });
   });
-
-  return router;
 }
+
 
 /**
  * The payment service's webhook. Reads the raw body (the signature covers its
