@@ -18,9 +18,9 @@ function goTo(url: string) {
 }
 
 /** Approve the chosen option (name + a tick), then pay the deposit; shows what is already done. */
-export function OwnerDecision({ token, view, chosen }: { token: string; view: OwnerView; chosen: OwnerViewOption | undefined }) {
-  const approve = useApproveMutation(token);
-  const deposit = useStartDepositMutation(token);
+export function OwnerDecision({ base, view, chosen }: { base: string; view: OwnerView; chosen: OwnerViewOption | undefined }) {
+  const approve = useApproveMutation(base);
+  const deposit = useStartDepositMutation(base);
   const [name, setName] = useState(view.customerName.replace(/\s*\(demo\)$/, ''));
   const [agree, setAgree] = useState(false);
   const fields = approve.error instanceof ApiError ? approve.error.fields : {};

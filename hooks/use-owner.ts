@@ -8,7 +8,7 @@ const enc = encodeURIComponent;
 
 export const ownerKeys = {
   desk: (jobId: string) => ['owner-desk', jobId] as const,
-  view: (token: string) => ['owner-view', token] as const,
+  view: (base: string) => ['owner-view', base] as const,
 };
 
 /** The builder's view of the owner's page on a job. */
@@ -65,36 +65,56 @@ export function useRevokeShareLinkMutation(jobId: string) {
   });
 }
 
-/** The owner's page from a share link (no account). */
-export function useOwnerViewQuery(token: string) {
+/**
+ * Where an owner's page lives in the API: `/api/share/<token>` for a link
+ * (no account) or `/api/my/jobs/<jobId>` for a signed-in owner.
+ */
+export const ownerApiBase = {
+  link: (token: string) => `/api/share/${enc(token)}`,
+  account: (jobId: string) => `/api/my/jobs/${enc(jobId)}`,
+};
+
+export type OwnerJob = { jobId: string; vehicle: string; shopName: string; approved: boolean; paid: boolean };
+
+/** A signed-in owner's summaries (links the shop sent to their e-mail). */
+export function useMyJobsQuery() {
   return useQuery({
-    queryKey: ownerKeys.view(token),
-    staleTime: staleTimes.record,
-    retry: false,
-    queryFn: async () => (await api<{ view: OwnerView }>(`/api/share/${enc(token)}`)).view,
+    queryKey: ['my-jobs'],
+    staleTime: staleTimes.list,
+    queryFn: async () => (await api<{ jobs: OwnerJob[] }>('/api/my/jobs')).jobs,
   });
 }
 
-export function useApproveMutation(token: string) {
+/** The owner's page at `base` (see ownerApiBase). */
+export function useOwnerViewQuery(base: string) {
+  return useQuery({
+    queryKey: ownerKeys.view(base),
+    staleTime: staleTimes.record,
+    retry: false,
+    queryFn: async () => (await api<{ view: OwnerView }>(base)).view,
+  });
+}
+
+export function useApproveMutation(base: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (body: ApproveBody) => api<{ approval: Approval }>(`/api/share/${enc(token)}/approve`, { method: 'POST', body }),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: ownerKeys.view(token) }),
+    mutationFn: (body: ApproveBody) => api<{ approval: Approval }>(`${base}/approve`, { method: 'POST', body }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: ownerKeys.view(base) }),
   });
 }
 
 /** Starts the deposit: the answer is the payment page to open. */
-export function useStartDepositMutation(token: string) {
+export function useStartDepositMutation(base: string) {
   return useMutation({
-    mutationFn: () => api<{ url: string }>(`/api/share/${enc(token)}/deposit`, { method: 'POST' }),
+    mutationFn: () => api<{ url: string }>(`${base}/deposit`, { method: 'POST' }),
   });
 }
 
 /** Back from the payment page: asks the server to check the session (the webhook usually got there first). */
-export function useConfirmDepositMutation(token: string) {
+export function useConfirmDepositMutation(base: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (sessionId: string) => api<{ payment: Payment }>(`/api/share/${enc(token)}/deposit/confirm`, { method: 'POST', body: { sessionId } }),
-    onSettled: () => queryClient.invalidateQueries({ queryKey: ownerKeys.view(token) }),
+    mutationFn: (sessionId: string) => api<{ payment: Payment }>(`${base}/deposit/confirm`, { method: 'POST', body: { sessionId } }),
+    onSettled: () => queryClient.invalidateQueries({ queryKey: ownerKeys.view(base) }),
   });
 }

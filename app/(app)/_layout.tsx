@@ -15,6 +15,7 @@ export default function AppLayout() {
   const canSeeJobs = roleAllows(role, { job: ['read'] });
   const canSeeLimits = roleAllows(role, { measurement: ['read'] });
   const canSeeIncoming = roleAllows(role, { incoming: ['read'] });
+  const canSeeSummaries = roleAllows(role, { summary: ['read'] });
   // The dev mailbox shows only when the server keeps an outbox; a production server answers 404 (→ null).
   const outbox = useOutboxQuery(Boolean(me));
   const canSeeMailbox = Array.isArray(outbox.data);
@@ -26,6 +27,7 @@ export default function AppLayout() {
           { href: '/profiles', match: '/profiles', label: 'Profiles', glyph: '∩', testID: 'nav-profiles' },
         ] as const)
       : []),
+    ...(canSeeSummaries ? ([{ href: '/my', match: '/my', label: 'Vehicles', glyph: '▣', testID: 'nav-my' }] as const) : []),
     ...(canSeeIncoming ? ([{ href: '/incoming', match: '/incoming', label: 'Incoming', glyph: '⇲', testID: 'nav-incoming' }] as const) : []),
     ...(canSeeLimits ? ([{ href: '/settings', match: '/settings', label: 'Settings', glyph: '⚙', testID: 'nav-settings' }] as const) : []),
     ...(canSeeMailbox ? ([{ href: '/mailbox', match: '/mailbox', label: 'Mailbox', glyph: '✉', testID: 'nav-mailbox' }] as const) : []),
@@ -48,6 +50,9 @@ export default function AppLayout() {
       </Tabs.Protected>
       <Tabs.Protected guard={canSeeLimits}>
         <Tabs.Screen name="settings" options={{ title: 'Settings' }} />
+      </Tabs.Protected>
+      <Tabs.Protected guard={canSeeSummaries}>
+        <Tabs.Screen name="my" options={{ title: 'Your vehicles' }} />
       </Tabs.Protected>
       <Tabs.Protected guard={canSeeIncoming}>
         <Tabs.Screen name="incoming" options={{ title: 'Incoming' }} />

@@ -8,5 +8,6 @@ export default function Home() {
   const role = useMeQuery().data?.activeShop?.role;
   if (roleAllows(role, { job: ['read'] })) return <Redirect href="/jobs" />;
   if (roleAllows(role, { incoming: ['read'] })) return <Redirect href="/incoming" />;
+  if (roleAllows(role, { summary: ['read'] })) return <Redirect href="/my" />;
   return <Redirect href="/account" />;
 }

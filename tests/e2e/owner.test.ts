@@ -104,5 +104,17 @@ describe('owner summary, approval and deposit', () => {
     expect(builder.errors).toEqual([]);
     await builder.close();
     await owner.close();
+
+    // The demo owner's account (the seeded link went to that address) finds the same decision under "Your vehicles".
+    const account = await openPage(browser, 'phone');
+    await signIn(account.page, demo.customer);
+    await shown(account.page, 'my-jobs-screen').waitFor();
+    await expect.poll(() => shown(account.page, 'my-job').textContent()).toContain('Approved, deposit paid');
+    await shown(account.page, 'my-job').click();
+    await expect.poll(() => shown(account.page, 'owner-status-top').textContent()).toContain('paid the $225.00 deposit');
+    await expectAccessible(account.page);
+    await screenshot(account.page, 'owner-account-phone');
+    expect(account.errors).toEqual([]);
+    await account.close();
   });
 });

@@ -26,7 +26,7 @@ describe.each(Object.keys(viewports) as ViewportName[])('each demo role at %s wi
 
   it.each([
     ['grinder', demo.grinder, /Grinder at Kestrel Valley Regrind \(demo\)/, 'incoming-screen'],
-    ['customer', demo.customer, /Vehicle owner at Juniper Flats Engine Works \(demo\)/, 'account-screen'],
+    ['customer', demo.customer, /Vehicle owner at Juniper Flats Engine Works \(demo\)/, 'my-jobs-screen'],
   ] as const)('keeps the %s out of the shop jobs and starts them where their work is', async (role, email, roleText, home) => {
     const { page, errors, close } = await openPage(browser, viewport);
     await signIn(page, email);

@@ -1,0 +1,10 @@
+import { useLocalSearchParams } from 'expo-router';
+
+import { OwnerSummary } from '@/components/owner-summary';
+import { ownerApiBase } from '@/hooks/use-owner';
+
+/** A signed-in owner's summary of one job. */
+export default function MyJobScreen() {
+  const { jobId } = useLocalSearchParams<{ jobId: string }>();
+  return <OwnerSummary base={ownerApiBase.account(jobId)} />;
+}
