@@ -24,6 +24,7 @@ import { photosRouter } from './routes/photos';
 import { profilesRouter } from './routes/profiles';
 import { sheetsRouter } from './routes/sheets';
 import { shopLimitsRouter } from './routes/shop-limits';
+import { authBodyParser, defaultAuthRateLimit, jsonBodyLimit, securityHeaders, setClientAddress, withRateLimitAnswers, type AuthRateLimit } from './security';
 
 export type CreateAppOptions = {
   db: Db;
@@ -43,13 +44,15 @@ export type CreateAppOptions = {
   mailer?: Mailer;
   /** Development tools such as the outbox API (`/api/dev/*`); default on unless NODE_ENV is production. */
   devTools?: boolean;
+  /** Attempts per network address on the sign-in routes (server/security.ts); default on when NODE_ENV is production, false turns it off. */
+  authRateLimit?: AuthRateLimit | false;
 };
 
 const dev = process.env.NODE_ENV !== 'production';
 
 /** Builds the whole app without listening, so tests can drive it on an in-memory database. */
-export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLimit, uploadsDir, mailer, devTools = dev }: CreateAppOptions) {
-  const auth = createAuth({ db, baseURL, secret });
+export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLimit, uploadsDir, mailer, devTools = dev, authRateLimit }: CreateAppOptions) {
+  const auth = createAuth({ db, baseURL, secret, rateLimit: authRateLimit ?? (dev ? false : defaultAuthRateLimit) });
   const deps: AppDeps = {
     db,
     auth,
@@ -60,10 +63,11 @@ export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLi
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
+  app.use(securityHeaders({ baseURL, contentSecurityPolicy: !devWebProxy }));
 
-  // better-auth reads its own bodies, so it goes before the JSON parser.
-  app.all('/api/auth/{*splat}', toNodeHandler(auth));
-  app.use('/api', express.json({ limit: '200kb' }));
+  // better-auth parses its own bodies, so it goes before the JSON parser; authBodyParser only caps their size.
+  app.all('/api/auth/{*splat}', setClientAddress, authBodyParser, toNodeHandler(withRateLimitAnswers((request) => auth.handler(request))));
+  app.use('/api', express.json({ limit: jsonBodyLimit }));
 
   app.get('/api/health', (_req, res) => {
     db.$client.prepare('select 1').get();

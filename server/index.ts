@@ -6,6 +6,7 @@ import { demoAccounts, demoSignInText } from '@/db/seed';
 import { createApp } from './app';
 import { readConfig } from './config';
 import { createMailer } from './mail';
+import { defaultAuthRateLimit } from './security';
 
 const config = readConfig();
 const db = openDb(config.databasePath);
@@ -17,7 +18,8 @@ const devWebProxy = process.env.DEV_WEB_PROXY
     })
   : undefined;
 const mailer = createMailer({ db, smtpUrl: config.smtpUrl, from: config.mailFrom });
-const app = createApp({ db, baseURL: config.baseURL, secret: config.secret, webDir: config.webDir, devWebProxy, mailer });
+const authRateLimit = config.authRateLimit ? defaultAuthRateLimit : false;
+const app = createApp({ db, baseURL: config.baseURL, secret: config.secret, webDir: config.webDir, devWebProxy, mailer, authRateLimit });
 
 const server = app.listen(config.port, () => {
   console.log(`Lobewright is serving ${config.baseURL} (database ${config.databasePath})`);

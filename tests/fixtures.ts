@@ -12,7 +12,7 @@ import type { ShopKind, ShopRole } from '@/shared/roles';
 export type TestApp = { app: App; db: Db; url: string; uploadsDir: string; close: () => Promise<void> };
 
 /** A real app on an in-memory database, listening on a free loopback port. */
-export async function createTestApp(options: Pick<CreateAppOptions, 'calcRateLimit' | 'devTools'> = {}): Promise<TestApp> {
+export async function createTestApp(options: Pick<CreateAppOptions, 'calcRateLimit' | 'devTools' | 'authRateLimit'> = {}): Promise<TestApp> {
   const db = openDb(':memory:');
   const uploadsDir = fs.mkdtempSync(path.join(os.tmpdir(), 'lobewright-test-uploads-'));
   // The origin is only known after listening; sign-in checks it against the request's Origin header.
