@@ -53,7 +53,7 @@ export class Client {
     const headers: Record<string, string> = { origin: this.baseUrl };
     const form = body instanceof FormData;
     if (body !== undefined && !form) headers['content-type'] = 'application/json';
-    if (this.cookies.size) headers.cookie = [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
+    if (this.cookies.size) headers.cookie = this.cookieHeader();
     const res = await fetch(this.baseUrl + path, {
       method,
       headers,
@@ -77,6 +77,9 @@ export class Client {
     return { status: res.status, body: json as Record<string, any> };
   }
 
+  /** The Cookie header this person's requests carry (for load tools that send their own requests). */
+  cookieHeader = () => [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
+
   get = (path: string) => this.request('GET', path);
   post = (path: string, body?: unknown) => this.request('POST', path, body ?? {});
   patch = (path: string, body?: unknown) => this.request('PATCH', path, body ?? {});
@@ -87,7 +90,7 @@ export class Client {
   /** The raw response, for files. */
   fetchRaw = (path: string) =>
     fetch(this.baseUrl + path, {
-      headers: { origin: this.baseUrl, cookie: [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ') },
+      headers: { origin: this.baseUrl, cookie: this.cookieHeader() },
     });
 }
 
