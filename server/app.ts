@@ -27,6 +27,7 @@ import { profilesRouter } from './routes/profiles';
 import { paymentWebhook, shareRouter, type ShareRateLimit } from './routes/share';
 import { sheetsRouter } from './routes/sheets';
 import { shopLimitsRouter } from './routes/shop-limits';
+import { authBodyParser, defaultAuthRateLimit, jsonBodyLimit, securityHeaders, setClientAddress, withRateLimitAnswers, type AuthRateLimit } from './security';
 
 export type CreateAppOptions = {
   db: Db;
@@ -50,13 +51,15 @@ export type CreateAppOptions = {
   payments?: Payments;
   /** Requests per address to the owner's share pages (default 120 a minute). */
   shareRateLimit?: ShareRateLimit;
+  /** Attempts per network address on the sign-in routes (server/security.ts); default on when NODE_ENV is production, false turns it off. */
+  authRateLimit?: AuthRateLimit | false;
 };
 
 const dev = process.env.NODE_ENV !== 'production';
 
 /** Builds the whole app without listening, so tests can drive it on an in-memory database. */
-export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLimit, uploadsDir, mailer, devTools = dev, payments, shareRateLimit }: CreateAppOptions) {
-  const auth = createAuth({ db, baseURL, secret });
+export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLimit, uploadsDir, mailer, devTools = dev, payments, shareRateLimit, authRateLimit }: CreateAppOptions) {
+  const auth = createAuth({ db, baseURL, secret, rateLimit: authRateLimit ?? (dev ? false : defaultAuthRateLimit) });
   const deps: AppDeps = {
     db,
     auth,
@@ -68,12 +71,13 @@ export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLi
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
+  app.use(securityHeaders({ baseURL, contentSecurityPolicy: !devWebProxy }));
 
-  // better-auth reads its own bodies, so it goes before the JSON parser.
-  app.all('/api/auth/{*splat}', toNodeHandler(auth));
+  // better-auth parses its own bodies, so it goes before the JSON parser; authBodyParser only caps their size.
+  app.all('/api/auth/{*splat}', setClientAddress, authBodyParser, toNodeHandler(withRateLimitAnswers((request) => auth.handler(request))));
   // The payment webhook's signature covers the raw body, so it is read before the JSON parser too.
   app.use('/api', paymentWebhook(deps));
-  app.use('/api', express.json({ limit: '200kb' }));
+  app.use('/api', express.json({ limit: jsonBodyLimit }));
 
   app.get('/api/health', (_req, res) => {
     db.$client.prepare('select 1').get();

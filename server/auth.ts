@@ -7,15 +7,20 @@ import type { Db } from '@/db';
 import { schema } from '@/db';
 import { accessControl, shopRoles } from '@/shared/roles';
 
+import { clientAddressHeader, type AuthRateLimit } from './security';
+
 export type AuthOptions = {
   db: Db;
   /** Public origin of the app, for example http://localhost:8080. */
   baseURL: string;
   secret: string;
+  /** Attempts per network address on sign-in, sign-up and the other auth routes; false turns the limit off. */
+  rateLimit?: AuthRateLimit | false;
 };
 
 /** Builds better-auth on the given database: e-mail and password, sessions, and shops as organizations with our four roles. */
-export function createAuth({ db, baseURL, secret }: AuthOptions) {
+export function createAuth({ db, baseURL, secret, rateLimit = false }: AuthOptions) {
+  const https = baseURL.startsWith('https://');
   return betterAuth({
     baseURL,
     secret,
@@ -37,9 +42,18 @@ export function createAuth({ db, baseURL, secret }: AuthOptions) {
     account: { modelName: 'accounts' },
     verification: { modelName: 'verifications' },
     emailAndPassword: { enabled: true, minPasswordLength: 10, autoSignIn: true },
-    rateLimit: { enabled: process.env.NODE_ENV === 'production', window: 60, max: 100 },
+    rateLimit: rateLimit
+      ? {
+          enabled: true,
+          ...rateLimit.other,
+          customRules: { '/sign-in/email': rateLimit.signIn, '/sign-up/email': rateLimit.signUp },
+        }
+      : { enabled: false },
     advanced: {
-      useSecureCookies: baseURL.startsWith('https://'),
+      // Secure (and the __Secure- prefix) whenever people reach us over HTTPS; never readable from scripts.
+      useSecureCookies: https,
+      defaultCookieAttributes: { httpOnly: true, sameSite: 'lax', secure: https },
+      ipAddress: { ipAddressHeaders: [clientAddressHeader] },
       database: { generateId: () => crypto.randomUUID() },
     },
     telemetry: { enabled: false },

@@ -7,6 +7,7 @@ import { createApp } from './app';
 import { readConfig } from './config';
 import { createMailer } from './mail';
 import { servicePayments, startLocalPayments } from './payments';
+import { defaultAuthRateLimit } from './security';
 
 const config = readConfig();
 const db = openDb(config.databasePath);
@@ -18,12 +19,13 @@ const devWebProxy = process.env.DEV_WEB_PROXY
     })
   : undefined;
 const mailer = createMailer({ db, smtpUrl: config.smtpUrl, from: config.mailFrom });
+const authRateLimit = config.authRateLimit ? defaultAuthRateLimit : false;
 
 async function main() {
   const pay = config.payments;
   const local = pay.kind === 'service' ? undefined : await startLocalPayments({ publicUrl: config.baseURL, port: pay.fakePort, currency: pay.currency });
   const payments = pay.kind === 'service' ? servicePayments(pay) : local!.payments;
-  const app = createApp({ db, baseURL: config.baseURL, secret: config.secret, webDir: config.webDir, devWebProxy, mailer, payments });
+  const app = createApp({ db, baseURL: config.baseURL, secret: config.secret, webDir: config.webDir, devWebProxy, mailer, payments, authRateLimit });
 
   const server = app.listen(config.port, () => {
     console.log(`Lobewright is serving ${config.baseURL} (database ${config.databasePath})`);

@@ -14,7 +14,7 @@ import type { ShopKind, ShopRole } from '@/shared/roles';
 export type TestApp = { app: App; db: Db; url: string; uploadsDir: string; paymentService: FakePaymentService; close: () => Promise<void> };
 
 /** A real app on an in-memory database, listening on a free loopback port. */
-export async function createTestApp(options: Pick<CreateAppOptions, 'calcRateLimit' | 'devTools' | 'shareRateLimit'> = {}): Promise<TestApp> {
+export async function createTestApp(options: Pick<CreateAppOptions, 'calcRateLimit' | 'devTools' | 'shareRateLimit' | 'authRateLimit'> = {}): Promise<TestApp> {
   const db = openDb(':memory:');
   const uploadsDir = fs.mkdtempSync(path.join(os.tmpdir(), 'lobewright-test-uploads-'));
   // The origin is only known after listening; sign-in checks it against the request's Origin header.
@@ -58,7 +58,7 @@ export class Client {
     const headers: Record<string, string> = { origin: this.baseUrl };
     const form = body instanceof FormData;
     if (body !== undefined && !form) headers['content-type'] = 'application/json';
-    if (this.cookies.size) headers.cookie = [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
+    if (this.cookies.size) headers.cookie = this.cookieHeader();
     const res = await fetch(this.baseUrl + path, {
       method,
       headers,
@@ -82,6 +82,9 @@ export class Client {
     return { status: res.status, body: json as Record<string, any> };
   }
 
+  /** The Cookie header this person's requests carry (for load tools that send their own requests). */
+  cookieHeader = () => [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
+
   get = (path: string) => this.request('GET', path);
   post = (path: string, body?: unknown) => this.request('POST', path, body ?? {});
   patch = (path: string, body?: unknown) => this.request('PATCH', path, body ?? {});
@@ -92,7 +95,7 @@ export class Client {
   /** The raw response, for files. */
   fetchRaw = (path: string) =>
     fetch(this.baseUrl + path, {
-      headers: { origin: this.baseUrl, cookie: [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ') },
+      headers: { origin: this.baseUrl, cookie: this.cookieHeader() },
     });
 }
 

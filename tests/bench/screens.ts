@@ -8,7 +8,6 @@
  *
  * Run: npm run bench. Exits 1 when a budget is missed.
  */
-import { execSync } from 'node:child_process';
 import fs from 'node:fs';
 import type { AddressInfo } from 'node:net';
 import path from 'node:path';
@@ -24,6 +23,8 @@ import { analyzeRecords } from '@/shared/analysis';
 import { engineSchema } from '@/shared/engine';
 import { profileSpecSchema } from '@/shared/profile';
 import { applyDraft } from '@/shared/profile-draft';
+
+import { ensureWebExport } from './web-export';
 
 const FRAME_BUDGET_MS = 16;
 const BUNDLE_BUDGET_KB = 510;
@@ -49,12 +50,7 @@ const p50 = times[Math.floor(times.length * 0.5)] ?? Infinity;
 const p95 = times[Math.floor(times.length * 0.95)] ?? Infinity;
 console.log(`edit to new plot paths: median ${p50.toFixed(2)} ms, p95 ${p95.toFixed(2)} ms (budget ${FRAME_BUDGET_MS} ms)`);
 
-const root = path.resolve(__dirname, '..', '..');
-const webDir = path.resolve(root, process.env.WEB_DIR || 'dist');
-if (!fs.existsSync(path.join(webDir, 'index.html'))) {
-  console.log('No web export yet: building it (npm run build)…');
-  execSync('npm run build', { cwd: root, stdio: 'inherit' });
-}
+const webDir = ensureWebExport();
 
 /** Serves the export, opens /sign-in in Chromium, and adds up the gzipped size of every script it fetched. */
 async function firstLoadKb(): Promise<number> {

@@ -1,3 +1,4 @@
+import fs from 'node:fs';
 import path from 'node:path';
 
 import { chromium, type Browser, type Page } from 'playwright-core';
@@ -32,6 +33,16 @@ export async function openPage(browser: Browser, viewport: ViewportName) {
   const page = await context.newPage();
   const errors: string[] = [];
   page.on('pageerror', (error) => errors.push(error.message));
+  // The app must run under the server's Content Security Policy: a violation fails the test like a page error.
+  // zod checks once, inside a try, whether the page may eval; that refusal is expected.
+  await page.addInitScript(() => {
+    document.addEventListener('securitypolicyviolation', (e) => {
+      if (e.blockedURI !== 'eval') console.error(`Content Security Policy violation: ${e.violatedDirective} blocked ${e.blockedURI}`);
+    });
+  });
+  page.on('console', (message) => {
+    if (message.type() === 'error' && message.text().startsWith('Content Security Policy violation')) errors.push(message.text());
+  });
   return { page, errors, close: () => context.close() };
 }
 
@@ -54,7 +65,8 @@ export async function screenshot(page: Page, name: string) {
 
 /** Runs axe-core in the page and fails on any serious or critical violation. */
 export async function expectAccessible(page: Page) {
-  await page.addScriptTag({ path: require.resolve('axe-core/axe.min.js') });
+  // Evaluated through the browser's debugging protocol: a script tag would be refused by the page's policy.
+  await page.evaluate(fs.readFileSync(require.resolve('axe-core/axe.min.js'), 'utf8'));
   const violations = await page.evaluate(async () => {
     const axe = (window as unknown as { axe: { run: (ctx: Document) => Promise<{ violations: { id: string; impact: string | null; help: string; nodes: { target: unknown }[] }[] }> } }).axe;
     const result = await axe.run(document);

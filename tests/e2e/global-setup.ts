@@ -1,41 +1,16 @@
-import { spawn, type ChildProcess } from 'node:child_process';
+import { spawn } from 'node:child_process';
 import fs from 'node:fs';
-import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
 
 import type { TestProject } from 'vitest/node';
 
+import { freePort, waitForHealth } from '@/tests/server-process';
+
 declare module 'vitest' {
   export interface ProvidedContext {
     baseUrl: string;
   }
-}
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const server = net.createServer();
-    server.once('error', reject);
-    server.listen(0, '127.0.0.1', () => {
-      const { port } = server.address() as net.AddressInfo;
-      server.close(() => resolve(port));
-    });
-  });
-}
-
-async function waitForHealth(url: string, child: ChildProcess, log: () => string, timeoutMs: number) {
-  const deadline = Date.now() + timeoutMs;
-  while (Date.now() < deadline) {
-    if (child.exitCode !== null) throw new Error(`The server exited (${child.exitCode}):\n${log()}`);
-    try {
-      const res = await fetch(`${url}/api/health`);
-      if (res.ok) return;
-    } catch {
-      // not listening yet
-    }
-    await new Promise((r) => setTimeout(r, 500));
-  }
-  throw new Error(`The server did not become healthy in ${timeoutMs} ms:\n${log()}`);
 }
 
 /** Starts `npm start` (build, migrate, seed, serve) on a free port and a temporary database. */
@@ -52,7 +27,8 @@ export default async function setup(project: TestProject) {
   let output = '';
   const child = spawn('npm', ['start'], {
     cwd: path.resolve(__dirname, '..', '..'),
-    env: { ...process.env, PORT: String(port), DATABASE_PATH: path.join(dir, 'e2e.sqlite'), NODE_ENV: 'test' },
+    // The suite signs in far more often than one address may in production.
+    env: { ...process.env, PORT: String(port), DATABASE_PATH: path.join(dir, 'e2e.sqlite'), NODE_ENV: 'test', AUTH_RATE_LIMIT: 'off' },
     stdio: ['ignore', 'pipe', 'pipe'],
     detached: true,
   });
