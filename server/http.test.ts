@@ -60,6 +60,15 @@ describe('answers to requests the routes never see', () => {
     }
   });
 
+  it('answers a body it cannot decompress or decode with an error that names the body', async () => {
+    const gzip = await send('/api/jobs', { method: 'POST', headers: { 'content-encoding': 'gzip' }, body: 'not gzip at all' });
+    expect(gzip.status).toBe(400);
+    expect(gzip.body.error).toMatchObject({ code: 'unreadable_body', fields: { '(body)': 'incorrect header check' } });
+    const charset = await send('/api/jobs', { method: 'POST', headers: { 'content-type': 'application/json; charset=klingon' }, body: '{}' });
+    expect(charset.status).toBe(415);
+    expect(charset.body.error).toMatchObject({ code: 'unreadable_body', fields: { '(body)': expect.stringContaining('charset') } });
+  });
+
   it('answers malformed JSON with a 400 that names the body', async () => {
     const res = await send('/api/jobs', { method: 'POST', body: '{"vehicle": ' });
     expect(res.status).toBe(400);

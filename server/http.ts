@@ -57,7 +57,7 @@ export function sendError(res: Response, error: HttpError) {
   res.status(error.status).json(body);
 }
 
-/** Express error handler: known errors keep their status; a malformed JSON body or path is a 400; everything else is a logged 500. */
+/** Express error handler: known errors keep their status; a malformed body or path is a 400 naming it; everything else is a logged 500. */
 export function errorHandler(error: unknown, _req: Request, res: Response, next: NextFunction) {
   if (res.headersSent) return next(error);
   if (error instanceof HttpError) return sendError(res, error);
@@ -71,6 +71,11 @@ export function errorHandler(error: unknown, _req: Request, res: Response, next:
   }
   if (type === 'entity.too.large') {
     return sendError(res, new HttpError(413, 'too_large', 'The body is too large'));
+  }
+  // The JSON parser's other refusals (a body it cannot decompress or decode) are about the body.
+  if (status === 400 || status === 415) {
+    const reason = (error as Error).message;
+    return sendError(res, new HttpError(status, 'unreadable_body', `The body could not be read: ${reason}`, { '(body)': reason }));
   }
   if (typeof status === 'number' && status >= 400 && status < 500) {
     return sendError(res, new HttpError(status, 'bad_request', (error as Error).message));
