@@ -102,4 +102,12 @@ describe('fuzzing every write route', { timeout: 60_000 * scale }, () => {
     }
     await fc.assert(fc.asyncProperty(nastyQuery, async (query) => expectClean(await send(who, route.method, `${url}?${query}`, valid))), { numRuns: runs.query });
   });
+
+  it('PATCH /api/measurements/:id on a lobe table (checked against the stored kind)', async () => {
+    const url = `/api/measurements/${w.a.lobesMeasurementId}`;
+    const stored = (await w.as['A.tech'].get(url)).body.measurement;
+    expect(stored.kind).toBe('lobes');
+    const seed = { version: stored.version, data: stored.data };
+    await fc.assert(fc.asyncProperty(mutatedBody(seed), async (text) => expectClean(await send('A.tech', 'PATCH', url, text))), { numRuns: runs.body });
+  });
 });

@@ -17,6 +17,8 @@ import { messageSchema, orderMoveSchema, orderStages } from '@/shared/orders';
 import { profileCreateSchema, profileLabelSchema, profileSpecSchema } from '@/shared/profile';
 import { sheetCreateSchema, sheetSaveSchema } from '@/shared/sheets';
 
+import { lobeTableRows } from './world';
+
 /** Keys that reach `Object.prototype` when code copies them carelessly. */
 export const pollutionKeys = ['__proto__', 'constructor', 'prototype'] as const;
 
@@ -298,9 +300,9 @@ const lineEnd = fc.constantFrom('\n', '\r\n', '\r');
 /** Lobe-table texts: a small valid table with a cell, row or header changed, or a table of odd cells. */
 export const lobeCsv: fc.Arbitrary<string> = fc.oneof(
   fc
-    .record({ row: fc.nat({ max: 8 }), col: fc.nat({ max: 2 }), cell: fc.oneof(lobeCell, lobeHeader), eol: lineEnd, bom: fc.boolean() })
+    .record({ row: fc.nat({ max: 9 }), col: fc.nat({ max: 2 }), cell: fc.oneof(lobeCell, lobeHeader), eol: lineEnd, bom: fc.boolean() })
     .map(({ row, col, cell, eol, bom }) => {
-      const rows = [['angle', '1I', '1E'], ...Array.from({ length: 8 }, (_, i) => [String(-40 + 10 * i), (0.02 * i).toFixed(3), (0.03 * i).toFixed(3)])];
+      const rows = lobeTableRows();
       rows[row]![col] = cell;
       return `${bom ? '\uFEFF' : ''}${rows.map((r) => r.join(',')).join(eol)}${eol}`;
     }),

@@ -84,7 +84,15 @@ export const matrix: Record<string, MatrixRow> = {
     body: () => formWith([['file', 'lobes.csv', lobeCsvText(), 'text/csv']]),
   },
   'GET /api/measurements/:id': { allow: shopAReaders, params: (w) => ({ id: w.a.measurementId }) },
-  'PATCH /api/measurements/:id': { allow: shopAReaders, params: (w) => ({ id: w.a.measurementId }), body: () => ({ version: 1, note: 'Rechecked' }) },
+  'PATCH /api/measurements/:id': {
+    allow: shopAReaders,
+    params: (w) => ({ id: w.a.measurementId }),
+    body: () => ({
+      version: 1,
+      note: 'Rechecked',
+      data: { method: 'checking-springs', intake: [{ crankAngle: -8, clearance: 0.21, valveLift: 0.05 }], exhaust: [{ crankAngle: 8, clearance: 0.19 }] },
+    }),
+  },
   'DELETE /api/measurements/:id': { allow: shopAReaders, params: (w) => ({ id: w.a.measurementId }) },
 
   'GET /api/jobs/:jobId/photos': { allow: shopAReaders, params: job },

@@ -2,7 +2,6 @@ import { createHash } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 
-import { demoLobesFile } from '@/db/demo-lobes';
 import type { Db } from '@/db';
 import {
   Client,
@@ -59,6 +58,7 @@ export type World = {
     orderId: string;
     orderVersion: number;
     measurementId: string;
+    lobesMeasurementId: string;
     photoId: string;
     checklistItemId: string;
     outboxId: string;
@@ -98,7 +98,12 @@ export const PNG = (() => {
   return out;
 })();
 
-export const lobeCsvText = () => fs.readFileSync(demoLobesFile, 'utf8');
+/** A small lobe table (invented readings): crank angle and two lobes, nine rows. */
+export const lobeTableRows = (): string[][] => [
+  ['angle', '1I', '1E'],
+  ...Array.from({ length: 9 }, (_, i) => [String(-40 + 10 * i), (0.07 * (4 - Math.abs(4 - i))).toFixed(3), (0.068 * (4 - Math.abs(4 - i))).toFixed(3)]),
+];
+export const lobeCsvText = () => `${lobeTableRows().map((r) => r.join(',')).join('\n')}\n`;
 
 function expectStatus(res: { status: number; body: unknown }, status: number, what: string) {
   if (res.status !== status) throw new Error(`${what}: ${res.status} ${JSON.stringify(res.body)}`);
@@ -175,6 +180,7 @@ export async function buildWorld(): Promise<World> {
     orderId,
     orderVersion: issue.body.order.version as number,
     measurementId: measurement.body.measurement.id as string,
+    lobesMeasurementId: lobes.body.measurement.id as string,
     photoId: photo.body.photos[0].id as string,
     checklistItemId: item.body.item.id as string,
     outboxId: outbox.body.messages[0].id as string,
