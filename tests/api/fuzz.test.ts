@@ -10,9 +10,11 @@ import { isApiPath, routeTable, type ApiRoute } from './routes';
 import { buildWorld, isolated, type Actor, type World } from './world';
 
 const writeMethods = ['POST', 'PATCH', 'PUT', 'DELETE'];
-const writeRoutes = routeTable(
+const apiRoutes = routeTable(
   createApp({ db: openDb(':memory:'), baseURL: 'http://127.0.0.1', secret: 'test-secret-test-secret-test-secret', devTools: true }),
-).routes.filter((r) => isApiPath(r.path) && !notInMatrix.some((e) => r.path.startsWith(e.prefix)) && writeMethods.includes(r.method));
+).routes.filter((r) => isApiPath(r.path) && !notInMatrix.some((e) => r.path.startsWith(e.prefix)));
+const writeRoutes = apiRoutes.filter((r) => writeMethods.includes(r.method));
+const readRoutes = apiRoutes.filter((r) => r.method === 'GET');
 
 /** Multipart routes and what generates their forms. */
 const uploads: Record<string, fc.Arbitrary<Upload>> = {
@@ -51,12 +53,12 @@ async function send(who: Actor, method: string, url: string, body: unknown, head
   });
 }
 
-/** The first allowed actor whose valid request succeeds: the fuzz then reaches validation and the write itself. */
+/** The first allowed actor whose valid request succeeds: the fuzz then reaches validation and the route's work itself. */
 async function writer(route: ApiRoute): Promise<{ who: Actor; url: string; seed: (who: Actor) => unknown }> {
   const row = matrix[route.key];
   if (!row) throw new Error(`No matrix row for ${route.key}: add one to tests/api/matrix.ts`);
   const url = fillPath(route.path, row.params?.(w) ?? {});
-  const seed = (who: Actor) => row.body?.(w, who) ?? (route.method === 'DELETE' ? undefined : {});
+  const seed = (who: Actor) => row.body?.(w, who) ?? (route.method === 'DELETE' || route.method === 'GET' ? undefined : {});
   for (const who of row.allow) {
     const { status } = await send(who, route.method, url, seed(who));
     if (status >= 200 && status < 300) return { who, url, seed };
@@ -67,6 +69,22 @@ async function writer(route: ApiRoute): Promise<{ who: Actor; url: string; seed:
 const expectClean = ({ problems }: { problems: string[] }) => {
   expect(problems).toEqual([]);
 };
+
+/** Odd path parameters (one at a time, the others valid) and odd query strings, with the valid body. */
+async function fuzzAddress(route: ApiRoute, who: Actor, url: string, body: unknown, numRuns: { param: number; query: number }) {
+  const names = [...route.path.matchAll(/:(\w+)/g)].map((m) => m[1]!);
+  if (names.length) {
+    const params = matrix[route.key]!.params?.(w) ?? {};
+    await fc.assert(
+      fc.asyncProperty(fc.constantFrom(...names), nastyParam, async (name, value) => {
+        const odd = route.path.replace(/:(\w+)/g, (_m, n: string) => (n === name ? value : encodeURIComponent(params[n]!)));
+        expectClean(await send(who, route.method, odd, body));
+      }),
+      { numRuns: numRuns.param },
+    );
+  }
+  await fc.assert(fc.asyncProperty(nastyQuery, async (query) => expectClean(await send(who, route.method, `${url}?${query}`, body))), { numRuns: numRuns.query });
+}
 
 describe('fuzzing every write route', { timeout: 60_000 * scale }, () => {
   it('covers every write route of the app', () => {
@@ -89,18 +107,7 @@ describe('fuzzing every write route', { timeout: 60_000 * scale }, () => {
       const text = JSON.stringify(jsonSeed);
       await fc.assert(fc.asyncProperty(bodyHeaders, async (headers) => expectClean(await send(who, route.method, url, text, headers))), { numRuns: runs.headers });
     }
-    const names = [...route.path.matchAll(/:(\w+)/g)].map((m) => m[1]!);
-    if (names.length) {
-      const params = matrix[key]!.params?.(w) ?? {};
-      await fc.assert(
-        fc.asyncProperty(fc.constantFrom(...names), nastyParam, async (name, value) => {
-          const odd = route.path.replace(/:(\w+)/g, (_m, n: string) => (n === name ? value : encodeURIComponent(params[n]!)));
-          expectClean(await send(who, route.method, odd, valid));
-        }),
-        { numRuns: runs.param },
-      );
-    }
-    await fc.assert(fc.asyncProperty(nastyQuery, async (query) => expectClean(await send(who, route.method, `${url}?${query}`, valid))), { numRuns: runs.query });
+    await fuzzAddress(route, who, url, valid, runs);
   });
 
   it('PATCH /api/measurements/:id on a lobe table (checked against the stored kind)', async () => {
@@ -109,5 +116,12 @@ describe('fuzzing every write route', { timeout: 60_000 * scale }, () => {
     expect(stored.kind).toBe('lobes');
     const seed = { version: stored.version, data: stored.data };
     await fc.assert(fc.asyncProperty(mutatedBody(seed), async (text) => expectClean(await send('A.tech', 'PATCH', url, text))), { numRuns: runs.body });
+  });
+});
+
+describe('odd addresses on every read route', { timeout: 60_000 * scale }, () => {
+  it.each(readRoutes.map((r) => [r.key, r] as const))('%s', async (_key, route) => {
+    const { who, url } = await writer(route);
+    await fuzzAddress(route, who, url, undefined, { param: 3 * scale, query: 3 * scale });
   });
 });
