@@ -1,18 +1,13 @@
 import * as fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import { openDb } from '@/db';
-import { createApp } from '@/server/app';
-
 import { bodyHeaders, errorShapeProblems, invalidStoredRows, lobeUpload, malformedJson, mutatedBody, nastyParam, nastyQuery, photoUpload, prototypeShape, toForm, type Upload } from './fuzz';
-import { fillPath, matrix, notInMatrix } from './matrix';
-import { isApiPath, routeTable, type ApiRoute } from './routes';
+import { appRoutes, fillPath, matrix } from './matrix';
+import type { ApiRoute } from './routes';
 import { buildWorld, isolated, type Actor, type World } from './world';
 
 const writeMethods = ['POST', 'PATCH', 'PUT', 'DELETE'];
-const apiRoutes = routeTable(
-  createApp({ db: openDb(':memory:'), baseURL: 'http://127.0.0.1', secret: 'test-secret-test-secret-test-secret', devTools: true }),
-).routes.filter((r) => isApiPath(r.path) && !notInMatrix.some((e) => r.path.startsWith(e.prefix)));
+const apiRoutes = appRoutes().api;
 const writeRoutes = apiRoutes.filter((r) => writeMethods.includes(r.method));
 const readRoutes = apiRoutes.filter((r) => r.method === 'GET');
 

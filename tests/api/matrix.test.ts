@@ -3,19 +3,13 @@ import path from 'node:path';
 
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import { openDb } from '@/db';
-import { createApp } from '@/server/app';
+import { apiMiddleware, appRoutes, fillPath, matrix, notCalled, type MatrixRow } from './matrix';
+import { isApiPath, type ApiRoute } from './routes';
+import { actors, buildWorld, isolated, shopAMembers, type Actor, type World } from './world';
 
-import { apiMiddleware, fillPath, matrix, notInMatrix, type MatrixRow } from './matrix';
-import { isApiPath, routeTable, type ApiRoute } from './routes';
-import { actors, buildWorld, isolated, type Actor, type World } from './world';
-
-/** The app's own route table: every API route it registers, as `createApp` builds it with the development tools on. */
-const table = routeTable(
-  createApp({ db: openDb(':memory:'), baseURL: 'http://127.0.0.1', secret: 'test-secret-test-secret-test-secret', devTools: true }),
-);
-const exempt = (path: string) => notInMatrix.some((e) => path.startsWith(e.prefix));
-const apiRoutes = table.routes.filter((r) => isApiPath(r.path) && !exempt(r.path));
+/** The app's own route table: every API route it registers, with the development tools on. */
+const table = appRoutes();
+const apiRoutes = table.api;
 
 describe('the route table', () => {
   it('is read from the app itself, nested routers included', () => {
@@ -23,7 +17,7 @@ describe('the route table', () => {
     expect(keys).toContain('GET /api/health');
     expect(keys).toContain('PATCH /api/jobs/:id');
     expect(keys).toContain('POST /api/orders/:id/move');
-    expect(table.routes.map((r) => r.key)).toContain('POST /api/auth/{*splat}');
+    expect(table.all.map((r) => r.key)).toContain('POST /api/auth/{*splat}');
   });
 
   it.each(apiRoutes.map((r) => [r.key]))('%s has a row in tests/api/matrix.ts', (key) => {
@@ -37,17 +31,15 @@ describe('the route table', () => {
 
   it('lists every plain middleware under /api, so nothing answers requests outside a route', () => {
     const unknown = table.middleware
-      .filter((m) => isApiPath(m.path) && !exempt(`${m.path}/`))
+      .filter((m) => isApiPath(m.path) && !notCalled(`${m.path}/`))
       .filter((m) => !apiMiddleware.some((known) => known.path === m.path && known.name === m.name))
       .map((m) => `${m.name} at ${m.path}`);
     expect(unknown, 'Make it a route with a matrix row, or list it in apiMiddleware in tests/api/matrix.ts').toEqual([]);
   });
 
   it('leaves the development mailbox out in production', () => {
-    const production = routeTable(
-      createApp({ db: openDb(':memory:'), baseURL: 'http://127.0.0.1', secret: 'test-secret-test-secret-test-secret', devTools: false }),
-    );
-    expect(production.routes.filter((r) => r.path.startsWith('/api/dev/'))).toEqual([]);
+    const production = appRoutes(false);
+    expect(production.all.filter((r) => r.path.startsWith('/api/dev/'))).toEqual([]);
   });
 });
 
@@ -95,7 +87,7 @@ async function tryRoute(route: ApiRoute, row: MatrixRow, who: Actor): Promise<{ 
 }
 
 /** People whose allowed calls may change shop A's rows: its members, and the grinder its order went to. */
-const insidersOfA: Actor[] = ['A.builder', 'A.tech', 'A.grinder', 'A.customer', 'G1.grinder'];
+const insidersOfA: Actor[] = [...shopAMembers, 'G1.grinder'];
 
 describe('the isolation each call runs in', () => {
   it("sees a change to the database, to shop A's rows and to the files, and undoes all of them", async () => {

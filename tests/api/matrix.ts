@@ -1,6 +1,10 @@
+import { openDb } from '@/db';
+import { createApp } from '@/server/app';
 import { formWith, makeEngineSpec, makeJobBody, makeProfileBody, makeProfileSpec } from '@/tests/fixtures';
 
-import { actors, lobeCsvText, PNG, shopAReaders, type Actor, type World } from './world';
+import { isApiPath, routeTable } from './routes';
+
+import { actors, lobeCsvText, PNG, shopAMembers, shopAReaders, type Actor, type World } from './world';
 
 /**
  * One row per API route: who gets through, and a request that succeeds for them.
@@ -19,7 +23,6 @@ export type MatrixRow = {
 };
 
 const signedIn = actors.filter((a) => a !== 'anonymous');
-const shopAMembers: Actor[] = ['A.builder', 'A.tech', 'A.grinder', 'A.customer'];
 /** Builder and tech of each repair shop (job read and measurement read/write, each in their own shop). */
 const bothShopsReaders: Actor[] = [...shopAReaders, 'B.builder', 'B.tech'];
 const bothBuilders: Actor[] = ['A.builder', 'B.builder'];
@@ -169,4 +172,16 @@ export function fillPath(path: string, params: Record<string, string>): string {
     if (value === undefined) throw new Error(`The matrix row for ${path} has no value for :${name}`);
     return encodeURIComponent(value);
   });
+}
+
+/** True for paths the matrix leaves to another suite (see `notInMatrix`). */
+export const notCalled = (path: string) => notInMatrix.some((e) => path.startsWith(e.prefix));
+
+/**
+ * The route table of the app as `createApp` builds it (the development tools on unless asked otherwise):
+ * every API route the matrix must have a row for, and all plain middleware.
+ */
+export function appRoutes(devTools = true) {
+  const table = routeTable(createApp({ db: openDb(':memory:'), baseURL: 'http://127.0.0.1', secret: 'test-secret-test-secret-test-secret', devTools }));
+  return { all: table.routes, api: table.routes.filter((r) => isApiPath(r.path) && !notCalled(r.path)), middleware: table.middleware };
 }

@@ -32,7 +32,8 @@ export type Actor = (typeof actors)[number];
 
 /** Shop A's builder and tech: the people who read A's jobs. */
 export const shopAReaders: Actor[] = ['A.builder', 'A.tech'];
-const shopAMembers: Actor[] = ['A.builder', 'A.tech', 'A.grinder', 'A.customer'];
+/** Every role of shop A. */
+export const shopAMembers: Actor[] = ['A.builder', 'A.tech', 'A.grinder', 'A.customer'];
 /** A's readers and the grinder A's sheet was issued to: who may see what travels with the order. */
 const orderReaders: Actor[] = [...shopAReaders, 'G1.grinder'];
 
