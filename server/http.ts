@@ -20,18 +20,24 @@ export const forbidden = (message = 'Your role in this shop cannot do that') =>
   new HttpError(403, 'forbidden', message);
 export const conflict = (message: string) => new HttpError(409, 'conflict', message);
 
+/** A field's dotted path; an empty key shows as `""` so the name is never blank. */
+const fieldPath = (path: PropertyKey[]) => (path.length ? path.map((p) => (p === '' ? '""' : String(p))).join('.') : '(body)');
+
 /** Turns zod issues into `{ "a.b": "message" }`, keeping the first message per field. */
 export function fieldsFromZod(error: z.ZodError): Record<string, string> {
-  const fields: Record<string, string> = {};
+  // A Map, not an object: a client may send keys named `__proto__` or `constructor`.
+  const fields = new Map<string, string>();
+  const add = (key: string, message: string) => {
+    if (!fields.has(key)) fields.set(key, message);
+  };
   for (const issue of error.issues) {
-    const key = issue.path.length ? issue.path.map(String).join('.') : '(body)';
     if (issue.code === 'unrecognized_keys') {
-      for (const extra of issue.keys) fields[[...issue.path, extra].join('.')] ??= 'Unknown field';
+      for (const extra of issue.keys) add(fieldPath([...issue.path, extra]), 'Unknown field');
       continue;
     }
-    fields[key] ??= issue.message;
+    add(fieldPath(issue.path), issue.message);
   }
-  return fields;
+  return Object.fromEntries(fields);
 }
 
 /** Parses `value` with `schema`, or throws a 400 that names every bad field. */
@@ -51,7 +57,7 @@ export function sendError(res: Response, error: HttpError) {
   res.status(error.status).json(body);
 }
 
-/** Express error handler: known errors keep their status; a malformed JSON body is a 400; everything else is a logged 500. */
+/** Express error handler: known errors keep their status; a malformed body or path is a 400 naming it; everything else is a logged 500. */
 export function errorHandler(error: unknown, _req: Request, res: Response, next: NextFunction) {
   if (res.headersSent) return next(error);
   if (error instanceof HttpError) return sendError(res, error);
@@ -60,8 +66,16 @@ export function errorHandler(error: unknown, _req: Request, res: Response, next:
   if (type === 'entity.parse.failed') {
     return sendError(res, new HttpError(400, 'invalid_json', 'The body is not valid JSON', { '(body)': 'Not valid JSON' }));
   }
+  if (error instanceof URIError && status === 400) {
+    return sendError(res, new HttpError(400, 'invalid_path', `The address has a broken %-escape: ${error.message}`, { '(path)': error.message }));
+  }
   if (type === 'entity.too.large') {
     return sendError(res, new HttpError(413, 'too_large', 'The body is too large'));
+  }
+  // The JSON parser's other refusals (a body it cannot decompress or decode) are about the body.
+  if (status === 400 || status === 415) {
+    const reason = (error as Error).message;
+    return sendError(res, new HttpError(status, 'unreadable_body', `The body could not be read: ${reason}`, { '(body)': reason }));
   }
   if (typeof status === 'number' && status >= 400 && status < 500) {
     return sendError(res, new HttpError(status, 'bad_request', (error as Error).message));

@@ -64,19 +64,47 @@ export const degreeSchema = z.strictObject({
     .default([]),
 });
 
-/** Measured lobes from an uploaded table. */
+/** Lobe-table CSV upload (`POST /api/jobs/:jobId/measurements/lobes`, multipart field `file`); lift in inches. */
+export const lobeCsvLimits = { maxBytes: 1024 * 1024, minRows: 5, maxLift: 1.5 } as const;
+
+/** One lobe's readings: crank degrees, strictly increasing; tappet lift in inches. */
+const lobeReadings = z
+  .array(
+    z.strictObject({
+      angle: z.number({ error: 'Angle must be a number in crank degrees' }).refine(Number.isFinite, 'Angle must be a finite number'),
+      lift: measure('Lift', 'in', 0, lobeCsvLimits.maxLift),
+    }),
+  )
+  .min(lobeCsvLimits.minRows)
+  .max(1440)
+  .superRefine((points, ctx) => {
+    const back = points.findIndex((p, i) => i > 0 && !(p.angle > points[i - 1]!.angle));
+    if (back > 0) {
+      ctx.addIssue({ code: 'custom', path: [back, 'angle'], message: `Angles must increase: ${points[back]!.angle} does not come after ${points[back - 1]!.angle}` });
+    }
+  });
+
+/** Measured lobes from an uploaded table: every lobe named once and read at the same angles, as the CSV upload stores them. */
 export const lobesSchema = z.strictObject({
   basis: z.enum(['crank', 'cam']),
   fileName: z.string().max(200),
   lobes: z
     .array(
       z.strictObject({
-        id: z.string().regex(/^\d{1,2}[IE]$/, 'Lobe names are cylinder number and I or E, e.g. 3E'),
-        points: z.array(z.strictObject({ angle: z.number(), lift: z.number() })).min(5).max(1440),
+        id: z.string().regex(/^([1-9]|1[0-6])[IE]$/, 'Lobe names are cylinder number (1 to 16) and I or E, e.g. 3E'),
+        points: lobeReadings,
       }),
     )
     .min(1)
-    .max(32),
+    .max(32)
+    .superRefine((lobes, ctx) => {
+      const [first] = lobes;
+      lobes.forEach((lobe, i) => {
+        if (lobes.findIndex((l) => l.id === lobe.id) < i) ctx.addIssue({ code: 'custom', path: [i, 'id'], message: `${lobe.id} is named twice` });
+        const sameAngles = lobe.points.length === first?.points.length && lobe.points.every((p, j) => p.angle === first.points[j]?.angle);
+        if (!sameAngles) ctx.addIssue({ code: 'custom', path: [i, 'points'], message: `Read every lobe at the same angles as ${first?.id}` });
+      });
+    }),
 });
 
 export const measurementKinds = ['ptv-baseline', 'springs', 'pushrod', 'degree', 'lobes'] as const;
@@ -141,8 +169,6 @@ export const photoPatchSchema = z.strictObject({
   shareable: z.boolean().optional(),
 });
 
-/** Lobe-table CSV upload (`POST /api/jobs/:jobId/measurements/lobes`, multipart field `file`). */
-export const lobeCsvLimits = { maxBytes: 1024 * 1024, minRows: 5 } as const;
 
 /** The job checklist. */
 export const checklistAddSchema = z.strictObject({ label: z.string().trim().min(1, 'Write the item').max(200, 'Keep it under 200 characters') });

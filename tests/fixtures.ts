@@ -54,10 +54,12 @@ export class Client {
   private cookies = new Map<string, string>();
   constructor(readonly baseUrl: string) {}
 
-  async request(method: string, path: string, body?: unknown) {
+  /** `extraHeaders` replace the ones set here (e.g. another content-type). */
+  async request(method: string, path: string, body?: unknown, extraHeaders: Record<string, string> = {}) {
     const headers: Record<string, string> = { origin: this.baseUrl };
     const form = body instanceof FormData;
     if (body !== undefined && !form) headers['content-type'] = 'application/json';
+    Object.assign(headers, extraHeaders);
     if (this.cookies.size) headers.cookie = this.cookieHeader();
     const res = await fetch(this.baseUrl + path, {
       method,

@@ -162,6 +162,29 @@ describe('lobe table upload', () => {
     expect(top('2E') - top('3E')).toBeLessThan(0.014);
   });
 
+  it('refuses a PATCH of a lobe table that the upload would refuse, naming the field, and keeps the stored table', async () => {
+    const { founder, jobId } = await shopWithJob();
+    const up = await founder.upload(`/api/jobs/${jobId}/measurements/lobes`, csv(lobeRows(6)));
+    expect(up.status).toBe(201);
+    const { id, data } = up.body.measurement as { id: string; data: { lobes: { id: string; points: { angle: number; lift: number }[] }[] } };
+    const [intake, exhaust] = data.lobes as [(typeof data.lobes)[number], (typeof data.lobes)[number]];
+    const withLobes = (lobes: unknown) => ({ version: 1, data: { ...data, lobes } });
+    const cases: [string, unknown, string][] = [
+      ['angles going back', [{ ...intake, points: [...intake.points].reverse() }, exhaust], 'data.lobes.0.points.1.angle'],
+      ['lift in millimetres', [intake, { ...exhaust, points: exhaust.points.map((p) => ({ ...p, lift: p.lift * 25.4 + 2 })) }], 'data.lobes.1.points.0.lift'],
+      ['negative lift', [{ ...intake, points: intake.points.map((p) => ({ ...p, lift: -0.1 })) }, exhaust], 'data.lobes.0.points.0.lift'],
+      ['a lobe named twice', [intake, { ...exhaust, id: intake.id }], 'data.lobes.1.id'],
+      ['cylinder 17', [intake, { ...exhaust, id: '17E' }], 'data.lobes.1.id'],
+      ['lobes read at other angles', [intake, { ...exhaust, points: exhaust.points.map((p) => ({ ...p, angle: p.angle + 1 })) }], 'data.lobes.1.points'],
+    ];
+    for (const [what, lobes, field] of cases) {
+      const res = await founder.patch(`/api/measurements/${id}`, withLobes(lobes));
+      expect(res.status, what).toBe(400);
+      expect(Object.keys(res.body.error.fields), what).toContain(field);
+    }
+    expect((await founder.get(`/api/measurements/${id}`)).body.measurement).toMatchObject({ version: 1, data });
+  });
+
   it('doubles cam_angle to crank degrees and accepts lower-case lobe names', async () => {
     const { founder, jobId } = await shopWithJob();
     const rows = ['cam_angle,3e', '-10,0', '-5,0.1', '0,0.3', '5,0.1', '10,0', '', ''];

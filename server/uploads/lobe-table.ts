@@ -18,7 +18,7 @@ import { HttpError } from '../http';
 export type LobeTable = MeasurementData['lobes'];
 
 const MAX_REPORTED = 20;
-const MAX_LIFT = 1.5;
+const MAX_LIFT = lobeCsvLimits.maxLift;
 const LOBE_NAME = /^(\d{1,2})([IE])$/;
 
 class Problems {

@@ -1,0 +1,187 @@
+import { openDb } from '@/db';
+import { createApp } from '@/server/app';
+import { formWith, makeEngineSpec, makeJobBody, makeProfileBody, makeProfileSpec } from '@/tests/fixtures';
+
+import { isApiPath, routeTable } from './routes';
+
+import { actors, lobeCsvText, PNG, shopAMembers, shopAReaders, type Actor, type World } from './world';
+
+/**
+ * One row per API route: who gets through, and a request that succeeds for them.
+ * Everyone not in `allow` must get 401 (anonymous) or 403/404, with the database,
+ * the uploads folder and every response free of shop A's records.
+ */
+export type MatrixRow = {
+  /** Who passes authorization (answers 2xx, or 409 for a stale version or an illegal move). */
+  allow: readonly Actor[];
+  /** Path parameters, by name, from the world's records. */
+  params?: (w: World) => Record<string, string>;
+  /** The body an allowed actor sends: JSON, or a FormData for uploads. */
+  body?: (w: World, who: Actor) => unknown;
+  /** Why the row may show shop A's records to people outside it. */
+  showsEveryone?: string;
+};
+
+const signedIn = actors.filter((a) => a !== 'anonymous');
+/** Builder and tech of each repair shop (job read and measurement read/write, each in their own shop). */
+const bothShopsReaders: Actor[] = [...shopAReaders, 'B.builder', 'B.tech'];
+const bothBuilders: Actor[] = ['A.builder', 'B.builder'];
+const builderA: Actor[] = ['A.builder'];
+const orderReaders: Actor[] = [...shopAReaders, 'G1.grinder'];
+
+const job = (w: World) => ({ jobId: w.a.jobId });
+const sheet = (w: World) => ({ id: w.a.sheetId });
+const order = (w: World) => ({ id: w.a.orderId });
+
+/**
+ * The expected table. Add a row for every new route, keyed `METHOD /path` exactly as
+ * the app registers it (the suite names any route without a row).
+ */
+export const matrix: Record<string, MatrixRow> = {
+  'GET /api/health': { allow: actors },
+
+  'GET /api/me': { allow: signedIn },
+  'POST /api/me/active-shop': { allow: shopAMembers, body: (w) => ({ shopId: w.a.shopId }) },
+  'POST /api/shops': { allow: signedIn, body: () => ({ name: 'Test Shop C', kind: 'repair' }) },
+
+  'GET /api/jobs': { allow: bothShopsReaders },
+  'POST /api/jobs': { allow: bothBuilders, body: () => makeJobBody() },
+  'GET /api/jobs/:id': { allow: shopAReaders, params: (w) => ({ id: w.a.jobId }) },
+  'PATCH /api/jobs/:id': {
+    allow: builderA,
+    params: (w) => ({ id: w.a.jobId }),
+    body: (w) => ({ version: w.a.jobVersion, findings: 'Lobe 3E galled' }),
+  },
+
+  'GET /api/jobs/:jobId/engine': { allow: shopAReaders, params: job },
+  'PUT /api/jobs/:jobId/engine': { allow: builderA, params: job, body: () => ({ version: 1, engine: makeEngineSpec({ chamberCc: 70 }) }) },
+
+  'GET /api/profiles': { allow: bothShopsReaders },
+  'POST /api/profiles': { allow: bothBuilders, body: () => makeProfileBody({ label: 'Test stock grind' }) },
+  'GET /api/profiles/:id': { allow: shopAReaders, params: (w) => ({ id: w.a.libraryProfileId }) },
+  'PATCH /api/profiles/:id': { allow: builderA, params: (w) => ({ id: w.a.libraryProfileId }), body: () => ({ version: 1, coreNotes: 'Core checked' }) },
+  'DELETE /api/profiles/:id': { allow: builderA, params: (w) => ({ id: w.a.libraryProfileId }) },
+  'GET /api/jobs/:jobId/profiles': { allow: shopAReaders, params: job },
+  'POST /api/jobs/:jobId/profiles': { allow: builderA, params: job, body: (w) => ({ fromProfileId: w.a.libraryProfileId }) },
+
+  'GET /api/jobs/:jobId/sheets': { allow: shopAReaders, params: job },
+  'POST /api/jobs/:jobId/sheets': { allow: builderA, params: job, body: (w) => ({ title: 'Test second sheet', profileId: w.a.jobProfileId }) },
+  'GET /api/sheets/:id': { allow: shopAReaders, params: sheet },
+  'PATCH /api/sheets/:id': {
+    allow: builderA,
+    params: sheet,
+    body: (w) => ({ version: w.a.sheetVersion, spec: makeProfileSpec({ icl: 108 }) }),
+  },
+
+  'POST /api/calc/analyze': { allow: signedIn, body: () => ({ engine: makeEngineSpec(), profiles: [makeProfileSpec()], curves: false }) },
+
+  'GET /api/jobs/:jobId/measurements': { allow: shopAReaders, params: job },
+  'POST /api/jobs/:jobId/measurements': {
+    allow: shopAReaders,
+    params: job,
+    body: () => ({ kind: 'pushrod', data: { checkingLength: 7.35, plungerTravel: 0.12, targetPreload: 0.045, stockBaseCircle: 1.25 } }),
+  },
+  'POST /api/jobs/:jobId/measurements/lobes': {
+    allow: shopAReaders,
+    params: job,
+    body: () => formWith([['file', 'lobes.csv', lobeCsvText(), 'text/csv']]),
+  },
+  'GET /api/measurements/:id': { allow: shopAReaders, params: (w) => ({ id: w.a.measurementId }) },
+  'PATCH /api/measurements/:id': {
+    allow: shopAReaders,
+    params: (w) => ({ id: w.a.measurementId }),
+    body: () => ({
+      version: 1,
+      note: 'Rechecked',
+      data: { method: 'checking-springs', intake: [{ crankAngle: -8, clearance: 0.21, valveLift: 0.05 }], exhaust: [{ crankAngle: 8, clearance: 0.19 }] },
+    }),
+  },
+  'DELETE /api/measurements/:id': { allow: shopAReaders, params: (w) => ({ id: w.a.measurementId }) },
+
+  'GET /api/jobs/:jobId/photos': { allow: shopAReaders, params: job },
+  'POST /api/jobs/:jobId/photos': { allow: shopAReaders, params: job, body: () => formWith([['photos', 'lobe.png', PNG, 'image/png']]) },
+  'GET /api/photos/:id/file': { allow: shopAReaders, params: (w) => ({ id: w.a.photoId }) },
+  'PATCH /api/photos/:id': { allow: shopAReaders, params: (w) => ({ id: w.a.photoId }), body: () => ({ shareable: true }) },
+  'DELETE /api/photos/:id': { allow: shopAReaders, params: (w) => ({ id: w.a.photoId }) },
+
+  'GET /api/jobs/:jobId/checklist': { allow: shopAReaders, params: job },
+  'POST /api/jobs/:jobId/checklist': { allow: shopAReaders, params: job, body: () => ({ label: 'Oil primed' }) },
+  'PATCH /api/checklist/:id': { allow: shopAReaders, params: (w) => ({ id: w.a.checklistItemId }), body: () => ({ done: true }) },
+  'DELETE /api/checklist/:id': { allow: shopAReaders, params: (w) => ({ id: w.a.checklistItemId }) },
+
+  'GET /api/shop/limits': { allow: bothShopsReaders },
+  'PUT /api/shop/limits': {
+    allow: bothBuilders,
+    // Each builder saves their own shop's limits: A saved once already, B never.
+    body: (w, who) => ({ version: who === 'A.builder' ? w.a.limitsVersion : 0, limits: { coilBind: { min: 0.05 } } }),
+  },
+
+  'GET /api/sheets/:id/fit-checks': { allow: shopAReaders, params: sheet },
+  'POST /api/sheets/:id/fit-checks': { allow: shopAReaders, params: sheet },
+
+  'GET /api/grinding-shops': { allow: bothBuilders },
+  'POST /api/sheets/:id/issue': {
+    allow: builderA,
+    params: (w) => ({ id: w.a.draftSheetId }),
+    body: (w) => ({ version: w.a.draftSheetVersion, grinderShopId: w.g2.shopId }),
+  },
+  'GET /api/sheets/:id/orders': { allow: shopAReaders, params: sheet },
+  'GET /api/incoming': { allow: ['G1.grinder', 'G2.grinder'] },
+  'GET /api/orders/:id': { allow: orderReaders, params: order },
+  'POST /api/orders/:id/move': {
+    // The grinder quotes; A's builder is on the order but may not quote (409 illegal move); a tech may not move (403).
+    allow: ['A.builder', 'G1.grinder'],
+    params: order,
+    body: (w) => ({ version: w.a.orderVersion, to: 'quoted', quote: { priceCents: 18_500, leadTimeDays: 6 } }),
+  },
+  'GET /api/orders/:id/messages': { allow: orderReaders, params: order },
+  'POST /api/orders/:id/messages': { allow: orderReaders, params: order, body: () => ({ body: 'Core is at the counter' }) },
+
+  'GET /api/dev/outbox': {
+    allow: signedIn,
+    showsEveryone: 'the development mailbox shows every kept mail to anyone signed in; it is not mounted in production',
+  },
+  'GET /api/dev/outbox/:id': {
+    allow: signedIn,
+    params: (w) => ({ id: w.a.outboxId }),
+    showsEveryone: 'the development mailbox shows every kept mail to anyone signed in; it is not mounted in production',
+  },
+};
+
+/**
+ * Routes the matrix does not call, each with the reason. better-auth answers
+ * everything under /api/auth itself (sign-up, sign-in, sessions), with its own tests.
+ */
+export const notInMatrix: { prefix: string; why: string }[] = [
+  { prefix: '/api/auth/', why: "better-auth's own routes (sign-up, sign-in, sign-out, sessions)" },
+];
+
+/**
+ * Plain middleware under /api (not a route or a router): each answers no request of
+ * its own, or only the API's 404. A new one must be made a route, or listed here with why.
+ */
+export const apiMiddleware: { path: string; name: string; why: string }[] = [
+  { path: '/api', name: 'jsonParser', why: 'parses JSON bodies, answers nothing itself (malformed JSON goes to the error handler)' },
+  { path: '/api', name: '<anonymous>', why: 'the JSON 404 for paths no route matched' },
+];
+
+/** The route path with its parameters filled in; throws when the row leaves one out. */
+export function fillPath(path: string, params: Record<string, string>): string {
+  return path.replace(/:(\w+)/g, (_m, name: string) => {
+    const value = params[name];
+    if (value === undefined) throw new Error(`The matrix row for ${path} has no value for :${name}`);
+    return encodeURIComponent(value);
+  });
+}
+
+/** True for paths the matrix leaves to another suite (see `notInMatrix`). */
+export const notCalled = (path: string) => notInMatrix.some((e) => path.startsWith(e.prefix));
+
+/**
+ * The route table of the app as `createApp` builds it (the development tools on unless asked otherwise):
+ * every API route the matrix must have a row for, and all plain middleware.
+ */
+export function appRoutes(devTools = true) {
+  const table = routeTable(createApp({ db: openDb(':memory:'), baseURL: 'http://127.0.0.1', secret: 'test-secret-test-secret-test-secret', devTools }));
+  return { all: table.routes, api: table.routes.filter((r) => isApiPath(r.path) && !notCalled(r.path)), middleware: table.middleware };
+}
