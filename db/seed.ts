@@ -304,7 +304,8 @@ export function demoSignInText(baseURL: string) {
   return [`Demo sign-ins at ${baseURL} (password for all: ${demoPassword}):`, ...lines].join('\n');
 }
 
-if (require.main === module) {
+// Run as `tsx db/seed.ts`; the server imports this file (and is bundled with it), and must not seed.
+if (require.main === module && /db[\\/]seed\.ts$/.test(process.argv[1] ?? '')) {
   const config = readConfig();
   const db = openDb(config.databasePath);
   seedDemo(db, createAuth({ db, baseURL: config.baseURL, secret: config.secret }))

@@ -1,5 +1,5 @@
 import type { Request } from 'express';
-import { and, eq } from 'drizzle-orm';
+import { and, eq, sql } from 'drizzle-orm';
 import { fromNodeHeaders } from 'better-auth/node';
 
 import type { Db } from '@/db';
@@ -8,6 +8,7 @@ import { isShopRole, roleAllows, type Permission, type ShopKind, type ShopRole }
 
 import type { Auth } from './auth';
 import { forbidden, HttpError } from './http';
+import { prepared } from './prepared';
 
 export type Signed = {
   user: { id: string; name: string; email: string };
@@ -20,15 +21,68 @@ export type InShop = Signed & {
   role: ShopRole;
 };
 
-/** Reads the session cookie; 401 when nobody is signed in. */
-export async function requireSignedIn(auth: Auth, req: Request): Promise<Signed> {
+type KnownSession = { user: Signed['user']; sessionId: string; until: number };
+
+/** How long a cookie's session lookup is reused; the session row itself is re-read on every request. */
+const SESSION_REUSE_MS = 30_000;
+const SESSION_CACHE_MAX = 5_000;
+/** Per app (per auth instance): the exact Cookie header → the session better-auth verified for it. */
+const knownSessions = new WeakMap<Auth, Map<string, KnownSession>>();
+
+/**
+ * Verifying a session cookie costs more than the rest of a typical read, so
+ * the verified answer is reused for a short while for the exact same Cookie
+ * header. Only the cookie → session mapping is reused: every request still
+ * reads the session row, so a sign-out, an expired session or a shop switch
+ * takes effect at once.
+ */
+async function verifiedSession(auth: Auth, req: Request): Promise<KnownSession | null> {
+  const cookie = req.headers.cookie;
+  let cache = knownSessions.get(auth);
+  if (!cache) knownSessions.set(auth, (cache = new Map()));
+  const now = Date.now();
+  const hit = cookie ? cache.get(cookie) : undefined;
+  if (hit && hit.until > now) return hit;
   const found = await auth.api.getSession({ headers: fromNodeHeaders(req.headers) });
-  if (!found) throw new HttpError(401, 'unauthenticated', 'Sign in to continue');
-  return {
+  if (!found) return null;
+  const known = {
     user: { id: found.user.id, name: found.user.name, email: found.user.email },
     sessionId: found.session.id,
-    activeShopId: found.session.activeOrganizationId ?? null,
+    until: Math.min(now + SESSION_REUSE_MS, new Date(found.session.expiresAt).getTime()),
   };
+  if (cookie) {
+    if (cache.size >= SESSION_CACHE_MAX) cache.delete(cache.keys().next().value!);
+    cache.set(cookie, known);
+  }
+  return known;
+}
+
+const liveSession = (db: Db) =>
+  prepared(db, 'access.live-session', (d) =>
+    d
+      .select({ activeShopId: schema.sessions.activeOrganizationId, expiresAt: schema.sessions.expiresAt, name: schema.users.name, email: schema.users.email })
+      .from(schema.sessions)
+      .innerJoin(schema.users, eq(schema.users.id, schema.sessions.userId))
+      .where(eq(schema.sessions.id, sql.placeholder('sessionId')))
+      .prepare(),
+  );
+
+const membership = (db: Db) =>
+  prepared(db, 'access.membership', (d) =>
+    d
+      .select({ role: schema.memberships.role, id: schema.shops.id, name: schema.shops.name, kind: schema.shops.kind })
+      .from(schema.memberships)
+      .innerJoin(schema.shops, eq(schema.shops.id, schema.memberships.organizationId))
+      .where(and(eq(schema.memberships.userId, sql.placeholder('userId')), eq(schema.memberships.organizationId, sql.placeholder('shopId'))))
+      .prepare(),
+  );
+
+/** Reads the session cookie; 401 when nobody is signed in (or the session has ended). */
+export async function requireSignedIn(auth: Auth, db: Db, req: Request): Promise<Signed> {
+  const known = await verifiedSession(auth, req);
+  const live = known ? liveSession(db).get({ sessionId: known.sessionId }) : undefined;
+  if (!known || !live || live.expiresAt.getTime() <= Date.now()) throw new HttpError(401, 'unauthenticated', 'Sign in to continue');
+  return { user: { id: known.user.id, name: live.name, email: live.email }, sessionId: known.sessionId, activeShopId: live.activeShopId ?? null };
 }
 
 /** The person's membership in their active shop, checked against `permission` (403 when the role lacks it). */
@@ -45,21 +99,9 @@ export async function requireShopRole(
 
 /** The person's membership in their active shop, whatever the role (routes that decide by record, like orders). */
 export async function requireMember(auth: Auth, db: Db, req: Request): Promise<InShop> {
-  const signed = await requireSignedIn(auth, req);
+  const signed = await requireSignedIn(auth, db, req);
   if (!signed.activeShopId) throw forbidden('Choose a shop first: you are not working in any shop');
-  const row = db
-    .select({
-      role: schema.memberships.role,
-      id: schema.shops.id,
-      name: schema.shops.name,
-      kind: schema.shops.kind,
-    })
-    .from(schema.memberships)
-    .innerJoin(schema.shops, eq(schema.shops.id, schema.memberships.organizationId))
-    .where(
-      and(eq(schema.memberships.userId, signed.user.id), eq(schema.memberships.organizationId, signed.activeShopId)),
-    )
-    .get();
+  const row = membership(db).get({ userId: signed.user.id, shopId: signed.activeShopId });
   if (!row || !isShopRole(row.role)) throw forbidden('You are no longer a member of this shop');
   return { ...signed, shop: { id: row.id, name: row.name, kind: row.kind }, role: row.role };
 }

@@ -45,15 +45,17 @@ export type ServerProcess = {
 };
 
 /**
- * Starts the real server as `npm run serve` does (`tsx server/index.ts`) on
- * `port`, with `env` added to this process's environment, and waits until
- * `/api/health` answers.
+ * Starts the real server on `port`, with `env` added to this process's
+ * environment, and waits until `/api/health` answers: the bundle
+ * `npm run build` writes (`node dist-server/index.cjs`, as `npm run serve`
+ * starts it) when `bundled`, otherwise the source through tsx.
  */
-export async function startServer(port: number, env: Record<string, string>, timeoutMs = 30_000): Promise<ServerProcess> {
+export async function startServer(port: number, env: Record<string, string>, { timeoutMs = 30_000, bundled = false } = {}): Promise<ServerProcess> {
   const url = `http://localhost:${port}`;
   let output = '';
   const started = performance.now();
-  const child = spawn(path.join(root, 'node_modules', '.bin', 'tsx'), ['server/index.ts'], {
+  const [command, args] = bundled ? [process.execPath, ['dist-server/index.cjs']] : [path.join(root, 'node_modules', '.bin', 'tsx'), ['server/index.ts']];
+  const child = spawn(command, args, {
     cwd: root,
     env: { ...process.env, ...env, PORT: String(port) },
     stdio: ['ignore', 'pipe', 'pipe'],

@@ -37,11 +37,11 @@ function withoutCurves(value: unknown): unknown {
  * `POST /api/calc/analyze`: the JSON calc API for integrations. Any signed-in
  * person may call it, within a per-person rate limit.
  */
-export function calcRouter({ auth }: AppDeps, rate: CalcRateLimit = defaultCalcRateLimit) {
+export function calcRouter({ auth, db }: AppDeps, rate: CalcRateLimit = defaultCalcRateLimit) {
   const router = Router();
 
   const signedIn: RequestHandler = async (req, res, next) => {
-    const signed = await requireSignedIn(auth, req);
+    const signed = await requireSignedIn(auth, db, req);
     res.locals.userId = signed.user.id;
     next();
   };

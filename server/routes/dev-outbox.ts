@@ -22,13 +22,13 @@ export function devOutboxRouter({ db, auth }: AppDeps) {
   const router = Router();
 
   router.get('/dev/outbox', async (req, res) => {
-    await requireSignedIn(auth, req);
+    await requireSignedIn(auth, db, req);
     const rows = db.select().from(schema.outbox).orderBy(desc(schema.outbox.createdAt), desc(schema.outbox.id)).limit(200).all();
     res.json({ messages: rows.map(toOutboxMessage) });
   });
 
   router.get('/dev/outbox/:id', async (req, res) => {
-    await requireSignedIn(auth, req);
+    await requireSignedIn(auth, db, req);
     const row = db.select().from(schema.outbox).where(and(eq(schema.outbox.id, req.params.id))).get();
     if (!row) throw notFound('Message');
     res.json({ message: toOutboxMessage(row) });

@@ -37,13 +37,13 @@ export function meRouter({ db, auth }: AppDeps) {
   };
 
   router.get('/me', async (req, res) => {
-    const signed = await requireSignedIn(auth, req);
+    const signed = await requireSignedIn(auth, db, req);
     res.json(describe(signed.user, signed.activeShopId));
   });
 
   router.post('/me/active-shop', async (req, res) => {
     const { shopId } = parse(activeShopSchema, req.body);
-    const signed = await requireSignedIn(auth, req);
+    const signed = await requireSignedIn(auth, db, req);
     if (!shopsOf(db, signed.user.id).some((s) => s.id === shopId)) {
       throw forbidden('You are not a member of that shop');
     }
@@ -57,7 +57,7 @@ export function meRouter({ db, auth }: AppDeps) {
   /** A new account's first shop: the creator becomes its builder (repair) or grinder (grinding). */
   router.post('/shops', async (req, res) => {
     const body = parse(shopCreateSchema, req.body);
-    const signed = await requireSignedIn(auth, req);
+    const signed = await requireSignedIn(auth, db, req);
     const role = body.kind === 'repair' ? 'builder' : 'grinder';
     const shopId = db.transaction((tx) => {
       const id = crypto.randomUUID();

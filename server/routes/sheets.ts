@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { and, asc, desc, eq, inArray } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
 
 import type { Db } from '@/db';
 import { schema } from '@/db';
@@ -13,6 +13,7 @@ import { audit } from '../audit';
 import { renamePrefixes, runCalc } from '../calc';
 import type { AppDeps } from '../deps';
 import { conflict, HttpError, notFound, parse } from '../http';
+import { prepared } from '../prepared';
 import { requireJob } from '../scope';
 
 type SheetRow = typeof schema.specSheets.$inferSelect;
@@ -67,20 +68,26 @@ function computeResults(engine: EngineSpec, spec: ProfileSpec): RevisionResults 
   return runCalc(() => revisionResults(analyzeRecords(engine, spec)), revisionFields);
 }
 
+const sheetStatements = (db: Reader) =>
+  prepared(db, 'sheets.load', (d) => ({
+    sheet: d
+      .select()
+      .from(schema.specSheets)
+      .where(and(eq(schema.specSheets.id, sql.placeholder('id')), eq(schema.specSheets.shopId, sql.placeholder('shopId'))))
+      .prepare(),
+    revisions: d
+      .select()
+      .from(schema.sheetRevisions)
+      .where(eq(schema.sheetRevisions.sheetId, sql.placeholder('id')))
+      .orderBy(asc(schema.sheetRevisions.number))
+      .prepare(),
+  }));
+
 function loadSheet(db: Reader, shopId: string, id: string): SheetWithHistory {
-  const sheet = db
-    .select()
-    .from(schema.specSheets)
-    .where(and(eq(schema.specSheets.id, id), eq(schema.specSheets.shopId, shopId)))
-    .get();
+  const statements = sheetStatements(db);
+  const sheet = statements.sheet.get({ id, shopId });
   if (!sheet) throw notFound('Spec sheet');
-  const revisions = db
-    .select()
-    .from(schema.sheetRevisions)
-    .where(eq(schema.sheetRevisions.sheetId, id))
-    .orderBy(asc(schema.sheetRevisions.number))
-    .all();
-  return withHistory(sheet, revisions);
+  return withHistory(sheet, statements.revisions.all({ id }));
 }
 
 function requireEngine(db: Reader, shopId: string, jobId: string): EngineSpec {

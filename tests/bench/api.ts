@@ -1,5 +1,5 @@
 /**
- * Server budgets, measured on the real server (`tsx server/index.ts`, as `npm run serve` starts it) with
+ * Server budgets, measured on the real server (`node dist-server/index.cjs`, as `npm run serve` starts it) with
  * NODE_ENV=production, the web export and a freshly seeded temporary database:
  * - cold start: from spawning the process to the first healthy `/api/health`, median of three starts
  *   (budget 3 s);
@@ -54,7 +54,7 @@ async function main() {
 
   const starts: number[] = [];
   for (let i = 0; i < 3; i++) {
-    const server = await startServer(port, env);
+    const server = await startServer(port, env, { bundled: true });
     starts.push(server.startMs);
     await server.stop('SIGTERM');
   }
@@ -63,7 +63,7 @@ async function main() {
     `cold start to healthy /api/health: median ${(coldStart / 1000).toFixed(2)} s (${starts.map((s) => (s / 1000).toFixed(2)).join(', ')} s; budget ${COLD_START_BUDGET_MS / 1000} s, with the web export)`,
   );
 
-  const server = await startServer(port, env);
+  const server = await startServer(port, env, { bundled: true });
   try {
     const builder = new Client(server.url);
     const signIn = await builder.post('/api/auth/sign-in/email', { email: demoAccounts[0]!.email, password: demoPassword });

@@ -7,8 +7,8 @@ import { root } from '@/tests/server-process';
 /** The web export the benchmarks serve: WEB_DIR or dist/, built first (npm run build) when it is missing. */
 export function ensureWebExport(): string {
   const webDir = path.resolve(root, process.env.WEB_DIR || 'dist');
-  if (!fs.existsSync(path.join(webDir, 'index.html'))) {
-    console.log('No web export yet: building it (npm run build)…');
+  if (!fs.existsSync(path.join(webDir, 'index.html')) || !fs.existsSync(path.join(root, 'dist-server', 'index.cjs'))) {
+    console.log('No web export or server bundle yet: building them (npm run build)…');
     execSync('npm run build', { cwd: root, stdio: 'inherit' });
   }
   return webDir;
