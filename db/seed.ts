@@ -202,51 +202,30 @@ export async function seedDemo(db: Db, auth: Auth) {
       .onConflictDoNothing()
       .run();
   }
-  const towing = demoProfiles[1]!;
-  db.insert(schema.specSheets)
-    .values({ id: demoSheetId, shopId, jobId: demoJobId, title: 'Replacement cam for the flatbed (demo)', createdBy })
-    .onConflictDoNothing()
-    .run();
-  db.insert(schema.sheetRevisions)
-    .values({
-      id: `${demoSheetId}-rev-1`,
-      sheetId: demoSheetId,
-      number: 1,
-      state: 'draft',
-      label: towing.label,
-      spec: towing.spec,
-      engine: demoEngine,
-      results: revisionResults(analyzeRecords(demoEngine, towing.spec)),
-      note: 'Demo data. Draft: measure the PTV baseline with the old cam before this goes to the grinder.',
-      createdBy,
-    })
-    .onConflictDoNothing()
-    .run();
-
-  // The stock-spec sheet first, an hour older, so the towing sheet stays the most recent one.
-  const stock = demoProfiles[0]!;
-  const anHourAgo = new Date(Date.now() - 3600_000);
-  db.insert(schema.specSheets)
-    .values({ id: demoStockSheetId, shopId, jobId: demoJobId, title: 'Stock-spec regrind for the flatbed (demo)', createdBy, createdAt: anHourAgo, updatedAt: anHourAgo })
-    .onConflictDoNothing()
-    .run();
-  db.insert(schema.sheetRevisions)
-    .values({
-      id: `${demoStockSheetId}-rev-1`,
-      sheetId: demoStockSheetId,
-      number: 1,
-      state: 'draft',
-      label: stock.label,
-      spec: stock.spec,
-      engine: demoEngine,
-      results: revisionResults(analyzeRecords(demoEngine, stock.spec)),
-      note: "Demo data. Back to the factory events on the customer's own core.",
-      createdBy,
-      createdAt: anHourAgo,
-      updatedAt: anHourAgo,
-    })
-    .onConflictDoNothing()
-    .run();
+  const [stock, towing] = [demoProfiles[0]!, demoProfiles[1]!];
+  const sheet = (id: string, title: string, profile: (typeof demoProfiles)[number], note: string, at = new Date()) => {
+    db.insert(schema.specSheets).values({ id, shopId, jobId: demoJobId, title, createdBy, createdAt: at, updatedAt: at }).onConflictDoNothing().run();
+    db.insert(schema.sheetRevisions)
+      .values({
+        id: `${id}-rev-1`,
+        sheetId: id,
+        number: 1,
+        state: 'draft',
+        label: profile.label,
+        spec: profile.spec,
+        engine: demoEngine,
+        results: revisionResults(analyzeRecords(demoEngine, profile.spec)),
+        note,
+        createdBy,
+        createdAt: at,
+        updatedAt: at,
+      })
+      .onConflictDoNothing()
+      .run();
+  };
+  sheet(demoSheetId, 'Replacement cam for the flatbed (demo)', towing, 'Demo data. Draft: measure the PTV baseline with the old cam before this goes to the grinder.');
+  // The stock-spec sheet an hour older, so the towing sheet stays the most recent one.
+  sheet(demoStockSheetId, 'Stock-spec regrind for the flatbed (demo)', stock, "Demo data. Back to the factory events on the customer's own core.", new Date(Date.now() - 3600_000));
   seedOwnerPage(db, shopId, createdBy);
 
   const tech = db.select().from(schema.users).where(eq(schema.users.email, demoAccounts[1]!.email)).get();
