@@ -227,7 +227,7 @@ export function ShareLinks({ jobId, desk, canEdit }: { jobId: string; desk: Owne
         <View style={styles.form}>
           <View style={styles.row}>
             <TextField label="Works for" unit="days" value={days} onChangeText={setDays} inputMode="numeric" error={fields.expiresInDays} testID="share-link-days" />
-            <TextField label="E-mail it to (optional)" value={email} onChangeText={setEmail} inputMode="email" autoComplete="email" error={fields.email} testID="share-link-email" />
+            <TextField label="E-mail it to (optional)" hint="The owner also gets a customer account under this address" value={email} onChangeText={setEmail} inputMode="email" autoComplete="email" error={fields.email} testID="share-link-email" />
           </View>
           <Button
             label="Make a link"

@@ -1,7 +1,7 @@
 import { betterAuth } from 'better-auth';
 import { drizzleAdapter } from 'better-auth/adapters/drizzle';
 import { organization } from 'better-auth/plugins';
-import { asc, eq } from 'drizzle-orm';
+import { and, asc, eq, gt, isNull } from 'drizzle-orm';
 
 import type { Db } from '@/db';
 import { schema } from '@/db';
@@ -58,6 +58,35 @@ export function createAuth({ db, baseURL, secret, rateLimit = false }: AuthOptio
     },
     telemetry: { enabled: false },
     databaseHooks: {
+      user: {
+        create: {
+          // An owner a shop sent a summary to becomes that shop's customer on signing up with the same address.
+          after: async (user) => {
+            db.transaction((tx) => {
+              const pending = tx
+                .select()
+                .from(schema.invitations)
+                .where(and(eq(schema.invitations.email, user.email.toLowerCase()), eq(schema.invitations.status, 'pending'), gt(schema.invitations.expiresAt, new Date())))
+                .all();
+              for (const invitation of pending) {
+                tx.insert(schema.memberships)
+                  .values({ id: crypto.randomUUID(), organizationId: invitation.organizationId, userId: user.id, role: invitation.role ?? 'customer' })
+                  .onConflictDoNothing()
+                  .run();
+                tx.update(schema.invitations).set({ status: 'accepted' }).where(eq(schema.invitations.id, invitation.id)).run();
+              }
+              // The sign-up's session may already exist without a shop: open it in the first one.
+              const first = pending[0];
+              if (first) {
+                tx.update(schema.sessions)
+                  .set({ activeOrganizationId: first.organizationId })
+                  .where(and(eq(schema.sessions.userId, user.id), isNull(schema.sessions.activeOrganizationId)))
+                  .run();
+              }
+            });
+          },
+        },
+      },
       session: {
         create: {
           // A new session opens in the person's first shop, so every screen has a shop to work in.

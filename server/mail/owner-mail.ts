@@ -24,6 +24,7 @@ export function shareLinkMail(to: Person, f: { shopName: string; vehicle: string
       `${f.shopName} has written up what failed in your engine and the camshaft options they propose, with prices.`,
       'Open the page to read it. You can approve an option and pay the deposit there; no account is needed.',
       `The link works until ${f.expiresAt.toUTCString()}. Keep it to yourself: anyone with it can read the page.`,
+      'You can also sign up in Lobewright with this e-mail address: the page then shows under Your vehicles, without the link.',
     ],
     action: 'Read the summary',
     link: f.url,

@@ -8,7 +8,7 @@ import { schema } from '@/db';
 import { revisionChecksum } from '@/shared/checksum';
 import type { OwnerView } from '@/shared/owner';
 import { localFakeKeys } from '@/server/payments';
-import { Client, createTestApp, makeJobWithEngine, memberWithRole, makeShop, type TestApp } from '@/tests/fixtures';
+import { Client, createTestApp, makeJobWithEngine, memberWithRole, makeShop, signUp, type TestApp } from '@/tests/fixtures';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -337,5 +337,33 @@ describe('an owner with an account', () => {
     const elsewhere = await makeShop(t, 'repair', 'Elsewhere');
     const otherOwner = await memberWithRole(t, elsewhere.shopId, 'customer');
     expect((await otherOwner.get(`/api/my/jobs/${s.jobId}`)).status).toBe(404);
+  });
+});
+
+describe('inviting the owner', () => {
+  it('gives an owner who signs up later with the e-mailed address a customer account that finds the summary', async () => {
+    const s = await sharedJob('Invite shop');
+    const email = `later-owner-${Date.now()}@example.test`;
+    await s.builder.post(`/api/jobs/${s.jobId}/share-links`, { email });
+    const later = new Client(t.url);
+    expect((await later.post('/api/auth/sign-up/email', { name: 'Later Owner', email, password: 'correct-horse-9' })).status).toBe(200);
+    const joined = t.db.select().from(schema.memberships).where(eq(schema.memberships.organizationId, s.shopId)).all();
+    expect(joined.map((m) => m.role).sort()).toEqual(['builder', 'customer']);
+    const me = (await later.get('/api/me')).body;
+    expect(me.activeShop).toMatchObject({ id: s.shopId, role: 'customer' });
+    expect((await later.get('/api/my/jobs')).body.jobs.map((j: { jobId: string }) => j.jobId)).toEqual([s.jobId]);
+    // Not staff: no jobs list.
+    expect((await later.get('/api/jobs')).status).toBe(403);
+  });
+
+  it('adds an existing account as a customer and leaves a staff member their role', async () => {
+    const s = await sharedJob('Existing invite shop');
+    const existing = await signUp(t, 'Existing Owner');
+    await s.builder.post(`/api/jobs/${s.jobId}/share-links`, { email: existing.email });
+    const membership = t.db.select().from(schema.memberships).where(eq(schema.memberships.userId, existing.userId)).get();
+    expect(membership).toMatchObject({ organizationId: s.shopId, role: 'customer' });
+    await s.builder.post(`/api/jobs/${s.jobId}/share-links`, { email: s.builder.email });
+    const own = t.db.select().from(schema.memberships).where(eq(schema.memberships.userId, s.builder.userId)).all();
+    expect(own.map((m) => m.role)).toEqual(['builder']);
   });
 });

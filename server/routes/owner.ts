@@ -26,6 +26,21 @@ export function hashShareToken(token: string) {
   return createHash('sha256').update(token).digest('hex');
 }
 
+/**
+ * The owner a link is e-mailed to also gets a customer account in the shop:
+ * at once when someone already signed up with that address, otherwise when
+ * they sign up (a pending invitation, accepted by the sign-up hook in server/auth.ts).
+ * Someone already in the shop keeps their role.
+ */
+function inviteOwner(tx: Pick<Db, 'select' | 'insert'>, shopId: string, inviterId: string, email: string, expiresAt: Date) {
+  const user = tx.select({ id: schema.users.id }).from(schema.users).where(eq(schema.users.email, email)).get();
+  if (user) {
+    tx.insert(schema.memberships).values({ id: crypto.randomUUID(), organizationId: shopId, userId: user.id, role: 'customer' }).onConflictDoNothing().run();
+    return;
+  }
+  tx.insert(schema.invitations).values({ id: crypto.randomUUID(), organizationId: shopId, email, role: 'customer', status: 'pending', expiresAt, inviterId }).run();
+}
+
 /** Once the owner has approved, the offer is what they approved: options stay as they are. */
 function requireNotApproved(db: Pick<Db, 'select'>, jobId: string) {
   if (loadApproval(db, jobId)) throw conflict('The owner has already approved an option; the options can no longer change');
@@ -175,6 +190,7 @@ export function ownerRouter({ db, auth, mailer, publicUrl }: AppDeps) {
         .returning()
         .get();
       audit(tx, { shopId: ctx.shop.id, userId: ctx.user.id, action: 'create', entity: 'share-link', entityId: row.id, detail: { jobId, expiresAt: expiresAt.toISOString(), emailed: Boolean(body.email) } });
+      if (body.email) inviteOwner(tx, ctx.shop.id, ctx.user.id, body.email, expiresAt);
       const job = tx.select({ vehicle: schema.jobs.vehicle }).from(schema.jobs).where(eq(schema.jobs.id, jobId)).get();
       return { link: toShareLink(row), vehicle: job?.vehicle ?? '' };
     });
