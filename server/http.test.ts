@@ -28,6 +28,11 @@ describe('fieldsFromZod', () => {
     expect(Object.keys(fields).sort()).toEqual(['""', '__proto__', 'nested.constructor', 'prototype']);
     expect(Object.values(fields)).toEqual(['Unknown field', 'Unknown field', 'Unknown field', 'Unknown field']);
   });
+
+  it('names an unknown key of only spaces in quotes, so the field is never blank', () => {
+    const result = z.strictObject({ sessionId: z.string() }).safeParse({ sessionId: 'x', ' ': 1, '\t ': 2 });
+    expect(Object.keys(fieldsFromZod(result.error!))).toEqual(['" "', '"\\t "']);
+  });
 });
 
 describe('answers to requests the routes never see', () => {

@@ -297,6 +297,32 @@ describe('payment webhook', () => {
     expect(t.db.select().from(schema.paymentEvents).all().some((e) => payload.includes(e.id))).toBe(false);
   });
 
+  it('answers a signed event it cannot read with 400 naming the field, never a server error, and writes nothing', async () => {
+    const { sessionId, payment } = await openPayment('Hook shape shop');
+    const event = JSON.parse(webhookBody(sessionId, 'evt_test_odd_shape')) as { data: { object: Record<string, unknown> } } & Record<string, unknown>;
+    const session = event.data.object;
+    const odd: [string, unknown][] = [
+      ['(body)', ''],
+      ['(body)', [1, 2]],
+      ['id', { ...event, id: undefined }],
+      ['id', { ...event, id: 42 }],
+      ['type', { ...event, type: null }],
+      ['data', { ...event, data: 'paid' }],
+      ['data.object.id', { ...event, data: { object: { ...session, id: undefined } } }],
+      ['data.object.amount_total', { ...event, data: { object: { ...session, amount_total: '22500' } } }],
+      ['data.object.amount_total', { ...event, data: { object: { ...session, amount_total: -1 } } }],
+      ['data.object.currency', { ...event, data: { object: { ...session, currency: 'dollars' } } }],
+    ];
+    for (const [field, body] of odd) {
+      const payload = JSON.stringify(body);
+      const res = await postWebhook(payload, sign(payload));
+      expect(res.status, payload).toBe(400);
+      expect(Object.keys(res.body.error.fields), payload).toContain(field);
+    }
+    expect(payment().state).toBe('open');
+    expect(t.db.select().from(schema.paymentEvents).all().some((e) => e.id === 'evt_test_odd_shape')).toBe(false);
+  });
+
   it('ignores a replayed event', async () => {
     const { sessionId, payment } = await openPayment('Hook replay shop');
     const payload = webhookBody(sessionId, 'evt_test_replayed_once');

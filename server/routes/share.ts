@@ -1,7 +1,7 @@
 import express, { Router, type Request } from 'express';
 import { and, desc, eq, gt, isNull } from 'drizzle-orm';
 import { rateLimit } from 'express-rate-limit';
-import type Stripe from 'stripe';
+import { z } from 'zod';
 
 import type { Db } from '@/db';
 import { schema } from '@/db';
@@ -36,7 +36,7 @@ function activeLink(db: Pick<Db, 'select'>, token: string): LinkRow {
 export type ShareRateLimit = { windowMs: number; limit: number };
 
 /** Marks the payment for `session` paid, once; returns whether this call did it. */
-function markPaid(tx: Tx, session: Pick<Stripe.Checkout.Session, 'id' | 'amount_total' | 'currency'>, via: 'webhook' | 'return') {
+function markPaid(tx: Tx, session: { id: string; amount_total?: number | null; currency?: string | null }, via: 'webhook' | 'return') {
   const row = tx.select().from(schema.payments).where(eq(schema.payments.checkoutSessionId, session.id)).get();
   if (!row || row.state === 'paid') return { payment: row, newlyPaid: false };
   const payment = tx
@@ -257,6 +257,40 @@ function mountOwnerRoutes(router: Router, at: string, resolve: Resolve, deps: Ap
 
 
 /**
+ * What the webhook reads of a verified event. A signature proves who sent it, not
+ * its shape, so an event it cannot read is a 400 rather than a crash or a stored oddity.
+ */
+const webhookEventSchema = z.object({
+  id: z.string({ error: 'Missing event id' }).min(1, 'Missing event id').max(255),
+  type: z.string({ error: 'Missing event type' }).min(1, 'Missing event type').max(255),
+  data: z.object({ object: z.unknown() }, { error: 'Missing event data' }),
+});
+
+/** The completed checkout session: the deposit it pays, its amount in cents and its currency. */
+const completedSessionSchema = z.object({
+  id: z.string({ error: 'Missing session id' }).min(1, 'Missing session id').max(255),
+  payment_status: z.string({ error: 'Missing payment status' }),
+  amount_total: z.number({ error: 'Amount must be a number of cents' }).int('Amount is in whole cents').min(0, 'Amount cannot be negative').max(10_000_000).nullish(),
+  currency: z
+    .string({ error: 'Currency must be a code' })
+    .regex(/^[a-z]{3}$/, 'Currency is a three-letter code')
+    .nullish(),
+});
+
+/** The event's fields, named as in the event (`data.object.currency`). */
+function readEvent(body: unknown) {
+  const event = parse(webhookEventSchema, body);
+  if (event.type !== 'checkout.session.completed') return { ...event, session: undefined };
+  try {
+    return { ...event, session: parse(completedSessionSchema, event.data.object) };
+  } catch (error) {
+    if (!(error instanceof HttpError) || !error.fields) throw error;
+    const fields = Object.fromEntries(Object.entries(error.fields).map(([k, v]) => [k === '(body)' ? 'data.object' : `data.object.${k}`, v]));
+    throw new HttpError(400, 'invalid', `${Object.keys(fields)[0]}: ${Object.values(fields)[0]}`, fields);
+  }
+}
+
+/**
  * The payment service's webhook. Reads the raw body (the signature covers its
  * exact bytes), so it is mounted before the JSON parser. A bad signature is a
  * 400 and changes nothing; an event id seen before is acknowledged and ignored.
@@ -270,17 +304,18 @@ export function paymentWebhook(deps: AppDeps) {
     if (typeof signature !== 'string' || !Buffer.isBuffer(req.body)) {
       throw new HttpError(400, 'bad_signature', 'The event is not signed', { 'stripe-signature': 'Missing signature header' });
     }
-    let event: Stripe.Event;
+    let verified: unknown;
     try {
-      event = payments.stripe.webhooks.constructEvent(req.body, signature, payments.webhookSecret);
+      verified = payments.stripe.webhooks.constructEvent(req.body, signature, payments.webhookSecret);
     } catch {
       throw new HttpError(400, 'bad_signature', 'The event signature does not match', { 'stripe-signature': 'Signature does not match the body' });
     }
+    const event = readEvent(verified);
     const outcome = db.transaction((tx) => {
       const fresh = tx.insert(schema.paymentEvents).values({ id: event.id, type: event.type }).onConflictDoNothing().run();
       if (fresh.changes === 0) return { duplicate: true, paid: undefined };
-      if (event.type !== 'checkout.session.completed' || event.data.object.payment_status !== 'paid') return { duplicate: false, paid: undefined };
-      const done = markPaid(tx, event.data.object, 'webhook');
+      if (!event.session || event.session.payment_status !== 'paid') return { duplicate: false, paid: undefined };
+      const done = markPaid(tx, event.session, 'webhook');
       return { duplicate: false, paid: done.newlyPaid ? done.payment : undefined };
     });
     if (outcome.paid) await tellBuildersPaid(deps, outcome.paid);

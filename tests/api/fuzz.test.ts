@@ -1,14 +1,16 @@
 import * as fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import { bodyHeaders, errorShapeProblems, invalidStoredRows, lobeUpload, malformedJson, mutatedBody, nastyParam, nastyQuery, photoUpload, prototypeShape, toForm, type Upload } from './fuzz';
+import { bodyHeaders, errorShapeProblems, webhookCall, invalidStoredRows, lobeUpload, malformedJson, mutatedBody, nastyParam, nastyQuery, photoUpload, prototypeShape, toForm, type Upload } from './fuzz';
 import { appRoutes, fillPath, matrix } from './matrix';
 import type { ApiRoute } from './routes';
 import { buildWorld, isolated, type Actor, type World } from './world';
 
 const writeMethods = ['POST', 'PATCH', 'PUT', 'DELETE'];
 const apiRoutes = appRoutes().api;
-const writeRoutes = apiRoutes.filter((r) => writeMethods.includes(r.method));
+/** Routes no actor passes by who they are (the signed webhook) get their own fuzz below. */
+const signedRoutes = apiRoutes.filter((r) => matrix[r.key]?.refusedAs);
+const writeRoutes = apiRoutes.filter((r) => writeMethods.includes(r.method) && !matrix[r.key]?.refusedAs);
 const readRoutes = apiRoutes.filter((r) => r.method === 'GET');
 
 /** Multipart routes and what generates their forms. */
@@ -19,7 +21,7 @@ const uploads: Record<string, fc.Arbitrary<Upload>> = {
 
 /** Runs per route and kind of input: enough to hit every mutation kind, few enough to stay quick. `FUZZ_SCALE=20` digs deeper. */
 const scale = Math.max(1, Number(process.env.FUZZ_SCALE) || 1);
-const runs = { body: 30 * scale, upload: 30 * scale, malformed: 6 * scale, headers: 4 * scale, param: 6 * scale, query: 4 * scale };
+const runs = { webhook: 60 * scale, body: 30 * scale, upload: 30 * scale, malformed: 6 * scale, headers: 4 * scale, param: 6 * scale, query: 4 * scale };
 
 let w: World;
 beforeAll(async () => {
@@ -28,7 +30,7 @@ beforeAll(async () => {
 afterAll(() => w?.t.close());
 
 /** Sends one request from the world's baseline and returns everything wrong with how the server took it. */
-async function send(who: Actor, method: string, url: string, body: unknown, headers?: Record<string, string>): Promise<{ status: number; problems: string[] }> {
+async function send(who: Actor, method: string, url: string, body: unknown, headers?: Record<string, string>): Promise<{ status: number; code?: string; problems: string[] }> {
   return isolated(w, async (probe) => {
     const prototypes = prototypeShape();
     const res = await w.as[who].request(method, url, body, headers);
@@ -44,7 +46,8 @@ async function send(who: Actor, method: string, url: string, body: unknown, head
     if (prototypeShape() !== prototypes || ({} as Record<string, unknown>).polluted !== undefined || ([] as unknown as Record<string, unknown>).polluted !== undefined) {
       problems.push('Object.prototype was polluted');
     }
-    return { status: res.status, problems };
+    const code = (res.body as { error?: { code?: string } } | null)?.error?.code;
+    return { status: res.status, code, problems };
   });
 }
 
@@ -118,5 +121,28 @@ describe('odd addresses on every read route', { timeout: 60_000 * scale }, () =>
   it.each(readRoutes.map((r) => [r.key, r] as const))('%s', async (_key, route) => {
     const { who, url } = await writer(route);
     await fuzzAddress(route, who, url, undefined, { param: 3 * scale, query: 3 * scale });
+  });
+});
+
+describe('fuzzing the payment webhook', { timeout: 60_000 * scale }, () => {
+  it('is the one signed route', () => {
+    expect(signedRoutes.map((r) => r.key)).toEqual(['POST /api/payments/webhook']);
+  });
+
+  it('never fails on odd bodies and signatures, and refuses every delivery that is not signed with 400', async () => {
+    const seen = { signed: 0, unsigned: 0 };
+    await fc.assert(
+      fc.asyncProperty(webhookCall(w.a.paidSessionId), fc.constantFrom<Actor>('anonymous', 'B.builder'), async (call, who) => {
+        const result = await send(who, 'POST', '/api/payments/webhook', call.body, call.headers);
+        expectClean(result);
+        if (call.signed) expect(result.code).not.toBe('bad_signature');
+        else expect([result.status, result.code]).toEqual([400, 'bad_signature']);
+        seen[call.signed ? 'signed' : 'unsigned']++;
+      }),
+      { numRuns: runs.webhook },
+    );
+    // Both sides were reached: refused signatures and events the handler read.
+    expect(seen.unsigned).toBeGreaterThan(0);
+    expect(seen.signed).toBeGreaterThan(0);
   });
 });

@@ -1,5 +1,5 @@
 import * as fc from 'fast-check';
-import type { z } from 'zod';
+import { z as zod, type z } from 'zod';
 
 import { schema, type Db } from '@/db';
 import { engineSchema } from '@/shared/engine';
@@ -14,10 +14,11 @@ import {
   shopLimitsSaveSchema,
 } from '@/shared/measurements';
 import { messageSchema, orderMoveSchema, orderStages } from '@/shared/orders';
+import { approveSchema, ownerOptionCreateSchema, ownerPageSchema } from '@/shared/owner';
 import { profileCreateSchema, profileLabelSchema, profileSpecSchema } from '@/shared/profile';
 import { sheetCreateSchema, sheetSaveSchema } from '@/shared/sheets';
 
-import { lobeTableRows } from './world';
+import { lobeTableRows, paymentEvent, signWebhook } from './world';
 
 /** Keys that reach `Object.prototype` when code copies them carelessly. */
 export const pollutionKeys = ['__proto__', 'constructor', 'prototype'] as const;
@@ -188,6 +189,14 @@ export const nastyQuery: fc.Arbitrary<string> = fc
 export const prototypeShape = () =>
   JSON.stringify([Object.getOwnPropertyNames(Object.prototype).sort(), Object.getOwnPropertyNames(Array.prototype).sort()]);
 
+/** A payment row as the deposit routes and the webhook write it. */
+const storedPayment = zod.object({
+  amountCents: zod.number().int().min(0),
+  currency: zod.string().regex(/^[a-z]{3}$/),
+  state: zod.enum(['open', 'paid']),
+  paidAt: zod.date().nullable(),
+});
+
 function check(problems: string[], where: string, schemaToUse: z.ZodType, value: unknown) {
   const result = schemaToUse.safeParse(value);
   if (!result.success) problems.push(`${where}: ${result.error.issues.map((i) => `${i.path.join('.')} ${i.message}`).join('; ')}`);
@@ -228,6 +237,17 @@ export function invalidStoredRows(db: Db): string[] {
     if (!(orderStages as readonly string[]).includes(o.stage)) problems.push(`order ${o.id}: stage ${o.stage}`);
   }
   for (const m of db.select().from(schema.orderMessages).all()) check(problems, `message ${m.id}`, messageSchema, { body: m.body });
+  for (const p of db.select().from(schema.ownerPages).all()) check(problems, `owner page ${p.jobId}`, ownerPageSchema, { version: p.version, whatFailed: p.whatFailed });
+  for (const o of db.select().from(schema.ownerOptions).all()) {
+    const { sheetId, title, ownerNote, priceCents, depositCents, leadTimeDays } = o;
+    check(problems, `option ${o.id}`, ownerOptionCreateSchema, { sheetId, title, ownerNote, priceCents, depositCents, leadTimeDays });
+  }
+  for (const a of db.select().from(schema.ownerApprovals).all()) {
+    check(problems, `approval ${a.id}`, approveSchema, { optionId: a.optionId, checksum: a.checksum, name: a.approverName, agree: true });
+  }
+  for (const p of db.select().from(schema.payments).all()) {
+    check(problems, `payment ${p.id}`, storedPayment, { amountCents: p.amountCents, currency: p.currency, state: p.state, paidAt: p.paidAt });
+  }
   return problems;
 }
 
@@ -330,4 +350,54 @@ export function toForm(upload: Upload): FormData {
   for (const f of upload.files) form.append(f.field, new Blob([f.bytes], { type: f.type }), f.name);
   for (const [k, v] of upload.fields) form.append(k, v);
   return form;
+}
+
+const isJson = (text: string) => {
+  try {
+    JSON.parse(text);
+    return true;
+  } catch {
+    return false;
+  }
+};
+
+/** One delivery to the payment webhook: the body text and its headers. */
+export type WebhookCall = {
+  body: string;
+  headers: Record<string, string>;
+  /** Signed with the right secret over exactly this JSON text: the handler reads it. */
+  signed: boolean;
+};
+
+/**
+ * Webhook deliveries for the deposit `sessionId`: the real event mutated, broken JSON or
+ * odd text, each signed with the right secret over exactly that text (so the body reaches
+ * the handler), with another secret, over other text, unsigned, or with a junk header.
+ */
+export function webhookCall(sessionId: string): fc.Arbitrary<WebhookCall> {
+  const seed = paymentEvent(sessionId);
+  const body = fc.oneof(
+    { weight: 6, arbitrary: mutatedBody(seed) },
+    { weight: 2, arbitrary: malformedJson(seed) },
+    { weight: 1, arbitrary: fc.string({ unit: 'binary', maxLength: 80 }) },
+  );
+  const rightly = (b: string) => signWebhook(b);
+  const seedText = JSON.stringify(seed);
+  const overSeed = () => signWebhook(seedText);
+  const signature = fc.oneof(
+    { weight: 4, arbitrary: fc.constant(rightly) },
+    { weight: 1, arbitrary: fc.constant((b: string) => signWebhook(b, 'whsec_test_someone_else')) },
+    { weight: 1, arbitrary: fc.constant(overSeed) },
+    { weight: 1, arbitrary: fc.constant(() => undefined) },
+    {
+      weight: 1,
+      arbitrary: fc.oneof(fc.constantFrom('', 't=', 'v1=', 't=1,v1=00', 't=NaN,v1=zz', ',,,', 't=1e309'), fc.string({ maxLength: 60 })).map((junk) => () => junk),
+    },
+  );
+  return fc.record({ body, signature, type: fc.option(bodyHeaders.map((h) => h['content-type'])) }).map(({ body: text, signature: sign, type }) => {
+    const header = sign(text);
+    const headers = { ...(type ? { 'content-type': type } : {}), ...(header !== undefined ? { 'stripe-signature': header } : {}) };
+    // The SDK reads the event as JSON once the signature holds; text that is not JSON is refused with the signature.
+    return { body: text, headers, signed: isJson(text) && (sign === rightly || (sign === overSeed && text === seedText)) };
+  });
 }

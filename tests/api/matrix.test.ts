@@ -5,7 +5,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { apiMiddleware, appRoutes, fillPath, matrix, notCalled, type MatrixRow } from './matrix';
 import { isApiPath, type ApiRoute } from './routes';
-import { actors, buildWorld, isolated, shopAMembers, type Actor, type World } from './world';
+import { schema } from '@/db';
+
+import { actors, buildWorld, internalTexts, isolated, paymentEvent, shopAMembers, shopAReaders, signWebhook, type Actor, type Marker, type World } from './world';
 
 /** The app's own route table: every API route it registers, with the development tools on. */
 const table = appRoutes();
@@ -68,15 +70,15 @@ async function tryRoute(route: ApiRoute, row: MatrixRow, who: Actor): Promise<{ 
     const problems: string[] = [];
     if (res.status >= 500) problems.push('a server error');
     if (!allowed) {
-      const denied = who === 'anonymous' ? res.status === 401 : [401, 403, 404].includes(res.status);
-      if (!denied) problems.push(`expected ${who === 'anonymous' ? '401' : '401, 403 or 404'}`);
+      const refusal = row.refusedAs ? [row.refusedAs.status] : who === 'anonymous' ? [401] : [401, 403, 404];
+      if (!refusal.includes(res.status)) problems.push(`expected ${refusal.join(', ')}`);
       if (probe.dbChanged()) problems.push('changed the database');
       const files = probe.filesChanged();
       if (files.length) problems.push(`changed files ${files.join(', ')}`);
     }
-    const unseen = !allowed ? seen : row.showsEveryone ? [] : seen.filter((m) => !m.readers.includes(who));
+    const unseen = !allowed ? seen : row.showsEveryone ? [] : row.ownerPage ? seen.filter((m) => !ownerPageShows(m, who)) : seen.filter((m) => !m.readers.includes(who));
     if (unseen.length) problems.push(`showed ${unseen.map((m) => m.what).join(', ')}`);
-    if (allowed && !insidersOfA.includes(who) && probe.shopAChanged()) problems.push("changed shop A's records");
+    if (allowed && !row.ownerPage && !insidersOfA.includes(who) && probe.shopAChanged()) problems.push("changed shop A's records");
     const said = `${route.key} as ${who} answered ${res.status}`;
     const passed = (res.status >= 200 && res.status < 300) || res.status === 409;
     return {
@@ -85,6 +87,12 @@ async function tryRoute(route: ApiRoute, row: MatrixRow, who: Actor): Promise<{ 
     };
   });
 }
+
+/**
+ * What the owner's page may show `who`: what is on the page, and the owner's own records
+ * (their job ids). Shop A's staff opening it are link holders like anyone: nothing internal.
+ */
+const ownerPageShows = (m: Marker, who: Actor) => m.onOwnerPage === true || (!shopAReaders.includes(who) && m.readers.includes(who));
 
 /** People whose allowed calls may change shop A's rows: its members, and the grinder its order went to. */
 const insidersOfA: Actor[] = [...shopAMembers, 'G1.grinder'];
@@ -136,5 +144,60 @@ describe('authorization matrix', { timeout: 60_000 }, () => {
       expect(probe.filesChanged()).toEqual([]);
     });
     console.info(`authorization matrix: ${routes.size} routes × ${actors.length} actors = ${calls.length} calls, ${leaks.length} leaks`);
+  });
+});
+
+describe("the owner's page and the payment webhook", { timeout: 60_000 }, () => {
+  const ownerPageRoutes = () => apiRoutes.filter((r) => matrix[r.key]?.ownerPage);
+  const paymentOf = (sessionId: string) => w.t.db.select().from(schema.payments).all().find((p) => p.checkoutSessionId === sessionId);
+
+  it('answers a wrong share token with 404 for everyone and changes nothing', async () => {
+    const wrong = (w.a.shareToken[0] === 'A' ? 'B' : 'A') + w.a.shareToken.slice(1);
+    const shareRoutes = apiRoutes.filter((r) => r.path.startsWith('/api/share/:token'));
+    expect(shareRoutes).toHaveLength(5);
+    for (const route of shareRoutes) {
+      const row = matrix[route.key]!;
+      const url = fillPath(route.path, { ...row.params?.(w), token: wrong });
+      for (const who of actors) {
+        await isolated(w, async (probe) => {
+          const res = await w.as[who].request(route.method, url, row.body?.(w, who) ?? (route.method === 'GET' ? undefined : {}));
+          expect(res.status, `${route.key} as ${who}`).toBe(404);
+          expect(probe.dbChanged(), `${route.key} as ${who}`).toBe(false);
+        });
+      }
+    }
+  });
+
+  it("shows none of shop A's internal texts on any owner's page answer", async () => {
+    const routes = ownerPageRoutes();
+    expect(routes.length).toBe(11);
+    for (const route of routes) {
+      const row = matrix[route.key]!;
+      for (const who of ['anonymous', 'A.builder', 'A.customer'] as const) {
+        if (!row.allow.includes(who)) continue;
+        await isolated(w, async () => {
+          const res = await w.as[who].request(route.method, fillPath(route.path, row.params?.(w) ?? {}), row.body?.(w, who) ?? (route.method === 'GET' ? undefined : {}));
+          expect(res.status, `${route.key} as ${who}`).toBeLessThan(300);
+          const text = typeof res.body === 'string' ? res.body : JSON.stringify(res.body);
+          expect(internalTexts.filter((t) => text.includes(t)), `${route.key} as ${who}`).toEqual([]);
+        });
+      }
+    }
+  });
+
+  it('takes a signed event for the open deposit, once, as whoever delivers it', async () => {
+    const payload = JSON.stringify(paymentEvent(w.a.paidSessionId));
+    expect(paymentOf(w.a.paidSessionId)?.state).toBe('open');
+    await isolated(w, async (probe) => {
+      const forged = await w.as['B.builder'].request('POST', '/api/payments/webhook', payload, { 'stripe-signature': signWebhook(payload, 'whsec_test_someone_else') });
+      expect(forged.status).toBe(400);
+      expect(probe.dbChanged()).toBe(false);
+      const res = await w.as.anonymous.request('POST', '/api/payments/webhook', payload, { 'stripe-signature': signWebhook(payload) });
+      expect(res).toEqual({ status: 200, body: { received: true, duplicate: false } });
+      expect(paymentOf(w.a.paidSessionId)).toMatchObject({ state: 'paid', amountCents: 20_000 });
+      const replay = await w.as.anonymous.request('POST', '/api/payments/webhook', payload, { 'stripe-signature': signWebhook(payload) });
+      expect(replay.body).toEqual({ received: true, duplicate: true });
+    });
+    expect(paymentOf(w.a.paidSessionId)?.state).toBe('open');
   });
 });

@@ -20,6 +20,16 @@ export type MatrixRow = {
   body?: (w: World, who: Actor) => unknown;
   /** Why the row may show shop A's records to people outside it. */
   showsEveryone?: string;
+  /**
+   * The owner's page (a share link, or the owner signed in): why its callers may act on
+   * shop A's job. Whoever calls it sees only markers marked `onOwnerPage`, readers or not.
+   */
+  ownerPage?: string;
+  /**
+   * A route no actor passes by who they are (a signed webhook): every actor's call,
+   * made without the secret, must be refused with this status and change nothing.
+   */
+  refusedAs?: { status: number; why: string };
 };
 
 const signedIn = actors.filter((a) => a !== 'anonymous');
@@ -32,6 +42,24 @@ const orderReaders: Actor[] = [...shopAReaders, 'G1.grinder'];
 const job = (w: World) => ({ jobId: w.a.jobId });
 const sheet = (w: World) => ({ id: w.a.sheetId });
 const order = (w: World) => ({ id: w.a.orderId });
+const option = (w: World) => ({ id: w.a.optionId });
+const token = (w: World) => ({ token: w.a.shareToken });
+const paidToken = (w: World) => ({ token: w.a.paidToken });
+const paidJob = (w: World) => ({ jobId: w.a.paidJobId });
+const sharePhoto = (w: World) => ({ photoId: w.a.sharePhotoId });
+const approve = (w: World) => ({ optionId: w.a.optionId, checksum: w.a.optionChecksum, name: 'Test Owner', agree: true });
+const confirm = (w: World) => ({ sessionId: w.a.paidSessionId });
+
+const byToken = 'anyone holding the link is the owner: the 256-bit token is the secret (a wrong one is 404 for everyone, checked in matrix.test.ts)';
+const byAccount = "A's customer, signed in, to whose e-mail the builder sent the link; other shops' customers and staff are refused";
+/** The owner's page and its actions, the same at /api/share/:token and /api/my/jobs/:jobId. */
+const ownerRoutes = (prefix: string, allow: readonly Actor[], ownerPage: string, job: (w: World) => Record<string, string>, paid: (w: World) => Record<string, string>) => ({
+  [`GET ${prefix}`]: { allow, ownerPage, params: job },
+  [`GET ${prefix}/photos/:photoId`]: { allow, ownerPage, params: (w: World) => ({ ...job(w), ...sharePhoto(w) }) },
+  [`POST ${prefix}/approve`]: { allow, ownerPage, params: job, body: approve },
+  [`POST ${prefix}/deposit`]: { allow, ownerPage, params: paid },
+  [`POST ${prefix}/deposit/confirm`]: { allow, ownerPage, params: paid, body: confirm },
+});
 
 /**
  * The expected table. Add a row for every new route, keyed `METHOD /path` exactly as
@@ -137,6 +165,28 @@ export const matrix: Record<string, MatrixRow> = {
   'GET /api/orders/:id/messages': { allow: orderReaders, params: order },
   'POST /api/orders/:id/messages': { allow: orderReaders, params: order, body: () => ({ body: 'Core is at the counter' }) },
 
+  'GET /api/jobs/:jobId/owner': { allow: shopAReaders, params: job },
+  'PUT /api/jobs/:jobId/owner': { allow: builderA, params: job, body: (w) => ({ version: w.a.ownerPageVersion, whatFailed: 'The cam lobe wore flat' }) },
+  'POST /api/jobs/:jobId/owner/options': {
+    allow: builderA,
+    params: job,
+    body: (w) => ({ sheetId: w.a.sheetId, title: 'Test second option', priceCents: 50_000, depositCents: 10_000, leadTimeDays: 4 }),
+  },
+  'PATCH /api/owner-options/:id': { allow: builderA, params: option, body: (w) => ({ version: w.a.optionVersion, priceCents: 80_000 }) },
+  'DELETE /api/owner-options/:id': { allow: builderA, params: option },
+  'POST /api/jobs/:jobId/share-links': { allow: builderA, params: job, body: () => ({ expiresInDays: 7 }) },
+  'POST /api/share-links/:id/revoke': { allow: builderA, params: (w) => ({ id: w.a.shareLinkId }) },
+
+  ...ownerRoutes('/api/share/:token', actors, byToken, token, paidToken),
+  // Each customer lists their own summaries: B's is empty, and the markers check it shows nothing of A's.
+  'GET /api/my/jobs': { allow: ['A.customer', 'B.customer'], ownerPage: byAccount },
+  ...ownerRoutes('/api/my/jobs/:jobId', ['A.customer'], byAccount, job, paidJob),
+
+  'POST /api/payments/webhook': {
+    allow: [],
+    refusedAs: { status: 400, why: 'only the payment service holds the signing secret; a signed event is tested on its own in matrix.test.ts' },
+  },
+
   'GET /api/dev/outbox': {
     allow: signedIn,
     showsEveryone: 'the development mailbox shows every kept mail to anyone signed in; it is not mounted in production',
@@ -163,6 +213,7 @@ export const notInMatrix: { prefix: string; why: string }[] = [
 export const apiMiddleware: { path: string; name: string; why: string }[] = [
   { path: '/api', name: 'jsonParser', why: 'parses JSON bodies, answers nothing itself (malformed JSON goes to the error handler)' },
   { path: '/api', name: '<anonymous>', why: 'the JSON 404 for paths no route matched' },
+  { path: '/api/share', name: '<anonymous>', why: "the share pages' per-address rate limit: answers 429 only when an address makes too many calls" },
 ];
 
 /** The route path with its parameters filled in; throws when the row leaves one out. */

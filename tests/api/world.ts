@@ -2,11 +2,16 @@ import { createHash } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 
+import Stripe from 'stripe';
+
 import type { Db } from '@/db';
+import { localFakeKeys } from '@/server/payments';
 import {
   Client,
   createTestApp,
   formWith,
+  makeEngineSpec,
+  makeJobBody,
   makeJobWithEngine,
   makeProfileBody,
   makeShop,
@@ -38,7 +43,13 @@ export const shopAMembers: Actor[] = ['A.builder', 'A.tech', 'A.grinder', 'A.cus
 const orderReaders: Actor[] = [...shopAReaders, 'G1.grinder'];
 
 /** A distinctive text or id stored for shop A, and who may ever see it in a response. */
-export type Marker = { text: string; what: string; readers: Actor[] };
+export type Marker = {
+  text: string;
+  what: string;
+  readers: Actor[];
+  /** Shown on the owner's page to anyone holding its link (and to the owner signed in). */
+  onOwnerPage?: boolean;
+};
 
 /** Shop A's records (every name and number invented), the other shops, and a signed-in client per actor. */
 export type World = {
@@ -64,6 +75,19 @@ export type World = {
     checklistItemId: string;
     outboxId: string;
     limitsVersion: number;
+    /** The owner's page of the job: its version, one option bound to the issued sheet, a shareable photo. */
+    ownerPageVersion: number;
+    optionId: string;
+    optionVersion: number;
+    optionChecksum: string;
+    sharePhotoId: string;
+    /** A share link of the job, e-mailed to A's customer; the raw token is only ever shown once, so the world keeps it. */
+    shareLinkId: string;
+    shareToken: string;
+    /** A second job whose owner approved an option and opened a deposit (the deposit routes need an approval). */
+    paidJobId: string;
+    paidToken: string;
+    paidSessionId: string;
   };
   b: { shopId: string };
   g1: { shopId: string };
@@ -76,6 +100,13 @@ const text = {
   vehicle: 'Shop A vehicle: invented three-quarter-ton hauler',
   owner: 'Shop A owner Orrin Halvard',
   complaint: 'Shop A complaint: knock from cylinder 3',
+  findings: 'Shop A findings: lifter bore 3E scored',
+  coreNotes: 'Shop A core notes: core cracked near journal 2',
+  whatFailed: "Shop A owner's words: a lifter stopped rolling",
+  option: 'Shop A option: towing regrind',
+  optionNote: 'Shop A option note: more pull at low speed',
+  sharedCaption: 'Shop A shareable photo caption',
+  paidOption: 'Shop A paid option: stock regrind',
   profile: 'Shop A towing grind',
   library: 'Shop A library grind',
   sheet: 'Shop A issued sheet',
@@ -91,6 +122,22 @@ const text = {
   limits: 'Shop A limit source',
   shop: 'Test Shop A',
 };
+
+/** Shop A's internal texts: never on the owner's page, whoever opens it. */
+export const internalTexts = [text.findings, text.complaint, text.sheetNote, text.coreNotes, text.orderNote, text.reply, text.measurement, text.lobes, text.caption];
+
+/** A `checkout.session.completed` event for `sessionId`, as the payment service sends it, with `change` applied. */
+export const paymentEvent = (sessionId: string, change: Record<string, unknown> = {}) => ({
+  id: `evt_test_${sessionId}`,
+  object: 'event',
+  type: 'checkout.session.completed',
+  data: { object: { id: sessionId, object: 'checkout.session', payment_status: 'paid', amount_total: 20_000, currency: 'usd' } },
+  ...change,
+});
+
+const signer = new Stripe(localFakeKeys.apiKey);
+/** The signature header the payment service sends with `payload` (the local fake's secret unless told). */
+export const signWebhook = (payload: string, secret: string = localFakeKeys.webhookSecret) => signer.webhooks.generateTestHeaderString({ payload, secret });
 
 /** The PNG signature and an IHDR start: enough for the server's content check. */
 export const PNG = (() => {
@@ -112,7 +159,8 @@ function expectStatus(res: { status: number; body: unknown }, status: number, wh
 
 /** Builds the shops, people and records once; every matrix or fuzz call then starts from this state. */
 export async function buildWorld(): Promise<World> {
-  const t = await createTestApp({ devTools: true, calcRateLimit: { limit: 100_000, windowMs: 60_000 } });
+  // The share pages' per-address limit would refuse the suites' many calls from one address.
+  const t = await createTestApp({ devTools: true, calcRateLimit: { limit: 100_000, windowMs: 60_000 }, shareRateLimit: { limit: 1_000_000, windowMs: 60_000 } });
   const a = await makeJobWithEngine(t, text.shop);
   const builder = a.founder;
   const [aTech, aGrinder, aCustomer] = [
@@ -129,9 +177,15 @@ export async function buildWorld(): Promise<World> {
   const g1 = await makeShop(t, 'grinding', 'Test Grinding G1');
   const g2 = await makeShop(t, 'grinding', 'Test Grinding G2');
 
-  const job = await builder.patch(`/api/jobs/${a.jobId}`, { version: 1, vehicle: text.vehicle, customerName: text.owner, complaint: text.complaint });
+  const job = await builder.patch(`/api/jobs/${a.jobId}`, {
+    version: 1,
+    vehicle: text.vehicle,
+    customerName: text.owner,
+    complaint: text.complaint,
+    findings: text.findings,
+  });
   expectStatus(job, 200, 'job');
-  const profile = await builder.patch(`/api/profiles/${a.profileId}`, { version: 1, label: text.profile });
+  const profile = await builder.patch(`/api/profiles/${a.profileId}`, { version: 1, label: text.profile, coreNotes: text.coreNotes });
   expectStatus(profile, 200, 'job profile');
   const library = await builder.post('/api/profiles', makeProfileBody({ label: text.library }));
   expectStatus(library, 201, 'library profile');
@@ -165,6 +219,8 @@ export async function buildWorld(): Promise<World> {
   expectStatus(await aTech.post(`/api/sheets/${sheet.body.sheet.id}/fit-checks`), 201, 'fit checks');
   const limits = await builder.put('/api/shop/limits', { version: 0, limits: { coilBind: { min: 0.06, source: text.limits } } });
   expectStatus(limits, 200, 'limits');
+  const owner = await ownerPage(builder, aCustomer, a.jobId, sheet.body.sheet.id as string, aTech);
+  const paid = await paidJob(builder, aCustomer);
   const outbox = await builder.get('/api/dev/outbox');
   expectStatus(outbox, 200, 'outbox');
 
@@ -186,14 +242,30 @@ export async function buildWorld(): Promise<World> {
     checklistItemId: item.body.item.id as string,
     outboxId: outbox.body.messages[0].id as string,
     limitsVersion: limits.body.version as number,
+    ...owner,
+    ...paid,
   };
 
   const markers: Marker[] = [
-    { what: "shop A's job id", text: ids.jobId, readers: shopAReaders },
-    { what: "the job's vehicle", text: text.vehicle, readers: orderReaders },
-    { what: "the job's owner", text: text.owner, readers: shopAReaders },
+    // The owner signed in finds their jobs by id under /api/my/jobs.
+    { what: "shop A's job id", text: ids.jobId, readers: [...shopAReaders, 'A.customer'] },
+    { what: "the paid job's id", text: ids.paidJobId, readers: [...shopAReaders, 'A.customer'] },
+    { what: "the job's vehicle", text: text.vehicle, readers: orderReaders, onOwnerPage: true },
+    { what: "the job's owner", text: text.owner, readers: shopAReaders, onOwnerPage: true },
     { what: "the job's complaint", text: text.complaint, readers: shopAReaders },
+    { what: "the job's findings", text: text.findings, readers: shopAReaders },
     { what: "the job profile's label", text: text.profile, readers: orderReaders },
+    { what: "the job profile's core notes", text: text.coreNotes, readers: shopAReaders },
+    { what: "the owner's words", text: text.whatFailed, readers: shopAReaders, onOwnerPage: true },
+    { what: "an option's title", text: text.option, readers: shopAReaders, onOwnerPage: true },
+    { what: "an option's note for the owner", text: text.optionNote, readers: shopAReaders, onOwnerPage: true },
+    { what: "an option's id", text: ids.optionId, readers: shopAReaders, onOwnerPage: true },
+    { what: "the paid job's option", text: text.paidOption, readers: shopAReaders, onOwnerPage: true },
+    { what: "a share link's id", text: ids.shareLinkId, readers: shopAReaders },
+    // The token only comes back inside the owner's page (its photo addresses).
+    { what: 'the share token', text: ids.shareToken, readers: [], onOwnerPage: true },
+    { what: "a shareable photo's caption", text: text.sharedCaption, readers: shopAReaders, onOwnerPage: true },
+    { what: "a shareable photo's id", text: ids.sharePhotoId, readers: shopAReaders, onOwnerPage: true },
     { what: 'the library profile', text: text.library, readers: shopAReaders },
     { what: "the library profile's id", text: ids.libraryProfileId, readers: shopAReaders },
     { what: "the issued sheet's title", text: text.sheet, readers: orderReaders },
@@ -213,7 +285,7 @@ export async function buildWorld(): Promise<World> {
     { what: 'a checklist item', text: text.checklist, readers: shopAReaders },
     { what: "a checklist item's id", text: ids.checklistItemId, readers: shopAReaders },
     { what: "the shop's limit source", text: text.limits, readers: shopAReaders },
-    { what: "shop A's name", text: text.shop, readers: [...shopAMembers, 'G1.grinder'] },
+    { what: "shop A's name", text: text.shop, readers: [...shopAMembers, 'G1.grinder'], onOwnerPage: true },
     { what: "shop A's id", text: a.shopId, readers: [...shopAMembers, 'G1.grinder'] },
   ];
 
@@ -241,6 +313,68 @@ export async function buildWorld(): Promise<World> {
   };
   world.baseline = { db: dbFingerprint(t.db), shopA: shopFingerprint(t.db, a.shopId), files: readFiles(t.uploadsDir) };
   return world;
+}
+
+/**
+ * The owner's page of A's job: the owner's words, one option bound to the issued
+ * sheet, a shareable photo, and a share link e-mailed to A's customer. Nothing approved yet.
+ */
+async function ownerPage(builder: Client, customer: { email: string }, jobId: string, sheetId: string, tech: Client) {
+  const page = await builder.put(`/api/jobs/${jobId}/owner`, { version: 0, whatFailed: text.whatFailed });
+  expectStatus(page, 200, "owner's page");
+  const option = await builder.post(`/api/jobs/${jobId}/owner/options`, {
+    sheetId,
+    title: text.option,
+    ownerNote: text.optionNote,
+    priceCents: 76_000,
+    depositCents: 22_500,
+    leadTimeDays: 8,
+  });
+  expectStatus(option, 201, 'option');
+  const photo = await tech.upload(`/api/jobs/${jobId}/photos`, formWith([['photos', 'shared.png', PNG, 'image/png']], { caption: text.sharedCaption }));
+  expectStatus(photo, 201, 'shareable photo');
+  const sharePhotoId = photo.body.photos[0].id as string;
+  expectStatus(await tech.patch(`/api/photos/${sharePhotoId}`, { shareable: true }), 200, 'photo shared');
+  const link = await builder.post(`/api/jobs/${jobId}/share-links`, { email: customer.email });
+  expectStatus(link, 201, 'share link');
+  const first = option.body.desk.options[0];
+  return {
+    ownerPageVersion: page.body.desk.version as number,
+    optionId: first.id as string,
+    optionVersion: first.version as number,
+    optionChecksum: first.checksum as string,
+    sharePhotoId,
+    shareLinkId: link.body.link.id as string,
+    shareToken: link.body.token as string,
+  };
+}
+
+/** A second job of shop A whose owner approved its option through a link (e-mailed to A's customer) and opened a deposit. */
+async function paidJob(builder: Client, customer: { email: string }) {
+  const job = await builder.post('/api/jobs', makeJobBody());
+  expectStatus(job, 201, 'paid job');
+  const jobId = job.body.job.id as string;
+  expectStatus(await builder.put(`/api/jobs/${jobId}/engine`, { version: 0, engine: makeEngineSpec() }), 201, 'paid job engine');
+  const profile = await builder.post(`/api/jobs/${jobId}/profiles`, makeProfileBody());
+  expectStatus(profile, 201, 'paid job profile');
+  const sheet = await builder.post(`/api/jobs/${jobId}/sheets`, { title: 'Test paid sheet', profileId: profile.body.profile.id });
+  expectStatus(sheet, 201, 'paid job sheet');
+  const option = await builder.post(`/api/jobs/${jobId}/owner/options`, {
+    sheetId: sheet.body.sheet.id,
+    title: text.paidOption,
+    priceCents: 60_000,
+    depositCents: 20_000,
+    leadTimeDays: 5,
+  });
+  expectStatus(option, 201, 'paid job option');
+  const link = await builder.post(`/api/jobs/${jobId}/share-links`, { email: customer.email });
+  expectStatus(link, 201, 'paid job link');
+  const token = link.body.token as string;
+  const { id, checksum } = option.body.desk.options[0];
+  expectStatus(await new Client(builder.baseUrl).post(`/api/share/${token}/approve`, { optionId: id, checksum, name: 'Test Owner', agree: true }), 201, 'approval');
+  const deposit = await new Client(builder.baseUrl).post(`/api/share/${token}/deposit`);
+  expectStatus(deposit, 201, 'deposit');
+  return { paidJobId: jobId, paidToken: token, paidSessionId: new URL(deposit.body.url as string).pathname.split('/').pop()! };
 }
 
 const quote = (name: string) => `"${name.replace(/"/g, '""')}"`;
