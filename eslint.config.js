@@ -5,6 +5,6 @@ const expoConfig = require('eslint-config-expo/flat');
 module.exports = defineConfig([
   expoConfig,
   {
-    ignores: ['dist/**', 'drizzle/**', '.expo/**', 'node_modules/**', 'tests/e2e/artifacts/**', 'data/**'],
+    ignores: ['dist-server/*', 'dist/**', 'drizzle/**', '.expo/**', 'node_modules/**', 'tests/e2e/artifacts/**', 'data/**'],
   },
 ]);

@@ -11,17 +11,14 @@ import { defaultAuthRateLimit } from './security';
 
 const config = readConfig();
 const db = openDb(config.databasePath);
-// `npm run dev` sets DEV_WEB_PROXY so one origin serves the API and the Expo dev server's live bundle.
-const devWebProxy = process.env.DEV_WEB_PROXY
-  ? (require('http-proxy-middleware') as typeof import('http-proxy-middleware')).createProxyMiddleware({
-      target: process.env.DEV_WEB_PROXY,
-      ws: true,
-    })
-  : undefined;
 const mailer = createMailer({ db, smtpUrl: config.smtpUrl, from: config.mailFrom });
 const authRateLimit = config.authRateLimit ? defaultAuthRateLimit : false;
 
 async function main() {
+  // `npm run dev` sets DEV_WEB_PROXY so one origin serves the API and the Expo dev server's live bundle (a dev dependency, loaded only then).
+  const devWebProxy = process.env.DEV_WEB_PROXY
+    ? (await import('http-proxy-middleware')).createProxyMiddleware({ target: process.env.DEV_WEB_PROXY, ws: true })
+    : undefined;
   const pay = config.payments;
   const local = pay.kind === 'service' ? undefined : await startLocalPayments({ publicUrl: config.baseURL, port: pay.fakePort, currency: pay.currency });
   const payments = pay.kind === 'service' ? servicePayments(pay) : local!.payments;
