@@ -28,6 +28,7 @@ function Navigator() {
       </Stack.Protected>
       {/* The owner's summary opens from a share link, signed in or not. */}
       <Stack.Screen name="share/[token]" />
+      <Stack.Screen name="share/back" />
       <Stack.Screen name="+not-found" />
     </Stack>
   );

@@ -4,6 +4,7 @@ import { Linking, Platform, Pressable, StyleSheet, Text, View } from 'react-nati
 import { formatDateTime } from '@/constants/format';
 import { colors, fonts, radius, space } from '@/constants/theme';
 import { ApiError } from '@/hooks/api';
+import { rememberOwnerPage } from '@/hooks/owner-return';
 import { useApproveMutation, useStartDepositMutation } from '@/hooks/use-owner';
 import { formatMoney, type OwnerView, type OwnerViewOption } from '@/shared/owner';
 
@@ -13,8 +14,10 @@ import { ownerType } from './owner-type';
 
 /** Opens the payment page in this tab, so the owner comes back here when done. */
 function goTo(url: string) {
-  if (Platform.OS === 'web') window.location.assign(url);
-  else void Linking.openURL(url);
+  if (Platform.OS === 'web') {
+    rememberOwnerPage(window.location.pathname);
+    window.location.assign(url);
+  } else void Linking.openURL(url);
 }
 
 /** Approve the chosen option (name + a tick), then pay the deposit; shows what is already done. */

@@ -226,7 +226,10 @@ describe('deposit payment', () => {
     const paid = await fetch(payUrl, { method: 'POST', redirect: 'manual' });
     expect(paid.status).toBe(303);
     const back = new URL(paid.headers.get('location')!);
-    expect(back.pathname).toBe(`/share/${s.token}`);
+    // The token never goes to the payment service: the owner comes back through /share/back.
+    expect(back.pathname).toBe('/share/back');
+    const session = t.paymentService.sessions.get(back.searchParams.get('deposit')!)!;
+    expect(JSON.stringify(session)).not.toContain(s.token);
     const sessionId = back.searchParams.get('deposit')!;
 
     const view = (await s.o.get(`/api/share/${s.token}`)).body.view as OwnerView;

@@ -11,7 +11,7 @@ import { requireShopRole } from '../access';
 import { audit } from '../audit';
 import type { AppDeps } from '../deps';
 import { conflict, HttpError, notFound, parse } from '../http';
-import { ownerEventMail, shareUrl, type OwnerEventFacts } from '../mail/owner-mail';
+import { ownerEventMail, type OwnerEventFacts } from '../mail/owner-mail';
 import { loadApproval, loadOwnerView, toApproval, toPayment } from '../owner-view';
 import { hashShareToken } from './owner';
 import { recipients } from './orders';
@@ -76,7 +76,8 @@ async function tellBuildersPaid(deps: MailDeps, payment: typeof schema.payments.
 }
 
 /** Which share link a request acts through, and where its API and page live. */
-type Resolved = { link: LinkRow; apiBase: string; pageUrl: string; userId?: string };
+/** `returnUrl`: where the payment page sends the owner back; never carries a share token, which must not leave Lobewright. */
+type Resolved = { link: LinkRow; apiBase: string; returnUrl: string; userId?: string };
 type Resolve = (req: Request, tx: Pick<Db, 'select'>) => Resolved | Promise<Resolved>;
 
 /**
@@ -86,13 +87,15 @@ type Resolve = (req: Request, tx: Pick<Db, 'select'>) => Resolved | Promise<Reso
  */
 export function shareRouter(deps: AppDeps, limit: ShareRateLimit = { windowMs: 60_000, limit: 120 }) {
   const { db, auth, publicUrl } = deps;
+  const origin = publicUrl.replace(/\/+$/, '');
   const router = Router();
   // Slows anyone trying tokens: a real owner opens a handful of pages a minute.
   router.use('/share', rateLimit({ ...limit, standardHeaders: 'draft-8', legacyHeaders: false, handler: (_req, res) => res.status(429).json({ error: { code: 'rate_limited', message: 'Too many requests: wait a minute and try again' } }) }));
 
   const byToken: Resolve = (req, tx) => {
     const token = String(req.params.token);
-    return { link: activeLink(tx, token), apiBase: `/api/share/${token}`, pageUrl: shareUrl(publicUrl, token) };
+    // The share page keeps its own address in the tab's session storage and /share/back returns to it.
+    return { link: activeLink(tx, token), apiBase: `/api/share/${token}`, returnUrl: `${origin}/share/back` };
   };
   mountOwnerRoutes(router, '/share/:token', byToken, deps);
 
@@ -114,7 +117,7 @@ export function shareRouter(deps: AppDeps, limit: ShareRateLimit = { windowMs: 6
     const { ctx, links } = await byAccount(req);
     const link = links.find((l) => l.jobId === jobId);
     if (!link) throw notFound('Summary');
-    return { link, userId: ctx.user.id, apiBase: `/api/my/jobs/${encodeURIComponent(jobId)}`, pageUrl: `${publicUrl.replace(/\/+$/, '')}/my/${encodeURIComponent(jobId)}` };
+    return { link, userId: ctx.user.id, apiBase: `/api/my/jobs/${encodeURIComponent(jobId)}`, returnUrl: `${origin}/my/${encodeURIComponent(jobId)}` };
   };
   mountOwnerRoutes(router, '/my/jobs/:jobId', mine, deps);
   return router;
@@ -210,7 +213,7 @@ function mountOwnerRoutes(router: Router, at: string, resolve: Resolve, deps: Ap
     };
     const { approval } = check();
     const paymentId = crypto.randomUUID();
-    const back = resolved.pageUrl;
+    const back = resolved.returnUrl;
     // The session is created before the row: the payment service must not be called inside a transaction.
     const session = await service.stripe.checkout.sessions.create({
       mode: 'payment',

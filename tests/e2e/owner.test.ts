@@ -73,9 +73,13 @@ describe('owner summary, approval and deposit', () => {
     await shown(o, 'pay-deposit').click();
     await o.waitForURL((u) => u.pathname.startsWith('/pay/'));
     expect(await o.locator('.amount').textContent()).toBe('$225.00');
+    // The share token stays with Lobewright: not in the pay page's address nor in its way back.
+    const token = url.split('/share/')[1]!;
+    expect(o.url()).not.toContain(token);
+    expect(await o.content()).not.toContain(token);
     await screenshot(o, 'owner-pay-page-phone');
     await o.getByRole('button', { name: /Pay \$225\.00/ }).click();
-    await o.waitForURL((u) => u.pathname.startsWith('/share/'));
+    await o.waitForURL((u) => u.pathname === `/share/${token}`);
     await expect.poll(() => shown(o, 'deposit-paid').textContent(), { timeout: 15_000 }).toMatch(/Deposit paid\$225\.00 on /);
     expect(await shown(o, 'owner-status-top').textContent()).toContain('paid the $225.00 deposit');
     await expectAccessible(o);
@@ -116,5 +120,15 @@ describe('owner summary, approval and deposit', () => {
     await screenshot(account.page, 'owner-account-phone');
     expect(account.errors).toEqual([]);
     await account.close();
+  });
+
+  it('sends an owner back from the payment page in another tab to their link, without the token', async () => {
+    const { page, errors, close } = await openPage(browser, 'phone');
+    await page.goto(`${baseUrl()}/share/back?deposit=cs_test_elsewhere`);
+    await shown(page, 'owner-return').waitFor();
+    expect(await shown(page, 'owner-return').textContent()).toContain('Open the link the shop sent you again');
+    await expectAccessible(page);
+    expect(errors).toEqual([]);
+    await close();
   });
 });

@@ -1,0 +1,17 @@
+/**
+ * The share token must not leave Lobewright, so the payment page returns the
+ * owner to /share/back; the share page keeps its own address in this tab's
+ * session storage just before it opens the payment page.
+ */
+const KEY = 'lobewright.owner-return';
+
+export function rememberOwnerPage(path: string) {
+  if (typeof sessionStorage !== 'undefined') sessionStorage.setItem(KEY, path);
+}
+
+/** The remembered share page, if this tab opened the payment page from one. */
+export function rememberedOwnerPage(): string | null {
+  if (typeof sessionStorage === 'undefined') return null;
+  const path = sessionStorage.getItem(KEY);
+  return path && /^\/share\/[A-Za-z0-9_-]+$/.test(path) ? path : null;
+}
