@@ -104,6 +104,22 @@ function checkWords(checks: readonly CheckResult[], status: 'watch' | 'fail'): s
 }
 
 /**
+ * One sentence for the owner on how a profile fares in the shop's fit checks,
+ * and what is still to be measured on the engine; `name` is what the text calls the cam.
+ */
+export function ownerFitText(analysis: ProfileAnalysis, name: string): string {
+  const fails = checkWords(analysis.checks, 'fail');
+  const watches = checkWords(analysis.checks, 'watch');
+  const notMeasured = analysis.skipped.filter((s) => s.note.startsWith('not measured')).map((s) => CHECK_WORDS[s.id]);
+  let fit: string;
+  if (fails.length) fit = `The shop's fit checks flag ${listWords(fails)} on the ${name} cam; the shop will change parts or the profile before fitting it.`;
+  else if (watches.length) fit = `The ${name} cam passes the shop's fit checks, with ${listWords(watches)} close to the limit, so the shop will check those on the engine.`;
+  else fit = `The ${name} cam passes all of the shop's fit checks that could be worked out from the numbers.`;
+  if (notMeasured.length) fit += ` Still to be measured on the engine: ${listWords([...new Set(notMeasured)])}.`;
+  return fit;
+}
+
+/**
  * Compare two analysed profiles in plain words for the owner. Small
  * differences (under 1° or 0.005 in) are reported as "about the same".
  */
@@ -189,16 +205,7 @@ export function compareProfilesForOwner(input: OwnerComparisonInput): OwnerCompa
           }`,
   });
 
-  // fit checks
-  const fails = checkWords(candidate.checks, 'fail');
-  const watches = checkWords(candidate.checks, 'watch');
-  const notMeasured = candidate.skipped.filter((s) => s.note.startsWith('not measured')).map((s) => CHECK_WORDS[s.id]);
-  let fit: string;
-  if (fails.length) fit = `The shop's fit checks flag ${listWords(fails)} on the ${cand} cam; the shop will change parts or the profile before fitting it.`;
-  else if (watches.length) fit = `The ${cand} cam passes the shop's fit checks, with ${listWords(watches)} close to the limit, so the shop will check those on the engine.`;
-  else fit = `The ${cand} cam passes all of the shop's fit checks that could be worked out from the numbers.`;
-  if (notMeasured.length) fit += ` Still to be measured on the engine: ${listWords([...new Set(notMeasured)])}.`;
-  points.push({ topic: 'fit', text: fit });
+  points.push({ topic: 'fit', text: ownerFitText(candidate, cand) });
 
   const bigger = avgDuration >= 1 || d.intakeValveLift >= 0.005 || d.exhaustValveLift >= 0.005;
   const smaller = avgDuration <= -1 || d.intakeValveLift <= -0.005 || d.exhaustValveLift <= -0.005;

@@ -5,7 +5,7 @@ import { createAuth, type Auth } from '@/server/auth';
 import { readConfig } from '@/server/config';
 import { shareUrl } from '@/server/mail/owner-mail';
 import { seedChecklist } from '@/server/routes/checklist';
-import { hashShareToken, newShareToken } from '@/server/routes/owner';
+import { insertShareLink } from '@/server/routes/owner';
 import { analyzeRecords, revisionResults } from '@/shared/analysis';
 import { revisionChecksum } from '@/shared/checksum';
 import { engineSchema } from '@/shared/engine';
@@ -257,23 +257,20 @@ function seedOwnerPage(db: Db, shopId: string, createdBy: string | null) {
  * links are withdrawn so one stays open.
  */
 export function newDemoShareLink(db: Db, baseURL: string) {
-  const token = newShareToken();
-  db.transaction((tx) => {
+  const { token } = db.transaction((tx) => {
     tx.update(schema.shareLinks)
       .set({ revokedAt: new Date() })
       .where(and(like(schema.shareLinks.id, 'demo-link-%'), isNull(schema.shareLinks.revokedAt)))
       .run();
-    tx.insert(schema.shareLinks)
-      .values({
-        id: `demo-link-${crypto.randomUUID()}`,
-        shopId: juniper.id,
-        jobId: demoJobId,
-        tokenHash: hashShareToken(token),
-        // The demo owner's account finds the page too.
-        email: demoAccounts.find((a) => a.role === 'customer')!.email,
-        expiresAt: new Date(Date.now() + shareLinkLimits.defaultDays * 24 * 3600 * 1000),
-      })
-      .run();
+    return insertShareLink(tx, {
+      id: `demo-link-${crypto.randomUUID()}`,
+      shopId: juniper.id,
+      jobId: demoJobId,
+      // The demo owner's account finds the page too.
+      email: demoAccounts.find((a) => a.role === 'customer')!.email,
+      days: shareLinkLimits.defaultDays,
+      createdBy: null,
+    });
   });
   return shareUrl(baseURL, token);
 }

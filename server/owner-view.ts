@@ -1,12 +1,11 @@
 import { and, asc, desc, eq } from 'drizzle-orm';
 
-import { compareProfilesForOwner, OWNER_CAUTIONS } from '@/calc/compare';
+import { compareProfilesForOwner, OWNER_CAUTIONS, ownerFitText } from '@/calc/compare';
 import type { ProfileAnalysis } from '@/calc/analysis';
 import type { Db } from '@/db';
 import { schema } from '@/db';
 import { analyzeRecords } from '@/shared/analysis';
 import { productCautions } from '@/shared/cautions';
-import { revisionChecksum } from '@/shared/checksum';
 import type { Approval, OwnerDesk, OwnerOption, OwnerView, OwnerViewOption, Payment, ShareLink } from '@/shared/owner';
 
 import { runCalc } from './calc';
@@ -19,12 +18,13 @@ type ApprovalRow = typeof schema.ownerApprovals.$inferSelect;
 type PaymentRow = typeof schema.payments.$inferSelect;
 type RevisionRow = typeof schema.sheetRevisions.$inferSelect;
 
-export const revisionChecksumOf = (row: Pick<RevisionRow, 'number' | 'label' | 'spec' | 'engine' | 'note'>) => revisionChecksum(row);
-
 export function linkState(row: Pick<LinkRow, 'revokedAt' | 'expiresAt'>, now = new Date()): ShareLink['state'] {
   if (row.revokedAt) return 'revoked';
   return row.expiresAt.getTime() <= now.getTime() ? 'expired' : 'active';
 }
+
+/** The link still opens the owner's page: not withdrawn, not expired. */
+export const linkOpen = (row: Pick<LinkRow, 'revokedAt' | 'expiresAt'> | undefined): row is LinkRow => row !== undefined && linkState(row) === 'active';
 
 export function toShareLink(row: LinkRow): ShareLink {
   return {
@@ -148,11 +148,6 @@ function figures(a: ProfileAnalysis): OwnerViewOption['figures'] {
   };
 }
 
-/** The fit sentence of an analysis, in the owner's words. */
-function fitText(a: ProfileAnalysis, name: string): string {
-  return compareProfilesForOwner({ current: a, candidate: a, currentName: name, candidateName: name }).points.find((p) => p.topic === 'fit')?.text ?? '';
-}
-
 /**
  * The owner's page: the shop's words about what failed, shareable photos, and
  * each option compared in plain words with the first (the reference). Nothing
@@ -186,7 +181,7 @@ export function loadOwnerView(db: Reader, link: Pick<LinkRow, 'shopId' | 'jobId'
         i === 0 || !reference
           ? null
           : compareProfilesForOwner({ current: analyses[0]!, candidate: a, currentName: reference.option.title, candidateName: r.option.title }),
-      fit: fitText(a, r.option.title),
+      fit: ownerFitText(a, r.option.title),
       figures: figures(a),
     };
   });

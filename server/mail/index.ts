@@ -52,3 +52,21 @@ export function createMailer({ db, smtpUrl, from = defaultMailFrom }: CreateMail
     },
   };
 }
+
+/**
+ * Sends one message to each person, after the write that caused it has committed.
+ * A failure is logged (with `what` it was about) and never undoes that write.
+ * Returns how many were sent.
+ */
+export async function mailEach<P extends { email: string }>(mailer: Mailer, people: readonly P[], build: (person: P) => MailMessage, what: string): Promise<number> {
+  let sent = 0;
+  for (const person of people) {
+    try {
+      await mailer.send(build(person));
+      sent += 1;
+    } catch (error) {
+      console.error(`${what}: could not send mail to ${person.email}`, error);
+    }
+  }
+  return sent;
+}

@@ -22,6 +22,7 @@ import { roleAllows } from '@/shared/roles';
 import { requireMember, requireShopRole, type InShop } from '../access';
 import { audit } from '../audit';
 import type { AppDeps } from '../deps';
+import { mailEach } from '../mail';
 import { orderMail, type OrderMailFacts, type OrderMailKind } from '../mail/order-mail';
 import { conflict, forbidden, HttpError, notFound, parse } from '../http';
 import { toRevision } from './sheets';
@@ -186,13 +187,7 @@ export function ordersRouter({ db, auth, mailer, publicUrl }: AppDeps) {
       shipping: order.shipping,
       ...extra,
     };
-    for (const person of to) {
-      try {
-        await mailer.send(orderMail(kind, person, facts));
-      } catch (error) {
-        console.error(`Order ${order.id}: could not send the ${kind} mail to ${person.email}`, error);
-      }
-    }
+    await mailEach(mailer, to, (person) => orderMail(kind, person, facts), `Order ${order.id}, ${kind} mail`);
   }
 
   router.get('/grinding-shops', async (req, res) => {

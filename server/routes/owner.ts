@@ -5,14 +5,16 @@ import { and, desc, eq, max } from 'drizzle-orm';
 
 import type { Db } from '@/db';
 import { schema } from '@/db';
+import { revisionChecksum } from '@/shared/checksum';
 import { ownerOptionCreateSchema, ownerOptionPatchSchema, ownerPageSchema, shareLinkCreateSchema, shareLinkLimits } from '@/shared/owner';
 
 import { requireShopRole } from '../access';
 import { audit } from '../audit';
 import type { AppDeps } from '../deps';
 import { conflict, HttpError, notFound, parse } from '../http';
+import { mailEach } from '../mail';
 import { shareLinkMail, shareUrl } from '../mail/owner-mail';
-import { loadApproval, loadOwnerDesk, loadOwnerPage, revisionChecksumOf, toShareLink } from '../owner-view';
+import { loadApproval, loadOwnerDesk, loadOwnerPage, toShareLink } from '../owner-view';
 import { requireJob } from '../scope';
 
 
@@ -24,6 +26,16 @@ export function newShareToken() {
 
 export function hashShareToken(token: string) {
   return createHash('sha256').update(token).digest('hex');
+}
+
+type NewLink = { id?: string; shopId: string; jobId: string; email: string | null; days: number; createdBy: string | null };
+
+/** Writes a share link with a fresh token; the token is returned this once and only its hash is stored. */
+export function insertShareLink(tx: Pick<Db, 'insert'>, { id = crypto.randomUUID(), days, ...link }: NewLink) {
+  const token = newShareToken();
+  const expiresAt = new Date(Date.now() + days * 24 * 3600 * 1000);
+  const row = tx.insert(schema.shareLinks).values({ id, ...link, tokenHash: hashShareToken(token), expiresAt }).returning().get();
+  return { row, token };
 }
 
 /**
@@ -119,7 +131,7 @@ export function ownerRouter({ db, auth, mailer, publicUrl }: AppDeps) {
         .get();
       const id = crypto.randomUUID();
       const { sheetId, ...fields } = body;
-      const checksum = revisionChecksumOf(revision);
+      const checksum = revisionChecksum(revision);
       tx.insert(schema.ownerOptions)
         .values({ id, shopId: ctx.shop.id, jobId, sheetId, revisionId: revision.id, checksum, ...fields, position: (last?.position ?? 0) + 1, createdBy: ctx.user.id })
         .run();
@@ -143,7 +155,7 @@ export function ownerRouter({ db, auth, mailer, publicUrl }: AppDeps) {
       tx.update(schema.ownerOptions)
         .set({
           ...changes,
-          ...(revision ? { revisionId: revision.id, checksum: revisionChecksumOf(revision) } : {}),
+          ...(revision ? { revisionId: revision.id, checksum: revisionChecksum(revision) } : {}),
           version: version + 1,
           updatedAt: new Date(),
         })
@@ -178,32 +190,20 @@ export function ownerRouter({ db, auth, mailer, publicUrl }: AppDeps) {
     const body = parse(shareLinkCreateSchema, req.body);
     const ctx = await requireShopRole(auth, db, req, { job: ['update'] });
     const jobId = req.params.jobId;
-    const token = newShareToken();
-    const expiresAt = new Date(Date.now() + body.expiresInDays * 24 * 3600 * 1000);
-    const { link, vehicle } = db.transaction((tx) => {
+    const { link, token, expiresAt, vehicle } = db.transaction((tx) => {
       requireJob(tx, ctx.shop.id, jobId);
       const hasOptions = tx.select({ id: schema.ownerOptions.id }).from(schema.ownerOptions).where(eq(schema.ownerOptions.jobId, jobId)).get();
       if (!hasOptions) throw conflict('Offer the owner at least one option before sharing the page');
-      const row = tx
-        .insert(schema.shareLinks)
-        .values({ id: crypto.randomUUID(), shopId: ctx.shop.id, jobId, tokenHash: hashShareToken(token), email: body.email ?? null, expiresAt, createdBy: ctx.user.id })
-        .returning()
-        .get();
-      audit(tx, { shopId: ctx.shop.id, userId: ctx.user.id, action: 'create', entity: 'share-link', entityId: row.id, detail: { jobId, expiresAt: expiresAt.toISOString(), emailed: Boolean(body.email) } });
-      if (body.email) inviteOwner(tx, ctx.shop.id, ctx.user.id, body.email, expiresAt);
+      const made = insertShareLink(tx, { shopId: ctx.shop.id, jobId, email: body.email ?? null, days: body.expiresInDays, createdBy: ctx.user.id });
+      const { row } = made;
+      audit(tx, { shopId: ctx.shop.id, userId: ctx.user.id, action: 'create', entity: 'share-link', entityId: row.id, detail: { jobId, expiresAt: row.expiresAt.toISOString(), emailed: Boolean(body.email) } });
+      if (body.email) inviteOwner(tx, ctx.shop.id, ctx.user.id, body.email, row.expiresAt);
       const job = tx.select({ vehicle: schema.jobs.vehicle }).from(schema.jobs).where(eq(schema.jobs.id, jobId)).get();
-      return { link: toShareLink(row), vehicle: job?.vehicle ?? '' };
+      return { link: toShareLink(row), token: made.token, expiresAt: row.expiresAt, vehicle: job?.vehicle ?? '' };
     });
     const url = shareUrl(publicUrl, token);
-    let emailed = false;
-    if (body.email) {
-      try {
-        await mailer.send(shareLinkMail({ email: body.email, name: 'vehicle owner' }, { shopName: ctx.shop.name, vehicle, url, expiresAt }));
-        emailed = true;
-      } catch (error) {
-        console.error(`Share link ${link.id}: could not send it to ${body.email}`, error);
-      }
-    }
+    const to = body.email ? [{ email: body.email, name: 'vehicle owner' }] : [];
+    const emailed = (await mailEach(mailer, to, (person) => shareLinkMail(person, { shopName: ctx.shop.name, vehicle, url, expiresAt }), `Share link ${link.id}`)) > 0;
     // The token is shown this once; only its hash is kept.
     res.status(201).json({ link, token, url, emailed });
   });

@@ -1,5 +1,5 @@
 import express, { Router, type Request } from 'express';
-import { and, desc, eq, gt, isNull } from 'drizzle-orm';
+import { and, desc, eq, gt, inArray, isNull } from 'drizzle-orm';
 import { rateLimit } from 'express-rate-limit';
 import { z } from 'zod';
 
@@ -11,8 +11,9 @@ import { requireShopRole } from '../access';
 import { audit } from '../audit';
 import type { AppDeps } from '../deps';
 import { conflict, HttpError, notFound, parse } from '../http';
+import { mailEach } from '../mail';
 import { ownerEventMail, type OwnerEventFacts } from '../mail/owner-mail';
-import { loadApproval, loadOwnerView, toApproval, toPayment } from '../owner-view';
+import { linkOpen, loadApproval, loadOwnerView, toApproval, toPayment } from '../owner-view';
 import { hashShareToken } from './owner';
 import { recipients } from './orders';
 import { sendPhotoFile } from './photos';
@@ -29,7 +30,7 @@ const linkGone = () => new HttpError(404, 'not_found', 'This link does not open 
 function activeLink(db: Pick<Db, 'select'>, token: string): LinkRow {
   if (!TOKEN_SHAPE.test(token)) throw linkGone();
   const row = db.select().from(schema.shareLinks).where(eq(schema.shareLinks.tokenHash, hashShareToken(token))).get();
-  if (!row || row.revokedAt || row.expiresAt.getTime() <= Date.now()) throw linkGone();
+  if (!linkOpen(row)) throw linkGone();
   return row;
 }
 
@@ -54,13 +55,7 @@ type MailDeps = Pick<AppDeps, 'db' | 'mailer' | 'publicUrl'>;
 /** Mails every builder of the shop; a failure is logged and never undoes the write. */
 async function tellBuilders({ db, mailer, publicUrl }: MailDeps, kind: 'approved' | 'paid', jobId: string, shopId: string, facts: Omit<OwnerEventFacts, 'publicUrl' | 'jobId' | 'vehicle'>) {
   const job = db.select({ vehicle: schema.jobs.vehicle }).from(schema.jobs).where(eq(schema.jobs.id, jobId)).get();
-  for (const person of recipients(db, shopId, 'builder')) {
-    try {
-      await mailer.send(ownerEventMail(kind, person, { ...facts, publicUrl, jobId, vehicle: job?.vehicle ?? 'vehicle' }));
-    } catch (error) {
-      console.error(`Job ${jobId}: could not send the ${kind} mail to ${person.email}`, error);
-    }
-  }
+  await mailEach(mailer, recipients(db, shopId, 'builder'), (person) => ownerEventMail(kind, person, { ...facts, publicUrl, jobId, vehicle: job?.vehicle ?? 'vehicle' }), `Job ${jobId}, ${kind} mail`);
 }
 
 async function tellBuildersPaid(deps: MailDeps, payment: typeof schema.payments.$inferSelect) {
@@ -106,11 +101,24 @@ export function shareRouter(deps: AppDeps, limit: ShareRateLimit = { windowMs: 6
   };
   router.get('/my/jobs', async (req, res) => {
     const { ctx, links } = await byAccount(req);
-    const jobs = [...new Map(links.map((l) => [l.jobId, l])).values()].map((l) => {
-      const view = loadOwnerView(db, l, () => '');
-      return { jobId: l.jobId, vehicle: view.vehicle, shopName: ctx.shop.name, approved: view.approval !== null, paid: view.payment?.state === 'paid' };
+    // One entry per job, in the order of its newest link; the list needs no analysis.
+    const jobIds = [...new Set(links.map((l) => l.jobId))];
+    if (!jobIds.length) return void res.json({ jobs: [] });
+    const vehicles = new Map(
+      db.select({ id: schema.jobs.id, vehicle: schema.jobs.vehicle }).from(schema.jobs).where(inArray(schema.jobs.id, jobIds)).all().map((j) => [j.id, j.vehicle]),
+    );
+    const approved = new Set(db.select({ jobId: schema.ownerApprovals.jobId }).from(schema.ownerApprovals).where(inArray(schema.ownerApprovals.jobId, jobIds)).all().map((a) => a.jobId));
+    const paid = new Set(
+      db
+        .select({ jobId: schema.payments.jobId })
+        .from(schema.payments)
+        .where(and(inArray(schema.payments.jobId, jobIds), eq(schema.payments.state, 'paid')))
+        .all()
+        .map((p) => p.jobId),
+    );
+    res.json({
+      jobs: jobIds.map((jobId) => ({ jobId, vehicle: vehicles.get(jobId) ?? '', shopName: ctx.shop.name, approved: approved.has(jobId), paid: paid.has(jobId) })),
     });
-    res.json({ jobs });
   });
   const mine: Resolve = async (req) => {
     const jobId = String(req.params.jobId);
@@ -166,7 +174,7 @@ function mountOwnerRoutes(router: Router, at: string, resolve: Resolve, deps: Ap
     const resolved = await resolve(req, db);
     const approval = db.transaction((tx) => {
       const link = tx.select().from(schema.shareLinks).where(eq(schema.shareLinks.id, resolved.link.id)).get();
-      if (!link || link.revokedAt || link.expiresAt.getTime() <= Date.now()) throw linkGone();
+      if (!linkOpen(link)) throw linkGone();
       if (loadApproval(tx, link.jobId)) throw conflict('An option is already approved for this job; call the shop to change it');
       const option = tx
         .select()
