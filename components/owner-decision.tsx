@@ -1,12 +1,12 @@
 import { useState } from 'react';
 import { Linking, Platform, Pressable, StyleSheet, Text, View } from 'react-native';
 
-import { formatDateTime } from '@/constants/format';
+import { formatCents, formatDateTime } from '@/constants/format';
 import { colors, fonts, radius, space } from '@/constants/theme';
 import { ApiError } from '@/hooks/api';
 import { rememberOwnerPage } from '@/hooks/owner-return';
 import { useApproveMutation, useStartDepositMutation } from '@/hooks/use-owner';
-import { formatMoney, type OwnerView, type OwnerViewOption } from '@/shared/owner';
+import type { OwnerView, OwnerViewOption } from '@/shared/owner';
 
 import { Button } from './button';
 import { TextField } from './text-field';
@@ -47,16 +47,16 @@ export function OwnerDecision({ base, view, chosen }: { base: string; view: Owne
           <View style={styles.paid} role="status" testID="deposit-paid">
             <Text style={styles.paidTitle}>Deposit paid</Text>
             <Text style={styles.paidBody}>
-              {formatMoney(paid.amountCents, paid.currency)} on {formatDateTime(paid.paidAt!)}. Thank you; the shop has been told.
+              {formatCents(paid.amountCents, paid.currency)} on {formatDateTime(paid.paidAt!)}. Thank you; the shop has been told.
             </Text>
           </View>
         ) : depositCents > 0 ? (
           <>
             <Text style={styles.body}>
-              To start the work, pay the deposit of {formatMoney(depositCents)}. The rest is due when the engine is back together.
+              To start the work, pay the deposit of {formatCents(depositCents)}. The rest is due when the engine is back together.
             </Text>
             <Button
-              label={`Pay the ${formatMoney(depositCents)} deposit`}
+              label={`Pay the ${formatCents(depositCents)} deposit`}
               busy={deposit.isPending}
               onPress={() => deposit.mutate(undefined, { onSuccess: ({ url }) => goTo(url) })}
               testID="pay-deposit"
@@ -81,7 +81,7 @@ export function OwnerDecision({ base, view, chosen }: { base: string; view: Owne
       </Text>
       {chosen ? (
         <Text style={styles.body} testID="owner-chosen">
-          You chose “{chosen.title}”: {formatMoney(chosen.priceCents)}, with a {formatMoney(chosen.depositCents)} deposit.
+          You chose “{chosen.title}”: {formatCents(chosen.priceCents)}, with a {formatCents(chosen.depositCents)} deposit.
         </Text>
       ) : (
         <Text style={styles.body}>Choose one of the options above first.</Text>

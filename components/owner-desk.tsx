@@ -1,7 +1,7 @@
 import { useState, type ReactNode } from 'react';
 import { Platform, StyleSheet, Text, View } from 'react-native';
 
-import { formatDateTime } from '@/constants/format';
+import { formatCents, formatDateTime } from '@/constants/format';
 import { colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
 import { ApiError } from '@/hooks/api';
 import {
@@ -15,7 +15,7 @@ import {
   type NewShareLink,
 } from '@/hooks/use-owner';
 import { useJobSheetsQuery } from '@/hooks/use-sheets';
-import { formatMoney, type OwnerDesk, type ShareLink } from '@/shared/owner';
+import type { OwnerDesk, ShareLink } from '@/shared/owner';
 
 import { Button } from './button';
 import { ChoiceGroup } from './choice-group';
@@ -62,7 +62,7 @@ export function OwnerStatus({ desk, error, title = "Owner's decision", children 
       )}
       <Text style={[styles.body, paid && styles.paid]} testID="desk-payment">
         {paid
-          ? `Deposit paid: ${formatMoney(paid.amountCents, paid.currency)} on ${formatDateTime(paid.paidAt!)}.`
+          ? `Deposit paid: ${formatCents(paid.amountCents, paid.currency)} on ${formatDateTime(paid.paidAt!)}.`
           : desk.payments.length
             ? 'Deposit started on the payment page, not paid yet.'
             : 'No deposit paid yet.'}
@@ -116,7 +116,7 @@ export function OwnerOptions({ jobId, desk, canEdit }: { jobId: string; desk: Ow
             {i + 1}. {o.title}
           </Text>
           <Text style={styles.body}>
-            {formatMoney(o.priceCents)} · deposit {formatMoney(o.depositCents)} · about {o.leadTimeDays} days
+            {formatCents(o.priceCents)} · deposit {formatCents(o.depositCents)} · about {o.leadTimeDays} days
           </Text>
           <Text style={styles.hint}>
             Sheet revision {o.revisionNumber}, checksum <Text style={styles.mono}>{o.checksum}</Text>

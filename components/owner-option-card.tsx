@@ -1,7 +1,8 @@
 import { Pressable, StyleSheet, Text, View } from 'react-native';
 
+import { formatCents } from '@/constants/format';
 import { colors, fonts, radius, space } from '@/constants/theme';
-import { formatMoney, type OwnerViewOption } from '@/shared/owner';
+import type { OwnerViewOption } from '@/shared/owner';
 
 import { ownerType } from './owner-type';
 
@@ -31,8 +32,8 @@ export function OwnerOptionCard({ option, referenceTitle, chosen, onChoose, appr
         ) : null}
       </View>
       <View style={styles.prices}>
-        <Figure label="Price" value={formatMoney(option.priceCents)} />
-        <Figure label="Deposit to start" value={formatMoney(option.depositCents)} />
+        <Figure label="Price" value={formatCents(option.priceCents)} />
+        <Figure label="Deposit to start" value={formatCents(option.depositCents)} />
         <Figure label="Cam ready in about" value={`${option.leadTimeDays} days`} />
       </View>
       {option.ownerNote ? <Text style={styles.body}>{option.ownerNote}</Text> : null}

@@ -2,13 +2,14 @@ import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
 import { useEffect, useRef, useState } from 'react';
 import { Image, ScrollView, StyleSheet, Text, View } from 'react-native';
 
+import { formatCents } from '@/constants/format';
+import { colors, radius, space } from '@/constants/theme';
+import { useConfirmDepositMutation, useOwnerViewQuery } from '@/hooks/use-owner';
+
 import { OwnerDecision } from './owner-decision';
 import { OwnerOptionCard } from './owner-option-card';
 import { ownerType } from './owner-type';
 import { ErrorNotice, Pending } from './query-state';
-import { colors, radius, space } from '@/constants/theme';
-import { useConfirmDepositMutation, useOwnerViewQuery } from '@/hooks/use-owner';
-import { formatMoney } from '@/shared/owner';
 
 /**
  * The owner's summary, opened from a share link with no account: what failed,
@@ -58,7 +59,7 @@ export function OwnerSummary({ base }: { base: string }) {
         {v.approval ? (
           <Text style={styles.banner} role="status" testID="owner-status-top">
             {v.payment?.state === 'paid'
-              ? `You approved “${v.approval.optionTitle}” and paid the ${formatMoney(v.payment.amountCents, v.payment.currency)} deposit. Thank you.`
+              ? `You approved “${v.approval.optionTitle}” and paid the ${formatCents(v.payment.amountCents, v.payment.currency)} deposit. Thank you.`
               : `You approved “${v.approval.optionTitle}”. The deposit is below.`}
           </Text>
         ) : null}

@@ -12,10 +12,15 @@ export const formatDate = (iso: string) => dateFormat.format(new Date(iso));
 export const formatDateTime = (iso: string) => dateTimeFormat.format(new Date(iso));
 export const formatMiles = (miles: number | null) => (miles == null ? 'Odometer not recorded' : `${wholeNumber.format(miles)} mi`);
 
-const money = new Intl.NumberFormat('en-US', { style: 'currency', currency: 'USD' });
+const moneyFormats = new Map<string, Intl.NumberFormat>();
 
-/** Whole cents as dollars, e.g. 48500 → "$485.00". */
-export const formatCents = (cents: number) => money.format(cents / 100);
+/** Whole cents as money, e.g. 48500 → "$485.00"; US dollars unless another ISO currency code is given. */
+export function formatCents(cents: number, currency = 'usd'): string {
+  const code = currency.toUpperCase();
+  let format = moneyFormats.get(code);
+  if (!format) moneyFormats.set(code, (format = new Intl.NumberFormat('en-US', { style: 'currency', currency: code })));
+  return format.format(cents / 100);
+}
 
 /** How long ago, in plain words: "just now", "5 minutes", "3 hours", "2 days". */
 export function formatAge(iso: string, now: number = Date.now()): string {

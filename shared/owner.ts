@@ -188,8 +188,3 @@ export type OwnerView = {
   payment: Payment | null;
   expiresAt: string;
 };
-
-/** "$1,234.50" from cents. */
-export function formatMoney(cents: number, currency = 'usd'): string {
-  return new Intl.NumberFormat('en-US', { style: 'currency', currency: currency.toUpperCase() }).format(cents / 100);
-}

@@ -1,4 +1,4 @@
-import { formatMoney } from '@/shared/owner';
+import { formatCents } from '@/constants/format';
 
 import { composeMail } from './compose';
 import type { MailMessage } from './index';
@@ -45,7 +45,7 @@ export type OwnerEventFacts = {
 
 /** To the builders: the owner approved an option, or paid the deposit. */
 export function ownerEventMail(kind: 'approved' | 'paid', to: Person, f: OwnerEventFacts): MailMessage {
-  const amount = f.amountCents === undefined ? '' : formatMoney(f.amountCents, f.currency);
+  const amount = f.amountCents === undefined ? '' : formatCents(f.amountCents, f.currency);
   const content =
     kind === 'approved'
       ? {

@@ -5,6 +5,8 @@ import express, { type Request, type Response } from 'express';
 import Stripe from 'stripe';
 import { z } from 'zod';
 
+import { formatCents } from '@/constants/format';
+
 import { escapeHtml } from '../mail/compose';
 
 /**
@@ -71,12 +73,8 @@ function apiError(res: Response, status: number, message: string, param?: string
   res.status(status).json({ error: { type: 'invalid_request_error', message, ...(param ? { param } : {}) } });
 }
 
-function money(cents: number, currency: string) {
-  return new Intl.NumberFormat('en-US', { style: 'currency', currency: currency.toUpperCase() }).format(cents / 100);
-}
-
 function payPage(session: Session) {
-  const amount = escapeHtml(money(session.amount_total, session.currency));
+  const amount = escapeHtml(formatCents(session.amount_total, session.currency));
   const done = session.status === 'complete';
   return `<!doctype html>
 <html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width,initial-scale=1">
