@@ -143,15 +143,14 @@ export function OwnerOptions({ jobId, desk, canEdit }: { jobId: string; desk: Ow
   );
 }
 
+const blankOption = { sheetId: '', title: '', note: '', price: '', deposit: '', days: '' };
+
 function AddOption({ jobId }: { jobId: string }) {
   const sheets = useJobSheetsQuery(jobId);
   const add = useAddOwnerOptionMutation(jobId);
-  const [sheetId, setSheetId] = useState('');
-  const [title, setTitle] = useState('');
-  const [note, setNote] = useState('');
-  const [price, setPrice] = useState('');
-  const [deposit, setDeposit] = useState('');
-  const [days, setDays] = useState('');
+  const [form, setForm] = useState(blankOption);
+  const set = (key: keyof typeof blankOption) => (value: string) => setForm((f) => ({ ...f, [key]: value }));
+  const { sheetId, title, note, price, deposit, days } = form;
   const fields = add.error instanceof ApiError ? add.error.fields : {};
   const list = sheets.data ?? [];
   if (!list.length) return <Text style={styles.hint}>Start a spec sheet on this job to offer it.</Text>;
@@ -159,28 +158,19 @@ function AddOption({ jobId }: { jobId: string }) {
   const submit = () =>
     add.mutate(
       { sheetId, title: title.trim() || chosen?.current.label || '', ownerNote: note, priceCents: centsFromText(price), depositCents: centsFromText(deposit), leadTimeDays: Number(days) },
-      {
-        onSuccess: () => {
-          setSheetId('');
-          setTitle('');
-          setNote('');
-          setPrice('');
-          setDeposit('');
-          setDays('');
-        },
-      },
+      { onSuccess: () => setForm(blankOption) },
     );
   return (
     <View style={styles.form} testID="add-owner-option">
       <Text style={styles.optionTitle}>Offer another option</Text>
-      <ChoiceGroup label="Spec sheet" value={sheetId} choices={list.map((s) => ({ value: s.id, label: `${s.title} (rev ${s.current.number})` }))} onChange={setSheetId} testID="add-option-sheet" />
+      <ChoiceGroup label="Spec sheet" value={sheetId} choices={list.map((s) => ({ value: s.id, label: `${s.title} (rev ${s.current.number})` }))} onChange={set('sheetId')} testID="add-option-sheet" />
       {fields.sheetId ? <Text style={styles.warn}>{fields.sheetId}</Text> : null}
-      <TextField label="Name for the owner" placeholder={chosen?.current.label} value={title} onChangeText={setTitle} error={fields.title} testID="add-option-title" />
-      <TextField label="A line for the owner" value={note} onChangeText={setNote} multiline error={fields.ownerNote} testID="add-option-note" />
+      <TextField label="Name for the owner" placeholder={chosen?.current.label} value={title} onChangeText={set('title')} error={fields.title} testID="add-option-title" />
+      <TextField label="A line for the owner" value={note} onChangeText={set('note')} multiline error={fields.ownerNote} testID="add-option-note" />
       <View style={styles.row}>
-        <TextField label="Price" unit="$" value={price} onChangeText={setPrice} inputMode="decimal" error={fields.priceCents} testID="add-option-price" />
-        <TextField label="Deposit" unit="$" value={deposit} onChangeText={setDeposit} inputMode="decimal" error={fields.depositCents} testID="add-option-deposit" />
-        <TextField label="Lead time" unit="days" value={days} onChangeText={setDays} inputMode="numeric" error={fields.leadTimeDays} testID="add-option-days" />
+        <TextField label="Price" unit="$" value={price} onChangeText={set('price')} inputMode="decimal" error={fields.priceCents} testID="add-option-price" />
+        <TextField label="Deposit" unit="$" value={deposit} onChangeText={set('deposit')} inputMode="decimal" error={fields.depositCents} testID="add-option-deposit" />
+        <TextField label="Lead time" unit="days" value={days} onChangeText={set('days')} inputMode="numeric" error={fields.leadTimeDays} testID="add-option-days" />
       </View>
       <Button label="Offer this option" busy={add.isPending} disabled={!sheetId} onPress={submit} testID="add-option-submit" />
       {add.error && !Object.keys(fields).length ? (
