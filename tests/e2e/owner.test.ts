@@ -26,6 +26,18 @@ describe('owner summary, approval and deposit', () => {
     expect(await shown(b, 'desk-option-0').textContent()).toContain('Stock-spec regrind (demo)');
     expect(await shown(b, 'desk-option-1').textContent()).toContain('Towing regrind (demo)');
     expect(await shown(b, 'desk-approval').textContent()).toBe('Not approved yet.');
+    // A third option, with a deposit above its price refused first.
+    await shown(b, 'add-option-sheet-demo-sheet-flatbed-stock').click();
+    await shown(b, 'add-option-title').fill('Stock-spec, quick turnaround (demo)');
+    await shown(b, 'add-option-price').fill('1,050.50');
+    await shown(b, 'add-option-deposit').fill('2000');
+    await shown(b, 'add-option-days').fill('3');
+    await shown(b, 'add-option-submit').click();
+    await expect.poll(() => shown(b, 'add-option-deposit-error').textContent()).toContain('The deposit cannot be more than the price');
+    await shown(b, 'add-option-deposit').fill('300');
+    await shown(b, 'add-option-submit').click();
+    await expect.poll(() => shown(b, 'desk-option-2').textContent()).toContain('$1,050.50 · deposit $300.00 · about 3 days');
+    expect(await shown(b, 'add-option-title').inputValue()).toBe('');
     await shown(b, 'share-link-create').click();
     const url = (await shown(b, 'share-link-url').textContent()) ?? '';
     expect(url).toMatch(new RegExp(`^${baseUrl()}/share/[A-Za-z0-9_-]{43}$`));
