@@ -1,11 +1,12 @@
 import { useState } from 'react';
+import { useQueryClient } from '@tanstack/react-query';
 import { Linking, Platform, Pressable, StyleSheet, Text, View } from 'react-native';
 
 import { formatCents, formatDateTime } from '@/constants/format';
 import { colors, fonts, radius, space } from '@/constants/theme';
 import { ApiError } from '@/hooks/api';
 import { rememberOwnerPage } from '@/hooks/owner-return';
-import { useApproveMutation, useStartDepositMutation } from '@/hooks/use-owner';
+import { ownerKeys, useApproveMutation, useStartDepositMutation } from '@/hooks/use-owner';
 import type { OwnerView, OwnerViewOption } from '@/shared/owner';
 
 import { Button } from './button';
@@ -26,12 +27,19 @@ export function OwnerDecision({ base, view, chosen }: { base: string; view: Owne
   const deposit = useStartDepositMutation(base);
   const [name, setName] = useState(view.customerName.replace(/\s*\(demo\)$/, ''));
   const [agree, setAgree] = useState(false);
+  const queryClient = useQueryClient();
   const fields = approve.error instanceof ApiError ? approve.error.fields : {};
-  const approvedOption = view.approval ? view.options.find((o) => o.id === view.approval!.optionId) : undefined;
+  // The shop changed the offer after this page was read: show it again before anything is approved.
+  const offerChanged = approve.error instanceof ApiError && approve.error.code === 'offer_changed';
+  const money = (cents: number) => formatCents(cents, view.currency);
+  const reload = () => {
+    approve.reset();
+    void queryClient.invalidateQueries({ queryKey: ownerKeys.view(base) });
+  };
 
   if (view.approval) {
     const paid = view.payment?.state === 'paid' ? view.payment : null;
-    const depositCents = approvedOption?.depositCents ?? 0;
+    const depositCents = view.approval.depositCents;
     return (
       <View style={styles.box} testID="owner-decision">
         <Text role="heading" aria-level={2} style={styles.heading}>
@@ -50,13 +58,17 @@ export function OwnerDecision({ base, view, chosen }: { base: string; view: Owne
               {formatCents(paid.amountCents, paid.currency)} on {formatDateTime(paid.paidAt!)}. Thank you; the shop has been told.
             </Text>
           </View>
+        ) : depositCents > 0 && !view.depositsOn ? (
+          <Text style={styles.body} testID="deposit-in-person">
+            The deposit of {money(depositCents)} is paid at the shop: card payments are not taken on this page. Call the shop to arrange it.
+          </Text>
         ) : depositCents > 0 ? (
           <>
             <Text style={styles.body}>
-              To start the work, pay the deposit of {formatCents(depositCents)}. The rest is due when the engine is back together.
+              To start the work, pay the deposit of {money(depositCents)}. The rest is due when the engine is back together.
             </Text>
             <Button
-              label={`Pay the ${formatCents(depositCents)} deposit`}
+              label={`Pay the ${money(depositCents)} deposit`}
               busy={deposit.isPending}
               onPress={() => deposit.mutate(undefined, { onSuccess: ({ url }) => goTo(url) })}
               testID="pay-deposit"
@@ -81,7 +93,7 @@ export function OwnerDecision({ base, view, chosen }: { base: string; view: Owne
       </Text>
       {chosen ? (
         <Text style={styles.body} testID="owner-chosen">
-          You chose “{chosen.title}”: {formatCents(chosen.priceCents)}, with a {formatCents(chosen.depositCents)} deposit.
+          You chose “{chosen.title}”: {money(chosen.priceCents)}, with a {money(chosen.depositCents)} deposit, ready in about {chosen.leadTimeDays} days.
         </Text>
       ) : (
         <Text style={styles.body}>Choose one of the options above first.</Text>
@@ -106,11 +118,16 @@ export function OwnerDecision({ base, view, chosen }: { base: string; view: Owne
       <Button
         label="Approve"
         busy={approve.isPending}
-        disabled={!chosen}
-        onPress={() => chosen && approve.mutate({ optionId: chosen.id, checksum: chosen.checksum, name, agree: agree as true })}
+        disabled={!chosen || offerChanged}
+        onPress={() => chosen && approve.mutate({ optionId: chosen.id, checksum: chosen.checksum, offer: chosen.offer, name, agree: agree as true })}
         testID="approve"
       />
-      {approve.error && !Object.keys(fields).length ? (
+      {offerChanged ? (
+        <View role="alert" style={styles.changed} testID="offer-changed">
+          <Text style={styles.changedText}>{approve.error!.message}</Text>
+          <Button label="Show the shop's new offer" variant="secondary" onPress={reload} testID="offer-reload" />
+        </View>
+      ) : approve.error && !Object.keys(fields).length ? (
         <Text role="alert" style={styles.error}>
           {approve.error.message}
         </Text>
@@ -126,6 +143,8 @@ const styles = StyleSheet.create({
   small: { ...ownerType.small, color: colors.inkMuted },
   mono: { fontFamily: fonts.mono },
   error: { ...ownerType.body, color: colors.fail },
+  changed: { gap: space.md, padding: space.md, borderRadius: radius.md, borderWidth: 2, borderColor: colors.fail, backgroundColor: colors.failSoft },
+  changedText: { ...ownerType.body, color: colors.ink },
   agree: { flexDirection: 'row', alignItems: 'center', gap: space.md, minHeight: 56 },
   tick: { width: 30, height: 30, borderRadius: radius.sm, borderWidth: 3, borderColor: colors.ink, alignItems: 'center', justifyContent: 'center', backgroundColor: colors.surface },
   tickOn: { backgroundColor: colors.accent, borderColor: colors.accent },

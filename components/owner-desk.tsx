@@ -67,6 +67,15 @@ export function OwnerStatus({ desk, error, title = "Owner's decision", children 
             ? 'Deposit started on the payment page, not paid yet.'
             : 'No deposit paid yet.'}
       </Text>
+      {desk.payments
+        .filter((p) => p.state === 'refund-due' || p.state === 'refunded')
+        .map((p) => (
+          <Text key={p.id} style={styles.body} testID="desk-second-payment">
+            {p.state === 'refunded'
+              ? `A second payment of ${formatCents(p.amountCents, p.currency)} was refunded to the owner automatically.`
+              : `A second payment of ${formatCents(p.amountCents, p.currency)} needs a refund: the payment service did not take the refund; give it back from its dashboard.`}
+          </Text>
+        ))}
       {children}
     </Section>
   );

@@ -8,6 +8,8 @@ import { ownerType } from './owner-type';
 
 type OwnerOptionCardProps = {
   option: OwnerViewOption;
+  /** Currency of the page's prices. */
+  currency: string;
   /** The first option's title: every other option is compared with it. */
   referenceTitle: string;
   chosen: boolean;
@@ -17,7 +19,7 @@ type OwnerOptionCardProps = {
 };
 
 /** One option the shop offers: price, deposit, time, and what changes, in plain words. */
-export function OwnerOptionCard({ option, referenceTitle, chosen, onChoose, approved }: OwnerOptionCardProps) {
+export function OwnerOptionCard({ option, currency, referenceTitle, chosen, onChoose, approved }: OwnerOptionCardProps) {
   const points = option.comparison?.points.filter((p) => p.topic !== 'fit') ?? [];
   return (
     <View style={[styles.card, chosen && styles.chosen]} testID={`owner-option-${option.id}`}>
@@ -32,8 +34,8 @@ export function OwnerOptionCard({ option, referenceTitle, chosen, onChoose, appr
         ) : null}
       </View>
       <View style={styles.prices}>
-        <Figure label="Price" value={formatCents(option.priceCents)} />
-        <Figure label="Deposit to start" value={formatCents(option.depositCents)} />
+        <Figure label="Price" value={formatCents(option.priceCents, currency)} />
+        <Figure label="Deposit to start" value={formatCents(option.depositCents, currency)} />
         <Figure label="Cam ready in about" value={`${option.leadTimeDays} days`} />
       </View>
       {option.ownerNote ? <Text style={styles.body}>{option.ownerNote}</Text> : null}

@@ -87,6 +87,7 @@ export function OwnerSummary({ base }: { base: string }) {
             <OwnerOptionCard
               key={o.id}
               option={o}
+              currency={v.currency}
               referenceTitle={reference?.title ?? o.title}
               chosen={chosen?.id === o.id}
               approved={v.approval?.optionId === o.id}

@@ -478,12 +478,21 @@ export const ownerApprovals = sqliteTable('owner_approvals', {
   optionTitle: text('option_title').notNull(),
   priceCents: integer('price_cents').notNull(),
   depositCents: integer('deposit_cents').notNull(),
+  /** The rest of the offer the owner read: its currency, lead time, and the checksum over all of it (shared/checksum.ts offerChecksum). */
+  currency: text('currency').notNull().default('usd'),
+  leadTimeDays: integer('lead_time_days').notNull().default(0),
+  offerChecksum: text('offer_checksum').notNull().default(''),
   approverName: text('approver_name').notNull(),
   shareLinkId: text('share_link_id').references(() => shareLinks.id, { onDelete: 'set null' }),
   createdAt: createdAt(),
 });
 
-/** A deposit: one checkout session at the payment service; paid when its completed event arrives. */
+/**
+ * A deposit: one checkout session at the payment service. At most one is open per
+ * approval; the row is written (without a session) before the service is called, so
+ * two tabs cannot both start one. `refund-due`/`refunded`: a second payment of an
+ * already-paid deposit, given back through the payment service.
+ */
 export const payments = sqliteTable(
   'payments',
   {
@@ -493,21 +502,30 @@ export const payments = sqliteTable(
     approvalId: text('approval_id')
       .notNull()
       .references(() => ownerApprovals.id, { onDelete: 'cascade' }),
-    checkoutSessionId: text('checkout_session_id').notNull().unique(),
+    /** Null only while the session is being created. */
+    checkoutSessionId: text('checkout_session_id').unique(),
+    checkoutUrl: text('checkout_url'),
     amountCents: integer('amount_cents').notNull(),
     currency: text('currency').notNull(),
-    state: text('state', { enum: ['open', 'paid'] })
+    state: text('state', { enum: ['open', 'paid', 'expired', 'refund-due', 'refunded'] })
       .notNull()
       .default('open'),
+    paymentIntentId: text('payment_intent_id'),
+    refundId: text('refund_id'),
     paidAt: integer('paid_at', { mode: 'timestamp_ms' }),
     createdAt: createdAt(),
   },
-  (t) => [index('payments_job_idx').on(t.jobId, t.createdAt)],
+  (t) => [
+    index('payments_job_idx').on(t.jobId, t.createdAt),
+    uniqueIndex('payments_one_open_per_approval_idx').on(t.approvalId).where(sql`state = 'open'`),
+  ],
 );
 
 /** Every payment-service event handled once; a replayed event id is ignored. */
 export const paymentEvents = sqliteTable('payment_events', {
   id: text('id').primaryKey(),
   type: text('type').notNull(),
+  /** What the event did: paid, ignored, refused (amount or currency not the deposit's), refund (a second payment). */
+  outcome: text('outcome'),
   receivedAt: createdAt(),
 });

@@ -49,6 +49,8 @@ export type CreateAppOptions = {
   devTools?: boolean;
   /** Deposit payments (the payment SDK, pointed at the local fake or the real service); unset, deposits answer 503. */
   payments?: Payments;
+  /** Currency of prices when payments are off (with payments on, theirs); default usd. */
+  currency?: string;
   /** Requests per address to the owner's share pages (default 120 a minute). */
   shareRateLimit?: ShareRateLimit;
   /** Attempts per network address on the sign-in routes (server/security.ts); default on when NODE_ENV is production, false turns it off. */
@@ -58,7 +60,7 @@ export type CreateAppOptions = {
 const dev = process.env.NODE_ENV !== 'production';
 
 /** Builds the whole app without listening, so tests can drive it on an in-memory database. */
-export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLimit, uploadsDir, mailer, devTools = dev, payments, shareRateLimit, authRateLimit }: CreateAppOptions) {
+export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLimit, uploadsDir, mailer, devTools = dev, payments, currency = 'usd', shareRateLimit, authRateLimit }: CreateAppOptions) {
   const auth = createAuth({ db, baseURL, secret, rateLimit: authRateLimit ?? (dev ? false : defaultAuthRateLimit) });
   const deps: AppDeps = {
     db,
@@ -67,6 +69,7 @@ export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLi
     mailer: mailer ?? createMailer({ db }),
     publicUrl: baseURL,
     payments,
+    currency: payments?.currency ?? currency,
   };
   const app = express();
   app.disable('x-powered-by');

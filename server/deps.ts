@@ -16,4 +16,6 @@ export type AppDeps = {
   publicUrl: string;
   /** Deposits through the payment SDK (the local fake unless STRIPE_SECRET_KEY is set); unset: deposits answer 503. */
   payments?: Payments;
+  /** Currency of prices and deposits (the payment settings' PAYMENT_CURRENCY). */
+  currency: string;
 };

@@ -5,6 +5,7 @@ import type { ProfileAnalysis } from '@/calc/analysis';
 import type { Db } from '@/db';
 import { schema } from '@/db';
 import { analyzeRecords } from '@/shared/analysis';
+import { offerChecksum } from '@/shared/checksum';
 import { productCautions } from '@/shared/cautions';
 import type { Approval, OwnerDesk, OwnerOption, OwnerView, OwnerViewOption, Payment, ShareLink } from '@/shared/owner';
 
@@ -45,6 +46,11 @@ export function toApproval(row: ApprovalRow): Approval {
     optionTitle: row.optionTitle,
     revisionId: row.revisionId,
     checksum: row.checksum,
+    priceCents: row.priceCents,
+    depositCents: row.depositCents,
+    currency: row.currency,
+    leadTimeDays: row.leadTimeDays,
+    offer: row.offerChecksum,
     name: row.approverName,
     at: row.createdAt.toISOString(),
   };
@@ -148,12 +154,19 @@ function figures(a: ProfileAnalysis): OwnerViewOption['figures'] {
   };
 }
 
+/** The checksum over an option's whole offer in `currency`: what the owner's approval must quote. */
+export const optionOffer = (option: Pick<OptionRow, 'checksum' | 'title' | 'priceCents' | 'depositCents' | 'leadTimeDays'>, currency: string) =>
+  offerChecksum({ checksum: option.checksum, title: option.title, priceCents: option.priceCents, depositCents: option.depositCents, leadTimeDays: option.leadTimeDays, currency });
+
+/** How this server prices and takes deposits. */
+export type OwnerTerms = { currency: string; depositsOn: boolean };
+
 /**
  * The owner's page: the shop's words about what failed, shareable photos, and
  * each option compared in plain words with the first (the reference). Nothing
  * internal: no findings, notes, core notes, measurements or grinder threads.
  */
-export function loadOwnerView(db: Reader, link: Pick<LinkRow, 'shopId' | 'jobId' | 'expiresAt'>, photoUrl: (id: string) => string): OwnerView {
+export function loadOwnerView(db: Reader, link: Pick<LinkRow, 'shopId' | 'jobId' | 'expiresAt'>, photoUrl: (id: string) => string, terms: OwnerTerms): OwnerView {
   const job = db
     .select({ vehicle: schema.jobs.vehicle, customerName: schema.jobs.customerName, shopName: schema.shops.name })
     .from(schema.jobs)
@@ -175,6 +188,7 @@ export function loadOwnerView(db: Reader, link: Pick<LinkRow, 'shopId' | 'jobId'
       depositCents: r.option.depositCents,
       leadTimeDays: r.option.leadTimeDays,
       checksum: r.option.checksum,
+      offer: optionOffer(r.option, terms.currency),
       revisionNumber: r.revision.number,
       status: a.status,
       comparison:
@@ -193,7 +207,8 @@ export function loadOwnerView(db: Reader, link: Pick<LinkRow, 'shopId' | 'jobId'
     .all();
   const approval = loadApproval(db, link.jobId);
   const payments = loadPayments(db, link.jobId);
-  const payment = payments.find((p) => p.state === 'paid') ?? payments[0];
+  // The paid deposit if there is one, else the newest attempt; a refunded second payment never stands for it.
+  const payment = payments.find((p) => p.state === 'paid') ?? payments.find((p) => p.state === 'open' || p.state === 'expired');
   return {
     shopName: job.shopName,
     vehicle: job.vehicle,
@@ -204,6 +219,8 @@ export function loadOwnerView(db: Reader, link: Pick<LinkRow, 'shopId' | 'jobId'
     cautions: [...OWNER_CAUTIONS, productCautions.practice],
     approval: approval ? toApproval(approval) : null,
     payment: payment ? toPayment(payment) : null,
+    currency: terms.currency,
+    depositsOn: terms.depositsOn,
     expiresAt: link.expiresAt.toISOString(),
   };
 }

@@ -97,3 +97,15 @@ export type ChecksumContent = { number: number; label: string; spec: unknown; en
 export function revisionChecksum({ number, label, spec, engine, note }: ChecksumContent): string {
   return sha256Hex(canonicalJson({ number, label, spec, engine, note })).slice(0, 12);
 }
+
+/** What the owner is offered for one option: the revision (by its checksum) and the terms. */
+export type OfferContent = { checksum: string; title: string; priceCents: number; depositCents: number; currency: string; leadTimeDays: number };
+
+/**
+ * First 12 hex characters of SHA-256 over the canonical JSON of the whole offer. The
+ * owner's approval quotes it, so a price, deposit, currency, lead time, title or
+ * revision changed after the page was read is refused rather than approved unseen.
+ */
+export function offerChecksum({ checksum, title, priceCents, depositCents, currency, leadTimeDays }: OfferContent): string {
+  return sha256Hex(canonicalJson({ checksum, title, priceCents, depositCents, currency, leadTimeDays })).slice(0, 12);
+}

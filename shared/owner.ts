@@ -81,10 +81,11 @@ export const shareLinkCreateSchema = z.strictObject({
 });
 export type ShareLinkCreate = z.input<typeof shareLinkCreateSchema>;
 
-/** The owner approves one option, naming the exact revision they read by its checksum. */
+/** The owner approves one option, naming the exact revision they read by its checksum and the whole offer by its offer checksum. */
 export const approveSchema = z.strictObject({
   optionId: z.string({ error: 'Choose an option' }).min(1, 'Choose an option'),
   checksum: z.string({ error: 'Send the checksum shown with the option' }).regex(/^[0-9a-f]{12}$/, 'The checksum is 12 hex digits'),
+  offer: z.string({ error: 'Send the offer checksum of the option you read' }).regex(/^[0-9a-f]{12}$/, 'The offer checksum is 12 hex digits'),
   name: z.string({ error: 'Type your name' }).trim().min(1, 'Type your name').max(120, 'Keep the name under 120 characters'),
   agree: z.literal(true, { error: 'Tick the box to approve' }),
 });
@@ -129,11 +130,18 @@ export type Approval = {
   optionTitle: string;
   revisionId: string;
   checksum: string;
+  /** The terms approved, as the owner read them. */
+  priceCents: number;
+  depositCents: number;
+  currency: string;
+  leadTimeDays: number;
+  offer: string;
   name: string;
   at: string;
 };
 
-export type PaymentState = 'open' | 'paid';
+/** `refund-due`/`refunded`: a second payment of a deposit already paid, given back. */
+export type PaymentState = 'open' | 'paid' | 'expired' | 'refund-due' | 'refunded';
 
 export type Payment = {
   id: string;
@@ -164,6 +172,8 @@ export type OwnerViewOption = {
   depositCents: number;
   leadTimeDays: number;
   checksum: string;
+  /** Checksum of the whole offer (shared/checksum.ts offerChecksum); the approval quotes it. */
+  offer: string;
   revisionNumber: number;
   /** Worst fit-check status worked out from the numbers. */
   status: CheckStatus;
@@ -186,5 +196,9 @@ export type OwnerView = {
   cautions: string[];
   approval: Approval | null;
   payment: Payment | null;
+  /** Currency of every price and deposit on the page. */
+  currency: string;
+  /** Whether this server takes card deposits; when off, the shop takes the deposit in person. */
+  depositsOn: boolean;
   expiresAt: string;
 };

@@ -7,11 +7,11 @@ import path from 'node:path';
 import { DEMO_ENGINE, DEMO_TOWING } from '@/calc/demo';
 import { openDb, schema, type Db } from '@/db';
 import { createApp, type App, type CreateAppOptions } from '@/server/app';
-import { startLocalPayments } from '@/server/payments';
+import { startLocalPayments, type Payments } from '@/server/payments';
 import type { FakePaymentService } from '@/server/payments/fake-service';
 import type { ShopKind, ShopRole } from '@/shared/roles';
 
-export type TestApp = { app: App; db: Db; url: string; uploadsDir: string; paymentService: FakePaymentService; close: () => Promise<void> };
+export type TestApp = { app: App; db: Db; url: string; uploadsDir: string; payments: Payments; paymentService: FakePaymentService; close: () => Promise<void> };
 
 /** A real app on an in-memory database, listening on a free loopback port. */
 export async function createTestApp(options: Pick<CreateAppOptions, 'calcRateLimit' | 'devTools' | 'shareRateLimit' | 'authRateLimit'> = {}): Promise<TestApp> {
@@ -28,7 +28,7 @@ export async function createTestApp(options: Pick<CreateAppOptions, 'calcRateLim
   });
   const url = `http://127.0.0.1:${port}`;
   // Deposits go to the local fake payment service, as they do when the app runs without STRIPE_SECRET_KEY.
-  const { payments, service: paymentService } = await startLocalPayments({ publicUrl: url, listenHost: '127.0.0.1' });
+  const { payments, service: paymentService } = await startLocalPayments({ publicUrl: url });
   const app = createApp({ db, baseURL: url, secret: 'test-secret-test-secret-test-secret', uploadsDir, payments, ...options });
   await new Promise<void>((resolve) => {
     server = app.listen(port, '127.0.0.1', () => resolve());
@@ -38,6 +38,7 @@ export async function createTestApp(options: Pick<CreateAppOptions, 'calcRateLim
     db,
     url,
     uploadsDir,
+    payments,
     paymentService,
     close: () =>
       new Promise<void>((resolve) => {

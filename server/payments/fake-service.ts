@@ -12,9 +12,9 @@ import { escapeHtml } from '../mail/compose';
 /**
  * A stand-in for the card payment service, run by Lobewright itself so the whole
  * product works offline. It answers the few calls the payment SDK makes for a
- * deposit (create and retrieve a Checkout Session), serves a plain pay page,
- * and on "pay" sends a signed `checkout.session.completed` event to the webhook,
- * signed the way the SDK verifies it. No card data, no real money.
+ * deposit (create, retrieve and expire a Checkout Session; refund a payment),
+ * serves a plain pay page, and on "pay" sends a signed `checkout.session.completed`
+ * event to the webhook, signed the way the SDK verifies it. No card data, no real money.
  */
 
 export type FakePaymentOptions = {
@@ -24,15 +24,18 @@ export type FakePaymentOptions = {
   webhookSecret: string;
   /** The API key the SDK must send. */
   apiKey: string;
-  /** Host name people's browsers use to reach this service (the app's public host). */
-  publicHost?: string;
 };
+
+/** The fake listens only here: nobody on the network can reach it, let alone sign with its secret. */
+export const LOOPBACK = '127.0.0.1';
+
+type Refund = { id: string; object: 'refund'; amount: number; currency: string; payment_intent: string; status: 'succeeded'; created: number };
 
 type Session = {
   id: string;
   object: 'checkout.session';
   mode: 'payment';
-  status: 'open' | 'complete';
+  status: 'open' | 'complete' | 'expired';
   payment_status: 'unpaid' | 'paid';
   amount_total: number;
   currency: string;
@@ -101,8 +104,9 @@ ${session.cancel_url ? `<p><a href="${escapeHtml(session.cancel_url)}">Go back w
 </main></body></html>`;
 }
 
-export function createFakePaymentService({ webhookUrl, webhookSecret, apiKey, publicHost = 'localhost' }: FakePaymentOptions) {
+export function createFakePaymentService({ webhookUrl, webhookSecret, apiKey }: FakePaymentOptions) {
   const sessions = new Map<string, Session>();
+  const refunds = new Map<string, Refund>();
   const signer = new Stripe(apiKey);
   let origin = '';
   const app = express();
@@ -151,6 +155,24 @@ export function createFakePaymentService({ webhookUrl, webhookSecret, apiKey, pu
     res.json(session);
   });
 
+  app.post('/v1/checkout/sessions/:id/expire', requireKey, (req, res) => {
+    const session = sessions.get(String(req.params.id));
+    if (!session) return apiError(res, 404, `No such checkout.session: '${req.params.id}'`, 'id');
+    if (session.status !== 'open') return apiError(res, 400, `Only an open session can be expired; this one is ${session.status}`, 'session');
+    Object.assign(session, { status: 'expired', url: null });
+    res.json(session);
+  });
+
+  app.post('/v1/refunds', requireKey, express.urlencoded({ extended: false, limit: '10kb' }), (req: Request, res: Response) => {
+    const intent = typeof req.body?.payment_intent === 'string' ? req.body.payment_intent : '';
+    const session = [...sessions.values()].find((s) => s.payment_intent === intent && intent !== '');
+    if (!session) return apiError(res, 404, `No such payment_intent: '${intent}'`, 'payment_intent');
+    if ([...refunds.values()].some((r) => r.payment_intent === intent)) return apiError(res, 400, 'This payment has already been refunded', 'payment_intent');
+    const refund: Refund = { id: randomId('re'), object: 'refund', amount: session.amount_total, currency: session.currency, payment_intent: intent, status: 'succeeded', created: Math.floor(Date.now() / 1000) };
+    refunds.set(refund.id, refund);
+    res.json(refund);
+  });
+
   app.get('/pay/:id', (req, res) => {
     const session = sessions.get(req.params.id);
     if (!session) return res.status(404).type('text/plain').send('No such payment');
@@ -160,15 +182,16 @@ export function createFakePaymentService({ webhookUrl, webhookSecret, apiKey, pu
   app.post('/pay/:id', async (req, res) => {
     const session = sessions.get(req.params.id);
     if (!session) return res.status(404).type('text/plain').send('No such payment');
-    if (session.status === 'open') {
-      session.status = 'complete';
-      session.payment_status = 'paid';
-      session.payment_intent = randomId('pi');
-      session.url = null;
-      await deliver(session);
-    }
+    if (session.status === 'expired') return res.status(410).type('text/plain').send('This payment page has expired');
+    if (session.status === 'open') await complete(session);
     res.redirect(303, session.success_url.replace('{CHECKOUT_SESSION_ID}', session.id));
   });
+
+  /** Marks the session paid and reports it, as a card payment on the pay page would. */
+  async function complete(session: Session) {
+    Object.assign(session, { status: 'complete', payment_status: 'paid', payment_intent: randomId('pi'), url: null });
+    await deliver(session);
+  }
 
   /** Sends the completed event, signed like the real service; a failure is logged (the app can still retrieve the session). */
   async function deliver(session: Session) {
@@ -194,15 +217,22 @@ export function createFakePaymentService({ webhookUrl, webhookSecret, apiKey, pu
   return {
     app,
     sessions,
-    /** Starts listening (port 0 picks a free one) and returns where the SDK should connect. */
-    listen(port = 0, host?: string) {
-      return new Promise<{ port: number; origin: string }>((resolve) => {
-        const ready = () => {
+    refunds,
+    /** Pays an open session as the pay page's button does (tests). */
+    async pay(id: string) {
+      const session = sessions.get(id);
+      if (!session || session.status !== 'open') throw new Error(`No open session ${id}`);
+      await complete(session);
+    },
+    /** Starts listening on the loopback interface (port 0 picks a free one) and returns where the SDK should connect. */
+    listen(port = 0) {
+      return new Promise<{ port: number; origin: string }>((resolve, reject) => {
+        server = app.listen(port, LOOPBACK, (error?: Error) => {
+          if (error) return reject(error);
           const actual = (server!.address() as AddressInfo).port;
-          origin = `http://${publicHost}:${actual}`;
+          origin = `http://${LOOPBACK}:${actual}`;
           resolve({ port: actual, origin });
-        };
-        server = host ? app.listen(port, host, ready) : app.listen(port, ready);
+        });
       });
     },
     close() {

@@ -1,6 +1,8 @@
+import { randomBytes } from 'node:crypto';
+
 import Stripe from 'stripe';
 
-import { createFakePaymentService, type FakePaymentService } from './fake-service';
+import { createFakePaymentService, LOOPBACK, type FakePaymentService } from './fake-service';
 
 /** How the app takes deposits: the payment SDK pointed at the real service or at the local fake. */
 export type Payments = {
@@ -12,44 +14,31 @@ export type Payments = {
   currency: string;
 };
 
-/** The key and secret the local fake uses: not secrets, since nothing real moves. */
-export const localFakeKeys = { apiKey: 'sk_test_lobewright_local_fake', webhookSecret: 'whsec_lobewright_local_fake' } as const;
-
 /** The real payment service, with the account's secret key and its webhook signing secret. */
 export function servicePayments({ secretKey, webhookSecret, currency }: { secretKey: string; webhookSecret: string; currency: string }): Payments {
   return { kind: 'service', stripe: new Stripe(secretKey, { maxNetworkRetries: 2 }), webhookSecret, currency };
 }
 
 /**
- * Starts the local fake payment service and an SDK client pointed at it
- * (the SDK's host, port and protocol settings).
+ * Starts the local fake payment service on the loopback interface, with an API key
+ * and a webhook signing secret made up for this start and handed to the app
+ * in-process (nothing to copy, nothing in the source), and an SDK client pointed
+ * at it (the SDK's host, port and protocol settings).
  */
 export async function startLocalPayments({
   publicUrl,
   port = 0,
   currency = 'usd',
-  listenHost,
 }: {
-  /** The app's public origin: the webhook goes to its /api/payments/webhook, and the pay page uses its host name. */
+  /** The app's public origin: the webhook goes to its /api/payments/webhook. */
   publicUrl: string;
   port?: number;
   currency?: string;
-  listenHost?: string;
 }): Promise<{ payments: Payments; service: FakePaymentService; origin: string }> {
-  const app = new URL(publicUrl);
-  const service = createFakePaymentService({
-    webhookUrl: new URL('/api/payments/webhook', app).toString(),
-    webhookSecret: localFakeKeys.webhookSecret,
-    apiKey: localFakeKeys.apiKey,
-    publicHost: app.hostname,
-  });
-  const { port: actual, origin } = await service.listen(port, listenHost);
-  const stripe = new Stripe(localFakeKeys.apiKey, {
-    host: listenHost ?? 'localhost',
-    port: actual,
-    protocol: 'http',
-    maxNetworkRetries: 0,
-    telemetry: false,
-  });
-  return { payments: { kind: 'local-fake', stripe, webhookSecret: localFakeKeys.webhookSecret, currency }, service, origin };
+  const apiKey = `sk_test_${randomBytes(24).toString('hex')}`;
+  const webhookSecret = `whsec_${randomBytes(24).toString('base64url')}`;
+  const service = createFakePaymentService({ webhookUrl: new URL('/api/payments/webhook', publicUrl).toString(), webhookSecret, apiKey });
+  const { port: actual, origin } = await service.listen(port);
+  const stripe = new Stripe(apiKey, { host: LOOPBACK, port: actual, protocol: 'http', maxNetworkRetries: 0, telemetry: false });
+  return { payments: { kind: 'local-fake', stripe, webhookSecret, currency }, service, origin };
 }

@@ -1,13 +1,13 @@
-import { randomBytes } from 'node:crypto';
+import { createHash, randomBytes } from 'node:crypto';
 
 import Stripe from 'stripe';
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { schema } from '@/db';
-import { revisionChecksum } from '@/shared/checksum';
+import { startLocalPayments } from '@/server/payments';
+import { offerChecksum, revisionChecksum } from '@/shared/checksum';
 import type { OwnerView } from '@/shared/owner';
-import { localFakeKeys } from '@/server/payments';
 import { Client, createTestApp, makeJobWithEngine, memberWithRole, makeShop, signUp, type TestApp } from '@/tests/fixtures';
 
 let t: TestApp;
@@ -58,8 +58,9 @@ async function postWebhook(payload: string, signature: string) {
   return { status: res.status, body: (await res.json()) as Record<string, any> };
 }
 
-const signer = new Stripe(localFakeKeys.apiKey);
-const sign = (payload: string, secret: string = localFakeKeys.webhookSecret) => signer.webhooks.generateTestHeaderString({ payload, secret });
+const signer = new Stripe('sk_test_signing_only');
+/** Signed as the payment service signs: with the secret this start of the local fake made up, unless told. */
+const sign = (payload: string, secret: string = t.payments.webhookSecret) => signer.webhooks.generateTestHeaderString({ payload, secret });
 
 describe('share links', () => {
   it('are 256-bit random tokens stored only as a hash', async () => {
@@ -170,16 +171,16 @@ describe('approval', () => {
     const revision = t.db.select().from(schema.sheetRevisions).where(eq(schema.sheetRevisions.sheetId, s.sheet.id)).get()!;
     expect(option.checksum).toBe(revisionChecksum(revision));
 
-    const missing = await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, name: '' });
+    const missing = await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, offer: option.offer, name: '' });
     expect(missing.status).toBe(400);
     expect(Object.keys(missing.body.error.fields).sort()).toEqual(['agree', 'name']);
-    const wrong = await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: '0123456789ab', name: 'Test Owner', agree: true });
+    const wrong = await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: '0123456789ab', offer: option.offer, name: 'Test Owner', agree: true });
     expect(wrong.status).toBe(409);
 
-    const ok = await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, name: 'Test Owner', agree: true });
+    const ok = await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, offer: option.offer, name: 'Test Owner', agree: true });
     expect(ok.status).toBe(201);
     expect(ok.body.approval).toMatchObject({ optionId: option.id, checksum: revisionChecksum(revision), revisionId: revision.id, name: 'Test Owner' });
-    expect((await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, name: 'Again', agree: true })).status).toBe(409);
+    expect((await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, offer: option.offer, name: 'Again', agree: true })).status).toBe(409);
 
     const mail = t.db.select().from(schema.outbox).all().find((m) => m.to === s.builder.email && m.subject.startsWith('Approved: Towing regrind'));
     expect(mail?.text).toContain(revisionChecksum(revision));
@@ -200,7 +201,7 @@ describe('approval', () => {
     expect(desk.options[0].stale).toBe(true);
     const refreshed = await s.builder.patch(`/api/owner-options/${before.id}`, { version: desk.options[0].version, refreshRevision: true });
     expect(refreshed.body.desk.options[0].stale).toBe(false);
-    const res = await o.post(`/api/share/${s.token}/approve`, { optionId: before.id, checksum: before.checksum, name: 'Test Owner', agree: true });
+    const res = await o.post(`/api/share/${s.token}/approve`, { optionId: before.id, checksum: before.checksum, offer: before.offer, name: 'Test Owner', agree: true });
     expect(res.status).toBe(409);
   });
 });
@@ -210,7 +211,7 @@ describe('deposit payment', () => {
     const s = await sharedJob(name);
     const o = owner();
     const option = ((await o.get(`/api/share/${s.token}`)).body.view as OwnerView).options[0]!;
-    expect((await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, name: 'Test Owner', agree: true })).status).toBe(201);
+    expect((await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, offer: option.offer, name: 'Test Owner', agree: true })).status).toBe(201);
     return { ...s, o };
   }
 
@@ -266,7 +267,7 @@ describe('payment webhook', () => {
     const s = await sharedJob(name);
     const o = owner();
     const option = ((await o.get(`/api/share/${s.token}`)).body.view as OwnerView).options[0]!;
-    await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, name: 'Test Owner', agree: true });
+    await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, offer: option.offer, name: 'Test Owner', agree: true });
     const start = await o.post(`/api/share/${s.token}/deposit`);
     const sessionId = new URL(start.body.url).pathname.split('/').pop()!;
     const payment = () => t.db.select().from(schema.payments).where(eq(schema.payments.checkoutSessionId, sessionId)).get()!;
@@ -352,7 +353,7 @@ describe('an owner with an account', () => {
     const view = (await customer.get(`/api/my/jobs/${s.jobId}`)).body.view as OwnerView;
     expect(JSON.stringify(view)).not.toContain(INTERNAL_FINDINGS);
     const option = view.options[0]!;
-    const approved = await customer.post(`/api/my/jobs/${s.jobId}/approve`, { optionId: option.id, checksum: option.checksum, name: 'Signed Owner', agree: true });
+    const approved = await customer.post(`/api/my/jobs/${s.jobId}/approve`, { optionId: option.id, checksum: option.checksum, offer: option.offer, name: 'Signed Owner', agree: true });
     expect(approved.status).toBe(201);
     const audit = t.db.select().from(schema.auditLog).where(eq(schema.auditLog.entityId, approved.body.approval.id)).get()!;
     expect(audit.userId).toBe(customer.userId);
@@ -394,5 +395,148 @@ describe('inviting the owner', () => {
     await s.builder.post(`/api/jobs/${s.jobId}/share-links`, { email: s.builder.email });
     const own = t.db.select().from(schema.memberships).where(eq(schema.memberships.userId, s.builder.userId)).all();
     expect(own.map((m) => m.role)).toEqual(['builder']);
+  });
+});
+
+describe('the approval binds the whole offer (finding 4)', () => {
+  it('refuses an approval after the builder changed the price, deposit, lead time or name, and takes it once the owner reloads', async () => {
+    const s = await sharedJob('Offer shop');
+    const o = owner();
+    const option = ((await o.get(`/api/share/${s.token}`)).body.view as OwnerView).options[0]!;
+    const approval = (read: typeof option) => ({ optionId: read.id, checksum: read.checksum, offer: read.offer, name: 'Test Owner', agree: true });
+    const changes = [{ priceCents: 9_999_999 }, { depositCents: 100 }, { leadTimeDays: 60 }, { title: 'Towing regrind, premium' }];
+    let read = option;
+    for (const change of changes) {
+      const desk = (await s.builder.get(`/api/jobs/${s.jobId}/owner`)).body.desk;
+      expect((await s.builder.patch(`/api/owner-options/${option.id}`, { version: desk.options[0].version, ...change })).status).toBe(200);
+      const stale = await o.post(`/api/share/${s.token}/approve`, approval(read));
+      expect(stale.status, JSON.stringify(change)).toBe(409);
+      expect(stale.body.error.code).toBe('offer_changed');
+      expect(stale.body.error.message).toMatch(/reload/);
+      expect(t.db.select().from(schema.ownerApprovals).where(eq(schema.ownerApprovals.jobId, s.jobId)).get()).toBeUndefined();
+      read = ((await o.get(`/api/share/${s.token}`)).body.view as OwnerView).options[0]!;
+      expect(read.offer).not.toBe(option.offer);
+    }
+    const ok = await o.post(`/api/share/${s.token}/approve`, approval(read));
+    expect(ok.status).toBe(201);
+    expect(ok.body.approval).toMatchObject({ priceCents: 9_999_999, depositCents: 100, leadTimeDays: 60, currency: 'usd', offer: read.offer, optionTitle: 'Towing regrind, premium' });
+    // The approved option cannot change any more.
+    const desk = (await s.builder.get(`/api/jobs/${s.jobId}/owner`)).body.desk;
+    expect((await s.builder.patch(`/api/owner-options/${option.id}`, { version: desk.options[0].version, priceCents: 50_000 })).status).toBe(409);
+  });
+
+  it('changes the offer checksum with each term, as SHA-256 over the canonical JSON of the offer', () => {
+    // FIPS 180-4 SHA-256, checked here with node:crypto (an independent implementation) over the documented canonical JSON.
+    const terms = { checksum: '0123456789ab', title: 'Stock regrind', priceCents: 50_000, depositCents: 10_000, currency: 'usd', leadTimeDays: 7 };
+    const json = '{"checksum":"0123456789ab","currency":"usd","depositCents":10000,"leadTimeDays":7,"priceCents":50000,"title":"Stock regrind"}';
+    expect(offerChecksum(terms)).toBe(createHash('sha256').update(json).digest('hex').slice(0, 12));
+    for (const change of [{ priceCents: 50_001 }, { depositCents: 0 }, { currency: 'cad' }, { leadTimeDays: 8 }, { title: 'Stock regrind ' }, { checksum: '0123456789ac' }]) {
+      expect(offerChecksum({ ...terms, ...change })).not.toBe(offerChecksum(terms));
+    }
+  });
+});
+
+describe('deposits that cannot be forged or paid twice (findings 2 and 3)', () => {
+  async function approvedJob(name: string) {
+    const s = await sharedJob(name);
+    const o = owner();
+    const option = ((await o.get(`/api/share/${s.token}`)).body.view as OwnerView).options[0]!;
+    expect((await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, offer: option.offer, name: 'Test Owner', agree: true })).status).toBe(201);
+    const rows = () => t.db.select().from(schema.payments).where(eq(schema.payments.jobId, s.jobId)).all();
+    return { ...s, o, rows };
+  }
+  const sessionOf = (url: string) => new URL(url).pathname.split('/').pop()!;
+
+  it('makes up a new signing secret and API key on every start and listens only on the loopback interface', async () => {
+    const other = await startLocalPayments({ publicUrl: t.url });
+    try {
+      expect(other.payments.webhookSecret).not.toBe(t.payments.webhookSecret);
+      expect(other.payments.webhookSecret.length).toBeGreaterThanOrEqual(32);
+      expect(new URL(other.origin).hostname).toBe('127.0.0.1');
+      // A secret from another start does not sign for this app.
+      const { sessionId } = await (async () => {
+        const s = await approvedJob('Other secret shop');
+        return { sessionId: sessionOf((await s.o.post(`/api/share/${s.token}/deposit`)).body.url) };
+      })();
+      const payload = webhookBody(sessionId);
+      expect((await postWebhook(payload, sign(payload, other.payments.webhookSecret))).status).toBe(400);
+    } finally {
+      await other.service.close();
+    }
+  });
+
+  it('refuses and records a signed event whose amount or currency is not the deposit, and marks nothing paid', async () => {
+    const s = await approvedJob('Mismatch shop');
+    const sessionId = sessionOf((await s.o.post(`/api/share/${s.token}/deposit`)).body.url);
+    const forged = JSON.stringify({
+      id: 'evt_test_one_unit_elsewhere',
+      object: 'event',
+      type: 'checkout.session.completed',
+      data: { object: { id: sessionId, object: 'checkout.session', payment_status: 'paid', amount_total: 1, currency: 'jpy' } },
+    });
+    const res = await postWebhook(forged, sign(forged));
+    expect(res.status).toBe(400);
+    expect(res.body.error.code).toBe('amount_mismatch');
+    expect(Object.keys(res.body.error.fields).sort()).toEqual(['data.object.amount_total', 'data.object.currency']);
+    expect(s.rows()).toMatchObject([{ state: 'open', amountCents: 22_500, currency: 'usd', paidAt: null }]);
+    expect(t.db.select().from(schema.paymentEvents).where(eq(schema.paymentEvents.id, 'evt_test_one_unit_elsewhere')).get()?.outcome).toBe('refused');
+    const refusal = t.db.select().from(schema.auditLog).where(eq(schema.auditLog.entityId, s.rows()[0]!.id)).all().find((a) => a.action === 'refuse');
+    expect(refusal?.detail).toMatchObject({ expected: { amountCents: 22_500, currency: 'usd' }, reported: { amountCents: 1, currency: 'jpy' } });
+    expect(((await s.o.get(`/api/share/${s.token}`)).body.view as OwnerView).payment?.state).toBe('open');
+  });
+
+  it('answers the same open session to a second tab, even asked at the same moment', async () => {
+    const s = await approvedJob('Two tabs shop');
+    const before = t.paymentService.sessions.size;
+    const [first, second] = await Promise.all([s.o.post(`/api/share/${s.token}/deposit`), owner().post(`/api/share/${s.token}/deposit`)]);
+    const answered = [first, second].filter((r) => r.status < 300);
+    expect(answered.length).toBeGreaterThanOrEqual(1);
+    // The one that lost the race is told to try again; it never opens a second session.
+    for (const r of [first, second].filter((r) => r.status >= 300)) expect(r.status).toBe(409);
+    const again = await owner().post(`/api/share/${s.token}/deposit`);
+    expect(again.status).toBe(200);
+    expect(again.body.url).toBe(answered[0]!.body.url);
+    expect(t.paymentService.sessions.size - before).toBe(1);
+    expect(s.rows()).toHaveLength(1);
+    // Paid in one tab, the other tab's button is refused.
+    await t.paymentService.pay(sessionOf(again.body.url));
+    expect((await owner().post(`/api/share/${s.token}/deposit`)).status).toBe(409);
+    expect(s.rows().filter((p) => p.state === 'paid')).toHaveLength(1);
+  });
+
+  it('opens a new session when the open one has expired', async () => {
+    const s = await approvedJob('Expired session shop');
+    const first = (await s.o.post(`/api/share/${s.token}/deposit`)).body.url as string;
+    await t.payments.stripe.checkout.sessions.expire(sessionOf(first));
+    const second = await s.o.post(`/api/share/${s.token}/deposit`);
+    expect(second.status).toBe(201);
+    expect(second.body.url).not.toBe(first);
+    expect(s.rows().map((p) => p.state).sort()).toEqual(['expired', 'open']);
+  });
+
+  it('refunds a second paid session through the payment service and counts the deposit once', async () => {
+    const s = await approvedJob('Paid twice shop');
+    const firstUrl = (await s.o.post(`/api/share/${s.token}/deposit`)).body.url as string;
+    // An older tab's session, opened before this one and paid after it (as a late payment page would).
+    const approval = t.db.select().from(schema.ownerApprovals).where(eq(schema.ownerApprovals.jobId, s.jobId)).get()!;
+    const late = await t.payments.stripe.checkout.sessions.create({
+      mode: 'payment',
+      success_url: `${t.url}/share/back`,
+      line_items: [{ quantity: 1, price_data: { currency: 'usd', unit_amount: 22_500, product_data: { name: 'Deposit' } } }],
+    });
+    t.db.insert(schema.payments).values({ id: crypto.randomUUID(), shopId: s.shopId, jobId: s.jobId, approvalId: approval.id, checkoutSessionId: late.id, amountCents: 22_500, currency: 'usd', state: 'expired' }).run();
+    await t.paymentService.pay(sessionOf(firstUrl));
+    await t.paymentService.pay(late.id);
+    const rows = s.rows();
+    expect(rows.filter((p) => p.state === 'paid')).toHaveLength(1);
+    const second = rows.find((p) => p.checkoutSessionId === late.id)!;
+    expect(second.state).toBe('refunded');
+    const refund = [...t.paymentService.refunds.values()].find((r) => r.id === second.refundId);
+    expect(refund).toMatchObject({ amount: 22_500, currency: 'usd', payment_intent: second.paymentIntentId });
+    expect(((await s.o.get(`/api/share/${s.token}`)).body.view as OwnerView).payment).toMatchObject({ state: 'paid', amountCents: 22_500 });
+    const desk = (await s.builder.get(`/api/jobs/${s.jobId}/owner`)).body.desk;
+    expect(desk.payments.map((p: { state: string }) => p.state).sort()).toEqual(['paid', 'refunded']);
+    // One "paid" mail to the builder, not two.
+    expect(t.db.select().from(schema.outbox).all().filter((m) => m.to === s.builder.email && m.subject.startsWith('Deposit paid'))).toHaveLength(1);
   });
 });

@@ -7,13 +7,15 @@ import type { Db } from '@/db';
 import { schema } from '@/db';
 import { approveSchema, depositConfirmSchema, type Payment } from '@/shared/owner';
 
+import type { Payments } from '../payments';
+
 import { requireShopRole } from '../access';
 import { audit } from '../audit';
 import type { AppDeps } from '../deps';
 import { conflict, HttpError, notFound, parse } from '../http';
 import { mailEach } from '../mail';
 import { ownerEventMail, type OwnerEventFacts } from '../mail/owner-mail';
-import { linkOpen, loadApproval, loadOwnerView, toApproval, toPayment } from '../owner-view';
+import { linkOpen, loadApproval, loadOwnerView, optionOffer, toApproval, toPayment } from '../owner-view';
 import { hashShareToken } from './owner';
 import { recipients } from './orders';
 import { sendPhotoFile } from './photos';
@@ -36,18 +38,77 @@ function activeLink(db: Pick<Db, 'select'>, token: string): LinkRow {
 
 export type ShareRateLimit = { windowMs: number; limit: number };
 
-/** Marks the payment for `session` paid, once; returns whether this call did it. */
-function markPaid(tx: Tx, session: { id: string; amount_total?: number | null; currency?: string | null }, via: 'webhook' | 'return') {
+type PaymentRow = typeof schema.payments.$inferSelect;
+/** What the payment service says about a checkout session: which one, what it took, and the payment it made. */
+type SessionFacts = { id: string; amount_total?: number | null; currency?: string | null; payment_intent?: unknown };
+
+/**
+ * What one report of a paid session did:
+ * - `paid`: the deposit is now paid;
+ * - `already`: this session was settled before (a replay, or the return page after the webhook);
+ * - `refused`: its amount or currency is not the deposit's, so nothing is paid;
+ * - `refund`: the deposit was already paid through another session, so this payment is given back;
+ * - `unknown`: no deposit has this session.
+ */
+type Settled =
+  | { kind: 'paid' | 'already' | 'refund'; payment: PaymentRow }
+  | { kind: 'refused'; payment: PaymentRow; fields: Record<string, string> }
+  | { kind: 'unknown'; payment?: undefined };
+
+const intentOf = (session: SessionFacts) => (typeof session.payment_intent === 'string' ? session.payment_intent : null);
+
+/**
+ * Settles a paid session against the deposit it was opened for. The amount and currency
+ * are compared with what was asked (never taken from the report), and a deposit is paid
+ * at most once: a second paid session is marked for refund.
+ */
+function settlePaid(tx: Tx, session: SessionFacts, via: 'webhook' | 'return'): Settled {
   const row = tx.select().from(schema.payments).where(eq(schema.payments.checkoutSessionId, session.id)).get();
-  if (!row || row.state === 'paid') return { payment: row, newlyPaid: false };
-  const payment = tx
-    .update(schema.payments)
-    .set({ state: 'paid', paidAt: new Date(), amountCents: session.amount_total ?? row.amountCents, currency: session.currency ?? row.currency })
-    .where(and(eq(schema.payments.id, row.id), eq(schema.payments.state, 'open')))
-    .returning()
+  if (!row) return { kind: 'unknown' };
+  if (row.state === 'paid' || row.state === 'refund-due' || row.state === 'refunded') return { kind: 'already', payment: row };
+  const fields: Record<string, string> = {};
+  if (session.amount_total !== row.amountCents) fields['data.object.amount_total'] = `The deposit is ${row.amountCents} cents, not ${session.amount_total ?? 'none'}`;
+  if (session.currency !== row.currency) fields['data.object.currency'] = `The deposit is in ${row.currency}, not ${session.currency ?? 'none'}`;
+  if (Object.keys(fields).length) {
+    audit(tx, { shopId: row.shopId, userId: null, action: 'refuse', entity: 'payment', entityId: row.id, detail: { jobId: row.jobId, via, expected: { amountCents: row.amountCents, currency: row.currency }, reported: { amountCents: session.amount_total ?? null, currency: session.currency ?? null } } });
+    return { kind: 'refused', payment: row, fields };
+  }
+  const paidBefore = tx
+    .select({ id: schema.payments.id })
+    .from(schema.payments)
+    .where(and(eq(schema.payments.approvalId, row.approvalId), eq(schema.payments.state, 'paid')))
     .get();
-  audit(tx, { shopId: row.shopId, userId: null, action: 'paid', entity: 'payment', entityId: row.id, detail: { jobId: row.jobId, amountCents: payment.amountCents, via } });
-  return { payment, newlyPaid: true };
+  const state = paidBefore ? ('refund-due' as const) : ('paid' as const);
+  const payment = tx.update(schema.payments).set({ state, paidAt: new Date(), paymentIntentId: intentOf(session) }).where(eq(schema.payments.id, row.id)).returning().get();
+  audit(tx, {
+    shopId: row.shopId,
+    userId: null,
+    action: paidBefore ? 'paid-twice' : 'paid',
+    entity: 'payment',
+    entityId: row.id,
+    detail: { jobId: row.jobId, amountCents: row.amountCents, currency: row.currency, via, ...(paidBefore ? { alreadyPaidBy: paidBefore.id } : {}) },
+  });
+  return { kind: paidBefore ? 'refund' : 'paid', payment };
+}
+
+/** Gives back a second payment of a paid deposit through the payment service; if the service fails, it stays `refund-due` for the shop to see. */
+async function refundSecond({ db, payments }: Pick<AppDeps, 'db' | 'payments'>, payment: PaymentRow) {
+  if (!payments || !payment.paymentIntentId) return console.error(`Payment ${payment.id} was paid twice and needs a refund by hand: no payment to refund`);
+  try {
+    const refund = await payments.stripe.refunds.create({ payment_intent: payment.paymentIntentId }, { idempotencyKey: `refund-${payment.id}` });
+    db.transaction((tx) => {
+      tx.update(schema.payments).set({ state: 'refunded', refundId: refund.id }).where(and(eq(schema.payments.id, payment.id), eq(schema.payments.state, 'refund-due'))).run();
+      audit(tx, { shopId: payment.shopId, userId: null, action: 'refund', entity: 'payment', entityId: payment.id, detail: { jobId: payment.jobId, refundId: refund.id, amountCents: payment.amountCents } });
+    });
+  } catch (error) {
+    console.error(`Payment ${payment.id} was paid twice and the refund failed; it stays refund-due`, error);
+  }
+}
+
+/** After the settling transaction commits: tell the builders of a new payment, or refund a second one. */
+async function afterSettled(deps: AppDeps, settled: Settled) {
+  if (settled.kind === 'paid') await tellBuildersPaid(deps, settled.payment);
+  if (settled.kind === 'refund') await refundSecond(deps, settled.payment);
 }
 
 type MailDeps = Pick<AppDeps, 'db' | 'mailer' | 'publicUrl'>;
@@ -141,6 +202,59 @@ function ownLinks(db: Pick<Db, 'select'>, shopId: string, email: string) {
     .all();
 }
 
+/** A reservation older than this was left by a request that died while the payment service answered. */
+const STALE_RESERVATION_MS = 60_000;
+
+/**
+ * In one transaction: the approval's open payment if there is one, else a new row
+ * with no session yet. The row goes in before the payment service is called (never
+ * from inside a transaction), and at most one row per approval is open (a unique
+ * index), so two tabs cannot both start a session.
+ */
+function reserveDeposit(tx: Tx & Pick<Db, 'delete'>, link: LinkRow) {
+  const approval = loadApproval(tx, link.jobId);
+  if (!approval) throw conflict('Approve an option before paying the deposit');
+  if (approval.depositCents <= 0) throw conflict('The shop asks no deposit for this option');
+  const paid = tx.select({ id: schema.payments.id }).from(schema.payments).where(and(eq(schema.payments.approvalId, approval.id), eq(schema.payments.state, 'paid'))).get();
+  if (paid) throw conflict('The deposit is already paid');
+  const open = tx.select().from(schema.payments).where(and(eq(schema.payments.approvalId, approval.id), eq(schema.payments.state, 'open'))).get();
+  if (open?.checkoutSessionId) return { kind: 'open' as const, payment: open, approval };
+  if (open) {
+    if (Date.now() - open.createdAt.getTime() < STALE_RESERVATION_MS) throw conflict('A payment page for this deposit is being opened: try again in a moment');
+    tx.delete(schema.payments).where(eq(schema.payments.id, open.id)).run();
+  }
+  const payment = tx
+    .insert(schema.payments)
+    .values({ id: crypto.randomUUID(), shopId: link.shopId, jobId: link.jobId, approvalId: approval.id, amountCents: approval.depositCents, currency: approval.currency })
+    .returning()
+    .get();
+  audit(tx, { shopId: link.shopId, userId: null, action: 'create', entity: 'payment', entityId: payment.id, detail: { jobId: link.jobId, amountCents: payment.amountCents, currency: payment.currency } });
+  return { kind: 'reserved' as const, payment, approval };
+}
+
+/** Opens the checkout session for a reserved payment, for exactly the amount and currency approved; a failure removes the reservation. */
+async function openSession(db: Db, service: Payments, payment: PaymentRow, optionTitle: string, back: string) {
+  try {
+    const session = await service.stripe.checkout.sessions.create(
+      {
+        mode: 'payment',
+        client_reference_id: payment.id,
+        metadata: { paymentId: payment.id, jobId: payment.jobId },
+        success_url: `${back}?deposit={CHECKOUT_SESSION_ID}`,
+        cancel_url: back,
+        line_items: [{ quantity: 1, price_data: { currency: payment.currency, unit_amount: payment.amountCents, product_data: { name: `Deposit: ${optionTitle}` } } }],
+      },
+      { idempotencyKey: `deposit-${payment.id}` },
+    );
+    if (!session.url) throw new HttpError(502, 'payment_service', 'The payment service did not return a page to pay on; try again');
+    db.update(schema.payments).set({ checkoutSessionId: session.id, checkoutUrl: session.url }).where(eq(schema.payments.id, payment.id)).run();
+    return session.url;
+  } catch (error) {
+    db.delete(schema.payments).where(and(eq(schema.payments.id, payment.id), isNull(schema.payments.checkoutSessionId))).run();
+    throw error;
+  }
+}
+
 function mountOwnerRoutes(router: Router, at: string, resolve: Resolve, deps: AppDeps) {
   const { db, uploadsDir, payments } = deps;
 
@@ -154,7 +268,7 @@ function mountOwnerRoutes(router: Router, at: string, resolve: Resolve, deps: Ap
     db.update(schema.shareLinks).set({ lastOpenedAt: new Date() }).where(eq(schema.shareLinks.id, link.id)).run();
     res.setHeader('Cache-Control', 'no-store');
     res.setHeader('Referrer-Policy', 'no-referrer');
-    res.json({ view: loadOwnerView(db, link, (id) => `${apiBase}/photos/${id}`) });
+    res.json({ view: loadOwnerView(db, link, (id) => `${apiBase}/photos/${id}`, { currency: deps.currency, depositsOn: payments !== undefined }) });
   });
 
   router.get(`${at}/photos/:photoId`, async (req, res) => {
@@ -182,7 +296,11 @@ function mountOwnerRoutes(router: Router, at: string, resolve: Resolve, deps: Ap
         .where(and(eq(schema.ownerOptions.id, body.optionId), eq(schema.ownerOptions.jobId, link.jobId), eq(schema.ownerOptions.shopId, link.shopId)))
         .get();
       if (!option) throw new HttpError(400, 'invalid', 'optionId: Choose one of the options on this page', { optionId: 'Choose one of the options on this page' });
-      if (option.checksum !== body.checksum) throw conflict('The shop changed this option after you opened the page: reload it and read it again');
+      // The whole offer, not only the revision: a price, deposit, currency, lead time or name changed since the page was read is refused.
+      const offer = optionOffer(option, deps.currency);
+      if (option.checksum !== body.checksum || offer !== body.offer) {
+        throw new HttpError(409, 'offer_changed', 'The shop changed this option after you opened the page: reload the page and read it again before approving');
+      }
       const row = tx
         .insert(schema.ownerApprovals)
         .values({
@@ -195,12 +313,15 @@ function mountOwnerRoutes(router: Router, at: string, resolve: Resolve, deps: Ap
           optionTitle: option.title,
           priceCents: option.priceCents,
           depositCents: option.depositCents,
+          currency: deps.currency,
+          leadTimeDays: option.leadTimeDays,
+          offerChecksum: offer,
           approverName: body.name,
           shareLinkId: link.id,
         })
         .returning()
         .get();
-      audit(tx, { shopId: link.shopId, userId: resolved.userId ?? null, action: 'approve', entity: 'owner-approval', entityId: row.id, detail: { jobId: link.jobId, optionId: option.id, checksum: option.checksum, name: body.name, shareLinkId: link.id } });
+      audit(tx, { shopId: link.shopId, userId: resolved.userId ?? null, action: 'approve', entity: 'owner-approval', entityId: row.id, detail: { jobId: link.jobId, optionId: option.id, checksum: option.checksum, offer, name: body.name, shareLinkId: link.id } });
       return row;
     });
     await tellBuilders(deps, 'approved', approval.jobId, approval.shopId, { optionTitle: approval.optionTitle, approverName: approval.approverName, checksum: approval.checksum });
@@ -209,37 +330,25 @@ function mountOwnerRoutes(router: Router, at: string, resolve: Resolve, deps: Ap
 
   router.post(`${at}/deposit`, async (req, res) => {
     const service = requirePayments();
-    const resolved = await resolve(req, db);
-    const check = () => {
-      const link = resolved.link;
-      const approval = loadApproval(db, link.jobId);
-      if (!approval) throw conflict('Approve an option before paying the deposit');
-      const paid = db.select({ id: schema.payments.id }).from(schema.payments).where(and(eq(schema.payments.jobId, link.jobId), eq(schema.payments.state, 'paid'))).get();
-      if (paid) throw conflict('The deposit is already paid');
-      if (approval.depositCents <= 0) throw conflict('The shop asks no deposit for this option');
-      return { link, approval };
-    };
-    const { approval } = check();
-    const paymentId = crypto.randomUUID();
-    const back = resolved.returnUrl;
-    // The session is created before the row: the payment service must not be called inside a transaction.
-    const session = await service.stripe.checkout.sessions.create({
-      mode: 'payment',
-      client_reference_id: paymentId,
-      metadata: { paymentId, jobId: approval.jobId },
-      success_url: `${back}?deposit={CHECKOUT_SESSION_ID}`,
-      cancel_url: back,
-      line_items: [{ quantity: 1, price_data: { currency: service.currency, unit_amount: approval.depositCents, product_data: { name: `Deposit: ${approval.optionTitle}` } } }],
-    });
-    if (!session.url) throw new HttpError(502, 'payment_service', 'The payment service did not return a page to pay on; try again');
-    db.transaction((tx) => {
-      const { link } = check();
-      tx.insert(schema.payments)
-        .values({ id: paymentId, shopId: link.shopId, jobId: link.jobId, approvalId: approval.id, checkoutSessionId: session.id, amountCents: approval.depositCents, currency: service.currency })
-        .run();
-      audit(tx, { shopId: link.shopId, userId: null, action: 'create', entity: 'payment', entityId: paymentId, detail: { jobId: link.jobId, amountCents: approval.depositCents } });
-    });
-    res.status(201).json({ url: session.url });
+    const { link, returnUrl } = await resolve(req, db);
+    // Twice at most: an open session found expired is closed, and one new one is opened.
+    for (let attempt = 0; attempt < 2; attempt++) {
+      const step = db.transaction((tx) => reserveDeposit(tx, link));
+      if (step.kind === 'reserved') {
+        const url = await openSession(db, service, step.payment, step.approval.optionTitle, returnUrl);
+        return void res.status(201).json({ url });
+      }
+      // One open session per approval: asking again answers the same page while it can still be paid.
+      const session = await service.stripe.checkout.sessions.retrieve(step.payment.checkoutSessionId!);
+      if (session.status === 'open' && session.url) return void res.json({ url: session.url });
+      if (session.status === 'complete' && session.payment_status === 'paid') {
+        const settled = db.transaction((tx) => settlePaid(tx, session, 'return'));
+        await afterSettled(deps, settled);
+        throw conflict('The deposit is already paid');
+      }
+      db.update(schema.payments).set({ state: 'expired' }).where(and(eq(schema.payments.id, step.payment.id), eq(schema.payments.state, 'open'))).run();
+    }
+    throw new HttpError(502, 'payment_service', 'The payment service did not open a page to pay on; try again');
   });
 
   router.post(`${at}/deposit/confirm`, async (req, res) => {
@@ -254,12 +363,12 @@ function mountOwnerRoutes(router: Router, at: string, resolve: Resolve, deps: Ap
       .get();
     if (!known) throw notFound('Payment');
     let payment: Payment = toPayment(known);
-    if (known.state === 'open') {
+    if (known.state === 'open' || known.state === 'expired') {
       const session = await service.stripe.checkout.sessions.retrieve(body.sessionId);
       if (session.payment_status === 'paid') {
-        const done = db.transaction((tx) => markPaid(tx, session, 'return'));
-        if (done.payment) payment = toPayment(done.payment);
-        if (done.newlyPaid && done.payment) await tellBuildersPaid(deps, done.payment);
+        const settled = db.transaction((tx) => settlePaid(tx, session, 'return'));
+        if (settled.payment) payment = toPayment(settled.payment);
+        await afterSettled(deps, settled);
       }
     }
     res.json({ payment });
@@ -281,6 +390,7 @@ const webhookEventSchema = z.object({
 const completedSessionSchema = z.object({
   id: z.string({ error: 'Missing session id' }).min(1, 'Missing session id').max(255),
   payment_status: z.string({ error: 'Missing payment status' }),
+  payment_intent: z.string({ error: 'Payment must be an id' }).max(255).nullish(),
   amount_total: z.number({ error: 'Amount must be a number of cents' }).int('Amount is in whole cents').min(0, 'Amount cannot be negative').max(10_000_000).nullish(),
   currency: z
     .string({ error: 'Currency must be a code' })
@@ -324,13 +434,19 @@ export function paymentWebhook(deps: AppDeps) {
     const event = readEvent(verified);
     const outcome = db.transaction((tx) => {
       const fresh = tx.insert(schema.paymentEvents).values({ id: event.id, type: event.type }).onConflictDoNothing().run();
-      if (fresh.changes === 0) return { duplicate: true, paid: undefined };
-      if (!event.session || event.session.payment_status !== 'paid') return { duplicate: false, paid: undefined };
-      const done = markPaid(tx, event.session, 'webhook');
-      return { duplicate: false, paid: done.newlyPaid ? done.payment : undefined };
+      if (fresh.changes === 0) return { duplicate: true as const };
+      const settled: Settled = event.session?.payment_status === 'paid' ? settlePaid(tx, event.session, 'webhook') : { kind: 'unknown' };
+      const recorded = event.session?.payment_status === 'paid' ? settled.kind : 'ignored';
+      tx.update(schema.paymentEvents).set({ outcome: recorded }).where(eq(schema.paymentEvents.id, event.id)).run();
+      return { duplicate: false as const, settled };
     });
-    if (outcome.paid) await tellBuildersPaid(deps, outcome.paid);
-    res.json({ received: true, duplicate: outcome.duplicate });
+    if (outcome.duplicate) return void res.json({ received: true, duplicate: true });
+    const { settled } = outcome;
+    if (settled.kind === 'refused') {
+      throw new HttpError(400, 'amount_mismatch', 'The event does not pay this deposit: its amount or currency differs, so nothing was marked paid', settled.fields);
+    }
+    await afterSettled(deps, settled);
+    res.json({ received: true, duplicate: false });
   });
   return router;
 }

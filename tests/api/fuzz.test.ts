@@ -132,7 +132,7 @@ describe('fuzzing the payment webhook', { timeout: 60_000 * scale }, () => {
   it('never fails on odd bodies and signatures, and refuses every delivery that is not signed with 400', async () => {
     const seen = { signed: 0, unsigned: 0 };
     await fc.assert(
-      fc.asyncProperty(webhookCall(w.a.paidSessionId), fc.constantFrom<Actor>('anonymous', 'B.builder'), async (call, who) => {
+      fc.asyncProperty(webhookCall(w.a.paidSessionId, w.t.payments.webhookSecret), fc.constantFrom<Actor>('anonymous', 'B.builder'), async (call, who) => {
         const result = await send(who, 'POST', '/api/payments/webhook', call.body, call.headers);
         expectClean(result);
         if (call.signed) expect(result.code).not.toBe('bad_signature');

@@ -193,7 +193,7 @@ export const prototypeShape = () =>
 const storedPayment = zod.object({
   amountCents: zod.number().int().min(0),
   currency: zod.string().regex(/^[a-z]{3}$/),
-  state: zod.enum(['open', 'paid']),
+  state: zod.enum(['open', 'paid', 'expired', 'refund-due', 'refunded']),
   paidAt: zod.date().nullable(),
 });
 
@@ -243,7 +243,7 @@ export function invalidStoredRows(db: Db): string[] {
     check(problems, `option ${o.id}`, ownerOptionCreateSchema, { sheetId, title, ownerNote, priceCents, depositCents, leadTimeDays });
   }
   for (const a of db.select().from(schema.ownerApprovals).all()) {
-    check(problems, `approval ${a.id}`, approveSchema, { optionId: a.optionId, checksum: a.checksum, name: a.approverName, agree: true });
+    check(problems, `approval ${a.id}`, approveSchema, { optionId: a.optionId, checksum: a.checksum, offer: a.offerChecksum, name: a.approverName, agree: true });
   }
   for (const p of db.select().from(schema.payments).all()) {
     check(problems, `payment ${p.id}`, storedPayment, { amountCents: p.amountCents, currency: p.currency, state: p.state, paidAt: p.paidAt });
@@ -374,16 +374,16 @@ export type WebhookCall = {
  * odd text, each signed with the right secret over exactly that text (so the body reaches
  * the handler), with another secret, over other text, unsigned, or with a junk header.
  */
-export function webhookCall(sessionId: string): fc.Arbitrary<WebhookCall> {
+export function webhookCall(sessionId: string, secret: string): fc.Arbitrary<WebhookCall> {
   const seed = paymentEvent(sessionId);
   const body = fc.oneof(
     { weight: 6, arbitrary: mutatedBody(seed) },
     { weight: 2, arbitrary: malformedJson(seed) },
     { weight: 1, arbitrary: fc.string({ unit: 'binary', maxLength: 80 }) },
   );
-  const rightly = (b: string) => signWebhook(b);
+  const rightly = (b: string) => signWebhook(b, secret);
   const seedText = JSON.stringify(seed);
-  const overSeed = () => signWebhook(seedText);
+  const overSeed = () => signWebhook(seedText, secret);
   const signature = fc.oneof(
     { weight: 4, arbitrary: fc.constant(rightly) },
     { weight: 1, arbitrary: fc.constant((b: string) => signWebhook(b, 'whsec_test_someone_else')) },

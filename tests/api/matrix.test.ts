@@ -192,10 +192,10 @@ describe("the owner's page and the payment webhook", { timeout: 60_000 }, () => 
       const forged = await w.as['B.builder'].request('POST', '/api/payments/webhook', payload, { 'stripe-signature': signWebhook(payload, 'whsec_test_someone_else') });
       expect(forged.status).toBe(400);
       expect(probe.dbChanged()).toBe(false);
-      const res = await w.as.anonymous.request('POST', '/api/payments/webhook', payload, { 'stripe-signature': signWebhook(payload) });
+      const res = await w.as.anonymous.request('POST', '/api/payments/webhook', payload, { 'stripe-signature': signWebhook(payload, w.t.payments.webhookSecret) });
       expect(res).toEqual({ status: 200, body: { received: true, duplicate: false } });
       expect(paymentOf(w.a.paidSessionId)).toMatchObject({ state: 'paid', amountCents: 20_000 });
-      const replay = await w.as.anonymous.request('POST', '/api/payments/webhook', payload, { 'stripe-signature': signWebhook(payload) });
+      const replay = await w.as.anonymous.request('POST', '/api/payments/webhook', payload, { 'stripe-signature': signWebhook(payload, w.t.payments.webhookSecret) });
       expect(replay.body).toEqual({ received: true, duplicate: true });
     });
     expect(paymentOf(w.a.paidSessionId)?.state).toBe('open');

@@ -47,7 +47,7 @@ const token = (w: World) => ({ token: w.a.shareToken });
 const paidToken = (w: World) => ({ token: w.a.paidToken });
 const paidJob = (w: World) => ({ jobId: w.a.paidJobId });
 const sharePhoto = (w: World) => ({ photoId: w.a.sharePhotoId });
-const approve = (w: World) => ({ optionId: w.a.optionId, checksum: w.a.optionChecksum, name: 'Test Owner', agree: true });
+const approve = (w: World) => ({ optionId: w.a.optionId, checksum: w.a.optionChecksum, offer: w.a.optionOffer, name: 'Test Owner', agree: true });
 const confirm = (w: World) => ({ sessionId: w.a.paidSessionId });
 
 const byToken = 'anyone holding the link is the owner: the 256-bit token is the secret (a wrong one is 404 for everyone, checked in matrix.test.ts)';

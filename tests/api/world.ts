@@ -5,7 +5,6 @@ import path from 'node:path';
 import Stripe from 'stripe';
 
 import type { Db } from '@/db';
-import { localFakeKeys } from '@/server/payments';
 import {
   Client,
   createTestApp,
@@ -80,6 +79,8 @@ export type World = {
     optionId: string;
     optionVersion: number;
     optionChecksum: string;
+    /** The option's offer checksum, as the owner's page shows it. */
+    optionOffer: string;
     sharePhotoId: string;
     /** A share link of the job, e-mailed to A's customer; the raw token is only ever shown once, so the world keeps it. */
     shareLinkId: string;
@@ -135,9 +136,9 @@ export const paymentEvent = (sessionId: string, change: Record<string, unknown> 
   ...change,
 });
 
-const signer = new Stripe(localFakeKeys.apiKey);
-/** The signature header the payment service sends with `payload` (the local fake's secret unless told). */
-export const signWebhook = (payload: string, secret: string = localFakeKeys.webhookSecret) => signer.webhooks.generateTestHeaderString({ payload, secret });
+const signer = new Stripe('sk_test_signing_only');
+/** The signature header the payment service sends with `payload`, signed with `secret` (the app's is `t.payments.webhookSecret`). */
+export const signWebhook = (payload: string, secret: string) => signer.webhooks.generateTestHeaderString({ payload, secret });
 
 /** The PNG signature and an IHDR start: enough for the server's content check. */
 export const PNG = (() => {
@@ -338,11 +339,13 @@ async function ownerPage(builder: Client, customer: { email: string }, jobId: st
   const link = await builder.post(`/api/jobs/${jobId}/share-links`, { email: customer.email });
   expectStatus(link, 201, 'share link');
   const first = option.body.desk.options[0];
+  const shown = (await new Client(builder.baseUrl).get(`/api/share/${link.body.token}`)).body.view.options[0];
   return {
     ownerPageVersion: page.body.desk.version as number,
     optionId: first.id as string,
     optionVersion: first.version as number,
     optionChecksum: first.checksum as string,
+    optionOffer: shown.offer as string,
     sharePhotoId,
     shareLinkId: link.body.link.id as string,
     shareToken: link.body.token as string,
@@ -370,8 +373,8 @@ async function paidJob(builder: Client, customer: { email: string }) {
   const link = await builder.post(`/api/jobs/${jobId}/share-links`, { email: customer.email });
   expectStatus(link, 201, 'paid job link');
   const token = link.body.token as string;
-  const { id, checksum } = option.body.desk.options[0];
-  expectStatus(await new Client(builder.baseUrl).post(`/api/share/${token}/approve`, { optionId: id, checksum, name: 'Test Owner', agree: true }), 201, 'approval');
+  const { id, checksum, offer } = (await new Client(builder.baseUrl).get(`/api/share/${token}`)).body.view.options[0];
+  expectStatus(await new Client(builder.baseUrl).post(`/api/share/${token}/approve`, { optionId: id, checksum, offer, name: 'Test Owner', agree: true }), 201, 'approval');
   const deposit = await new Client(builder.baseUrl).post(`/api/share/${token}/deposit`);
   expectStatus(deposit, 201, 'deposit');
   return { paidJobId: jobId, paidToken: token, paidSessionId: new URL(deposit.body.url as string).pathname.split('/').pop()! };
