@@ -59,12 +59,13 @@ const dev = process.env.NODE_ENV !== 'production';
 
 /** Builds the whole app without listening, so tests can drive it on an in-memory database. */
 export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLimit, uploadsDir, mailer, devTools = dev, payments, shareRateLimit, authRateLimit }: CreateAppOptions) {
-  const auth = createAuth({ db, baseURL, secret, rateLimit: authRateLimit ?? (dev ? false : defaultAuthRateLimit) });
+  const mail = mailer ?? createMailer({ db });
+  const auth = createAuth({ db, baseURL, secret, rateLimit: authRateLimit ?? (dev ? false : defaultAuthRateLimit), mailer: mail });
   const deps: AppDeps = {
     db,
     auth,
     uploadsDir: path.resolve(uploadsDir ?? defaultUploadsDir(db)),
-    mailer: mailer ?? createMailer({ db }),
+    mailer: mail,
     publicUrl: baseURL,
     payments,
   };
