@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { schema } from '@/db';
 import { demoPassword } from '@/db/seed';
-import { Client, createTestApp, linkFromOutbox, makeShop, memberWithRole, signUp, verifyEmail, type TestApp } from '@/tests/fixtures';
+import { Client, createTestApp, linkFromOutbox, makeShop, memberWithRole, signUp, type TestApp } from '@/tests/fixtures';
 
 import { isCommonPassword } from './passwords';
 
