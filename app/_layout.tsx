@@ -29,6 +29,9 @@ function Navigator() {
       {/* The owner's summary opens from a share link, signed in or not. */}
       <Stack.Screen name="share/[token]" />
       <Stack.Screen name="share/back" />
+      {/* Links from our mail: they work signed in or not. */}
+      <Stack.Screen name="verified" />
+      <Stack.Screen name="reset-password" />
       <Stack.Screen name="+not-found" />
     </Stack>
   );
