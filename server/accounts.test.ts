@@ -5,6 +5,7 @@ import { schema } from '@/db';
 import { demoPassword } from '@/db/seed';
 import { Client, createTestApp, linkFromOutbox, makeShop, memberWithRole, signUp, type TestApp } from '@/tests/fixtures';
 
+import { disabledAccountPaths, disabledOrganizationPaths } from './auth';
 import { isCommonPassword } from './passwords';
 
 let t: TestApp;
@@ -51,11 +52,13 @@ describe('e-mail verification', () => {
     const client = new Client(t.url);
     expect((await client.post('/api/auth/sign-up/email', { name: 'New Person', email, password: 'correct-horse-9' })).status).toBe(200);
     expect((await client.get('/api/auth/get-session')).body.user).toMatchObject({ email, emailVerified: false });
+    expect((await client.get('/api/me')).body.user).toMatchObject({ email, emailVerified: false });
     const link = new URL(linkFromOutbox(t.db, email, /verify/i));
     const res = await client.visit(link.pathname + link.search);
     expect(res.status).toBe(302);
     expect(new URL(res.location!, t.url).pathname).toBe('/verified');
     expect(t.db.select().from(schema.users).where(eq(schema.users.email, email)).get()!.emailVerified).toBe(true);
+    expect((await client.get('/api/me')).body.user).toMatchObject({ email, emailVerified: true });
   });
 
   it('sends the verification mail again on request', async () => {
@@ -100,5 +103,41 @@ describe('organization endpoints', () => {
     const res = await person.post('/api/auth/organization/create', { name: 'Bogus', slug: `bogus-${Date.now()}`, kind: 'bogus' });
     expect(res.status).toBe(404);
     expect(t.db.select().from(schema.shops).where(eq(schema.shops.name, 'Bogus')).all()).toEqual([]);
+  });
+});
+
+describe('auth endpoints left on', () => {
+  // Every better-auth endpoint that answers, each with who may call it; a new one must be added here on purpose.
+  const onPurpose: Record<string, string> = {
+    '/callback/:id': 'social sign-in callback; no providers are configured, so it has nothing to call back',
+    '/change-password': 'signed-in person, own password (checked against our rules)',
+    '/error': 'anyone: the error page',
+    '/get-session': 'anyone: own session or null',
+    '/list-sessions': 'signed-in person: own sessions',
+    '/ok': 'anyone: health',
+    '/request-password-reset': 'anyone: same answer whether the address has an account or not',
+    '/reset-password': 'holder of a reset token',
+    '/reset-password/:token': 'holder of a reset token (the mailed link)',
+    '/revoke-other-sessions': 'signed-in person: own sessions',
+    '/revoke-session': 'signed-in person: own sessions',
+    '/revoke-sessions': 'signed-in person: own sessions',
+    '/send-verification-email': 'anyone: mails only the address on the account',
+    '/sign-in/email': 'anyone, rate-limited',
+    '/sign-out': 'signed-in person',
+    '/sign-up/email': 'anyone, rate-limited',
+    '/verify-email': 'holder of a verification token',
+  };
+
+  it('are exactly the ones we mean to offer', () => {
+    const off = new Set([...disabledAccountPaths, ...disabledOrganizationPaths]);
+    const on = Object.values(t.app.auth.api as Record<string, { path?: string }>)
+      .map((endpoint) => endpoint.path)
+      .filter((p): p is string => typeof p === 'string' && !off.has(p));
+    expect([...new Set(on)].sort()).toEqual(Object.keys(onPurpose).sort());
+  });
+
+  it.each(disabledAccountPaths.filter((p) => !p.includes(':')))('answers 404 on %s', async (p) => {
+    const person = await signUp(t, 'Probe Person');
+    expect((await person.post(`/api/auth${p}`, { name: 'x', newEmail: 'someone-else@example.test' })).status).toBe(404);
   });
 });

@@ -27,6 +27,12 @@ export const disabledOrganizationPaths = [
   'remove-team', 'remove-team-member', 'set-active', 'set-active-team', 'update', 'update-member-role', 'update-role', 'update-team',
 ].map((name) => `/organization/${name}`);
 
+/** better-auth's own account endpoints we do not offer (no social sign-in, no e-mail change or account deletion yet). */
+export const disabledAccountPaths = [
+  '/account-info', '/change-email', '/delete-user', '/delete-user/callback', '/get-access-token', '/link-social', '/list-accounts',
+  '/refresh-token', '/sign-in/social', '/unlink-account', '/update-session', '/update-user', '/verify-password',
+];
+
 /** Where each auth route that sets a password carries it. */
 const passwordFields: Record<string, string> = { '/sign-up/email': 'password', '/reset-password': 'newPassword', '/change-password': 'newPassword' };
 
@@ -97,7 +103,7 @@ export function createAuth({ db, baseURL, secret, rateLimit = false, mailer }: A
     session: { modelName: 'sessions' },
     account: { modelName: 'accounts' },
     verification: { modelName: 'verifications' },
-    disabledPaths: disabledOrganizationPaths,
+    disabledPaths: [...disabledAccountPaths, ...disabledOrganizationPaths],
     emailAndPassword: {
       enabled: true,
       minPasswordLength,
