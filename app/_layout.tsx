@@ -9,6 +9,7 @@ import { useFonts } from 'expo-font';
 import { Stack } from 'expo-router';
 import { useState } from 'react';
 
+import { DemoBanner } from '@/components/demo-banner';
 import { GlobalStyle } from '@/components/global-style';
 import { Pending } from '@/components/query-state';
 import { colors } from '@/constants/theme';
@@ -29,6 +30,9 @@ function Navigator() {
       {/* The owner's summary opens from a share link, signed in or not. */}
       <Stack.Screen name="share/[token]" />
       <Stack.Screen name="share/back" />
+      {/* Links from our mail: they work signed in or not. */}
+      <Stack.Screen name="verified" />
+      <Stack.Screen name="reset-password" />
       <Stack.Screen name="+not-found" />
     </Stack>
   );
@@ -51,6 +55,7 @@ export default function RootLayout() {
   return (
     <QueryClientProvider client={queryClient}>
       <GlobalStyle />
+      <DemoBanner />
       <Navigator />
     </QueryClientProvider>
   );

@@ -5,6 +5,7 @@ import { describe, expect, it } from 'vitest';
 
 import { DEMO_STOCK_REGRIND, DEMO_TOWING } from '@/calc/demo';
 import { createAuth } from '@/server/auth';
+import { createMailer } from '@/server/mail';
 import { analyzeRecords, revisionResults } from '@/shared/analysis';
 import { engineSchema } from '@/shared/engine';
 import { defaultChecklistLabels } from '@/shared/measurements';
@@ -17,7 +18,7 @@ import { demoAccounts, demoJobId, demoSheetId, demoStockSheetId, seedDemo } from
 describe('demo seed', () => {
   it('writes both shops, one person per role and the demo job, and adds nothing on a second run', async () => {
     const db = openDb(':memory:');
-    const auth = createAuth({ db, baseURL: 'http://localhost:8080', secret: 'test-secret-test-secret-test-secret' });
+    const auth = createAuth({ db, baseURL: 'http://localhost:8080', secret: 'test-secret-test-secret-test-secret', mailer: createMailer({ db }) });
     await seedDemo(db, auth);
     await seedDemo(db, auth);
     expect(db.select({ n: count() }).from(schema.shops).get()?.n).toBe(2);
@@ -33,7 +34,7 @@ describe('demo seed', () => {
 describe('demo comparison data', () => {
   it('gives the demo job its engine, both demo profiles from the library, and a draft sheet for each, once', async () => {
     const db = openDb(':memory:');
-    const auth = createAuth({ db, baseURL: 'http://localhost:8080', secret: 'test-secret-test-secret-test-secret' });
+    const auth = createAuth({ db, baseURL: 'http://localhost:8080', secret: 'test-secret-test-secret-test-secret', mailer: createMailer({ db }) });
     await seedDemo(db, auth);
     await seedDemo(db, auth);
 
@@ -95,7 +96,7 @@ describe('demo comparison data', () => {
 describe('demo measurements, checklist and lobe table', () => {
   it('gives the demo job its PTV baseline, springs, pushrod readings and checklist once, and no lobe table', async () => {
     const db = openDb(':memory:');
-    const auth = createAuth({ db, baseURL: 'http://localhost:8080', secret: 'test-secret-test-secret-test-secret' });
+    const auth = createAuth({ db, baseURL: 'http://localhost:8080', secret: 'test-secret-test-secret-test-secret', mailer: createMailer({ db }) });
     await seedDemo(db, auth);
     await seedDemo(db, auth);
     const rows = db.select().from(schema.measurements).where(eq(schema.measurements.jobId, demoJobId)).all();

@@ -2,7 +2,8 @@ import { and, eq, isNull, like } from 'drizzle-orm';
 
 import { DEMO_ENGINE, DEMO_STOCK_REGRIND, DEMO_TOWING } from '@/calc/demo';
 import { createAuth, type Auth } from '@/server/auth';
-import { readConfig } from '@/server/config';
+import { createMailer } from '@/server/mail';
+import { loadDotEnv, readConfig } from '@/server/config';
 import { shareUrl } from '@/server/mail/owner-mail';
 import { seedChecklist } from '@/server/routes/checklist';
 import { insertShareLink } from '@/server/routes/owner';
@@ -166,6 +167,11 @@ export async function seedDemo(db: Db, auth: Auth) {
       await auth.api.signUpEmail({ body: { email: account.email, password: demoPassword, name: account.name } });
       user = db.select().from(schema.users).where(eq(schema.users.email, account.email)).get();
     }
+    // Demo people are verified from the start; their sign-up mail is not needed.
+    if (user && !user.emailVerified) {
+      db.update(schema.users).set({ emailVerified: true }).where(eq(schema.users.id, user.id)).run();
+      db.delete(schema.outbox).where(eq(schema.outbox.to, account.email)).run();
+    }
     if (!user) throw new Error(`Could not create demo account ${account.email}`);
     db.insert(schema.memberships)
       .values({ id: `demo-member-${account.role}`, organizationId: account.shop.id, userId: user.id, role: account.role })
@@ -282,9 +288,14 @@ export function demoSignInText(baseURL: string) {
 
 // Run as `tsx db/seed.ts`; the server imports this file (and is bundled with it), and must not seed.
 if (require.main === module && /db[\\/]seed\.ts$/.test(process.argv[1] ?? '')) {
+  loadDotEnv();
   const config = readConfig();
+  if (config.mode === 'production') {
+    console.log('Production mode (NODE_ENV=production): no demo data is seeded.');
+    process.exit(0);
+  }
   const db = openDb(config.databasePath);
-  seedDemo(db, createAuth({ db, baseURL: config.baseURL, secret: config.secret }))
+  seedDemo(db, createAuth({ db, baseURL: config.baseURL, secret: config.secret, mailer: createMailer({ db }) }))
     .then(() => {
       console.log(`Demo data is in ${config.databasePath}.`);
       console.log(`Demo owner's summary (no sign-in needed): ${newDemoShareLink(db, config.baseURL)}`);

@@ -81,3 +81,26 @@ export function useSwitchShopMutation() {
     onSuccess: reset,
   });
 }
+
+/** Mails the signed-in person a new verification link. */
+export function useResendVerificationMutation() {
+  return useMutation({
+    mutationFn: (email: string) =>
+      api('/api/auth/send-verification-email', { method: 'POST', body: { email, callbackURL: '/verified' } }),
+  });
+}
+
+/** Mails a set-new-password link to the address, if it has an account (the answer is the same either way). */
+export function useRequestPasswordResetMutation() {
+  return useMutation({
+    mutationFn: (email: string) =>
+      api('/api/auth/request-password-reset', { method: 'POST', body: { email, redirectTo: '/reset-password' } }),
+  });
+}
+
+/** Sets a new password with the token from the reset link. */
+export function useResetPasswordMutation() {
+  return useMutation({
+    mutationFn: (body: { token: string; newPassword: string }) => api('/api/auth/reset-password', { method: 'POST', body }),
+  });
+}

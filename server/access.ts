@@ -11,7 +11,7 @@ import { forbidden, HttpError } from './http';
 import { prepared } from './prepared';
 
 export type Signed = {
-  user: { id: string; name: string; email: string };
+  user: { id: string; name: string; email: string; emailVerified: boolean };
   sessionId: string;
   activeShopId: string | null;
 };
@@ -46,7 +46,7 @@ async function verifiedSession(auth: Auth, req: Request): Promise<KnownSession |
   const found = await auth.api.getSession({ headers: fromNodeHeaders(req.headers) });
   if (!found) return null;
   const known = {
-    user: { id: found.user.id, name: found.user.name, email: found.user.email },
+    user: { id: found.user.id, name: found.user.name, email: found.user.email, emailVerified: found.user.emailVerified },
     sessionId: found.session.id,
     until: Math.min(now + SESSION_REUSE_MS, new Date(found.session.expiresAt).getTime()),
   };
@@ -60,7 +60,7 @@ async function verifiedSession(auth: Auth, req: Request): Promise<KnownSession |
 const liveSession = (db: Db) =>
   prepared(db, 'access.live-session', (d) =>
     d
-      .select({ activeShopId: schema.sessions.activeOrganizationId, expiresAt: schema.sessions.expiresAt, name: schema.users.name, email: schema.users.email })
+      .select({ activeShopId: schema.sessions.activeOrganizationId, expiresAt: schema.sessions.expiresAt, name: schema.users.name, email: schema.users.email, emailVerified: schema.users.emailVerified })
       .from(schema.sessions)
       .innerJoin(schema.users, eq(schema.users.id, schema.sessions.userId))
       .where(eq(schema.sessions.id, sql.placeholder('sessionId')))
@@ -82,7 +82,7 @@ export async function requireSignedIn(auth: Auth, db: Db, req: Request): Promise
   const known = await verifiedSession(auth, req);
   const live = known ? liveSession(db).get({ sessionId: known.sessionId }) : undefined;
   if (!known || !live || live.expiresAt.getTime() <= Date.now()) throw new HttpError(401, 'unauthenticated', 'Sign in to continue');
-  return { user: { id: known.user.id, name: live.name, email: live.email }, sessionId: known.sessionId, activeShopId: live.activeShopId ?? null };
+  return { user: { id: known.user.id, name: live.name, email: live.email, emailVerified: live.emailVerified }, sessionId: known.sessionId, activeShopId: live.activeShopId ?? null };
 }
 
 /** The person's membership in their active shop, checked against `permission` (403 when the role lacks it). */

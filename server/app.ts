@@ -6,8 +6,10 @@ import express, { type Request, type Response } from 'express';
 import { toNodeHandler } from 'better-auth/node';
 
 import type { Db } from '@/db';
+import type { Instance } from '@/shared/instance';
 
 import { createAuth } from './auth';
+import type { Mode } from './config';
 import type { AppDeps } from './deps';
 import { errorHandler, HttpError, sendError } from './http';
 import { createMailer, type Mailer } from './mail';
@@ -27,7 +29,7 @@ import { profilesRouter } from './routes/profiles';
 import { paymentWebhook, shareRouter, type ShareRateLimit } from './routes/share';
 import { sheetsRouter } from './routes/sheets';
 import { shopLimitsRouter } from './routes/shop-limits';
-import { authBodyParser, defaultAuthRateLimit, jsonBodyLimit, securityHeaders, setClientAddress, withRateLimitAnswers, type AuthRateLimit } from './security';
+import { authBodyParser, defaultAuthRateLimit, jsonBodyLimit, requireSameOrigin, securityHeaders, setClientAddress, withRateLimitAnswers, type AuthRateLimit } from './security';
 
 export type CreateAppOptions = {
   db: Db;
@@ -53,6 +55,10 @@ export type CreateAppOptions = {
   currency?: string;
   /** Requests per address to the owner's share pages (default 120 a minute). */
   shareRateLimit?: ShareRateLimit;
+  /** Demo or production (server/config.ts); shown by the app's demo banner. Default: demo unless NODE_ENV is production. */
+  mode?: Mode;
+  /** Express's `trust proxy` (TRUST_PROXY); default false: X-Forwarded-For is ignored. */
+  trustProxy?: boolean | number | string;
   /** Attempts per network address on the sign-in routes (server/security.ts); default on when NODE_ENV is production, false turns it off. */
   authRateLimit?: AuthRateLimit | false;
 };
@@ -60,32 +66,37 @@ export type CreateAppOptions = {
 const dev = process.env.NODE_ENV !== 'production';
 
 /** Builds the whole app without listening, so tests can drive it on an in-memory database. */
-export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLimit, uploadsDir, mailer, devTools = dev, payments, currency = 'usd', shareRateLimit, authRateLimit }: CreateAppOptions) {
-  const auth = createAuth({ db, baseURL, secret, rateLimit: authRateLimit ?? (dev ? false : defaultAuthRateLimit) });
+export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLimit, uploadsDir, mailer, devTools = dev, payments, currency = 'usd', shareRateLimit, authRateLimit, mode = dev ? 'demo' : 'production', trustProxy = false }: CreateAppOptions) {
+  const mail = mailer ?? createMailer({ db });
+  const auth = createAuth({ db, baseURL, secret, rateLimit: authRateLimit ?? (dev ? false : defaultAuthRateLimit), mailer: mail });
   const deps: AppDeps = {
     db,
     auth,
     uploadsDir: path.resolve(uploadsDir ?? defaultUploadsDir(db)),
-    mailer: mailer ?? createMailer({ db }),
+    mailer: mail,
     publicUrl: baseURL,
     payments,
     currency: payments?.currency ?? currency,
   };
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
+  app.set('trust proxy', trustProxy);
   app.use(securityHeaders({ baseURL, contentSecurityPolicy: !devWebProxy }));
 
   // better-auth parses its own bodies, so it goes before the JSON parser; authBodyParser only caps their size.
   app.all('/api/auth/{*splat}', setClientAddress, authBodyParser, toNodeHandler(withRateLimitAnswers((request) => auth.handler(request))));
   // The payment webhook's signature covers the raw body, so it is read before the JSON parser too.
   app.use('/api', paymentWebhook(deps));
+  app.use('/api', requireSameOrigin(baseURL));
   app.use('/api', express.json({ limit: jsonBodyLimit }));
 
   app.get('/api/health', (_req, res) => {
     db.$client.prepare('select 1').get();
     res.json({ ok: true });
   });
+  // What kind of server this is, for the app's demo banner: no secrets, no account needed.
+  const instance: Instance = { mode, fakes: [...(payments?.kind === 'local-fake' ? (['payments'] as const) : []), ...(devTools ? (['mailbox'] as const) : [])], depositsOn: payments !== undefined };
+  app.get('/api/instance', (_req, res) => void res.json({ instance }));
   app.use('/api', meRouter(deps));
   app.use('/api/jobs', jobsRouter(deps));
   app.use('/api', enginesRouter(deps), profilesRouter(deps), sheetsRouter(deps), calcRouter(deps, calcRateLimit));

@@ -1,5 +1,6 @@
 import { betterAuth } from 'better-auth';
 import { drizzleAdapter } from 'better-auth/adapters/drizzle';
+import { APIError, createAuthMiddleware } from 'better-auth/api';
 import { organization } from 'better-auth/plugins';
 import { and, asc, eq, gt, isNull } from 'drizzle-orm';
 
@@ -7,7 +8,66 @@ import type { Db } from '@/db';
 import { schema } from '@/db';
 import { accessControl, shopRoles } from '@/shared/roles';
 
+import { composeMail } from './mail/compose';
+import type { Mailer } from './mail';
+import { maxPasswordLength, minPasswordLength, passwordSchema } from './passwords';
 import { clientAddressHeader, type AuthRateLimit } from './security';
+
+/** Where the links in verification mail land: a page of ours that says the address is verified. */
+export const verifiedPath = '/verified';
+/** The set-new-password screen the reset link opens (with ?token=). */
+export const resetPasswordPath = '/reset-password';
+
+/** Organization endpoints of better-auth we do not use: shops, members and invitations go through our own routes. */
+export const disabledOrganizationPaths = [
+  'accept-invitation', 'add-team-member', 'cancel-invitation', 'check-slug', 'create', 'create-role', 'create-team', 'delete',
+  'delete-role', 'get-active-member', 'get-active-member-role', 'get-full-organization', 'get-invitation', 'get-organization',
+  'get-role', 'has-permission', 'invite-member', 'leave', 'list', 'list-invitations', 'list-members', 'list-roles',
+  'list-team-members', 'list-teams', 'list-user-invitations', 'list-user-teams', 'reject-invitation', 'remove-member',
+  'remove-team', 'remove-team-member', 'set-active', 'set-active-team', 'update', 'update-member-role', 'update-role', 'update-team',
+].map((name) => `/organization/${name}`);
+
+/** better-auth's own account endpoints we do not offer (no social sign-in, no e-mail change or account deletion yet). */
+export const disabledAccountPaths = [
+  '/account-info', '/change-email', '/delete-user', '/delete-user/callback', '/get-access-token', '/link-social', '/list-accounts',
+  '/refresh-token', '/sign-in/social', '/unlink-account', '/update-session', '/update-user', '/verify-password',
+];
+
+/** Where each auth route that sets a password carries it. */
+const passwordFields: Record<string, string> = { '/sign-up/email': 'password', '/reset-password': 'newPassword', '/change-password': 'newPassword' };
+
+/** Turns pending invitations for the address into memberships, once the address is verified. */
+function joinInvitedShops(db: Db, user: { id: string; email: string }) {
+  db.transaction((tx) => {
+    const pending = tx
+      .select()
+      .from(schema.invitations)
+      .where(and(eq(schema.invitations.email, user.email.toLowerCase()), eq(schema.invitations.status, 'pending'), gt(schema.invitations.expiresAt, new Date())))
+      .all();
+    for (const invitation of pending) {
+      tx.insert(schema.memberships)
+        .values({ id: crypto.randomUUID(), organizationId: invitation.organizationId, userId: user.id, role: invitation.role ?? 'customer' })
+        .onConflictDoNothing()
+        .run();
+      tx.update(schema.invitations).set({ status: 'accepted' }).where(eq(schema.invitations.id, invitation.id)).run();
+    }
+    // Sessions opened before verification have no shop yet: open them in the first one.
+    const first = pending[0];
+    if (first) {
+      tx.update(schema.sessions)
+        .set({ activeOrganizationId: first.organizationId })
+        .where(and(eq(schema.sessions.userId, user.id), isNull(schema.sessions.activeOrganizationId)))
+        .run();
+    }
+  });
+}
+
+/** Swaps the link's callback for our own page, so the link never lands anywhere a sign-up body asked for. */
+function withCallback(url: string, callback: string) {
+  const link = new URL(url);
+  link.searchParams.set('callbackURL', callback);
+  return link.toString();
+}
 
 export type AuthOptions = {
   db: Db;
@@ -16,10 +76,12 @@ export type AuthOptions = {
   secret: string;
   /** Attempts per network address on sign-in, sign-up and the other auth routes; false turns the limit off. */
   rateLimit?: AuthRateLimit | false;
+  /** Sends verification and password-reset mail. */
+  mailer: Mailer;
 };
 
 /** Builds better-auth on the given database: e-mail and password, sessions, and shops as organizations with our four roles. */
-export function createAuth({ db, baseURL, secret, rateLimit = false }: AuthOptions) {
+export function createAuth({ db, baseURL, secret, rateLimit = false, mailer }: AuthOptions) {
   const https = baseURL.startsWith('https://');
   return betterAuth({
     baseURL,
@@ -41,7 +103,58 @@ export function createAuth({ db, baseURL, secret, rateLimit = false }: AuthOptio
     session: { modelName: 'sessions' },
     account: { modelName: 'accounts' },
     verification: { modelName: 'verifications' },
-    emailAndPassword: { enabled: true, minPasswordLength: 10, autoSignIn: true },
+    disabledPaths: [...disabledAccountPaths, ...disabledOrganizationPaths],
+    emailAndPassword: {
+      enabled: true,
+      minPasswordLength,
+      maxPasswordLength,
+      autoSignIn: true,
+      resetPasswordTokenExpiresIn: 60 * 60,
+      revokeSessionsOnPasswordReset: true,
+      sendResetPassword: async ({ user, url }) => {
+        await mailer.send(
+          composeMail({
+            to: { email: user.email, name: user.name },
+            subject: 'Set a new Lobewright password',
+            lines: ['Someone asked to set a new password for your Lobewright account. The link works for one hour.'],
+            action: 'Set a new password',
+            link: withCallback(url, new URL(resetPasswordPath, baseURL).toString()),
+            footer: 'If you did not ask for this, ignore this mail: your password stays as it is.',
+          }),
+        );
+      },
+    },
+    emailVerification: {
+      sendOnSignUp: true,
+      autoSignInAfterVerification: true,
+      expiresIn: 24 * 60 * 60,
+      sendVerificationEmail: async ({ user, url }) => {
+        await mailer.send(
+          composeMail({
+            to: { email: user.email, name: user.name },
+            subject: 'Verify your e-mail for Lobewright',
+            lines: ['Please confirm this is your address. Until you do, invitations to shops and vehicle summaries stay closed.'],
+            action: 'Verify my e-mail',
+            link: withCallback(url, new URL(verifiedPath, baseURL).toString()),
+            footer: 'If you did not sign up for Lobewright, ignore this mail.',
+          }),
+        );
+      },
+    },
+    hooks: {
+      // Every route that sets a password checks it against our rules first, with a 400 naming the field.
+      before: createAuthMiddleware(async (ctx) => {
+        const field = passwordFields[ctx.path];
+        if (!field) return;
+        const body: unknown = ctx.body;
+        const value = body && typeof body === 'object' ? (body as Record<string, unknown>)[field] : undefined;
+        const result = passwordSchema.safeParse(value);
+        if (!result.success) {
+          const message = result.error.issues[0]?.message ?? 'Invalid password';
+          throw new APIError('BAD_REQUEST', { code: 'invalid', message: `${field}: ${message}`, fields: { [field]: message } });
+        }
+      }),
+    },
     rateLimit: rateLimit
       ? {
           enabled: true,
@@ -60,30 +173,15 @@ export function createAuth({ db, baseURL, secret, rateLimit = false }: AuthOptio
     databaseHooks: {
       user: {
         create: {
-          // An owner a shop sent a summary to becomes that shop's customer on signing up with the same address.
+          // An invited address joins its shops only once verified (a verified sign-up is one made by the seed or an admin).
           after: async (user) => {
-            db.transaction((tx) => {
-              const pending = tx
-                .select()
-                .from(schema.invitations)
-                .where(and(eq(schema.invitations.email, user.email.toLowerCase()), eq(schema.invitations.status, 'pending'), gt(schema.invitations.expiresAt, new Date())))
-                .all();
-              for (const invitation of pending) {
-                tx.insert(schema.memberships)
-                  .values({ id: crypto.randomUUID(), organizationId: invitation.organizationId, userId: user.id, role: invitation.role ?? 'customer' })
-                  .onConflictDoNothing()
-                  .run();
-                tx.update(schema.invitations).set({ status: 'accepted' }).where(eq(schema.invitations.id, invitation.id)).run();
-              }
-              // The sign-up's session may already exist without a shop: open it in the first one.
-              const first = pending[0];
-              if (first) {
-                tx.update(schema.sessions)
-                  .set({ activeOrganizationId: first.organizationId })
-                  .where(and(eq(schema.sessions.userId, user.id), isNull(schema.sessions.activeOrganizationId)))
-                  .run();
-              }
-            });
+            if (user.emailVerified) joinInvitedShops(db, user);
+          },
+        },
+        update: {
+          // An owner a shop sent a summary to, or a person a shop invited, joins that shop when the address is verified.
+          after: async (user) => {
+            if (user.emailVerified) joinInvitedShops(db, user);
           },
         },
       },
@@ -108,11 +206,13 @@ export function createAuth({ db, baseURL, secret, rateLimit = false }: AuthOptio
         ac: accessControl,
         roles: shopRoles,
         creatorRole: 'builder',
+        // Shops are made only through POST /api/shops, which sets the kind and the founder's role.
+        allowUserToCreateOrganization: false,
         schema: {
           organization: {
             modelName: 'shops',
             additionalFields: {
-              kind: { type: 'string', required: true, defaultValue: 'repair', input: true },
+              kind: { type: 'string', required: true, defaultValue: 'repair', input: false },
             },
           },
           member: { modelName: 'memberships' },

@@ -41,11 +41,25 @@ export function fieldsFromZod(error: z.ZodError): Record<string, string> {
   return Object.fromEntries(fields);
 }
 
-/** Parses `value` with `schema`, or throws a 400 that names every bad field. */
+/** Control characters other than tab, line feed and carriage return: never part of a person's text (NUL and friends break exports and terminals). */
+const CONTROL = /[\u0000-\u0008\u000B\u000C\u000E-\u001F\u007F]/;
+
+/** The path of every string in `value` that holds a control character. */
+function controlCharacterFields(value: unknown, path: PropertyKey[] = [], out = new Map<string, string>()) {
+  if (typeof value === 'string') {
+    if (CONTROL.test(value)) out.set(fieldPath(path), 'Remove the control characters (such as NUL) from this text');
+  } else if (Array.isArray(value)) value.forEach((v, i) => controlCharacterFields(v, [...path, i], out));
+  else if (value !== null && typeof value === 'object' && !(value instanceof Date)) {
+    for (const [k, v] of Object.entries(value)) controlCharacterFields(v, [...path, k], out);
+  }
+  return out;
+}
+
+/** Parses `value` with `schema`, or throws a 400 that names every bad field (control characters in text included). */
 export function parse<S extends z.ZodType>(schema: S, value: unknown): z.output<S> {
   const result = schema.safeParse(value ?? {});
-  if (result.success) return result.data;
-  const fields = fieldsFromZod(result.error);
+  const fields = result.success ? Object.fromEntries(controlCharacterFields(result.data)) : fieldsFromZod(result.error);
+  if (result.success && Object.keys(fields).length === 0) return result.data;
   const [first] = Object.entries(fields);
   const message = first ? `${first[0]}: ${first[1]}` : 'The request is not valid';
   throw new HttpError(400, 'invalid', message, fields);

@@ -3,6 +3,8 @@ import helmet from 'helmet';
 
 import type { ApiErrorBody } from '@/shared/errors';
 
+import { HttpError } from './http';
+
 /** Largest JSON body the API reads. */
 export const jsonBodyLimit = '200kb';
 /** Largest body the sign-in routes read (e-mail, password, a name, a shop: a few hundred bytes in practice). */
@@ -106,4 +108,33 @@ export function securityHeaders({ baseURL, contentSecurityPolicy = true }: Secur
     strictTransportSecurity: https ? { maxAge: 180 * 24 * 60 * 60, includeSubDomains: true } : false,
     frameguard: { action: 'deny' },
   });
+}
+
+const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
+
+/**
+ * Refuses a state-changing request that carries cookies unless its Origin (or, when a
+ * browser sends none, its Referer) is the app's own, the way the sign-in library checks
+ * its own routes. A page on another site can make the browser send our cookie with a
+ * form post, a text/plain body or no body at all; it cannot make it send our origin.
+ * Requests without cookies act as nobody (a share link's token is in its address).
+ */
+export function requireSameOrigin(baseURL: string): RequestHandler {
+  const own = new URL(baseURL).origin;
+  return (req, _res, next) => {
+    if (SAFE_METHODS.has(req.method) || !req.headers.cookie) return next();
+    const claimed = req.headers.origin ?? originOfReferer(req.headers.referer);
+    if (claimed === own) return next();
+    const why = claimed ? `Requests from ${claimed} cannot act here` : 'The request does not say which site sent it (no Origin header)';
+    next(new HttpError(403, 'origin_refused', `${why}: open Lobewright at ${own} and try again`, { origin: why }));
+  };
+}
+
+function originOfReferer(referer: string | undefined): string | undefined {
+  if (!referer) return undefined;
+  try {
+    return new URL(referer).origin;
+  } catch {
+    return undefined;
+  }
 }

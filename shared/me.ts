@@ -5,7 +5,7 @@ import { shopKinds, type ShopKind, type ShopRole } from './roles';
 export type MeShop = { id: string; name: string; kind: ShopKind; role: ShopRole };
 
 export type Me = {
-  user: { id: string; name: string; email: string };
+  user: { id: string; name: string; email: string; emailVerified: boolean };
   shops: MeShop[];
   activeShop: MeShop | null;
 };

@@ -65,13 +65,13 @@ export const degreeSchema = z.strictObject({
 });
 
 /** Lobe-table CSV upload (`POST /api/jobs/:jobId/measurements/lobes`, multipart field `file`); lift in inches. */
-export const lobeCsvLimits = { maxBytes: 1024 * 1024, minRows: 5, maxLift: 1.5 } as const;
+export const lobeCsvLimits = { maxBytes: 1024 * 1024, minRows: 5, maxLift: 1.5, minAngle: -360, maxAngle: 720 } as const;
 
 /** One lobe's readings: crank degrees, strictly increasing; tappet lift in inches. */
 const lobeReadings = z
   .array(
     z.strictObject({
-      angle: z.number({ error: 'Angle must be a number in crank degrees' }).refine(Number.isFinite, 'Angle must be a finite number'),
+      angle: measure('Angle', '° crank', lobeCsvLimits.minAngle, lobeCsvLimits.maxAngle),
       lift: measure('Lift', 'in', 0, lobeCsvLimits.maxLift),
     }),
   )

@@ -4,6 +4,8 @@ import type { Server } from 'node:http';
 import os from 'node:os';
 import path from 'node:path';
 
+import { eq } from 'drizzle-orm';
+
 import { DEMO_ENGINE, DEMO_TOWING } from '@/calc/demo';
 import { openDb, schema, type Db } from '@/db';
 import { createApp, type App, type CreateAppOptions } from '@/server/app';
@@ -88,6 +90,20 @@ export class Client {
   /** The Cookie header this person's requests carry (for load tools that send their own requests). */
   cookieHeader = () => [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
 
+  /** Opens a link as a browser would, without following its redirect; returns the status and where it redirects. */
+  async visit(pathAndQuery: string) {
+    const res = await fetch(this.baseUrl + pathAndQuery, { headers: { origin: this.baseUrl, cookie: this.cookieHeader() }, redirect: 'manual' });
+    for (const line of res.headers.getSetCookie()) {
+      const [pair] = line.split(';');
+      const eq = pair!.indexOf('=');
+      const value = pair!.slice(eq + 1);
+      if (value === '' || /max-age=0/i.test(line)) this.cookies.delete(pair!.slice(0, eq));
+      else this.cookies.set(pair!.slice(0, eq), value);
+    }
+    await res.text();
+    return { status: res.status, location: res.headers.get('location') };
+  }
+
   get = (path: string) => this.request('GET', path);
   post = (path: string, body?: unknown) => this.request('POST', path, body ?? {});
   patch = (path: string, body?: unknown) => this.request('PATCH', path, body ?? {});
@@ -112,13 +128,36 @@ export function formWith(files: [field: string, name: string, bytes: Uint8Array<
 
 let counter = 0;
 
-/** Signs a new person up and returns their client. */
-export async function signUp(t: TestApp, name = 'Test Person') {
+/** The last link in the newest mail to `email` whose subject matches, read from the outbox. */
+export function linkFromOutbox(db: Db, email: string, subject: RegExp): string {
+  const mail = db
+    .select()
+    .from(schema.outbox)
+    .where(eq(schema.outbox.to, email))
+    .all()
+    .filter((m) => subject.test(m.subject))
+    .at(-1);
+  const link = mail?.text.match(/https?:\/\/\S+/g)?.at(-1);
+  if (!link) throw new Error(`no mail matching ${subject} to ${email}`);
+  return link;
+}
+
+/** Opens the verification link mailed to the client's address (as its owner would). */
+export async function verifyEmail(t: TestApp, client: Client, email: string) {
+  const link = new URL(linkFromOutbox(t.db, email, /verify/i));
+  const res = await client.visit(link.pathname + link.search);
+  if (res.status !== 302) throw new Error(`verification failed: ${res.status}`);
+  return res;
+}
+
+/** Signs a new person up and returns their client; the address is verified unless `verified` is false. */
+export async function signUp(t: TestApp, name = 'Test Person', { verified = true }: { verified?: boolean } = {}) {
   counter += 1;
   const email = `person${counter}-${Date.now()}@example.test`;
   const client = new Client(t.url);
   const res = await client.post('/api/auth/sign-up/email', { name, email, password: 'correct-horse-9' });
   if (res.status !== 200) throw new Error(`sign-up failed: ${res.status} ${JSON.stringify(res.body)}`);
+  if (verified) await verifyEmail(t, client, email);
   return Object.assign(client, { email, userId: res.body.user.id as string });
 }
 

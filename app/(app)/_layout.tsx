@@ -1,7 +1,8 @@
 import { Tabs } from 'expo-router';
-import { useWindowDimensions } from 'react-native';
+import { useWindowDimensions, View } from 'react-native';
 
 import { NavBar, type NavItem } from '@/components/nav-bar';
+import { VerifyBanner } from '@/components/verify-banner';
 import { breakpoints, colors } from '@/constants/theme';
 import { useMeQuery } from '@/hooks/use-me';
 import { useOutboxQuery } from '@/hooks/use-outbox';
@@ -35,33 +36,36 @@ export default function AppLayout() {
   ];
 
   return (
-    <Tabs
-      tabBar={() => <NavBar items={items} wide={wide} shopName={me?.activeShop?.name} />}
-      screenOptions={{
-        headerShown: false,
-        tabBarPosition: wide ? 'left' : 'bottom',
-        sceneStyle: { backgroundColor: colors.paper },
-      }}
-    >
-      <Tabs.Screen name="index" options={{ href: null }} />
-      <Tabs.Protected guard={canSeeJobs}>
-        <Tabs.Screen name="jobs" options={{ title: 'Jobs' }} />
-        <Tabs.Screen name="profiles" options={{ title: 'Profiles' }} />
-      </Tabs.Protected>
-      <Tabs.Protected guard={canSeeLimits}>
-        <Tabs.Screen name="settings" options={{ title: 'Settings' }} />
-      </Tabs.Protected>
-      <Tabs.Protected guard={canSeeSummaries}>
-        <Tabs.Screen name="my" options={{ title: 'Your vehicles' }} />
-      </Tabs.Protected>
-      <Tabs.Protected guard={canSeeIncoming}>
-        <Tabs.Screen name="incoming" options={{ title: 'Incoming' }} />
-      </Tabs.Protected>
-      <Tabs.Screen name="orders" options={{ href: null, title: 'Grind order' }} />
-      <Tabs.Protected guard={outbox.data !== null}>
-        <Tabs.Screen name="mailbox" options={{ href: null, title: 'Dev mailbox' }} />
-      </Tabs.Protected>
-      <Tabs.Screen name="account" options={{ title: 'Account' }} />
-    </Tabs>
+    <View style={{ flex: 1 }}>
+      {me && !me.user.emailVerified ? <VerifyBanner email={me.user.email} /> : null}
+      <Tabs
+        tabBar={() => <NavBar items={items} wide={wide} shopName={me?.activeShop?.name} />}
+        screenOptions={{
+          headerShown: false,
+          tabBarPosition: wide ? 'left' : 'bottom',
+          sceneStyle: { backgroundColor: colors.paper },
+        }}
+      >
+        <Tabs.Screen name="index" options={{ href: null }} />
+        <Tabs.Protected guard={canSeeJobs}>
+          <Tabs.Screen name="jobs" options={{ title: 'Jobs' }} />
+          <Tabs.Screen name="profiles" options={{ title: 'Profiles' }} />
+        </Tabs.Protected>
+        <Tabs.Protected guard={canSeeLimits}>
+          <Tabs.Screen name="settings" options={{ title: 'Settings' }} />
+        </Tabs.Protected>
+        <Tabs.Protected guard={canSeeSummaries}>
+          <Tabs.Screen name="my" options={{ title: 'Your vehicles' }} />
+        </Tabs.Protected>
+        <Tabs.Protected guard={canSeeIncoming}>
+          <Tabs.Screen name="incoming" options={{ title: 'Incoming' }} />
+        </Tabs.Protected>
+        <Tabs.Screen name="orders" options={{ href: null, title: 'Grind order' }} />
+        <Tabs.Protected guard={outbox.data !== null}>
+          <Tabs.Screen name="mailbox" options={{ href: null, title: 'Dev mailbox' }} />
+        </Tabs.Protected>
+        <Tabs.Screen name="account" options={{ title: 'Account' }} />
+      </Tabs>
+    </View>
   );
 }

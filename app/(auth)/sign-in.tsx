@@ -53,6 +53,9 @@ export default function SignIn() {
         onSubmitEditing={submit}
         testID="sign-in-password"
       />
+      <Link href="/forgot-password" style={styles.link} testID="to-forgot-password">
+        Forgot password?
+      </Link>
       {formError ? <ErrorNotice error={new Error(formError)} /> : null}
       <Button label="Sign in" onPress={submit} busy={signIn.isPending} testID="sign-in-submit" />
       <Text style={styles.switch}>

@@ -17,7 +17,7 @@ import { shopCreateSchema } from '@/shared/me';
 const signUpSchema = z.object({
   name: z.string().trim().min(1, 'Enter your name').max(120, 'Keep your name under 120 characters'),
   email: z.email('Enter an e-mail address you can read'),
-  password: z.string().min(10, 'Use at least 10 characters').max(128, 'Use at most 128 characters'),
+  password: z.string().min(12, 'Use at least 12 characters').max(128, 'Use at most 128 characters'),
   shopName: shopCreateSchema.shape.name,
   shopKind: shopCreateSchema.shape.kind,
 });

@@ -21,8 +21,9 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
+/** Order mail to the address (the sign-up's verification mail left out). */
 function outboxTo(email: string) {
-  return t.db.select().from(schema.outbox).all().filter((m) => m.to === email);
+  return t.db.select().from(schema.outbox).all().filter((m) => m.to === email && !/verify your e-mail/i.test(m.subject));
 }
 
 /** A repair shop with a draft sheet, and a grinding shop with a grinder (the founder is the grinder too). */
@@ -364,17 +365,36 @@ describe('order e-mail', { timeout: 30_000 }, () => {
 });
 
 describe('development mailbox', { timeout: 30_000 }, () => {
-  it('lists and opens stored mail for a signed-in person, and is absent when dev tools are off', async () => {
+  it('shows a signed-in person only the mail addressed to them (finding 1), pages it, and is absent when dev tools are off', async () => {
     const s = await issued('Mailbox');
-    const anon = await signUp(t, 'Reader');
-    const list = await anon.get('/api/dev/outbox');
+    const list = await s.grinder.get('/api/dev/outbox');
     expect(list.status).toBe(200);
-    const mine = list.body.messages.find((m: { to: string }) => m.to === s.grinder.email);
-    expect(mine).toMatchObject({ subject: expect.stringContaining('Mailbox regrind') });
-    const one = await anon.get(`/api/dev/outbox/${mine.id}`);
-    expect(one.body.message).toEqual(mine);
+    const mine = list.body.messages.find((m: { subject: string }) => m.subject.includes('Mailbox regrind'));
+    expect(mine).toMatchObject({ to: s.grinder.email });
+    expect(list.body.messages.every((m: { to: string }) => m.to === s.grinder.email)).toBe(true);
+    expect((await s.grinder.get(`/api/dev/outbox/${mine.id}`)).body.message).toEqual(mine);
+    // A stranger who signs up reads none of it: not in the list, and not by id.
+    const anon = await signUp(t, 'Reader');
+    const theirs = await anon.get('/api/dev/outbox');
+    expect(theirs.status).toBe(200);
+    expect(theirs.body.messages.every((m: { to: string }) => m.to === anon.email)).toBe(true);
+    expect(JSON.stringify(theirs.body)).not.toContain('Mailbox regrind');
+    expect((await anon.get(`/api/dev/outbox/${mine.id}`)).status).toBe(404);
     expect((await anon.get('/api/dev/outbox/nope')).status).toBe(404);
     expect((await new Client(t.url).get('/api/dev/outbox')).status).toBe(401);
+    // Pages of one walk every message once.
+    const all = (await s.grinder.get('/api/dev/outbox?limit=200')).body.messages.map((m: { id: string }) => m.id);
+    const walked: string[] = [];
+    let cursor: string | null = null;
+    do {
+      const page = await s.grinder.get(`/api/dev/outbox?limit=1${cursor ? `&cursor=${cursor}` : ''}`);
+      walked.push(...page.body.messages.map((m: { id: string }) => m.id));
+      cursor = page.body.nextCursor as string | null;
+    } while (cursor);
+    expect(walked).toEqual(all);
+    const bad = await s.grinder.get('/api/dev/outbox?limit=500&cursor=zz');
+    expect(bad.status).toBe(400);
+    expect(Object.keys(bad.body.error.fields)).toContain('limit');
 
     const prod = await createTestApp({ devTools: false });
     try {

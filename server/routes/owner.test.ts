@@ -8,7 +8,7 @@ import { schema } from '@/db';
 import { startLocalPayments } from '@/server/payments';
 import { offerChecksum, revisionChecksum } from '@/shared/checksum';
 import type { OwnerView } from '@/shared/owner';
-import { Client, createTestApp, makeJobWithEngine, memberWithRole, makeShop, signUp, type TestApp } from '@/tests/fixtures';
+import { Client, createTestApp, makeJobWithEngine, memberWithRole, makeShop, signUp, verifyEmail, type TestApp } from '@/tests/fixtures';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -377,6 +377,7 @@ describe('inviting the owner', () => {
     await s.builder.post(`/api/jobs/${s.jobId}/share-links`, { email });
     const later = new Client(t.url);
     expect((await later.post('/api/auth/sign-up/email', { name: 'Later Owner', email, password: 'correct-horse-9' })).status).toBe(200);
+    await verifyEmail(t, later, email);
     const joined = t.db.select().from(schema.memberships).where(eq(schema.memberships.organizationId, s.shopId)).all();
     expect(joined.map((m) => m.role).sort()).toEqual(['builder', 'customer']);
     const me = (await later.get('/api/me')).body;
@@ -384,6 +385,24 @@ describe('inviting the owner', () => {
     expect((await later.get('/api/my/jobs')).body.jobs.map((j: { jobId: string }) => j.jobId)).toEqual([s.jobId]);
     // Not staff: no jobs list.
     expect((await later.get('/api/jobs')).status).toBe(403);
+  });
+
+  it('keeps someone who signs up with the e-mailed address out of the shop until they verify it', async () => {
+    const s = await sharedJob('Unverified invite shop');
+    const email = `claimed-${Date.now()}@example.test`;
+    await s.builder.post(`/api/jobs/${s.jobId}/share-links`, { email });
+    const claimant = new Client(t.url);
+    expect((await claimant.post('/api/auth/sign-up/email', { name: 'Claimant', email, password: 'correct-horse-9' })).status).toBe(200);
+    const user = t.db.select().from(schema.users).where(eq(schema.users.email, email)).get()!;
+    expect(user.emailVerified).toBe(false);
+    expect(t.db.select().from(schema.memberships).where(eq(schema.memberships.userId, user.id)).all()).toEqual([]);
+    expect((await claimant.get(`/api/my/jobs/${s.jobId}`)).status).not.toBe(200);
+    expect((await claimant.get('/api/my/jobs')).status).not.toBe(200);
+    // A second share link to an unverified account does not add it either.
+    await s.builder.post(`/api/jobs/${s.jobId}/share-links`, { email });
+    expect(t.db.select().from(schema.memberships).where(eq(schema.memberships.userId, user.id)).all()).toEqual([]);
+    await verifyEmail(t, claimant, email);
+    expect((await claimant.get(`/api/my/jobs/${s.jobId}`)).status).toBe(200);
   });
 
   it('adds an existing account as a customer and leaves a staff member their role', async () => {

@@ -40,13 +40,13 @@ export function insertShareLink(tx: Pick<Db, 'insert'>, { id = crypto.randomUUID
 
 /**
  * The owner a link is e-mailed to also gets a customer account in the shop:
- * at once when someone already signed up with that address, otherwise when
- * they sign up (a pending invitation, accepted by the sign-up hook in server/auth.ts).
+ * at once when someone already signed up with that address and verified it, otherwise
+ * when the address is verified (a pending invitation, accepted by the user hook in server/auth.ts).
  * Someone already in the shop keeps their role.
  */
 function inviteOwner(tx: Pick<Db, 'select' | 'insert'>, shopId: string, inviterId: string, email: string, expiresAt: Date) {
-  const user = tx.select({ id: schema.users.id }).from(schema.users).where(eq(schema.users.email, email)).get();
-  if (user) {
+  const user = tx.select({ id: schema.users.id, emailVerified: schema.users.emailVerified }).from(schema.users).where(eq(schema.users.email, email)).get();
+  if (user?.emailVerified) {
     tx.insert(schema.memberships).values({ id: crypto.randomUUID(), organizationId: shopId, userId: user.id, role: 'customer' }).onConflictDoNothing().run();
     return;
   }

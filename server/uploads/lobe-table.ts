@@ -108,6 +108,10 @@ export function parseLobeTable(text: string, fileName: string): LobeTable {
     const angle = readNumber(cells[0] ?? '');
     if (angle === null) problems.add(row, angleName, `${basis === 'cam' ? 'Cam' : 'Crank'} angle must be a number in degrees`);
     else {
+      const crank = basis === 'cam' ? angle * 2 : angle;
+      if (crank < lobeCsvLimits.minAngle || crank > lobeCsvLimits.maxAngle) {
+        problems.add(row, angleName, `Angle ${angle} is outside ${lobeCsvLimits.minAngle}…${lobeCsvLimits.maxAngle} crank degrees${basis === 'cam' ? ' (cam degrees are doubled)' : ''}`);
+      }
       if (previous && !(angle > previous.angle)) {
         problems.add(row, angleName, `Angles must increase down the file: ${angle} does not come after ${previous.angle} on row ${previous.row}`);
       }

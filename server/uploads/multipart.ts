@@ -31,11 +31,12 @@ export function runMultipart(upload: RequestHandler, req: Request, res: Response
             return reject(new HttpError(400, 'invalid', `The upload was refused: ${error.message}`, { [field]: error.message }));
         }
       }
+      // A disk or system failure (it has an errno) is ours; anything else the form parser
+      // throws (a malformed part header, a missing boundary, a cut-off body) is the request's.
+      if ((error as NodeJS.ErrnoException).errno !== undefined) return reject(error);
       const message = error instanceof Error ? error.message : String(error);
-      if (/multipart|boundary|unexpected end of form/i.test(message)) {
-        return reject(new HttpError(400, 'invalid', 'Send the file as a multipart form upload', { '(body)': message }));
-      }
-      return reject(error);
+      const text = `Send the file as a well-formed multipart form upload in the field "${words.field}" (${message})`;
+      return reject(new HttpError(400, 'invalid', text, { [words.field]: text }));
     });
   });
 }

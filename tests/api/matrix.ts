@@ -187,14 +187,12 @@ export const matrix: Record<string, MatrixRow> = {
     refusedAs: { status: 400, why: 'only the payment service holds the signing secret; a signed event is tested on its own in matrix.test.ts' },
   },
 
-  'GET /api/dev/outbox': {
-    allow: signedIn,
-    showsEveryone: 'the development mailbox shows every kept mail to anyone signed in; it is not mounted in production',
-  },
+  // The development mailbox (demo mode only): each person reads only the mail addressed to them.
+  'GET /api/dev/outbox': { allow: signedIn },
   'GET /api/dev/outbox/:id': {
-    allow: signedIn,
+    allow: ['A.builder'],
     params: (w) => ({ id: w.a.outboxId }),
-    showsEveryone: 'the development mailbox shows every kept mail to anyone signed in; it is not mounted in production',
+    refusedAs: { status: 404, why: "another person's mail looks like no mail at all" },
   },
 };
 
