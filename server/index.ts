@@ -22,7 +22,7 @@ async function main() {
   const pay = config.payments;
   const local = pay.kind === 'service' ? undefined : await startLocalPayments({ publicUrl: config.baseURL, port: pay.fakePort, currency: pay.currency });
   const payments = pay.kind === 'service' ? servicePayments(pay) : local!.payments;
-  const app = createApp({ db, baseURL: config.baseURL, secret: config.secret, webDir: config.webDir, devWebProxy, mailer, payments, authRateLimit });
+  const app = createApp({ db, baseURL: config.baseURL, secret: config.secret, webDir: config.webDir, devWebProxy, mailer, payments, authRateLimit, jobCreateRateLimit: { limit: config.jobsPerMinute, windowMs: 60_000 } });
 
   const server = app.listen(config.port, () => {
     console.log(`Lobewright is serving ${config.baseURL} (database ${config.databasePath})`);
