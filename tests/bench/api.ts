@@ -67,7 +67,7 @@ function seedJobs(databasePath: string, count: number) {
   const db = new Database(databasePath);
   try {
     const shop = db
-      .prepare('select m.shop_id as id from memberships m join users u on u.id = m.user_id join shops s on s.id = m.shop_id where u.email = ? and s.kind = 'repair' limit 1')
+      .prepare(`select m.shop_id as id from memberships m join users u on u.id = m.user_id join shops s on s.id = m.shop_id where u.email = ? and s.kind = 'repair' limit 1`)
       .get(demoAccounts[0]!.email) as { id: string } | undefined;
     if (!shop) throw new Error('the demo builder has no shop');
     const insert = db.prepare('insert into jobs (id, shop_id, vehicle, customer_name, complaint, created_at, updated_at) values (?, ?, ?, ?, ?, ?, ?)');
