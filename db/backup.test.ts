@@ -15,7 +15,7 @@ import { defaultBackupFile } from './backup';
 const run = promisify(execFile);
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'lobewright-backup-'));
 const databasePath = path.join(dir, 'lobewright.sqlite');
-const env = { DATABASE_PATH: databasePath, WEB_DIR: path.join(dir, 'no-web-export'), NODE_ENV: 'test' as const, AUTH_RATE_LIMIT: 'off' };
+const env = { DATABASE_PATH: databasePath, WEB_DIR: path.join(dir, 'no-web-export'), NODE_ENV: 'test' as const, AUTH_RATE_LIMIT: 'off', JOBS_PER_MINUTE: '100000' };
 let server: ServerProcess | undefined;
 
 afterAll(async () => {

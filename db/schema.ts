@@ -156,7 +156,8 @@ export const jobs = sqliteTable(
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
-  (t) => [index('jobs_shop_updated_idx').on(t.shopId, t.updatedAt)],
+  // The list pages newest change first (keyset on updated_at, id); the create cap counts by created_at.
+  (t) => [index('jobs_shop_updated_id_idx').on(t.shopId, t.updatedAt, t.id), index('jobs_shop_created_idx').on(t.shopId, t.createdAt)],
 );
 
 /** The engine on a job (one per job). `spec` is validated by shared/engine.ts before it is written. */
@@ -366,7 +367,7 @@ export const grindOrders = sqliteTable(
     updatedAt: updatedAt(),
   },
   (t) => [
-    index('grind_orders_grinder_idx').on(t.grinderShopId, t.createdAt),
+    index('grind_orders_grinder_created_id_idx').on(t.grinderShopId, t.createdAt, t.id),
     index('grind_orders_sheet_idx').on(t.sheetId, t.createdAt),
   ],
 );
@@ -400,7 +401,7 @@ export const outbox = sqliteTable(
     html: text('html').notNull(),
     createdAt: createdAt(),
   },
-  (t) => [index('outbox_created_idx').on(t.createdAt)],
+  (t) => [index('outbox_created_idx').on(t.createdAt), index('outbox_to_created_idx').on(t.to, t.createdAt, t.id)],
 );
 
 /** The owner's page on a job: the builder's plain words about what failed (one row per job, written on first save). */
@@ -457,7 +458,7 @@ export const shareLinks = sqliteTable(
     createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
     createdAt: createdAt(),
   },
-  (t) => [index('share_links_job_idx').on(t.jobId, t.createdAt)],
+  (t) => [index('share_links_job_idx').on(t.jobId, t.createdAt), index('share_links_shop_email_idx').on(t.shopId, t.email, t.createdAt)],
 );
 
 /** The owner's approval of one option; bound to the exact revision by its checksum. One per job. */

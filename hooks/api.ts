@@ -71,3 +71,8 @@ export const staleTimes = {
   list: 30_000,
   record: 15_000,
 } as const;
+
+/** `path` asking for the page after `cursor` (the previous page's nextCursor); null is the first page. */
+export function pagePath(path: string, cursor: string | null) {
+  return cursor === null ? path : `${path}${path.includes('?') ? '&' : '?'}cursor=${encodeURIComponent(cursor)}`;
+}

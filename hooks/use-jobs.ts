@@ -1,8 +1,9 @@
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useInfiniteQuery, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
 import type { Job, JobCreate, JobPatch } from '@/shared/jobs';
+import type { Page } from '@/shared/paging';
 
-import { api, staleTimes } from './api';
+import { api, pagePath, staleTimes } from './api';
 
 export const jobKeys = {
   all: ['jobs'] as const,
@@ -10,12 +11,16 @@ export const jobKeys = {
   detail: (id: string) => [...jobKeys.all, 'detail', id] as const,
 };
 
+/** The shop's jobs, newest change first, a page at a time (`fetchNextPage` for more); `data` is every job loaded so far. */
 export function useJobsQuery(enabled = true) {
-  return useQuery({
+  return useInfiniteQuery({
     queryKey: jobKeys.list(),
     staleTime: staleTimes.list,
     enabled,
-    queryFn: async () => (await api<{ jobs: Job[] }>('/api/jobs')).jobs,
+    initialPageParam: null as string | null,
+    queryFn: ({ pageParam }) => api<Page<'jobs', Job>>(pagePath('/api/jobs', pageParam)),
+    getNextPageParam: (last) => last.nextCursor,
+    select: (data) => data.pages.flatMap((p) => p.jobs),
   });
 }
 

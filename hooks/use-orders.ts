@@ -1,8 +1,9 @@
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useInfiniteQuery, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
 import type { IssueBody, Order, OrderDetail, OrderMessage, OrderMove } from '@/shared/orders';
+import type { Page } from '@/shared/paging';
 
-import { api, staleTimes } from './api';
+import { api, pagePath, staleTimes } from './api';
 import { sheetKeys } from './use-sheets';
 
 export type GrindingShop = { id: string; name: string };
@@ -39,11 +40,14 @@ export function useSheetOrdersQuery(sheetId: string) {
 
 /** The grinding shop's inbox: orders issued to it. */
 export function useIncomingQuery(enabled = true) {
-  return useQuery({
+  return useInfiniteQuery({
     queryKey: orderKeys.incoming(),
     staleTime: staleTimes.list,
     enabled,
-    queryFn: async () => (await api<{ orders: Order[] }>('/api/incoming')).orders,
+    initialPageParam: null as string | null,
+    queryFn: ({ pageParam }) => api<Page<'orders', Order>>(pagePath('/api/incoming', pageParam)),
+    getNextPageParam: (last) => last.nextCursor,
+    select: (data) => data.pages.flatMap((p) => p.orders),
   });
 }
 

@@ -1,8 +1,9 @@
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useInfiniteQuery, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
 import type { Approval, ApproveBody, OwnerDesk, OwnerOptionCreate, OwnerOptionPatch, OwnerPageSave, OwnerView, Payment, ShareLink, ShareLinkCreate } from '@/shared/owner';
+import type { Page } from '@/shared/paging';
 
-import { api, staleTimes } from './api';
+import { api, pagePath, staleTimes } from './api';
 
 const enc = encodeURIComponent;
 
@@ -78,10 +79,13 @@ export type OwnerJob = { jobId: string; vehicle: string; shopName: string; appro
 
 /** A signed-in owner's summaries (links the shop sent to their e-mail). */
 export function useMyJobsQuery() {
-  return useQuery({
+  return useInfiniteQuery({
     queryKey: ['my-jobs'],
     staleTime: staleTimes.list,
-    queryFn: async () => (await api<{ jobs: OwnerJob[] }>('/api/my/jobs')).jobs,
+    initialPageParam: null as string | null,
+    queryFn: ({ pageParam }) => api<Page<'jobs', OwnerJob>>(pagePath('/api/my/jobs', pageParam)),
+    getNextPageParam: (last) => last.nextCursor,
+    select: (data) => data.pages.flatMap((p) => p.jobs),
   });
 }
 

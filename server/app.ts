@@ -19,7 +19,7 @@ import { checklistRouter } from './routes/checklist';
 import { devOutboxRouter } from './routes/dev-outbox';
 import { enginesRouter } from './routes/engines';
 import { fitChecksRouter } from './routes/fit-checks';
-import { jobsRouter } from './routes/jobs';
+import { jobsRouter, type JobCreateRateLimit } from './routes/jobs';
 import { measurementsRouter } from './routes/measurements';
 import { meRouter } from './routes/me';
 import { ordersRouter } from './routes/orders';
@@ -41,6 +41,8 @@ export type CreateAppOptions = {
   webDir?: string;
   /** In development, forward every non-API request to the Expo dev server at this URL instead of serving webDir. */
   devWebProxy?: express.RequestHandler;
+  /** Jobs one shop may create (default 30 a minute); tests that create many jobs raise it. */
+  jobCreateRateLimit?: JobCreateRateLimit;
   /** Requests per person to the calc API (default 60 a minute). */
   calcRateLimit?: CalcRateLimit;
   /** Folder for uploaded photos (one sub-folder per shop); default `uploads` beside the database. Tests pass a temp folder. */
@@ -66,7 +68,7 @@ export type CreateAppOptions = {
 const dev = process.env.NODE_ENV !== 'production';
 
 /** Builds the whole app without listening, so tests can drive it on an in-memory database. */
-export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLimit, uploadsDir, mailer, devTools = dev, payments, currency = 'usd', shareRateLimit, authRateLimit, mode = dev ? 'demo' : 'production', trustProxy = false }: CreateAppOptions) {
+export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLimit, jobCreateRateLimit, uploadsDir, mailer, devTools = dev, payments, currency = 'usd', shareRateLimit, authRateLimit, mode = dev ? 'demo' : 'production', trustProxy = false }: CreateAppOptions) {
   const mail = mailer ?? createMailer({ db });
   const auth = createAuth({ db, baseURL, secret, rateLimit: authRateLimit ?? (dev ? false : defaultAuthRateLimit), mailer: mail });
   const deps: AppDeps = {
@@ -98,7 +100,7 @@ export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLi
   const instance: Instance = { mode, fakes: [...(payments?.kind === 'local-fake' ? (['payments'] as const) : []), ...(devTools ? (['mailbox'] as const) : [])], depositsOn: payments !== undefined };
   app.get('/api/instance', (_req, res) => void res.json({ instance }));
   app.use('/api', meRouter(deps));
-  app.use('/api/jobs', jobsRouter(deps));
+  app.use('/api/jobs', jobsRouter(deps, jobCreateRateLimit));
   app.use('/api', enginesRouter(deps), profilesRouter(deps), sheetsRouter(deps), calcRouter(deps, calcRateLimit));
   app.use('/api', measurementsRouter(deps), photosRouter(deps), checklistRouter(deps), shopLimitsRouter(deps), fitChecksRouter(deps));
   app.use('/api', ordersRouter(deps), ownerRouter(deps), shareRouter(deps, shareRateLimit));

@@ -24,6 +24,8 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env) {
   const baseURL = env.PUBLIC_URL ?? `http://localhost:${port}`;
   const authRateLimit = env.AUTH_RATE_LIMIT ?? 'on';
   if (authRateLimit !== 'on' && authRateLimit !== 'off') throw new Error(`AUTH_RATE_LIMIT must be on or off, got ${authRateLimit}`);
+  const jobsPerMinute = Number(env.JOBS_PER_MINUTE ?? 30);
+  if (!Number.isInteger(jobsPerMinute) || jobsPerMinute < 1) throw new Error(`JOBS_PER_MINUTE must be a whole number above 0, got ${env.JOBS_PER_MINUTE}`);
   const secret = env.BETTER_AUTH_SECRET ?? '';
   if (mode === 'production' && secret.length < 32) {
     throw new Error('Set BETTER_AUTH_SECRET to a random string of at least 32 characters in production');
@@ -44,6 +46,8 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env) {
     /** The development mailbox (`/api/dev/outbox`): demo mode only. */
     devTools: mode === 'demo',
     trustProxy: readTrustProxy(env.TRUST_PROXY),
+    /** Jobs one shop may create a minute (JOBS_PER_MINUTE, default 30). */
+    jobsPerMinute,
   };
 }
 

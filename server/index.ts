@@ -41,6 +41,7 @@ async function main() {
     payments,
     currency: pay.currency,
     authRateLimit,
+    jobCreateRateLimit: { limit: config.jobsPerMinute, windowMs: 60_000 },
     devTools: config.devTools,
     mode: config.mode,
     trustProxy: config.trustProxy,

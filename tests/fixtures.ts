@@ -16,7 +16,7 @@ import type { ShopKind, ShopRole } from '@/shared/roles';
 export type TestApp = { app: App; db: Db; url: string; uploadsDir: string; payments: Payments; paymentService: FakePaymentService; close: () => Promise<void> };
 
 /** A real app on an in-memory database, listening on a free loopback port. */
-export async function createTestApp(options: Pick<CreateAppOptions, 'calcRateLimit' | 'devTools' | 'shareRateLimit' | 'authRateLimit'> = {}): Promise<TestApp> {
+export async function createTestApp(options: Pick<CreateAppOptions, 'calcRateLimit' | 'jobCreateRateLimit' | 'devTools' | 'shareRateLimit' | 'authRateLimit'> = {}): Promise<TestApp> {
   const db = openDb(':memory:');
   const uploadsDir = fs.mkdtempSync(path.join(os.tmpdir(), 'lobewright-test-uploads-'));
   // The origin is only known after listening; sign-in checks it against the request's Origin header.
@@ -31,7 +31,7 @@ export async function createTestApp(options: Pick<CreateAppOptions, 'calcRateLim
   const url = `http://127.0.0.1:${port}`;
   // Deposits go to the local fake payment service, as they do when the app runs without STRIPE_SECRET_KEY.
   const { payments, service: paymentService } = await startLocalPayments({ publicUrl: url });
-  const app = createApp({ db, baseURL: url, secret: 'test-secret-test-secret-test-secret', uploadsDir, payments, ...options });
+  const app = createApp({ db, baseURL: url, secret: 'test-secret-test-secret-test-secret', uploadsDir, payments, jobCreateRateLimit: { limit: 10_000, windowMs: 60_000 }, ...options });
   await new Promise<void>((resolve) => {
     server = app.listen(port, '127.0.0.1', () => resolve());
   });

@@ -1,6 +1,7 @@
 import { Link, type Href } from 'expo-router';
 import { StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 
+import { LoadMore } from '@/components/load-more';
 import { OrderStageChip } from '@/components/order-stage-chip';
 import { EmptyState, ErrorNotice, Pending } from '@/components/query-state';
 import { Screen } from '@/components/screen';
@@ -10,12 +11,13 @@ import { useIncomingQuery } from '@/hooks/use-orders';
 import { useMeQuery } from '@/hooks/use-me';
 import type { Order } from '@/shared/orders';
 
-/** The grinding shop's inbox: every sheet revision issued to it, newest first. */
+/** The grinding shop's inbox: every sheet revision issued to it, newest first, a page at a time. */
 export default function Incoming() {
   const shopName = useMeQuery().data?.activeShop?.name;
   const incoming = useIncomingQuery();
   const wide = useWindowDimensions().width >= breakpoints.wide;
-  const orders = [...(incoming.data ?? [])].sort((a, b) => b.issuedAt.localeCompare(a.issuedAt));
+  // The server sends the newest order first, page after page; sorting again would move rows between pages.
+  const orders = incoming.data ?? [];
   return (
     <Screen title="Incoming" subtitle={shopName ? `Spec sheets issued to ${shopName}` : 'Spec sheets issued to your shop'} testID="incoming-screen">
       {incoming.isPending ? <Pending label="Loading incoming sheets…" /> : null}
@@ -32,6 +34,7 @@ export default function Incoming() {
           ))}
         </View>
       ) : null}
+      <LoadMore hasMore={incoming.hasNextPage} loading={incoming.isFetchingNextPage} onLoadMore={() => void incoming.fetchNextPage()} />
     </Screen>
   );
 }

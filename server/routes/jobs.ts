@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { and, desc, eq } from 'drizzle-orm';
+import { and, count, desc, eq, gt, lt, or } from 'drizzle-orm';
 
 import { schema } from '@/db';
 import { jobCreateSchema, jobPatchSchema, type Job } from '@/shared/jobs';
@@ -7,7 +7,8 @@ import { jobCreateSchema, jobPatchSchema, type Job } from '@/shared/jobs';
 import { requireShopRole } from '../access';
 import { audit } from '../audit';
 import type { AppDeps } from '../deps';
-import { conflict, notFound, parse } from '../http';
+import { conflict, HttpError, notFound, parse } from '../http';
+import { pageRequest, toPage } from '../paging';
 
 type JobRow = typeof schema.jobs.$inferSelect;
 
@@ -27,8 +28,18 @@ export function toJob(row: JobRow): Job {
   };
 }
 
+export type JobCreateRateLimit = {
+  /** Jobs one shop may create per window. */
+  limit: number;
+  /** Window length, milliseconds. */
+  windowMs: number;
+};
+
+/** Far above what a shop types in by hand; a script filling the database hits it. */
+export const defaultJobCreateRateLimit: JobCreateRateLimit = { limit: 30, windowMs: 60_000 };
+
 /** Jobs of the active repair shop: builder and tech read, builder creates and edits. */
-export function jobsRouter({ db, auth }: AppDeps) {
+export function jobsRouter({ db, auth }: AppDeps, rate: JobCreateRateLimit = defaultJobCreateRateLimit) {
   const router = Router();
 
   const findJob = (shopId: string, id: string) =>
@@ -39,20 +50,43 @@ export function jobsRouter({ db, auth }: AppDeps) {
       .get();
 
   router.get('/', async (req, res) => {
+    const { limit, after } = pageRequest(req);
     const ctx = await requireShopRole(auth, db, req, { job: ['read'] });
+    // Keyset paging, newest change first, on the (shop_id, updated_at, id) index.
+    const { jobs } = schema;
     const rows = db
       .select()
-      .from(schema.jobs)
-      .where(eq(schema.jobs.shopId, ctx.shop.id))
-      .orderBy(desc(schema.jobs.updatedAt))
+      .from(jobs)
+      .where(
+        and(
+          eq(jobs.shopId, ctx.shop.id),
+          after ? or(lt(jobs.updatedAt, new Date(after.at)), and(eq(jobs.updatedAt, new Date(after.at)), lt(jobs.id, after.id))) : undefined,
+        ),
+      )
+      .orderBy(desc(jobs.updatedAt), desc(jobs.id))
+      .limit(limit + 1)
       .all();
-    res.json({ jobs: rows.map(toJob) });
+    const page = toPage(rows, limit, (row) => ({ at: row.updatedAt.getTime(), id: row.id }));
+    res.json({ jobs: page.rows.map(toJob), nextCursor: page.nextCursor });
   });
 
   router.post('/', async (req, res) => {
     const body = parse(jobCreateSchema, req.body);
     const ctx = await requireShopRole(auth, db, req, { job: ['create'] });
     const row = db.transaction((tx) => {
+      const [recent] = tx
+        .select({ n: count() })
+        .from(schema.jobs)
+        .where(and(eq(schema.jobs.shopId, ctx.shop.id), gt(schema.jobs.createdAt, new Date(Date.now() - rate.windowMs))))
+        .all();
+      if ((recent?.n ?? 0) >= rate.limit) {
+        const minutes = Math.max(1, Math.round(rate.windowMs / 60_000));
+        throw new HttpError(
+          429,
+          'rate_limited',
+          `This shop has created ${rate.limit} jobs in the last ${minutes === 1 ? 'minute' : `${minutes} minutes`}. Wait a minute, then create the next one.`,
+        );
+      }
       const created = tx
         .insert(schema.jobs)
         .values({ id: crypto.randomUUID(), shopId: ctx.shop.id, createdBy: ctx.user.id, ...body })

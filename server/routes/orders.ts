@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { and, asc, desc, eq, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, lt, or, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
 
 import type { Db } from '@/db';
@@ -25,6 +25,7 @@ import type { AppDeps } from '../deps';
 import { mailEach } from '../mail';
 import { orderMail, type OrderMailFacts, type OrderMailKind } from '../mail/order-mail';
 import { conflict, forbidden, HttpError, notFound, parse } from '../http';
+import { pageRequest, toPage, type PageRequest } from '../paging';
 import { toRevision } from './sheets';
 
 type Reader = Pick<Db, 'select'>;
@@ -35,6 +36,17 @@ const grinderShops = alias(schema.shops, 'grinder_shops');
 
 /** Orders with their sheet, revision and both shops' names, filtered by `where` (which carries the shop scope). */
 function selectOrders(db: Reader, where: SQL | undefined): Order[] {
+  return selectOrderRows(db, where).map((r) => r.order);
+}
+
+/**
+ * selectOrders with each order's creation time (milliseconds), the sort key of a page.
+ * With `page`, one keyset page newest first on (created_at, id), reading one row more than the limit.
+ */
+function selectOrderRows(db: Reader, where: SQL | undefined, page?: PageRequest): { order: Order; createdAt: number }[] {
+  const { grindOrders } = schema;
+  const after = page?.after;
+  const from = after ? or(lt(grindOrders.createdAt, new Date(after.at)), and(eq(grindOrders.createdAt, new Date(after.at)), lt(grindOrders.id, after.id))) : undefined;
   const rows = db
     .select({
       order: schema.grindOrders,
@@ -49,24 +61,28 @@ function selectOrders(db: Reader, where: SQL | undefined): Order[] {
     .innerJoin(schema.sheetRevisions, eq(schema.sheetRevisions.id, schema.grindOrders.revisionId))
     .innerJoin(repairShops, eq(repairShops.id, schema.grindOrders.repairShopId))
     .innerJoin(grinderShops, eq(grinderShops.id, schema.grindOrders.grinderShopId))
-    .where(where)
-    .orderBy(desc(schema.grindOrders.createdAt), desc(schema.sheetRevisions.number), asc(schema.grindOrders.id))
+    .where(and(where, from))
+    .orderBy(...(page ? [desc(grindOrders.createdAt), desc(grindOrders.id)] : [desc(grindOrders.createdAt), desc(schema.sheetRevisions.number), asc(grindOrders.id)]))
+    .limit(page ? page.limit + 1 : -1)
     .all();
   return rows.map(({ order, ...r }) => ({
-    id: order.id,
-    sheetId: order.sheetId,
-    sheetTitle: r.sheetTitle,
-    revisionId: order.revisionId,
-    revisionNumber: r.revisionNumber,
-    checksum: order.checksum,
-    repairShop: { id: order.repairShopId, name: r.repairShopName },
-    grinderShop: { id: order.grinderShopId, name: r.grinderShopName },
-    stage: order.stage,
-    quote: order.quote ?? null,
-    shipping: order.shipping ?? null,
-    issuedAt: (r.issuedAt ?? order.createdAt).toISOString(),
-    updatedAt: order.updatedAt.toISOString(),
-    version: order.version,
+    createdAt: order.createdAt.getTime(),
+    order: {
+      id: order.id,
+      sheetId: order.sheetId,
+      sheetTitle: r.sheetTitle,
+      revisionId: order.revisionId,
+      revisionNumber: r.revisionNumber,
+      checksum: order.checksum,
+      repairShop: { id: order.repairShopId, name: r.repairShopName },
+      grinderShop: { id: order.grinderShopId, name: r.grinderShopName },
+      stage: order.stage,
+      quote: order.quote ?? null,
+      shipping: order.shipping ?? null,
+      issuedAt: (r.issuedAt ?? order.createdAt).toISOString(),
+      updatedAt: order.updatedAt.toISOString(),
+      version: order.version,
+    },
   }));
 }
 
@@ -311,9 +327,11 @@ export function ordersRouter({ db, auth, mailer, publicUrl }: AppDeps) {
   });
 
   router.get('/incoming', async (req, res) => {
+    const request = pageRequest(req);
     const ctx = await requireShopRole(auth, db, req, { incoming: ['read'] });
     if (ctx.shop.kind !== 'grinding') throw forbidden('Switch to your grinding shop to see incoming sheets');
-    res.json({ orders: selectOrders(db, eq(schema.grindOrders.grinderShopId, ctx.shop.id)) });
+    const page = toPage(selectOrderRows(db, eq(schema.grindOrders.grinderShopId, ctx.shop.id), request), request.limit, (r) => ({ at: r.createdAt, id: r.order.id }));
+    res.json({ orders: page.rows.map((r) => r.order), nextCursor: page.nextCursor });
   });
 
   router.get('/orders/:id', async (req, res) => {

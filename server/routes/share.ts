@@ -1,5 +1,5 @@
 import express, { Router, type Request } from 'express';
-import { and, desc, eq, gt, inArray, isNull } from 'drizzle-orm';
+import { and, desc, eq, gt, inArray, isNull, sql } from 'drizzle-orm';
 import { rateLimit } from 'express-rate-limit';
 import { z } from 'zod';
 
@@ -14,6 +14,7 @@ import { audit } from '../audit';
 import type { AppDeps } from '../deps';
 import { conflict, HttpError, notFound, parse } from '../http';
 import { mailEach } from '../mail';
+import { pageRequest, toPage } from '../paging';
 import { ownerEventMail, type OwnerEventFacts } from '../mail/owner-mail';
 import { linkOpen, loadApproval, loadOwnerView, optionOffer, toApproval, toPayment } from '../owner-view';
 import { hashShareToken } from './owner';
@@ -161,10 +162,23 @@ export function shareRouter(deps: AppDeps, limit: ShareRateLimit = { windowMs: 6
     return { ctx, links: ownLinks(db, ctx.shop.id, ctx.user.email) };
   };
   router.get('/my/jobs', async (req, res) => {
-    const { ctx, links } = await byAccount(req);
-    // One entry per job, in the order of its newest link; the list needs no analysis.
-    const jobIds = [...new Set(links.map((l) => l.jobId))];
-    if (!jobIds.length) return void res.json({ jobs: [] });
+    const { limit, after } = pageRequest(req);
+    const ctx = await requireShopRole(auth, db, req, { summary: ['read'] });
+    // One entry per job, in the order of its newest open link (keyset on that time and the job id); the list needs no analysis.
+    const links = schema.shareLinks;
+    const newest = sql<number>`max(${links.createdAt})`;
+    const grouped = db
+      .select({ jobId: links.jobId, newest })
+      .from(links)
+      .where(and(eq(links.shopId, ctx.shop.id), eq(links.email, ctx.user.email.toLowerCase()), isNull(links.revokedAt), gt(links.expiresAt, new Date())))
+      .groupBy(links.jobId)
+      .having(after ? sql`${newest} < ${after.at} or (${newest} = ${after.at} and ${links.jobId} < ${after.id})` : undefined)
+      .orderBy(desc(newest), desc(links.jobId))
+      .limit(limit + 1)
+      .all();
+    const page = toPage(grouped, limit, (g) => ({ at: Number(g.newest), id: g.jobId }));
+    const jobIds = page.rows.map((g) => g.jobId);
+    if (!jobIds.length) return void res.json({ jobs: [], nextCursor: null });
     const vehicles = new Map(
       db.select({ id: schema.jobs.id, vehicle: schema.jobs.vehicle }).from(schema.jobs).where(inArray(schema.jobs.id, jobIds)).all().map((j) => [j.id, j.vehicle]),
     );
@@ -179,6 +193,7 @@ export function shareRouter(deps: AppDeps, limit: ShareRateLimit = { windowMs: 6
     );
     res.json({
       jobs: jobIds.map((jobId) => ({ jobId, vehicle: vehicles.get(jobId) ?? '', shopName: ctx.shop.name, approved: approved.has(jobId), paid: paid.has(jobId) })),
+      nextCursor: page.nextCursor,
     });
   });
   const mine: Resolve = async (req) => {

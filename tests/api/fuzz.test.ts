@@ -1,7 +1,7 @@
 import * as fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import { bodyHeaders, errorShapeProblems, webhookCall, invalidStoredRows, lobeUpload, malformedJson, mutatedBody, nastyParam, nastyQuery, photoUpload, prototypeShape, toForm, type Upload } from './fuzz';
+import { bodyHeaders, errorShapeProblems, webhookCall, invalidStoredRows, lobeUpload, malformedJson, mutatedBody, nastyParam, nastyQuery, pageQuery, photoUpload, prototypeShape, toForm, type Upload } from './fuzz';
 import { appRoutes, fillPath, matrix } from './matrix';
 import type { ApiRoute } from './routes';
 import { buildWorld, isolated, type Actor, type World } from './world';
@@ -121,6 +121,24 @@ describe('odd addresses on every read route', { timeout: 60_000 * scale }, () =>
   it.each(readRoutes.map((r) => [r.key, r] as const))('%s', async (_key, route) => {
     const { who, url } = await writer(route);
     await fuzzAddress(route, who, url, undefined, { param: 3 * scale, query: 3 * scale });
+  });
+});
+
+describe('paged lists', { timeout: 60_000 * scale }, () => {
+  const paged = ['GET /api/jobs', 'GET /api/incoming', 'GET /api/my/jobs'];
+  it.each(paged)('%s answers a page or a 400 naming limit or cursor', async (key) => {
+    const route = readRoutes.find((r) => r.key === key)!;
+    const { who, url } = await writer(route);
+    await fc.assert(
+      fc.asyncProperty(pageQuery, async (q) => {
+        const query = new URLSearchParams(Object.entries(q).filter((e): e is [string, string] => e[1] !== undefined)).toString();
+        const result = await send(who, 'GET', `${url}?${query}`, undefined);
+        expectClean(result);
+        expect([200, 400]).toContain(result.status);
+        if (result.status === 400) expect(result.code).toBe('invalid');
+      }),
+      { numRuns: 20 * scale },
+    );
   });
 });
 

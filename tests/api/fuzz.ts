@@ -174,12 +174,29 @@ export const nastyParam: fc.Arbitrary<string> = fc.oneof(
   fc.uuid(),
 );
 
+/** Cursors a list might be sent: base64url of odd JSON (wrong shapes, huge or negative times), raw junk, very long. */
+export const pageCursor: fc.Arbitrary<string> = fc.oneof(
+  fc.jsonValue().map((v) => Buffer.from(JSON.stringify(v) ?? 'null').toString('base64url')),
+  fc.tuple(fc.oneof(fc.integer(), fc.double(), fc.constant(8.64e15 + 1)), fc.string({ maxLength: 120 })).map((t) => Buffer.from(JSON.stringify(t)).toString('base64url')),
+  fc.string({ maxLength: 60 }),
+  fc.integer({ min: 190, max: 400 }).map((n) => 'A'.repeat(n)),
+);
+
+/** `limit=&cursor=` pairs for a paged list, good and bad. */
+export const pageQuery: fc.Arbitrary<{ limit?: string; cursor?: string }> = fc.record(
+  {
+    limit: fc.oneof(fc.integer({ min: -5, max: 400 }).map(String), fc.constantFrom('', 'NaN', '1e309', '2.5', '0x10', ' 7')),
+    cursor: pageCursor,
+  },
+  { requiredKeys: [] },
+);
+
 /** A query string of odd keys and values (routes ignore what they do not read). */
 export const nastyQuery: fc.Arbitrary<string> = fc
   .array(
     fc.tuple(
-      fc.oneof(fc.constantFrom('kind', '__proto__', '__proto__[polluted]', 'constructor[prototype][polluted]', 'kind[]', 'version'), fc.string({ maxLength: 10 })),
-      fc.oneof(fc.string({ unit: 'grapheme', maxLength: 20 }), fc.constantFrom('yes', 'NaN', '-1', '1e309', '%', '%ZZ')),
+      fc.oneof(fc.constantFrom('kind', '__proto__', '__proto__[polluted]', 'constructor[prototype][polluted]', 'kind[]', 'version', 'limit', 'cursor', 'limit[]'), fc.string({ maxLength: 10 })),
+      fc.oneof(fc.string({ unit: 'grapheme', maxLength: 20 }), fc.constantFrom('yes', 'NaN', '-1', '0', '201', '1e309', '%', '%ZZ'), pageCursor),
     ),
     { minLength: 1, maxLength: 4 },
   )

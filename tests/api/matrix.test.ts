@@ -59,7 +59,8 @@ afterAll(() => w?.t.close());
 
 /** Calls `route` as `who` from the world's baseline; returns the leaks (a deny that got through, changed state or showed A's records) and wrong refusals. */
 async function tryRoute(route: ApiRoute, row: MatrixRow, who: Actor): Promise<{ leaks: string[]; refusals: string[] }> {
-  const url = fillPath(route.path, row.params?.(w) ?? {});
+  const query = row.query?.(w);
+  const url = `${fillPath(route.path, row.params?.(w) ?? {})}${query ? `?${query}` : ''}`;
   const allowed = row.allow.includes(who);
   return isolated(w, async (probe) => {
     const body = row.body?.(w, who);

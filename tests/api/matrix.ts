@@ -16,6 +16,8 @@ export type MatrixRow = {
   allow: readonly Actor[];
   /** Path parameters, by name, from the world's records. */
   params?: (w: World) => Record<string, string>;
+  /** A query string (without `?`) every call sends, for routes that read one. */
+  query?: (w: World) => string;
   /** The body an allowed actor sends: JSON, or a FormData for uploads. */
   body?: (w: World, who: Actor) => unknown;
   /** Why the row may show shop A's records to people outside it. */
@@ -72,7 +74,7 @@ export const matrix: Record<string, MatrixRow> = {
   'POST /api/me/active-shop': { allow: shopAMembers, body: (w) => ({ shopId: w.a.shopId }) },
   'POST /api/shops': { allow: signedIn, body: () => ({ name: 'Test Shop C', kind: 'repair' }) },
 
-  'GET /api/jobs': { allow: bothShopsReaders },
+  'GET /api/jobs': { allow: bothShopsReaders, query: () => 'limit=200' },
   'POST /api/jobs': { allow: bothBuilders, body: () => makeJobBody() },
   'GET /api/jobs/:id': { allow: shopAReaders, params: (w) => ({ id: w.a.jobId }) },
   'PATCH /api/jobs/:id': {
@@ -154,7 +156,7 @@ export const matrix: Record<string, MatrixRow> = {
     body: (w) => ({ version: w.a.draftSheetVersion, grinderShopId: w.g2.shopId }),
   },
   'GET /api/sheets/:id/orders': { allow: shopAReaders, params: sheet },
-  'GET /api/incoming': { allow: ['G1.grinder', 'G2.grinder'] },
+  'GET /api/incoming': { allow: ['G1.grinder', 'G2.grinder'], query: () => 'limit=200' },
   'GET /api/orders/:id': { allow: orderReaders, params: order },
   'POST /api/orders/:id/move': {
     // The grinder quotes; A's builder is on the order but may not quote (409 illegal move); a tech may not move (403).
@@ -179,7 +181,7 @@ export const matrix: Record<string, MatrixRow> = {
 
   ...ownerRoutes('/api/share/:token', actors, byToken, token, paidToken),
   // Each customer lists their own summaries: B's is empty, and the markers check it shows nothing of A's.
-  'GET /api/my/jobs': { allow: ['A.customer', 'B.customer'], ownerPage: byAccount },
+  'GET /api/my/jobs': { allow: ['A.customer', 'B.customer'], ownerPage: byAccount, query: () => 'limit=200' },
   ...ownerRoutes('/api/my/jobs/:jobId', ['A.customer'], byAccount, job, paidJob),
 
   'POST /api/payments/webhook': {

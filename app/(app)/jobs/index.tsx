@@ -5,6 +5,7 @@ import { StyleSheet, useWindowDimensions, View } from 'react-native';
 import { Button } from '@/components/button';
 import { JobCard } from '@/components/job-card';
 import { JobForm } from '@/components/job-form';
+import { LoadMore } from '@/components/load-more';
 import { EmptyState, ErrorNotice, Pending } from '@/components/query-state';
 import { Screen, Section } from '@/components/screen';
 import { breakpoints, space } from '@/constants/theme';
@@ -64,11 +65,14 @@ export default function Jobs() {
               ) : null}
             </EmptyState>
           ) : (
-            jobs.data.map((job) => (
-              <View key={job.id} role="listitem">
-                <JobCard job={job} />
-              </View>
-            ))
+            <>
+              {jobs.data.map((job) => (
+                <View key={job.id} role="listitem">
+                  <JobCard job={job} />
+                </View>
+              ))}
+              <LoadMore hasMore={jobs.hasNextPage} loading={jobs.isFetchingNextPage} onLoadMore={() => void jobs.fetchNextPage()} />
+            </>
           )}
         </View>
         {form ? <View style={wide ? styles.side : undefined}>{form}</View> : null}

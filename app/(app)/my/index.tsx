@@ -1,6 +1,7 @@
 import { Link } from 'expo-router';
 import { StyleSheet, Text, View } from 'react-native';
 
+import { LoadMore } from '@/components/load-more';
 import { EmptyState, ErrorNotice, Pending } from '@/components/query-state';
 import { Screen } from '@/components/screen';
 import { colors, radius, space, type as typeScale } from '@/constants/theme';
@@ -30,6 +31,7 @@ export default function MyJobsScreen() {
               </Text>
             </Link>
           ))}
+          <LoadMore hasMore={jobs.hasNextPage} loading={jobs.isFetchingNextPage} onLoadMore={() => void jobs.fetchNextPage()} />
         </View>
       )}
     </Screen>

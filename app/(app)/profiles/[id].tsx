@@ -2,6 +2,7 @@ import { useLocalSearchParams, useRouter } from 'expo-router';
 import { useState, type ReactNode } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
+import { LoadMore } from '@/components/load-more';
 import { Button } from '@/components/button';
 import { ProfileForm } from '@/components/profile-form';
 import { ErrorNotice, Pending } from '@/components/query-state';
@@ -153,6 +154,7 @@ function CopyIntoJob({ profile }: { profile: Profile }) {
             .map((job) => (
               <CopyRow key={job.id} job={job} profileId={profile.id} />
             ))}
+          <LoadMore hasMore={jobs.hasNextPage} loading={jobs.isFetchingNextPage} onLoadMore={() => void jobs.fetchNextPage()} />
         </View>
       )}
     </Section>
