@@ -96,6 +96,15 @@ describe('sign-in rate limit', () => {
     expect(other.status).toBe(200);
   });
 
+  it('ignores X-Forwarded-For unless TRUST_PROXY names a proxy, so a local client cannot dodge the limit (finding 8)', async () => {
+    const forwarded = await fetch(`${t.url}/api/auth/sign-in/email`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json', origin: t.url, 'x-forwarded-for': '203.0.113.9' },
+      body: JSON.stringify({ email: 'nobody@example.test', password }),
+    });
+    expect(forwarded.status).toBe(429);
+  });
+
   it('limits sign-ups separately from sign-ins', async () => {
     // Two sign-ups above used the whole allowance of this address.
     const res = await new Client(t.url).post('/api/auth/sign-up/email', { name: 'One Too Many', email: 'one-more@example.test', password });
@@ -247,5 +256,81 @@ describe('request body limits', () => {
     });
     expect(res.status).toBe(413);
     expect(await res.json()).toEqual(tooLarge);
+  });
+});
+
+describe('state-changing routes check the Origin, as the sign-in routes do (finding 8)', () => {
+  let t: TestApp;
+  beforeAll(async () => {
+    t = await createTestApp();
+  });
+  afterAll(() => t.close());
+
+  it('refuses a cookie-carrying write from another site or from nowhere, whatever its body, and takes our own', async () => {
+    const { founder } = await makeShop(t, 'repair', 'Origin shop');
+    const before = (await founder.get('/api/jobs')).body.jobs.length;
+    const form = new FormData();
+    form.set('vehicle', 'Test vehicle');
+    const attempts: [string, unknown, Record<string, string>][] = [
+      ['/api/jobs', makeJobBody(), { origin: 'https://elsewhere.example' }],
+      ['/api/jobs', JSON.stringify(makeJobBody()), { origin: 'https://elsewhere.example', 'content-type': 'text/plain' }],
+      ['/api/jobs', form, { origin: 'https://elsewhere.example' }],
+      ['/api/jobs', undefined, { origin: 'null' }],
+      ['/api/jobs', makeJobBody(), { origin: '' }],
+      ['/api/me/active-shop', undefined, { origin: '', referer: 'https://elsewhere.example/page' }],
+    ];
+    for (const [path, body, headers] of attempts) {
+      const res = await founder.request('POST', path, body, headers);
+      expect(res.status, JSON.stringify(headers)).toBe(403);
+      expect(res.body.error.code).toBe('origin_refused');
+    }
+    expect((await founder.get('/api/jobs')).body.jobs.length).toBe(before);
+    // Our own origin, or a Referer from our own pages when a browser sends no Origin, goes through.
+    expect((await founder.post('/api/jobs', makeJobBody())).status).toBe(201);
+    expect((await founder.request('POST', '/api/jobs', makeJobBody(), { origin: '', referer: `${t.url}/jobs` })).status).toBe(201);
+  });
+});
+
+describe('text and uploads that the parsers refuse with a 400 naming the field (finding 8)', () => {
+  let t: TestApp;
+  beforeAll(async () => {
+    t = await createTestApp();
+  });
+  afterAll(() => t.close());
+
+  it('refuses NUL and other control characters in text, naming the field, and keeps tabs and new lines', async () => {
+    const { founder } = await makeShop(t, 'repair', 'Control shop');
+    for (const bad of ['Test\u0000vehicle', 'Test\u001bvehicle', 'Test\u007fvehicle']) {
+      const res = await founder.post('/api/jobs', makeJobBody({ vehicle: bad }));
+      expect(res.status).toBe(400);
+      expect(res.body.error.fields.vehicle).toMatch(/control characters/);
+    }
+    const ok = await founder.post('/api/jobs', makeJobBody({ complaint: 'Line one\n\tLine two' }));
+    expect(ok.status).toBe(201);
+  });
+
+  it('answers a malformed multipart part header with 400 naming the upload field, not 500', async () => {
+    const { founder } = await makeShop(t, 'repair', 'Multipart shop');
+    const job = (await founder.post('/api/jobs', makeJobBody())).body.job;
+    const boundary = 'lobewrightboundary';
+    const body = `--${boundary}\r\nContent-Disposition form-data name="photos"; filename="a.png"\r\nContent-Type: image/png\r\n\r\nxxxx\r\n--${boundary}--\r\n`;
+    for (const path of [`/api/jobs/${job.id}/photos`, `/api/jobs/${job.id}/measurements/lobes`]) {
+      const res = await founder.request('POST', path, body, { 'content-type': `multipart/form-data; boundary=${boundary}` });
+      expect(res.status, path).toBe(400);
+      expect(Object.keys(res.body.error.fields), path).toEqual([path.endsWith('photos') ? 'photos' : 'file']);
+    }
+  });
+
+  it('bounds lobe-table angles to -360…720 crank degrees (1e300 is refused)', async () => {
+    const { founder } = await makeShop(t, 'repair', 'Angle shop');
+    const job = (await founder.post('/api/jobs', makeJobBody())).body.job;
+    for (const first of ['1e300', '-400', '721']) {
+      const rows = [first, '-20', '0', '20', '40', '60'].map((a, i) => `${a},${(0.01 * i).toFixed(3)}`);
+      const form = new FormData();
+      form.set('file', new Blob([`angle,1I\n${rows.join('\n')}\n`], { type: 'text/csv' }), 'lobes.csv');
+      const res = await founder.request('POST', `/api/jobs/${job.id}/measurements/lobes`, form);
+      expect(res.status, first).toBe(400);
+      expect(JSON.stringify(res.body.error), first).toMatch(/-360…720 crank degrees/);
+    }
   });
 });

@@ -123,7 +123,7 @@ export function requireSameOrigin(baseURL: string): RequestHandler {
   const own = new URL(baseURL).origin;
   return (req, _res, next) => {
     if (SAFE_METHODS.has(req.method) || !req.headers.cookie) return next();
-    const claimed = req.headers.origin ?? originOfReferer(req.headers.referer);
+    const claimed = req.headers.origin || originOfReferer(req.headers.referer);
     if (claimed === own) return next();
     const why = claimed ? `Requests from ${claimed} cannot act here` : 'The request does not say which site sent it (no Origin header)';
     next(new HttpError(403, 'origin_refused', `${why}: open Lobewright at ${own} and try again`, { origin: why }));

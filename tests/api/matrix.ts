@@ -69,6 +69,7 @@ const ownerRoutes = (prefix: string, allow: readonly Actor[], ownerPage: string,
  */
 export const matrix: Record<string, MatrixRow> = {
   'GET /api/health': { allow: actors },
+  'GET /api/instance': { allow: actors },
 
   'GET /api/me': { allow: signedIn },
   'POST /api/me/active-shop': { allow: shopAMembers, body: (w) => ({ shopId: w.a.shopId }) },
@@ -190,12 +191,8 @@ export const matrix: Record<string, MatrixRow> = {
   },
 
   // The development mailbox (demo mode only): each person reads only the mail addressed to them.
-  'GET /api/dev/outbox': { allow: signedIn },
-  'GET /api/dev/outbox/:id': {
-    allow: ['A.builder'],
-    params: (w) => ({ id: w.a.outboxId }),
-    refusedAs: { status: 404, why: "another person's mail looks like no mail at all" },
-  },
+  'GET /api/dev/outbox': { allow: signedIn, ownerPage: "each person reads only mail addressed to them, and A's customer was mailed the owner's page" },
+  'GET /api/dev/outbox/:id': { allow: ['A.builder'], params: (w) => ({ id: w.a.outboxId }) },
 };
 
 /**
