@@ -38,10 +38,10 @@ describe('demo and production modes', () => {
     // The fake only when a setting asks for it; the real service only with both keys.
     expect(readConfig({ NODE_ENV: 'production', BETTER_AUTH_SECRET: 'x'.repeat(32), PAYMENTS: 'local-fake' }).payments.kind).toBe('local-fake');
     expect(() => readConfig({ NODE_ENV: 'production', BETTER_AUTH_SECRET: 'x'.repeat(32), PAYMENTS: 'service' })).toThrow(/STRIPE_SECRET_KEY/);
-    expect(() => readConfig({ PAYMENTS: 'cash' })).toThrow(/PAYMENTS must be/);
-    expect(readConfig({ TRUST_PROXY: 'loopback' }).trustProxy).toBe('loopback');
-    expect(readConfig({ TRUST_PROXY: '1' }).trustProxy).toBe(1);
-    expect(() => readConfig({ TRUST_PROXY: 'true' })).toThrow(/TRUST_PROXY/);
+    expect(() => readConfig({ NODE_ENV: 'test', PAYMENTS: 'cash' })).toThrow(/PAYMENTS must be/);
+    expect(readConfig({ NODE_ENV: 'test', TRUST_PROXY: 'loopback' }).trustProxy).toBe('loopback');
+    expect(readConfig({ NODE_ENV: 'test', TRUST_PROXY: '1' }).trustProxy).toBe(1);
+    expect(() => readConfig({ NODE_ENV: 'test', TRUST_PROXY: 'true' })).toThrow(/TRUST_PROXY/);
   });
 
   it('finds demo accounts that still have the published password, and not once it is changed', async () => {

@@ -24,7 +24,7 @@ export default function Mailbox() {
       {outbox.data === null ? <EmptyState title="This server keeps no outbox: mail goes out for real." /> : null}
       {outbox.data && messages.length === 0 ? (
         <EmptyState title="No mail yet">
-          <Text style={styles.body}>Issuing a sheet, quoting, asking for changes and shipping each send a message that lands here.</Text>
+          <Text style={styles.body}>Mail addressed to you lands here: an issued sheet for a grinder; a quote, a change request or a shipment for a builder; a verification or reset link.</Text>
         </EmptyState>
       ) : null}
       {messages.length > 0 ? (

@@ -77,6 +77,18 @@ describe('owner summary, approval and deposit', () => {
     await shown(o, 'approve').click();
     await expect.poll(() => o.locator('[role="alert"]:visible').first().textContent()).toContain('Tick the box');
     await shown(o, 'approve-agree').click();
+    // Meanwhile the builder raises the towing price: the approval the owner sends quotes the old offer and is refused.
+    const desk = (await (await b.request.get(`${baseUrl()}/api/jobs/demo-job-flatbed-cam/owner`)).json()) as { desk: { options: { id: string; version: number }[] } };
+    const towingOption = desk.desk.options.find((op) => op.id === 'demo-option-towing')!;
+    const raised = await b.request.patch(`${baseUrl()}/api/owner-options/demo-option-towing`, { data: { version: towingOption.version, priceCents: 80_000 }, headers: { origin: baseUrl() } });
+    expect(raised.status()).toBe(200);
+    await shown(o, 'approve').click();
+    await expect.poll(() => shown(o, 'offer-changed').textContent()).toContain('reload the page and read it again');
+    expect(await shown(o, 'owner-option-demo-option-towing').textContent()).toContain('$760.00');
+    await screenshot(o, 'owner-offer-changed-phone');
+    await shown(o, 'offer-reload').click();
+    await expect.poll(() => shown(o, 'owner-option-demo-option-towing').textContent()).toContain('$800.00');
+    await expect.poll(() => shown(o, 'owner-chosen').textContent()).toContain('$800.00');
     await shown(o, 'approve').click();
     await expect.poll(() => shown(o, 'owner-approved').textContent()).toContain('Delia Carrow approved “Towing regrind (demo)”');
     await screenshot(o, 'owner-approved-phone');
@@ -93,6 +105,9 @@ describe('owner summary, approval and deposit', () => {
     await o.getByRole('button', { name: /Pay \$225\.00/ }).click();
     await o.waitForURL((u) => u.pathname === `/share/${token}`);
     await expect.poll(() => shown(o, 'deposit-paid').textContent(), { timeout: 15_000 }).toMatch(/Deposit paid\$225\.00 on /);
+    // Paid exactly once: asking for the deposit again is refused, and one payment is on the job.
+    const again = await o.request.post(`${baseUrl()}/api/share/${token}/deposit`, { headers: { origin: baseUrl() } });
+    expect(again.status()).toBe(409);
     expect(await shown(o, 'owner-status-top').textContent()).toContain('paid the $225.00 deposit');
     await expectAccessible(o);
     await o.setViewportSize({ width: 390, height: 3200 });
@@ -104,6 +119,8 @@ describe('owner summary, approval and deposit', () => {
     await shown(b, 'owner-desk-screen').waitFor();
     await expect.poll(() => shown(b, 'desk-approval').textContent()).toContain('Delia Carrow approved “Towing regrind (demo)”');
     expect(await shown(b, 'desk-payment').textContent()).toMatch(/^Deposit paid: \$225\.00 on /);
+    const payments = ((await (await b.request.get(`${baseUrl()}/api/jobs/demo-job-flatbed-cam/owner`)).json()) as { desk: { payments: { state: string }[] } }).desk.payments;
+    expect(payments.map((p) => p.state)).toEqual(['paid']);
     expect(await shown(b, 'share-link-row').textContent()).toContain('last opened');
     await screenshot(b, 'owner-desk-paid-wide');
     await b.setViewportSize({ width: 390, height: 844 });
