@@ -3,7 +3,7 @@ import { StyleSheet, Text, View } from 'react-native';
 import { colors, space, type as typeScale } from '@/constants/theme';
 import { useInstanceQuery } from '@/hooks/use-instance';
 
-const fakeNames = { payments: 'payments go to a test service on this machine, no real money', mailbox: 'e-mail stays in the dev mailbox' } as const;
+const fakeNames = { payments: 'test payments, no real money', mailbox: 'mail kept in the dev mailbox' } as const;
 
 /** A strip on every screen of a demo server: the data is invented and the fakes it runs are named. Nothing in production. */
 export function DemoBanner() {
@@ -13,7 +13,7 @@ export function DemoBanner() {
   return (
     <View style={styles.banner} role="note" aria-label="Demo server" testID="demo-banner">
       <Text style={styles.text}>
-        <Text style={styles.strong}>Demo server</Text>: invented shops and jobs{fakes.length ? `; ${fakes.join('; ')}` : ''}. Not for real work.
+        <Text style={styles.strong}>Demo server</Text> · invented data{fakes.map((f) => ` · ${f}`).join('')}
       </Text>
     </View>
   );
