@@ -8,7 +8,7 @@ import type { Db } from '@/db';
 import { schema } from '@/db';
 import { accessControl, shopRoles } from '@/shared/roles';
 
-import { composeMail } from './mail/compose';
+import { composeMail, type MailContent } from './mail/compose';
 import type { Mailer } from './mail';
 import { maxPasswordLength, minPasswordLength, passwordSchema } from './passwords';
 import { clientAddressHeader, type AuthRateLimit } from './security';
@@ -83,6 +83,9 @@ export type AuthOptions = {
 /** Builds better-auth on the given database: e-mail and password, sessions, and shops as organizations with our four roles. */
 export function createAuth({ db, baseURL, secret, rateLimit = false, mailer }: AuthOptions) {
   const https = baseURL.startsWith('https://');
+  /** A mail with one link from the sign-in library, which lands on our page at `landing` once the library has checked it. */
+  const sendLinkMail = (user: { email: string; name: string }, url: string, landing: string, words: Pick<MailContent, 'subject' | 'lines' | 'action' | 'footer'>) =>
+    mailer.send(composeMail({ to: { email: user.email, name: user.name }, ...words, link: withCallback(url, new URL(landing, baseURL).toString()) }));
   return betterAuth({
     baseURL,
     secret,
@@ -111,35 +114,25 @@ export function createAuth({ db, baseURL, secret, rateLimit = false, mailer }: A
       autoSignIn: true,
       resetPasswordTokenExpiresIn: 60 * 60,
       revokeSessionsOnPasswordReset: true,
-      sendResetPassword: async ({ user, url }) => {
-        await mailer.send(
-          composeMail({
-            to: { email: user.email, name: user.name },
-            subject: 'Set a new Lobewright password',
-            lines: ['Someone asked to set a new password for your Lobewright account. The link works for one hour.'],
-            action: 'Set a new password',
-            link: withCallback(url, new URL(resetPasswordPath, baseURL).toString()),
-            footer: 'If you did not ask for this, ignore this mail: your password stays as it is.',
-          }),
-        );
-      },
+      sendResetPassword: ({ user, url }) =>
+        sendLinkMail(user, url, resetPasswordPath, {
+          subject: 'Set a new Lobewright password',
+          lines: ['Someone asked to set a new password for your Lobewright account. The link works for one hour.'],
+          action: 'Set a new password',
+          footer: 'If you did not ask for this, ignore this mail: your password stays as it is.',
+        }),
     },
     emailVerification: {
       sendOnSignUp: true,
       autoSignInAfterVerification: true,
       expiresIn: 24 * 60 * 60,
-      sendVerificationEmail: async ({ user, url }) => {
-        await mailer.send(
-          composeMail({
-            to: { email: user.email, name: user.name },
-            subject: 'Verify your e-mail for Lobewright',
-            lines: ['Please confirm this is your address. Until you do, invitations to shops and vehicle summaries stay closed.'],
-            action: 'Verify my e-mail',
-            link: withCallback(url, new URL(verifiedPath, baseURL).toString()),
-            footer: 'If you did not sign up for Lobewright, ignore this mail.',
-          }),
-        );
-      },
+      sendVerificationEmail: ({ user, url }) =>
+        sendLinkMail(user, url, verifiedPath, {
+          subject: 'Verify your e-mail for Lobewright',
+          lines: ['Please confirm this is your address. Until you do, invitations to shops and vehicle summaries stay closed.'],
+          action: 'Verify my e-mail',
+          footer: 'If you did not sign up for Lobewright, ignore this mail.',
+        }),
     },
     hooks: {
       // Every route that sets a password checks it against our rules first, with a 400 naming the field.
