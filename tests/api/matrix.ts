@@ -191,7 +191,10 @@ export const matrix: Record<string, MatrixRow> = {
   },
 
   // The development mailbox (demo mode only): each person reads only the mail addressed to them.
-  'GET /api/dev/outbox': { allow: signedIn, ownerPage: "each person reads only mail addressed to them, and A's customer was mailed the owner's page" },
+  'GET /api/dev/outbox': {
+    allow: signedIn,
+    showsEveryone: 'each person reads only the mail addressed to them (orders.test.ts checks a stranger sees none of it), and that mail names the records it is about',
+  },
   'GET /api/dev/outbox/:id': { allow: ['A.builder'], params: (w) => ({ id: w.a.outboxId }) },
 };
 
