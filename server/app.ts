@@ -110,7 +110,7 @@ export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLi
   if (devWebProxy) app.use(devWebProxy);
   else if (webDir) serveWeb(app, webDir);
   app.use(errorHandler);
-  return Object.assign(app, { auth, deps });
+  return Object.assign(app, { auth, deps, instance });
 }
 
 /** `uploads` in the database's folder (the data folder); a temp folder for an in-memory database. */

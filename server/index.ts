@@ -50,11 +50,9 @@ async function main() {
 
   const server = app.listen(config.port, (error?: Error) => {
     if (error) fail(`could not listen on port ${config.port}: ${error.message}`);
-    const fakes = [
-      ...(local ? [`local test payment service at ${local.origin} (no real money)`] : []),
-      ...(config.devTools ? ['dev mailbox at /mailbox'] : []),
-      ...(mailer.kind === 'smtp' ? [] : ['e-mail kept in the outbox (no SMTP_URL)']),
-    ];
+    // The same list the app's demo banner reads from /api/instance, in words with addresses.
+    const named = { payments: `local test payment service at ${local?.origin} (no real money)`, mailbox: 'dev mailbox at /mailbox' } as const;
+    const fakes = [...app.instance.fakes.map((f) => named[f]), ...(mailer.kind === 'smtp' ? [] : ['e-mail kept in the outbox (no SMTP_URL)'])];
     console.log(`Lobewright is serving ${config.baseURL} in ${config.mode} mode (database ${config.databasePath})`);
     console.log(fakes.length ? `Local fakes running: ${fakes.join('; ')}` : 'Local fakes running: none');
     console.log(
