@@ -3,7 +3,7 @@ import { z } from 'zod';
 
 import { createTestApp, makeJobBody, type TestApp } from '@/tests/fixtures';
 
-import { fieldsFromZod } from './http';
+import { fieldsFromZod, HttpError, parse } from './http';
 
 /** JSON text with own keys named like `Object.prototype`'s, as a client can send them. */
 const withKeys = (base: Record<string, unknown>, keys: [string, unknown][]) => {
@@ -32,6 +32,30 @@ describe('fieldsFromZod', () => {
   it('names an unknown key of only spaces in quotes, so the field is never blank', () => {
     const result = z.strictObject({ sessionId: z.string() }).safeParse({ sessionId: 'x', ' ': 1, '\t ': 2 });
     expect(Object.keys(fieldsFromZod(result.error!))).toEqual(['" "', '"\\t "']);
+  });
+});
+
+describe('parse', () => {
+  /** `[[[…[1]…]]]` nested `depth` deep, as a client can send it inside a free-form field. */
+  const nested = (depth: number) => JSON.parse(`${'['.repeat(depth)}1${']'.repeat(depth)}`) as unknown;
+
+  it('refuses a value nested thousands deep with a 400 naming the field, not a stack overflow', () => {
+    const schema = z.object({ data: z.unknown() });
+    let thrown: unknown;
+    try {
+      parse(schema, { data: nested(5000) });
+    } catch (error) {
+      thrown = error;
+    }
+    expect(thrown).toBeInstanceOf(HttpError);
+    const { status, fields } = thrown as HttpError;
+    expect(status).toBe(400);
+    expect(Object.values(fields ?? {})).toEqual(['Nested more than 32 levels deep']);
+    expect(Object.keys(fields ?? {})[0]).toMatch(/^data/);
+  });
+
+  it('still takes ordinary nesting', () => {
+    expect(parse(z.object({ data: z.unknown() }), { data: nested(20) })).toEqual({ data: nested(20) });
   });
 });
 

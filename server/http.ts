@@ -44,9 +44,14 @@ export function fieldsFromZod(error: z.ZodError): Record<string, string> {
 /** Control characters other than tab, line feed and carriage return: never part of a person's text (NUL and friends break exports and terminals). */
 const CONTROL = /[\u0000-\u0008\u000B\u000C\u000E-\u001F\u007F]/;
 
-/** The path of every string in `value` that holds a control character. */
+/** No form we take nests deeper than a few levels; deeper input is refused by name instead of walked (a stack overflow is not an answer). */
+const MAX_DEPTH = 32;
+
+/** The path of every string in `value` that holds a control character, and of any value nested deeper than `MAX_DEPTH`. */
 function controlCharacterFields(value: unknown, path: PropertyKey[] = [], out = new Map<string, string>()) {
-  if (typeof value === 'string') {
+  if (path.length > MAX_DEPTH) {
+    out.set(fieldPath(path.slice(0, MAX_DEPTH)), `Nested more than ${MAX_DEPTH} levels deep`);
+  } else if (typeof value === 'string') {
     if (CONTROL.test(value)) out.set(fieldPath(path), 'Remove the control characters (such as NUL) from this text');
   } else if (Array.isArray(value)) value.forEach((v, i) => controlCharacterFields(v, [...path, i], out));
   else if (value !== null && typeof value === 'object' && !(value instanceof Date)) {
