@@ -28,6 +28,7 @@ import { photosRouter } from './routes/photos';
 import { profilesRouter } from './routes/profiles';
 import { paymentWebhook, shareRouter, type ShareRateLimit } from './routes/share';
 import { sheetsRouter } from './routes/sheets';
+import { teamRouter } from './routes/team';
 import { shopLimitsRouter } from './routes/shop-limits';
 import { authBodyParser, defaultAuthRateLimit, jsonBodyLimit, requireSameOrigin, securityHeaders, setClientAddress, withRateLimitAnswers, type AuthRateLimit } from './security';
 
@@ -103,7 +104,7 @@ export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLi
   app.use('/api/jobs', jobsRouter(deps, jobCreateRateLimit));
   app.use('/api', enginesRouter(deps), profilesRouter(deps), sheetsRouter(deps), calcRouter(deps, calcRateLimit));
   app.use('/api', measurementsRouter(deps), photosRouter(deps), checklistRouter(deps), shopLimitsRouter(deps), fitChecksRouter(deps));
-  app.use('/api', ordersRouter(deps), ownerRouter(deps), shareRouter(deps, shareRateLimit));
+  app.use('/api', ordersRouter(deps), ownerRouter(deps), shareRouter(deps, shareRateLimit), teamRouter(deps));
   if (devTools) app.use('/api', devOutboxRouter(deps));
   app.use('/api', (req, res) => sendError(res, new HttpError(404, 'not_found', `No API route ${req.method} ${req.path}`)));
 

@@ -6,7 +6,7 @@ import { and, asc, eq, gt, isNull } from 'drizzle-orm';
 
 import type { Db } from '@/db';
 import { schema } from '@/db';
-import { accessControl, shopRoles } from '@/shared/roles';
+import { accessControl, isShopRole, roleLabels, shopRoles } from '@/shared/roles';
 
 import { composeMail, type MailContent } from './mail/compose';
 import type { Mailer } from './mail';
@@ -17,6 +17,12 @@ import { clientAddressHeader, type AuthRateLimit } from './security';
 export const verifiedPath = '/verified';
 /** The set-new-password screen the reset link opens (with ?token=). */
 export const resetPasswordPath = '/reset-password';
+
+/** The page an invitation mail links to: the person accepts or declines there once signed in with the invited address. */
+export const invitationPath = (id: string) => `/invitations/${encodeURIComponent(id)}`;
+
+/** How long a team invitation stays open. */
+export const invitationDays = 7;
 
 /** Organization endpoints of better-auth we do not use: shops, members and invitations go through our own routes. */
 export const disabledOrganizationPaths = [
@@ -201,6 +207,23 @@ export function createAuth({ db, baseURL, secret, rateLimit = false, mailer }: A
         creatorRole: 'builder',
         // Shops are made only through POST /api/shops, which sets the kind and the founder's role.
         allowUserToCreateOrganization: false,
+        // Only the person who owns the address may take up an invitation to it.
+        requireEmailVerificationOnInvitation: true,
+        invitationExpiresIn: invitationDays * 24 * 60 * 60,
+        sendInvitationEmail: ({ id, email, role, organization: shop, inviter }) =>
+          mailer.send(
+            composeMail({
+              to: { email, name: email },
+              subject: `${inviter.user.name} invited you to ${shop.name} on Lobewright`,
+              lines: [
+                `${inviter.user.name} invited you to work at ${shop.name} as ${isShopRole(role) ? roleLabels[role].toLowerCase() : role}.`,
+                `Sign in or create an account with this address (${email}), verify it, and the invitation opens. It lasts ${invitationDays} days.`,
+              ],
+              action: 'Open the invitation',
+              link: new URL(invitationPath(id), baseURL).toString(),
+              footer: 'If you were not expecting this, ignore this mail: nothing happens unless you accept.',
+            }),
+          ),
         schema: {
           organization: {
             modelName: 'shops',

@@ -10,6 +10,12 @@ export type Me = {
   activeShop: MeShop | null;
 };
 
+/** An e-mail address as every form takes it: compared in lower case. */
+export const emailAddress = z
+  .email('Enter an e-mail address like name@example.com')
+  .max(254, 'Keep the address under 254 characters')
+  .transform((e) => e.toLowerCase());
+
 export const activeShopSchema = z.strictObject({
   shopId: z.string({ error: 'Choose a shop' }).min(1, 'Choose a shop'),
 });

@@ -3,6 +3,7 @@ import { z } from 'zod';
 import type { OwnerComparison } from '@/calc/compare';
 
 import type { CheckStatus } from '@/calc/checks';
+import { emailAddress } from './me';
 import { versionSchema } from './numbers';
 
 /**
@@ -73,11 +74,7 @@ export const shareLinkCreateSchema = z.strictObject({
     .max(shareLinkLimits.maxDays, `A link lasts at most ${shareLinkLimits.maxDays} days`)
     .default(shareLinkLimits.defaultDays),
   /** Send the link to the owner by e-mail as well; an owner signed in with this address (customer role) also finds the page under their account. */
-  email: z
-    .email('Enter an e-mail address like name@example.com')
-    .max(254, 'Keep the address under 254 characters')
-    .transform((e) => e.toLowerCase())
-    .optional(),
+  email: emailAddress.optional(),
 });
 export type ShareLinkCreate = z.input<typeof shareLinkCreateSchema>;
 

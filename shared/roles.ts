@@ -8,6 +8,9 @@ export const statements = {
   incoming: ['read', 'respond'],
   summary: ['read', 'approve'],
   shop: ['update', 'invite'],
+  // The sign-in library's own names for the team: it checks these when a builder or grinder manages members and invitations.
+  member: ['update', 'delete'],
+  invitation: ['create', 'cancel'],
 } as const;
 
 export const accessControl = createAccessControl(statements);
@@ -18,6 +21,8 @@ export const shopRoles = {
     measurement: ['read', 'write'],
     sheet: ['read', 'write', 'issue'],
     shop: ['update', 'invite'],
+    member: ['update', 'delete'],
+    invitation: ['create', 'cancel'],
   }),
   tech: accessControl.newRole({
     job: ['read'],
@@ -27,6 +32,8 @@ export const shopRoles = {
   grinder: accessControl.newRole({
     incoming: ['read', 'respond'],
     shop: ['update', 'invite'],
+    member: ['update', 'delete'],
+    invitation: ['create', 'cancel'],
   }),
   customer: accessControl.newRole({
     summary: ['read', 'approve'],
@@ -50,6 +57,12 @@ export function roleAllows(role: string | null | undefined, permission: Permissi
   if (!role || !isShopRole(role)) return false;
   return shopRoles[role].authorize(permission).success;
 }
+
+/** The roles a shop of each kind gives its staff (vehicle owners join through a share link, not the team screen). */
+export const staffRoles = {
+  repair: ['builder', 'tech'],
+  grinding: ['grinder'],
+} as const satisfies Record<ShopKind, readonly ShopRole[]>;
 
 export const roleLabels: Record<ShopRole, string> = {
   builder: 'Builder',

@@ -27,6 +27,8 @@ export type MatrixRow = {
    * shop A's job. Whoever calls it sees only markers marked `onOwnerPage`, readers or not.
    */
   ownerPage?: string;
+  /** Why an allowed caller outside shop A may change A's records (the person A invited, taking up or turning down the invitation). */
+  changesShopA?: string;
   /**
    * A route no actor passes by who they are (a signed webhook): every actor's call,
    * made without the secret, must be refused with this status and change nothing.
@@ -40,6 +42,9 @@ const bothShopsReaders: Actor[] = [...shopAReaders, 'B.builder', 'B.tech'];
 const bothBuilders: Actor[] = ['A.builder', 'B.builder'];
 const builderA: Actor[] = ['A.builder'];
 const orderReaders: Actor[] = [...shopAReaders, 'G1.grinder'];
+const teamManagers: Actor[] = ['A.builder', 'B.builder', 'G1.grinder', 'G2.grinder'];
+const bTechInvitation = (w: World) => ({ id: w.a.bTechInvitationId });
+const invitedSees = "the person A invited (B's tech) sees A's name and the role offered, nothing of A's records";
 
 const job = (w: World) => ({ jobId: w.a.jobId });
 const sheet = (w: World) => ({ id: w.a.sheetId });
@@ -189,6 +194,20 @@ export const matrix: Record<string, MatrixRow> = {
     allow: [],
     refusedAs: { status: 400, why: 'only the payment service holds the signing secret; a signed event is tested on its own in matrix.test.ts' },
   },
+
+  // A shop's team: its builder (repair) or grinder (grinding) manages it, each in their own shop.
+  'GET /api/shop/team': { allow: teamManagers },
+  'POST /api/shop/invitations': {
+    allow: teamManagers,
+    body: (_w, who) => ({ email: `invited-${who.replace('.', '-').toLowerCase()}@example.test`, role: who.startsWith('G') ? 'grinder' : 'tech' }),
+  },
+  'DELETE /api/shop/invitations/:id': { allow: builderA, params: (w) => ({ id: w.a.pendingInvitationId }) },
+  'PATCH /api/shop/members/:id': { allow: builderA, params: (w) => ({ id: w.a.techMemberId }), body: () => ({ role: 'builder' }) },
+  'DELETE /api/shop/members/:id': { allow: builderA, params: (w) => ({ id: w.a.techMemberId }) },
+  // An invitation, as the person it was sent to opens it.
+  'GET /api/invitations/:id': { allow: ['B.tech'], params: bTechInvitation, showsEveryone: invitedSees },
+  'POST /api/invitations/:id/accept': { allow: ['B.tech'], params: bTechInvitation, showsEveryone: invitedSees, changesShopA: 'accepting makes B\'s tech a member of A, as A asked' },
+  'POST /api/invitations/:id/decline': { allow: ['B.tech'], params: bTechInvitation, showsEveryone: invitedSees, changesShopA: "declining closes A's invitation" },
 
   // The development mailbox (demo mode only): each person reads only the mail addressed to them.
   'GET /api/dev/outbox': {

@@ -89,6 +89,12 @@ export type World = {
     paidJobId: string;
     paidToken: string;
     paidSessionId: string;
+    /** A's tech's membership (what the team routes change and remove). */
+    techMemberId: string;
+    /** An invitation to A that nobody has taken up yet, to an address with no account. */
+    pendingInvitationId: string;
+    /** An invitation to A sent to B's tech, who opens, accepts or declines it. */
+    bTechInvitationId: string;
   };
   b: { shopId: string };
   g1: { shopId: string };
@@ -224,6 +230,7 @@ export async function buildWorld(): Promise<World> {
   const paid = await paidJob(builder, aCustomer);
   const outbox = await builder.get('/api/dev/outbox');
   expectStatus(outbox, 200, 'outbox');
+  const team = await teamOf(builder, bTech);
 
   const ids = {
     shopId: a.shopId,
@@ -245,6 +252,7 @@ export async function buildWorld(): Promise<World> {
     limitsVersion: limits.body.version as number,
     ...owner,
     ...paid,
+    ...team,
   };
 
   const markers: Marker[] = [
@@ -378,6 +386,22 @@ async function paidJob(builder: Client, customer: { email: string }) {
   const deposit = await new Client(builder.baseUrl).post(`/api/share/${token}/deposit`);
   expectStatus(deposit, 201, 'deposit');
   return { paidJobId: jobId, paidToken: token, paidSessionId: new URL(deposit.body.url as string).pathname.split('/').pop()! };
+}
+
+/** Shop A's team: the tech's membership and two open invitations, one to an address nobody holds and one to B's tech. */
+async function teamOf(builder: Client, bTech: { email: string }) {
+  const team = await builder.get('/api/shop/team');
+  expectStatus(team, 200, 'team');
+  const pending = await builder.post('/api/shop/invitations', { email: `pending-${Date.now()}@example.test`, role: 'tech' });
+  expectStatus(pending, 201, 'pending invitation');
+  const toBTech = await builder.post('/api/shop/invitations', { email: bTech.email, role: 'tech' });
+  expectStatus(toBTech, 201, "B's tech invitation");
+  const invitationFor = (email: string) => (toBTech.body.invitations as { id: string; email: string }[]).find((i) => i.email === email)!.id;
+  return {
+    techMemberId: (team.body.members as { id: string; role: string }[]).find((m) => m.role === 'tech')!.id,
+    pendingInvitationId: (pending.body.invitations as { id: string }[])[0]!.id,
+    bTechInvitationId: invitationFor(bTech.email),
+  };
 }
 
 const quote = (name: string) => `"${name.replace(/"/g, '""')}"`;
