@@ -33,6 +33,7 @@ function Navigator() {
       {/* Links from our mail: they work signed in or not. */}
       <Stack.Screen name="verified" />
       <Stack.Screen name="reset-password" />
+      <Stack.Screen name="invitations/[id]" />
       <Stack.Screen name="+not-found" />
     </Stack>
   );

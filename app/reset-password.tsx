@@ -11,10 +11,11 @@ import { applyServerErrors, FormField } from '@/components/form-field';
 import { ErrorNotice } from '@/components/query-state';
 import { colors, type as typeScale } from '@/constants/theme';
 import { useResetPasswordMutation } from '@/hooks/use-me';
+import { minPasswordLength, passwordLength } from '@/shared/passwords';
 
 const newPasswordSchema = z
   .object({
-    newPassword: z.string().min(12, 'Use at least 12 characters'),
+    newPassword: passwordLength,
     repeat: z.string(),
   })
   .refine((v) => v.newPassword === v.repeat, { path: ['repeat'], message: 'The two passwords differ' });
@@ -57,7 +58,7 @@ export default function ResetPassword() {
     );
   }
   return (
-    <AuthCard title="Set a new password" intro="At least 12 characters, and not a commonly used password.">
+    <AuthCard title="Set a new password" intro={`At least ${minPasswordLength} characters, and not a commonly used password.`}>
       <FormField control={control} name="newPassword" label="New password" secureTextEntry autoComplete="new-password" testID="reset-new-password" />
       <FormField control={control} name="repeat" label="New password again" secureTextEntry autoComplete="new-password" onSubmitEditing={submit} testID="reset-repeat" />
       {formError ? <ErrorNotice error={new Error(formError)} /> : null}

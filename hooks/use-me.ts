@@ -44,12 +44,13 @@ export function useSignInMutation() {
 export function useSignUpMutation() {
   const reset = useResetAll();
   return useMutation({
-    mutationFn: async (body: { name: string; email: string; password: string; shop: ShopCreate }) => {
+    /** With a shop, the new account founds it; without one, the person waits for a shop's invitation to open once they verify. */
+    mutationFn: async (body: { name: string; email: string; password: string; shop: ShopCreate | null }) => {
       await api('/api/auth/sign-up/email', {
         method: 'POST',
         body: { name: body.name, email: body.email, password: body.password },
       });
-      return api<Me>('/api/shops', { method: 'POST', body: body.shop });
+      return body.shop ? api<Me>('/api/shops', { method: 'POST', body: body.shop }) : null;
     },
     onSuccess: reset,
   });

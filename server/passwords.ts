@@ -1,9 +1,8 @@
 import { dictionary } from '@zxcvbn-ts/language-common';
-import { z } from 'zod';
 
-/** The shortest password we take. */
-export const minPasswordLength = 12;
-export const maxPasswordLength = 128;
+import { passwordLength } from '@/shared/passwords';
+
+export { maxPasswordLength, minPasswordLength } from '@/shared/passwords';
 
 /** Common passwords (the zxcvbn-ts common list), compared without case. */
 const common = new Set(dictionary['passwords-common'].map((p) => p.toLowerCase()));
@@ -14,10 +13,7 @@ export function isCommonPassword(password: string): boolean {
 }
 
 /** A password we accept: long enough, not only spaces or one repeated character, and not a common one. */
-export const passwordSchema = z
-  .string()
-  .min(minPasswordLength, `Use at least ${minPasswordLength} characters`)
-  .max(maxPasswordLength, `Use at most ${maxPasswordLength} characters`)
+export const passwordSchema = passwordLength
   .refine((p) => p.trim() !== '', 'Use letters, digits or signs, not only spaces')
   .refine((p) => new Set(p).size > 1, 'Use more than one different character')
   .refine((p) => !isCommonPassword(p), 'This password is too common; choose another');

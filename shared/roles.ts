@@ -70,3 +70,9 @@ export const roleLabels: Record<ShopRole, string> = {
   grinder: 'Grinder',
   customer: 'Vehicle owner',
 };
+
+/** True for whoever manages a shop's team: a builder of a repair shop, a grinder of a grinding shop. */
+export function managesTeam(kind: ShopKind, role: string | null | undefined): boolean {
+  const staff: readonly string[] = staffRoles[kind];
+  return Boolean(role) && staff.includes(role!) && roleAllows(role, { invitation: ['create', 'cancel'], member: ['update', 'delete'] });
+}

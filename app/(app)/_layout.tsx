@@ -6,7 +6,7 @@ import { VerifyBanner } from '@/components/verify-banner';
 import { breakpoints, colors } from '@/constants/theme';
 import { useMeQuery } from '@/hooks/use-me';
 import { useOutboxQuery } from '@/hooks/use-outbox';
-import { roleAllows } from '@/shared/roles';
+import { managesTeam, roleAllows } from '@/shared/roles';
 
 export default function AppLayout() {
   const { width } = useWindowDimensions();
@@ -14,7 +14,7 @@ export default function AppLayout() {
   const me = useMeQuery().data;
   const role = me?.activeShop?.role;
   const canSeeJobs = roleAllows(role, { job: ['read'] });
-  const canSeeLimits = roleAllows(role, { measurement: ['read'] });
+  const canSeeSettings = roleAllows(role, { measurement: ['read'] }) || (me?.activeShop ? managesTeam(me.activeShop.kind, role) : false);
   const canSeeIncoming = roleAllows(role, { incoming: ['read'] });
   const canSeeSummaries = roleAllows(role, { summary: ['read'] });
   // The dev mailbox shows only when the server keeps an outbox; a production server answers 404 (→ null).
@@ -30,7 +30,7 @@ export default function AppLayout() {
       : []),
     ...(canSeeSummaries ? ([{ href: '/my', match: '/my', label: 'Vehicles', glyph: '▣', testID: 'nav-my' }] as const) : []),
     ...(canSeeIncoming ? ([{ href: '/incoming', match: '/incoming', label: 'Incoming', glyph: '⇲', testID: 'nav-incoming' }] as const) : []),
-    ...(canSeeLimits ? ([{ href: '/settings', match: '/settings', label: 'Settings', glyph: '⚙', testID: 'nav-settings' }] as const) : []),
+    ...(canSeeSettings ? ([{ href: '/settings', match: '/settings', label: 'Settings', glyph: '⚙', testID: 'nav-settings' }] as const) : []),
     ...(canSeeMailbox ? ([{ href: '/mailbox', match: '/mailbox', label: 'Mailbox', glyph: '✉', testID: 'nav-mailbox' }] as const) : []),
     { href: '/account', match: '/account', label: 'Account', glyph: '◎', testID: 'nav-account' },
   ];
@@ -51,7 +51,7 @@ export default function AppLayout() {
           <Tabs.Screen name="jobs" options={{ title: 'Jobs' }} />
           <Tabs.Screen name="profiles" options={{ title: 'Profiles' }} />
         </Tabs.Protected>
-        <Tabs.Protected guard={canSeeLimits}>
+        <Tabs.Protected guard={canSeeSettings}>
           <Tabs.Screen name="settings" options={{ title: 'Settings' }} />
         </Tabs.Protected>
         <Tabs.Protected guard={canSeeSummaries}>

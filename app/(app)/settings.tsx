@@ -2,22 +2,42 @@ import { StyleSheet, Text, View } from 'react-native';
 
 import { LimitSettings } from '@/components/limit-settings';
 import { ErrorNotice, Pending } from '@/components/query-state';
-import { Screen } from '@/components/screen';
+import { Screen, Section } from '@/components/screen';
+import { TeamSettings } from '@/components/team-settings';
 import { colors, space, type as typeScale } from '@/constants/theme';
 import { useMeQuery } from '@/hooks/use-me';
 import { useShopLimitsQuery } from '@/hooks/use-shop-limits';
-import { roleAllows } from '@/shared/roles';
+import { managesTeam, roleAllows } from '@/shared/roles';
 
 export default function SettingsScreen() {
   const me = useMeQuery().data;
-  const limits = useShopLimitsQuery();
-  const canEdit = roleAllows(me?.activeShop?.role, { shop: ['update'] });
+  const shop = me?.activeShop;
+  const seesLimits = roleAllows(shop?.role, { measurement: ['read'] });
+  const seesTeam = shop ? managesTeam(shop.kind, shop.role) : false;
   return (
     <Screen
-      title="Check limits"
-      subtitle={`${me?.activeShop?.name ?? 'Your shop'} · the numbers every fit check is measured against`}
+      title="Settings"
+      subtitle={`${shop?.name ?? 'Your shop'} · ${[seesTeam && 'who works here', seesLimits && 'the numbers every fit check is measured against'].filter(Boolean).join(' · ')}`}
       testID="settings-screen"
     >
+      {seesTeam ? (
+        <Section title="Team">
+          <TeamSettings />
+        </Section>
+      ) : null}
+      {seesLimits ? (
+        <Section title="Check limits">
+          <CheckLimits canEdit={roleAllows(shop?.role, { shop: ['update'] })} />
+        </Section>
+      ) : null}
+    </Screen>
+  );
+}
+
+function CheckLimits({ canEdit }: { canEdit: boolean }) {
+  const limits = useShopLimitsQuery();
+  return (
+    <>
       <Text style={styles.help}>
         Leave a field blank to use Lobewright&apos;s default. A result inside the watch band of a limit shows as watch rather than pass. A value you
         change is labelled &quot;shop setting&quot; in every result that uses it.
@@ -31,7 +51,7 @@ export default function SettingsScreen() {
       ) : (
         <LimitSettings key={limits.data.version} answer={limits.data} canEdit={canEdit} onReload={() => void limits.refetch()} />
       )}
-    </Screen>
+    </>
   );
 }
 

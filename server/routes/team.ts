@@ -5,10 +5,10 @@ import { fromNodeHeaders } from 'better-auth/node';
 
 import type { Db } from '@/db';
 import { schema } from '@/db';
-import { isShopRole, roleLabels, staffRoles, type ShopKind, type ShopRole } from '@/shared/roles';
+import { isShopRole, managesTeam, roleLabels, staffRoles, type ShopKind, type ShopRole } from '@/shared/roles';
 import { inviteSchema, memberRoleSchema, type InvitationView, type Team } from '@/shared/team';
 
-import { requireShopRole, requireSignedIn, type InShop } from '../access';
+import { requireMember, requireSignedIn, type InShop } from '../access';
 import { audit } from '../audit';
 import type { AppDeps } from '../deps';
 import { forbidden, HttpError, notFound, parse } from '../http';
@@ -106,11 +106,10 @@ function invitationView(found: ReturnType<typeof loadOwnInvitation>, verified: b
 export function teamRouter({ db, auth }: AppDeps) {
   const router = Router();
   const headersOf = (req: Request) => fromNodeHeaders(req.headers);
-  /** A builder of a repair shop or a grinder of a grinding shop: someone on the staff whose role manages the team. */
+  /** A builder of a repair shop or a grinder of a grinding shop: whoever manages the team. */
   const manager = async (req: Request) => {
-    const ctx = await requireShopRole(auth, db, req, { invitation: ['create'], member: ['update', 'delete'] });
-    const staff: readonly ShopRole[] = staffRoles[ctx.shop.kind];
-    if (!staff.includes(ctx.role)) throw forbidden();
+    const ctx = await requireMember(auth, db, req);
+    if (!managesTeam(ctx.shop.kind, ctx.role)) throw forbidden();
     return ctx;
   };
 
