@@ -101,19 +101,29 @@ describe('GET /api/jobs pages', { timeout: 60_000 }, () => {
     const { shopId, founder } = await makeShop(t, 'repair', 'Plan shop');
     seedJobs(shopId, 60, 'Plan');
     const client = t.db.$client;
-    const prepared: string[] = [];
-    const spy = vi.spyOn(client, 'prepare').mockImplementation(function (this: typeof client, source: string) {
-      prepared.push(source);
-      return Object.getPrototypeOf(client).prepare.call(this, source);
-    });
+    // Every statement run, prepared now or earlier (hot lists keep theirs prepared), by its SQL.
+    const statement = Object.getPrototypeOf(client.prepare('select 1')) as Record<'all' | 'get' | 'run', (...args: unknown[]) => unknown>;
+    const record = () => {
+      const ran: string[] = [];
+      const spies = (['all', 'get', 'run'] as const).map((method) => {
+        const original = statement[method];
+        return vi.spyOn(statement, method).mockImplementation(function (this: { source: string }, ...args: unknown[]) {
+          ran.push(this.source);
+          return original.apply(this, args);
+        });
+      });
+      return { ran, restore: () => spies.forEach((spy) => spy.mockRestore()) };
+    };
+    const listQuery = (ran: string[]) => ran.filter((q) => /from "jobs"/i.test(q) && /order by/i.test(q));
     let first: string | null = null;
+    const firstPage = record();
     try {
       const page = await founder.get('/api/jobs?limit=5');
       first = page.body.nextCursor;
     } finally {
-      spy.mockRestore();
+      firstPage.restore();
     }
-    const listQueries = prepared.filter((q) => /from "jobs"/i.test(q) && /order by/i.test(q));
+    const listQueries = listQuery(firstPage.ran);
     expect(listQueries).toHaveLength(1);
     const plan = client
       .prepare(`explain query plan ${listQueries[0]}`)
@@ -123,20 +133,27 @@ describe('GET /api/jobs pages', { timeout: 60_000 }, () => {
     expect(plan).toMatch(/USING INDEX jobs_shop_updated_id_idx/);
     expect(plan).not.toMatch(/TEMP B-TREE/);
     // A page of 60 takes as many statements as a page of 5: nothing runs per row.
-    const counted: string[] = [];
-    const again = vi.spyOn(client, 'prepare').mockImplementation(function (this: typeof client, source: string) {
-      counted.push(source);
-      return Object.getPrototypeOf(client).prepare.call(this, source);
-    });
-    const small = counted.length;
+    const small = record();
     try {
       await founder.get(`/api/jobs?limit=5&cursor=${first}`);
-      const afterSmall = counted.length - small;
-      await founder.get('/api/jobs?limit=60');
-      expect(counted.length - small - afterSmall).toBe(afterSmall);
     } finally {
-      again.mockRestore();
+      small.restore();
     }
+    const large = record();
+    try {
+      await founder.get('/api/jobs?limit=60');
+    } finally {
+      large.restore();
+    }
+    expect(listQuery(small.ran)).toHaveLength(1);
+    // A later page starts its index range at the cursor (SQLite: "SEARCH … (shop_id=? AND (updated_at,id)<(?,?))"), so page 200 costs what page 1 does.
+    const afterPlan = client
+      .prepare(`explain query plan ${listQuery(small.ran)[0]}`)
+      .all(...Array.from({ length: (listQuery(small.ran)[0]!.match(/\?/g) ?? []).length }, () => null))
+      .map((r) => (r as { detail: string }).detail)
+      .join('\n');
+    expect(afterPlan).toMatch(/USING INDEX jobs_shop_updated_id_idx \(shop_id=\? AND \(updated_at,id\)<\(\?,\?\)\)/);
+    expect(large.ran.length).toBe(small.ran.length);
   });
 });
 

@@ -40,8 +40,10 @@ const JOBS_P99_BUDGET_MS = 50;
 const HEALTH_SLOWDOWN_BUDGET = 3;
 
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'lobewright-bench-api-'));
+/** Demo mode (production mode seeds nothing and refuses the demo accounts), with deposits off as in production. */
 const env = {
-  NODE_ENV: 'production' as const,
+  NODE_ENV: 'development' as const,
+  PAYMENTS: 'off',
   BETTER_AUTH_SECRET: crypto.randomBytes(32).toString('hex'),
   DATABASE_PATH: path.join(dir, 'bench.sqlite'),
   WEB_DIR: ensureWebExport(),
