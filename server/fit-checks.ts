@@ -2,7 +2,10 @@
  * The fit checks a tech runs against a spec sheet revision: predicted PTV from
  * the measured baseline, each measured spring at the revision's valve lift,
  * lifter preload after the regrind, the degreed-in ICL, and the measured lobes.
- * Pure: the route loads the records and stores what this returns.
+ * Pure: the route loads the records and stores what this returns. Calc's
+ * refusals pass through as CalcInputError with calc's field paths (the PTV
+ * baselines, springs and lobes already carry the measurement's own path); the
+ * route declares how they read in the request's terms.
  */
 import { analyzeLiftTable, type LiftTableAnalysis, type WornLobeResult } from '@/calc/measured';
 import { checkDegreeing, checkWornLobes, PTV_SWEEP } from '@/calc/analysis';
@@ -18,8 +21,6 @@ import type { EngineSpec } from '@/shared/engine';
 import type { FitCheckPtv, FitCheckRun, MeasurementData } from '@/shared/measurements';
 import type { ProfileSpec } from '@/shared/profile';
 
-import { renamePrefixes, runCalc } from './calc';
-
 export type FitCheckInput = {
   engine: EngineSpec;
   spec: ProfileSpec;
@@ -29,14 +30,6 @@ export type FitCheckInput = {
 
 export type FitCheckResults = FitCheckRun['results'];
 
-/** Calc's field paths renamed to the measurement (or sheet) the tech would fix. */
-const fitCheckFields = renamePrefixes([
-  ['regrind.regrindBaseCircle', 'spec.baseCircle'],
-  ['regrind.pushrodLength', 'pushrod.currentLength'],
-  ['regrind', 'pushrod'],
-  ['profile', 'spec'],
-]);
-
 /** A spring named "3E" or "7I" is checked at that valve's lift; anything else (a head, "all") at the larger. */
 function springValve(where: string): 'intake' | 'exhaust' | 'both' {
   if (/\d\s*I$/i.test(where.trim())) return 'intake';
@@ -45,7 +38,7 @@ function springValve(where: string): 'intake' | 'exhaust' | 'both' {
 }
 
 export function runFitChecks({ engine, spec, measured, limits: overrides }: FitCheckInput): FitCheckResults {
-  const limits = runCalc(() => resolveCheckLimits(overrides));
+  const limits = resolveCheckLimits(overrides);
   const checks: CheckResult[] = [];
   const skipped: SkippedCheck[] = [];
 
@@ -59,7 +52,7 @@ export function runFitChecks({ engine, spec, measured, limits: overrides }: FitC
           ...(pushrod.currentLength !== null ? { pushrodLength: pushrod.currentLength } : {}),
         }
       : undefined;
-  const analysis = runCalc(() => analyzeRecords(engine, spec, { regrind, limits: overrides }), fitCheckFields);
+  const analysis = analyzeRecords(engine, spec, { regrind, limits: overrides });
   const valveLift = { intake: analysis.intake.valveLift, exhaust: analysis.exhaust.valveLift };
 
   // Predicted piston-to-valve clearance: every baseline reading is swept; the smallest prediction governs.
@@ -73,21 +66,17 @@ export function runFitChecks({ engine, spec, measured, limits: overrides }: FitC
     }
     let best: FitCheckPtv | null = null;
     baseline[valve].forEach((reading, i) => {
-      const sweep = runCalc(
-        () =>
-          ptvSweep(
-            {
-              stroke: engine.stroke,
-              rodLength: engine.rodLength,
-              valveAngle: engine.valveAngle,
-              baseline: reading,
-              curve: { start: CYCLE_GRID.start, step: CYCLE_GRID.step, lift: analysis[valve].curve.lift },
-              from: PTV_SWEEP.from,
-              to: PTV_SWEEP.to,
-            },
-            `ptv-baseline.${valve}.${i}`,
-          ),
-        renamePrefixes([[`ptv-baseline.${valve}.${i}.baseline`, `ptv-baseline.${valve}.${i}`]]),
+      const sweep = ptvSweep(
+        {
+          stroke: engine.stroke,
+          rodLength: engine.rodLength,
+          valveAngle: engine.valveAngle,
+          baseline: reading,
+          curve: { start: CYCLE_GRID.start, step: CYCLE_GRID.step, lift: analysis[valve].curve.lift },
+          from: PTV_SWEEP.from,
+          to: PTV_SWEEP.to,
+        },
+        `ptv-baseline.${valve}.${i}`,
       );
       if (!best || sweep.minClearance < best.minClearance) {
         best = { ...sweep, clearance: Array.from(sweep.clearance), baseline: { ...reading } };
@@ -114,8 +103,8 @@ export function runFitChecks({ engine, spec, measured, limits: overrides }: FitC
       const valve = springValve(s.where);
       const lift = valve === 'both' ? Math.max(valveLift.intake, valveLift.exhaust) : valveLift[valve];
       const prefix = `springs.springs.${i}`;
-      const sc = runCalc(() => springCheck({ ...s, valveLift: lift }, prefix));
-      const r2s = runCalc(() => retainerToSealMargin({ retainerToSeal: s.retainerToSeal, valveLift: lift }, prefix)).clearanceAtMaxLift;
+      const sc = springCheck({ ...s, valveLift: lift }, prefix);
+      const r2s = retainerToSealMargin({ retainerToSeal: s.retainerToSeal, valveLift: lift }, prefix).clearanceAtMaxLift;
       springs.push({
         where: s.where,
         valveLift: lift,
@@ -151,19 +140,11 @@ export function runFitChecks({ engine, spec, measured, limits: overrides }: FitC
     skipped.push({ id: 'degreeing', subject: 'intake', note: 'not measured: record the piston-stop and flank readings at cam install' });
   } else {
     const trueTdcOffset = (readings.stopAfter - readings.stopBefore) / 2;
-    const result = runCalc(
-      () =>
-        degreeCam({
-          openingAngle: readings.openingAngle - trueTdcOffset,
-          closingAngle: readings.closingAngle - trueTdcOffset,
-          sheetIcl: spec.icl,
-        }),
-      renamePrefixes([
-        ['openingAngle', 'degree.openingAngle'],
-        ['closingAngle', 'degree.closingAngle'],
-        ['sheetIcl', 'spec.icl'],
-      ]),
-    );
+    const result = degreeCam({
+      openingAngle: readings.openingAngle - trueTdcOffset,
+      closingAngle: readings.closingAngle - trueTdcOffset,
+      sheetIcl: spec.icl,
+    });
     degree = { ...result, trueTdcOffset };
     checks.push(checkDegreeing(result, overrides));
   }
@@ -197,7 +178,7 @@ export function runFitChecks({ engine, spec, measured, limits: overrides }: FitC
         skipped.push({ id: 'wornLobe', subject: group[0]?.id ?? name, note: `only one ${name} lobe measured: nothing to compare it with` });
         continue;
       }
-      const found = runCalc(() => checkWornLobes(group, overrides), renamePrefixes([['lobes', 'lobes.lobes']]));
+      const found = checkWornLobes(group, overrides);
       checks.push(...found.checks);
       worn = worn
         ? { lobes: [...worn.lobes, ...found.result.lobes], worn: [...worn.worn, ...found.result.worn], threshold: found.result.threshold }

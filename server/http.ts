@@ -1,7 +1,10 @@
 import type { NextFunction, Request, Response } from 'express';
 import { z } from 'zod';
 
+import { isCalcInputError } from '@/calc/errors';
 import type { ApiErrorBody } from '@/shared/errors';
+
+import { calcInputAnswer, declaredCalcFields } from './calc-fields';
 
 /** An error the API answers with as-is: status, a stable code, a message that says what to fix. */
 export class HttpError extends Error {
@@ -77,10 +80,14 @@ export function sendError(res: Response, error: HttpError) {
   res.status(error.status).json(body);
 }
 
-/** Express error handler: known errors keep their status; a malformed body or path is a 400 naming it; everything else is a logged 500. */
+/**
+ * Express error handler: known errors keep their status; calc refusing an input is a 400 naming the field
+ * as the route declared it (server/calc-fields.ts); a malformed body or path is a 400 naming it; everything else is a logged 500.
+ */
 export function errorHandler(error: unknown, _req: Request, res: Response, next: NextFunction) {
   if (res.headersSent) return next(error);
   if (error instanceof HttpError) return sendError(res, error);
+  if (isCalcInputError(error)) return sendError(res, calcInputAnswer(error, declaredCalcFields(res)));
   const status = (error as { status?: unknown }).status;
   const type = (error as { type?: unknown }).type;
   if (type === 'entity.parse.failed') {

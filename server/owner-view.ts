@@ -9,7 +9,6 @@ import { offerChecksum } from '@/shared/checksum';
 import { productCautions } from '@/shared/cautions';
 import type { Approval, OwnerDesk, OwnerOption, OwnerView, OwnerViewOption, Payment, ShareLink } from '@/shared/owner';
 
-import { runCalc } from './calc';
 import { loadShopLimits } from './routes/shop-limits';
 
 type Reader = Pick<Db, 'select'>;
@@ -176,7 +175,7 @@ export function loadOwnerView(db: Reader, link: Pick<LinkRow, 'shopId' | 'jobId'
   if (!job) throw new Error(`Share link points at a missing job ${link.jobId}`);
   const limits = loadShopLimits(db, link.shopId).limits;
   const rows = optionRows(db, link.shopId, link.jobId);
-  const analyses = rows.map((r) => runCalc(() => analyzeRecords(r.revision.engine, r.revision.spec, { limits })));
+  const analyses = rows.map((r) => analyzeRecords(r.revision.engine, r.revision.spec, { limits }));
   const reference = rows[0];
   const options = rows.map((r, i): OwnerViewOption => {
     const a = analyses[i]!;

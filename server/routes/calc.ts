@@ -6,7 +6,7 @@ import { analyzeRecords } from '@/shared/analysis';
 import { calcAnalyzeSchema, type CalcAnalyzeResponse } from '@/shared/calc-api';
 
 import { requireSignedIn } from '../access';
-import { renamePrefixes, runCalc } from '../calc';
+import { declareCalcFields, renamePrefixes } from '../calc-fields';
 import type { AppDeps } from '../deps';
 import { HttpError, parse, sendError } from '../http';
 
@@ -69,11 +69,15 @@ export function calcRouter({ auth, db }: AppDeps, rate: CalcRateLimit = defaultC
     const { engine, profiles, ptvBaseline, regrind, limits, curves } = parse(calcAnalyzeSchema, req.body);
     const workspace = createAnalysisWorkspace();
     const analyses = profiles.map((spec, i) => {
-      const fields = renamePrefixes([
-        ['regrind.regrindBaseCircle', `profiles.${i}.baseCircle`],
-        ['profile', `profiles.${i}`],
-      ]);
-      const analysis: ProfileAnalysis = runCalc(() => analyzeRecords(engine, spec, { ptvBaseline, regrind, limits }, workspace), fields);
+      // A calc error names the profile of the list it came from.
+      declareCalcFields(
+        res,
+        renamePrefixes([
+          ['regrind.regrindBaseCircle', `profiles.${i}.baseCircle`],
+          ['profile', `profiles.${i}`],
+        ]),
+      );
+      const analysis: ProfileAnalysis = analyzeRecords(engine, spec, { ptvBaseline, regrind, limits }, workspace);
       // The workspace's curves are overwritten by the next profile, so copy out now.
       return curves ? analysisToJson(analysis) : withoutCurves(analysis);
     });

@@ -8,6 +8,7 @@ import { measurementKinds, type FitCheckRun, type MeasurementData, type Measurem
 import { requireShopRole } from '../access';
 import { audit } from '../audit';
 import type { AppDeps } from '../deps';
+import { declareCalcFields, renamePrefixes } from '../calc-fields';
 import { runFitChecks } from '../fit-checks';
 import { notFound } from '../http';
 import { newestMeasurementFirst } from './measurements';
@@ -54,6 +55,22 @@ export function latestMeasurements(db: Reader, shopId: string, jobId: string): P
   return out as Partial<MeasurementData>;
 }
 
+/**
+ * Calc's field paths (as runFitChecks passes them on) renamed to the measurement or
+ * sheet the tech would fix: the pushrod record, the sheet's spec, the degree readings.
+ */
+const fitCheckFields = renamePrefixes([
+  ['regrind.regrindBaseCircle', 'spec.baseCircle'],
+  ['regrind.pushrodLength', 'pushrod.currentLength'],
+  ['regrind', 'pushrod'],
+  ['profile', 'spec'],
+  [/^ptv-baseline\.(intake|exhaust)\.(\d+)\.baseline(?=\.|$)/, 'ptv-baseline.$1.$2'],
+  ['openingAngle', 'degree.openingAngle'],
+  ['closingAngle', 'degree.closingAngle'],
+  ['sheetIcl', 'spec.icl'],
+  ['lobes', 'lobes.lobes'],
+]);
+
 /** Fit-check runs on a spec sheet: each runs against the sheet's current revision and stays bound to it. */
 export function fitChecksRouter({ db, auth }: AppDeps) {
   const router = Router();
@@ -72,6 +89,7 @@ export function fitChecksRouter({ db, auth }: AppDeps) {
   });
 
   router.post('/sheets/:id/fit-checks', async (req, res) => {
+    declareCalcFields(res, fitCheckFields);
     const ctx = await requireShopRole(auth, db, req, { measurement: ['write'] });
     const run = db.transaction((tx) => {
       const sheet = requireSheet(tx, ctx.shop.id, req.params.id);

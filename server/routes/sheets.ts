@@ -10,7 +10,7 @@ import { sheetCreateSchema, sheetSaveSchema, type Revision, type RevisionResults
 
 import { requireShopRole } from '../access';
 import { audit } from '../audit';
-import { renamePrefixes, runCalc } from '../calc';
+import { declareCalcFields, renamePrefixes } from '../calc-fields';
 import type { AppDeps } from '../deps';
 import { conflict, HttpError, notFound, parse } from '../http';
 import { prepared } from '../prepared';
@@ -63,9 +63,9 @@ const revisionFields = renamePrefixes([
   ['profile', 'spec'],
 ]);
 
-/** The numbers a revision keeps, computed from its profile values and engine snapshot. */
+/** The numbers a revision keeps, computed from its profile values and engine snapshot (calc errors named by `revisionFields`). */
 function computeResults(engine: EngineSpec, spec: ProfileSpec): RevisionResults {
-  return runCalc(() => revisionResults(analyzeRecords(engine, spec)), revisionFields);
+  return revisionResults(analyzeRecords(engine, spec));
 }
 
 const sheetStatements = (db: Reader) =>
@@ -141,6 +141,7 @@ export function sheetsRouter({ db, auth }: AppDeps) {
   });
 
   router.post('/jobs/:jobId/sheets', async (req, res) => {
+    declareCalcFields(res, revisionFields);
     const body = parse(sheetCreateSchema, req.body);
     const ctx = await requireShopRole(auth, db, req, { sheet: ['write'] });
     const jobId = req.params.jobId;
@@ -204,6 +205,7 @@ export function sheetsRouter({ db, auth }: AppDeps) {
   });
 
   router.patch('/sheets/:id', async (req, res) => {
+    declareCalcFields(res, revisionFields);
     const { version, refreshEngine, newRevision, ...changes } = parse(sheetSaveSchema, req.body);
     const ctx = await requireShopRole(auth, db, req, { sheet: ['write'] });
     const id = req.params.id;

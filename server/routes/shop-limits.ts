@@ -8,7 +8,6 @@ import { shopLimitsSaveSchema, type ShopLimitsResponse } from '@/shared/measurem
 
 import { requireShopRole } from '../access';
 import { audit } from '../audit';
-import { runCalc } from '../calc';
 import type { AppDeps } from '../deps';
 import { conflict, parse } from '../http';
 
@@ -35,7 +34,7 @@ export function shopLimitsRouter({ db, auth }: AppDeps) {
   router.put('/shop/limits', async (req, res) => {
     const { version, limits } = parse(shopLimitsSaveSchema, req.body);
     // Merged with the defaults, a lone min or max must still make a sensible rule (e.g. a preload min under the default max).
-    runCalc(() => resolveCheckLimits(limits));
+    resolveCheckLimits(limits);
     // Grinders may update their own shop, but check limits belong to shops that measure engines.
     const ctx = await requireShopRole(auth, db, req, { shop: ['update'], measurement: ['read'] });
     const saved = db.transaction((tx) => {
