@@ -1,14 +1,13 @@
 import type { Request } from 'express';
-import { and, eq, sql } from 'drizzle-orm';
 import { fromNodeHeaders } from 'better-auth/node';
 
 import type { Db } from '@/db';
-import { schema } from '@/db';
 import { isShopRole, roleAllows, type Permission, type ShopKind, type ShopRole } from '@/shared/roles';
 
 import type { Auth } from './auth';
 import { forbidden, HttpError } from './http';
-import { prepared } from './prepared';
+import type { Actor } from './store/db';
+import { liveSession, membershipIn } from './store/sessions';
 
 export type Signed = {
   user: { id: string; name: string; email: string; emailVerified: boolean };
@@ -57,30 +56,10 @@ async function verifiedSession(auth: Auth, req: Request): Promise<KnownSession |
   return known;
 }
 
-const liveSession = (db: Db) =>
-  prepared(db, 'access.live-session', (d) =>
-    d
-      .select({ activeShopId: schema.sessions.activeOrganizationId, expiresAt: schema.sessions.expiresAt, name: schema.users.name, email: schema.users.email, emailVerified: schema.users.emailVerified })
-      .from(schema.sessions)
-      .innerJoin(schema.users, eq(schema.users.id, schema.sessions.userId))
-      .where(eq(schema.sessions.id, sql.placeholder('sessionId')))
-      .prepare(),
-  );
-
-const membership = (db: Db) =>
-  prepared(db, 'access.membership', (d) =>
-    d
-      .select({ role: schema.memberships.role, id: schema.shops.id, name: schema.shops.name, kind: schema.shops.kind })
-      .from(schema.memberships)
-      .innerJoin(schema.shops, eq(schema.shops.id, schema.memberships.organizationId))
-      .where(and(eq(schema.memberships.userId, sql.placeholder('userId')), eq(schema.memberships.organizationId, sql.placeholder('shopId'))))
-      .prepare(),
-  );
-
 /** Reads the session cookie; 401 when nobody is signed in (or the session has ended). */
 export async function requireSignedIn(auth: Auth, db: Db, req: Request): Promise<Signed> {
   const known = await verifiedSession(auth, req);
-  const live = known ? liveSession(db).get({ sessionId: known.sessionId }) : undefined;
+  const live = known ? liveSession(db, known.sessionId) : undefined;
   if (!known || !live || live.expiresAt.getTime() <= Date.now()) throw new HttpError(401, 'unauthenticated', 'Sign in to continue');
   return { user: { id: known.user.id, name: live.name, email: live.email, emailVerified: live.emailVerified }, sessionId: known.sessionId, activeShopId: live.activeShopId ?? null };
 }
@@ -101,7 +80,10 @@ export async function requireShopRole(
 export async function requireMember(auth: Auth, db: Db, req: Request): Promise<InShop> {
   const signed = await requireSignedIn(auth, db, req);
   if (!signed.activeShopId) throw forbidden('Choose a shop first: you are not working in any shop');
-  const row = membership(db).get({ userId: signed.user.id, shopId: signed.activeShopId });
+  const row = membershipIn(db, signed.user.id, signed.activeShopId);
   if (!row || !isShopRole(row.role)) throw forbidden('You are no longer a member of this shop');
   return { ...signed, shop: { id: row.id, name: row.name, kind: row.kind }, role: row.role };
 }
+
+/** The person acting and their active shop, as the store takes them. */
+export const actorOf = (ctx: InShop): Actor => ({ shopId: ctx.shop.id, userId: ctx.user.id });

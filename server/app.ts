@@ -23,10 +23,10 @@ import { jobsRouter, type JobCreateRateLimit } from './routes/jobs';
 import { measurementsRouter } from './routes/measurements';
 import { meRouter } from './routes/me';
 import { ordersRouter } from './routes/orders';
-import { ownerRouter } from './routes/owner';
+import { ownerPageDeskRouter, ownerPageRouter, type ShareRateLimit } from './routes/owner-page';
+import { paymentWebhook } from './routes/payment-webhook';
 import { photosRouter } from './routes/photos';
 import { profilesRouter } from './routes/profiles';
-import { paymentWebhook, shareRouter, type ShareRateLimit } from './routes/share';
 import { sheetsRouter } from './routes/sheets';
 import { teamRouter } from './routes/team';
 import { shopLimitsRouter } from './routes/shop-limits';
@@ -104,7 +104,7 @@ export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLi
   app.use('/api/jobs', jobsRouter(deps, jobCreateRateLimit));
   app.use('/api', enginesRouter(deps), profilesRouter(deps), sheetsRouter(deps), calcRouter(deps, calcRateLimit));
   app.use('/api', measurementsRouter(deps), photosRouter(deps), checklistRouter(deps), shopLimitsRouter(deps), fitChecksRouter(deps));
-  app.use('/api', ordersRouter(deps), ownerRouter(deps), shareRouter(deps, shareRateLimit), teamRouter(deps));
+  app.use('/api', ordersRouter(deps), ownerPageDeskRouter(deps), ownerPageRouter(deps, shareRateLimit), teamRouter(deps));
   if (devTools) app.use('/api', devOutboxRouter(deps));
   app.use('/api', (req, res) => sendError(res, new HttpError(404, 'not_found', `No API route ${req.method} ${req.path}`)));
 

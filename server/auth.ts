@@ -2,7 +2,6 @@ import { betterAuth } from 'better-auth';
 import { drizzleAdapter } from 'better-auth/adapters/drizzle';
 import { APIError, createAuthMiddleware } from 'better-auth/api';
 import { organization } from 'better-auth/plugins';
-import { and, asc, eq, gt, isNull } from 'drizzle-orm';
 
 import type { Db } from '@/db';
 import { schema } from '@/db';
@@ -12,6 +11,7 @@ import { composeMail, type MailContent } from './mail/compose';
 import type { Mailer } from './mail';
 import { maxPasswordLength, minPasswordLength, passwordSchema } from './passwords';
 import { clientAddressHeader, type AuthRateLimit } from './security';
+import { firstShopId, joinInvitedShops } from './store/sessions';
 
 /** Where the links in verification mail land: a page of ours that says the address is verified. */
 export const verifiedPath = '/verified';
@@ -41,32 +41,6 @@ export const disabledAccountPaths = [
 
 /** Where each auth route that sets a password carries it. */
 const passwordFields: Record<string, string> = { '/sign-up/email': 'password', '/reset-password': 'newPassword', '/change-password': 'newPassword' };
-
-/** Turns pending invitations for the address into memberships, once the address is verified. */
-function joinInvitedShops(db: Db, user: { id: string; email: string }) {
-  db.transaction((tx) => {
-    const pending = tx
-      .select()
-      .from(schema.invitations)
-      .where(and(eq(schema.invitations.email, user.email.toLowerCase()), eq(schema.invitations.status, 'pending'), gt(schema.invitations.expiresAt, new Date())))
-      .all();
-    for (const invitation of pending) {
-      tx.insert(schema.memberships)
-        .values({ id: crypto.randomUUID(), organizationId: invitation.organizationId, userId: user.id, role: invitation.role ?? 'customer' })
-        .onConflictDoNothing()
-        .run();
-      tx.update(schema.invitations).set({ status: 'accepted' }).where(eq(schema.invitations.id, invitation.id)).run();
-    }
-    // Sessions opened before verification have no shop yet: open them in the first one.
-    const first = pending[0];
-    if (first) {
-      tx.update(schema.sessions)
-        .set({ activeOrganizationId: first.organizationId })
-        .where(and(eq(schema.sessions.userId, user.id), isNull(schema.sessions.activeOrganizationId)))
-        .run();
-    }
-  });
-}
 
 /** Swaps the link's callback for our own page, so the link never lands anywhere a sign-up body asked for. */
 function withCallback(url: string, callback: string) {
@@ -188,14 +162,7 @@ export function createAuth({ db, baseURL, secret, rateLimit = false, mailer }: A
         create: {
           // A new session opens in the person's first shop, so every screen has a shop to work in.
           before: async (session) => {
-            const first = db
-              .select({ shopId: schema.memberships.organizationId })
-              .from(schema.memberships)
-              .where(eq(schema.memberships.userId, session.userId))
-              .orderBy(asc(schema.memberships.createdAt))
-              .limit(1)
-              .get();
-            return { data: { ...session, activeOrganizationId: first?.shopId ?? null } };
+            return { data: { ...session, activeOrganizationId: firstShopId(db, session.userId) } };
           },
         },
       },

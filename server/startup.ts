@@ -1,24 +1,19 @@
 import fs from 'node:fs';
 import path from 'node:path';
 
-import { and, eq, inArray } from 'drizzle-orm';
 import { verifyPassword } from 'better-auth/crypto';
 
 import type { Db } from '@/db';
-import { schema } from '@/db';
 import { demoAccounts, demoPassword } from '@/db/seed';
+
+import { anyUserWithEmail, passwordHashesOf } from './store/sessions';
 
 /**
  * The demo accounts that still sign in with the published demo password. A production
  * server must not start while any does: anyone who read the README could sign in.
  */
 export async function demoAccountsWithPublishedPassword(db: Db): Promise<string[]> {
-  const rows = db
-    .select({ email: schema.users.email, hash: schema.accounts.password })
-    .from(schema.accounts)
-    .innerJoin(schema.users, eq(schema.users.id, schema.accounts.userId))
-    .where(and(eq(schema.accounts.providerId, 'credential'), inArray(schema.users.email, demoAccounts.map((a) => a.email))))
-    .all();
+  const rows = passwordHashesOf(db, demoAccounts.map((a) => a.email));
   const open: string[] = [];
   for (const row of rows) if (row.hash && (await verifyPassword({ hash: row.hash, password: demoPassword }))) open.push(row.email);
   return open;
@@ -26,7 +21,7 @@ export async function demoAccountsWithPublishedPassword(db: Db): Promise<string[
 
 /** Whether any demo account exists (the sign-ins are printed only then, and only in demo mode). */
 export function hasDemoAccounts(db: Db): boolean {
-  return db.select({ id: schema.users.id }).from(schema.users).where(inArray(schema.users.email, demoAccounts.map((a) => a.email))).limit(1).get() !== undefined;
+  return anyUserWithEmail(db, demoAccounts.map((a) => a.email));
 }
 
 /** Removes the `.part` files an upload leaves when the server is killed mid-request; returns how many. */

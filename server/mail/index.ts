@@ -1,7 +1,8 @@
 import nodemailer from 'nodemailer';
 
 import type { Db } from '@/db';
-import { schema } from '@/db';
+
+import { keepInOutbox } from '../store/outbox';
 
 export type MailMessage = { to: string; subject: string; text: string; html: string };
 
@@ -46,9 +47,7 @@ export function createMailer({ db, smtpUrl, from = defaultMailFrom }: CreateMail
       if (!/multipart\/alternative/i.test(raw) || !/text\/plain/i.test(raw) || !/text\/html/i.test(raw)) {
         throw new Error('Mail was built without both a text and an HTML part');
       }
-      db.insert(schema.outbox)
-        .values({ id: crypto.randomUUID(), to: message.to, subject: message.subject, text: message.text, html: message.html })
-        .run();
+      keepInOutbox(db, message);
     },
   };
 }

@@ -1,7 +1,10 @@
 import { formatCents } from '@/constants/format';
 
+import type { Reader } from '../store/db';
+import { jobVehicle } from '../store/jobs';
+import { recipients } from '../store/team';
 import { composeMail } from './compose';
-import type { MailMessage } from './index';
+import { mailEach, type Mailer, type MailMessage } from './index';
 
 /** The owner's page, opened from a share link. */
 export function shareUrl(publicUrl: string, token: string) {
@@ -61,4 +64,12 @@ export function ownerEventMail(kind: 'approved' | 'paid', to: Person, f: OwnerEv
           lines: [`The deposit of ${amount} for "${f.optionTitle}" on the ${f.vehicle} is paid.`, `Approved revision checksum: ${f.checksum}.`],
         };
   return composeMail({ to, ...content, action: "Open the job's owner page", link: ownerDeskUrl(f.publicUrl, f.jobId), footer: 'Sent by Lobewright for your shop.' });
+}
+
+type BuilderMailDeps = { db: Reader; mailer: Mailer; publicUrl: string };
+
+/** Mails every builder of the shop about the owner's approval or payment; a failure is logged and never undoes the write. */
+export async function mailBuilders({ db, mailer, publicUrl }: BuilderMailDeps, kind: 'approved' | 'paid', jobId: string, shopId: string, facts: Omit<OwnerEventFacts, 'publicUrl' | 'jobId' | 'vehicle'>) {
+  const vehicle = jobVehicle(db, jobId) ?? 'vehicle';
+  await mailEach(mailer, recipients(db, shopId, 'builder'), (person) => ownerEventMail(kind, person, { ...facts, publicUrl, jobId, vehicle }), `Job ${jobId}, ${kind} mail`);
 }

@@ -1,19 +1,10 @@
 import { Router } from 'express';
-import { and, desc, eq, lt, or } from 'drizzle-orm';
 import { z } from 'zod';
-
-import { schema } from '@/db';
-import type { OutboxMessage } from '@/shared/orders';
 
 import { requireSignedIn } from '../access';
 import type { AppDeps } from '../deps';
 import { HttpError, notFound, parse } from '../http';
-
-type OutboxRow = typeof schema.outbox.$inferSelect;
-
-function toOutboxMessage(row: OutboxRow): OutboxMessage {
-  return { id: row.id, to: row.to, subject: row.subject, text: row.text, html: row.html, createdAt: row.createdAt.toISOString() };
-}
+import { outboxMessage, outboxRows, toOutboxMessage, type OutboxRow } from '../store/outbox';
 
 /** A page of the mailbox: newest first; the cursor is the last message's time and id. */
 const pageQuery = z.strictObject({
@@ -44,27 +35,16 @@ export function devOutboxRouter({ db, auth }: AppDeps) {
     const { user } = await requireSignedIn(auth, db, req);
     const query = parse(pageQuery, req.query);
     const after = query.cursor ? readCursor(query.cursor) : undefined;
-    const mine = eq(schema.outbox.to, user.email);
-    const rows = db
-      .select()
-      .from(schema.outbox)
-      .where(after ? and(mine, or(lt(schema.outbox.createdAt, after.at), and(eq(schema.outbox.createdAt, after.at), lt(schema.outbox.id, after.id)))) : mine)
-      .orderBy(desc(schema.outbox.createdAt), desc(schema.outbox.id))
-      .limit(query.limit + 1)
-      .all();
+    const rows = outboxRows(db, user.email, query.limit, after);
     const page = rows.slice(0, query.limit);
     res.json({ messages: page.map(toOutboxMessage), nextCursor: rows.length > query.limit ? cursorOf(page[page.length - 1]!) : null });
   });
 
   router.get('/dev/outbox/:id', async (req, res) => {
     const { user } = await requireSignedIn(auth, db, req);
-    const row = db
-      .select()
-      .from(schema.outbox)
-      .where(and(eq(schema.outbox.id, req.params.id), eq(schema.outbox.to, user.email)))
-      .get();
-    if (!row) throw notFound('Message');
-    res.json({ message: toOutboxMessage(row) });
+    const message = outboxMessage(db, user.email, req.params.id);
+    if (!message) throw notFound('Message');
+    res.json({ message });
   });
 
   return router;

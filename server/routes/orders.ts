@@ -1,185 +1,15 @@
 import { Router } from 'express';
-import { and, asc, desc, eq, lt, or, type SQL } from 'drizzle-orm';
-import { alias } from 'drizzle-orm/sqlite-core';
 
-import type { Db } from '@/db';
-import { schema } from '@/db';
-import { revisionChecksum } from '@/shared/checksum';
-import {
-  issueSchema,
-  messageSchema,
-  orderMoves,
-  orderMoveSchema,
-  orderStageLabels,
-  type Order,
-  type OrderDetail,
-  type OrderEvent,
-  type OrderMessage,
-  type OrderStage,
-} from '@/shared/orders';
-import { roleAllows } from '@/shared/roles';
+import { issueSchema, messageSchema, orderMoveSchema, type Order } from '@/shared/orders';
 
-import { requireMember, requireShopRole, type InShop } from '../access';
-import { audit } from '../audit';
+import { actorOf, requireMember, requireShopRole } from '../access';
 import type { AppDeps } from '../deps';
+import { forbidden, parse } from '../http';
 import { mailEach } from '../mail';
 import { orderMail, type OrderMailFacts, type OrderMailKind } from '../mail/order-mail';
-import { conflict, forbidden, HttpError, notFound, parse } from '../http';
-import { pageRequest, toPage, type PageRequest } from '../paging';
-import { toRevision } from './sheets';
-
-type Reader = Pick<Db, 'select'>;
-type Side = 'builder' | 'grinder';
-
-const repairShops = alias(schema.shops, 'repair_shops');
-const grinderShops = alias(schema.shops, 'grinder_shops');
-
-/** Orders with their sheet, revision and both shops' names, filtered by `where` (which carries the shop scope). */
-function selectOrders(db: Reader, where: SQL | undefined): Order[] {
-  return selectOrderRows(db, where).map((r) => r.order);
-}
-
-/**
- * selectOrders with each order's creation time (milliseconds), the sort key of a page.
- * With `page`, one keyset page newest first on (created_at, id), reading one row more than the limit.
- */
-function selectOrderRows(db: Reader, where: SQL | undefined, page?: PageRequest): { order: Order; createdAt: number }[] {
-  const { grindOrders } = schema;
-  const after = page?.after;
-  const from = after ? or(lt(grindOrders.createdAt, new Date(after.at)), and(eq(grindOrders.createdAt, new Date(after.at)), lt(grindOrders.id, after.id))) : undefined;
-  const rows = db
-    .select({
-      order: schema.grindOrders,
-      sheetTitle: schema.specSheets.title,
-      revisionNumber: schema.sheetRevisions.number,
-      issuedAt: schema.sheetRevisions.issuedAt,
-      repairShopName: repairShops.name,
-      grinderShopName: grinderShops.name,
-    })
-    .from(schema.grindOrders)
-    .innerJoin(schema.specSheets, eq(schema.specSheets.id, schema.grindOrders.sheetId))
-    .innerJoin(schema.sheetRevisions, eq(schema.sheetRevisions.id, schema.grindOrders.revisionId))
-    .innerJoin(repairShops, eq(repairShops.id, schema.grindOrders.repairShopId))
-    .innerJoin(grinderShops, eq(grinderShops.id, schema.grindOrders.grinderShopId))
-    .where(and(where, from))
-    .orderBy(...(page ? [desc(grindOrders.createdAt), desc(grindOrders.id)] : [desc(grindOrders.createdAt), desc(schema.sheetRevisions.number), asc(grindOrders.id)]))
-    .limit(page ? page.limit + 1 : -1)
-    .all();
-  return rows.map(({ order, ...r }) => ({
-    createdAt: order.createdAt.getTime(),
-    order: {
-      id: order.id,
-      sheetId: order.sheetId,
-      sheetTitle: r.sheetTitle,
-      revisionId: order.revisionId,
-      revisionNumber: r.revisionNumber,
-      checksum: order.checksum,
-      repairShop: { id: order.repairShopId, name: r.repairShopName },
-      grinderShop: { id: order.grinderShopId, name: r.grinderShopName },
-      stage: order.stage,
-      quote: order.quote ?? null,
-      shipping: order.shipping ?? null,
-      issuedAt: (r.issuedAt ?? order.createdAt).toISOString(),
-      updatedAt: order.updatedAt.toISOString(),
-      version: order.version,
-    },
-  }));
-}
-
-/**
- * Which side of the order the person stands on, from their active shop: the repair shop's
- * readers (job read) or the grinding shop's grinders. Anyone else gets a 404, as if the order did not exist.
- */
-function requireOrder(db: Reader, ctx: InShop, id: string): { order: Order; side: Side } {
-  const asRepair = ctx.shop.kind === 'repair' && roleAllows(ctx.role, { job: ['read'] });
-  const asGrinder = ctx.shop.kind === 'grinding' && ctx.role === 'grinder';
-  if (!asRepair && !asGrinder) throw notFound('Order');
-  const scope = asRepair ? eq(schema.grindOrders.repairShopId, ctx.shop.id) : eq(schema.grindOrders.grinderShopId, ctx.shop.id);
-  const [order] = selectOrders(db, and(eq(schema.grindOrders.id, id), scope));
-  if (!order) throw notFound('Order');
-  return { order, side: asRepair ? 'builder' : 'grinder' };
-}
-
-function loadMessages(db: Reader, order: Order): OrderMessage[] {
-  return db
-    .select({
-      id: schema.orderMessages.id,
-      body: schema.orderMessages.body,
-      createdAt: schema.orderMessages.createdAt,
-      authorId: schema.orderMessages.authorUserId,
-      authorName: schema.users.name,
-      shopId: schema.orderMessages.authorShopId,
-      shopName: schema.shops.name,
-    })
-    .from(schema.orderMessages)
-    .innerJoin(schema.shops, eq(schema.shops.id, schema.orderMessages.authorShopId))
-    .leftJoin(schema.users, eq(schema.users.id, schema.orderMessages.authorUserId))
-    .where(eq(schema.orderMessages.orderId, order.id))
-    .orderBy(asc(schema.orderMessages.createdAt), asc(schema.orderMessages.id))
-    .all()
-    .map((m) => ({
-      id: m.id,
-      orderId: order.id,
-      body: m.body,
-      author: {
-        id: m.authorId,
-        name: m.authorName ?? 'A former member',
-        shopName: m.shopName,
-        side: m.shopId === order.grinderShop.id ? 'grinder' : 'builder',
-      },
-      createdAt: m.createdAt.toISOString(),
-    }));
-}
-
-function loadEvents(db: Reader, orderId: string): OrderEvent[] {
-  return db
-    .select({
-      id: schema.auditLog.id,
-      action: schema.auditLog.action,
-      by: schema.users.name,
-      at: schema.auditLog.createdAt,
-      detail: schema.auditLog.detail,
-    })
-    .from(schema.auditLog)
-    .leftJoin(schema.users, eq(schema.users.id, schema.auditLog.userId))
-    .where(and(eq(schema.auditLog.entity, 'order'), eq(schema.auditLog.entityId, orderId)))
-    .orderBy(asc(schema.auditLog.id))
-    .all()
-    .map((e) => ({ id: e.id, action: e.action, by: e.by ?? 'A former member', at: e.at.toISOString(), detail: e.detail ?? null }));
-}
-
-function loadDetail(db: Reader, order: Order): OrderDetail {
-  const revision = db.select().from(schema.sheetRevisions).where(eq(schema.sheetRevisions.id, order.revisionId)).get();
-  if (!revision) throw new Error(`Order ${order.id} has no revision`);
-  const job = db
-    .select({ vehicle: schema.jobs.vehicle })
-    .from(schema.specSheets)
-    .innerJoin(schema.jobs, eq(schema.jobs.id, schema.specSheets.jobId))
-    .where(eq(schema.specSheets.id, order.sheetId))
-    .get();
-  return { ...order, revision: toRevision(revision), vehicle: job?.vehicle ?? '', messages: loadMessages(db, order), events: loadEvents(db, order.id) };
-}
-
-/** Members of `shopId` with `role`, for mail. */
-export function recipients(db: Reader, shopId: string, role: 'builder' | 'grinder') {
-  return db
-    .select({ email: schema.users.email, name: schema.users.name })
-    .from(schema.memberships)
-    .innerJoin(schema.users, eq(schema.users.id, schema.memberships.userId))
-    .where(and(eq(schema.memberships.organizationId, shopId), eq(schema.memberships.role, role)))
-    .orderBy(asc(schema.users.email))
-    .all();
-}
-
-/** "From sent: the grinder can move it to quoted or changes-asked." */
-export function allowedMovesText(stage: OrderStage): string {
-  const moves = orderMoves[stage];
-  if (!moves.length) return `Nothing can follow ${stage}.`;
-  return `From ${stage} only ${moves.map((m) => `the ${m.by} can move it to ${m.to}`).join(', or ')}.`;
-}
-
-/** Fields that belong to one move only. */
-const moveFields = { quote: 'quoted', shipping: 'shipped' } as const;
+import { pageRequest, toPage } from '../paging';
+import { addOrderMessage, grindingShops, incomingRows, issueSheet, loadDetail, loadMessages, moveOrder, requireOrder, sheetOrders } from '../store/orders';
+import { recipients } from '../store/team';
 
 /**
  * Grind orders: a builder issues a sheet's draft revision to a grinding shop; both
@@ -208,129 +38,27 @@ export function ordersRouter({ db, auth, mailer, publicUrl }: AppDeps) {
 
   router.get('/grinding-shops', async (req, res) => {
     await requireShopRole(auth, db, req, { sheet: ['issue'] });
-    const shops = db
-      .select({ id: schema.shops.id, name: schema.shops.name })
-      .from(schema.shops)
-      .where(eq(schema.shops.kind, 'grinding'))
-      .orderBy(asc(schema.shops.name), asc(schema.shops.id))
-      .all();
-    res.json({ shops });
+    res.json({ shops: grindingShops(db) });
   });
 
   router.post('/sheets/:id/issue', async (req, res) => {
     const body = parse(issueSchema, req.body);
     const ctx = await requireShopRole(auth, db, req, { sheet: ['issue'] });
-    const sheetId = req.params.id;
-    const order = db.transaction((tx) => {
-      const sheet = tx
-        .select()
-        .from(schema.specSheets)
-        .where(and(eq(schema.specSheets.id, sheetId), eq(schema.specSheets.shopId, ctx.shop.id)))
-        .get();
-      if (!sheet) throw notFound('Spec sheet');
-      const latest = tx
-        .select()
-        .from(schema.sheetRevisions)
-        .where(eq(schema.sheetRevisions.sheetId, sheetId))
-        .orderBy(desc(schema.sheetRevisions.number))
-        .limit(1)
-        .get();
-      if (!latest) throw new Error(`Sheet ${sheetId} has no revisions`);
-      if (latest.state !== 'draft') {
-        throw conflict(`Revision ${latest.number} is already issued — edit the sheet to start a new revision, then issue that.`);
-      }
-      if (sheet.version !== body.version) {
-        throw conflict(
-          `Someone saved this spec sheet after you opened it (version ${sheet.version}, yours ${body.version}). Reload and check the revision before you issue it.`,
-        );
-      }
-      const grinder = tx
-        .select({ id: schema.shops.id })
-        .from(schema.shops)
-        .where(and(eq(schema.shops.id, body.grinderShopId), eq(schema.shops.kind, 'grinding')))
-        .get();
-      if (!grinder) {
-        throw new HttpError(400, 'invalid', 'grinderShopId: Choose one of the grinding shops', {
-          grinderShopId: 'Choose one of the grinding shops',
-        });
-      }
-      const issuedAt = new Date();
-      // One UPDATE flips the draft to issued; after it, the trigger keeps the row as it is for good.
-      const issued = tx
-        .update(schema.sheetRevisions)
-        .set({ state: 'issued', issuedAt, issuedToShopId: grinder.id })
-        .where(and(eq(schema.sheetRevisions.id, latest.id), eq(schema.sheetRevisions.state, 'draft')))
-        .returning()
-        .get();
-      if (!issued) throw conflict('This revision was issued while you were sending it. Reload to see it.');
-      const checksum = revisionChecksum(issued);
-      const id = crypto.randomUUID();
-      tx.insert(schema.grindOrders)
-        .values({
-          id,
-          repairShopId: ctx.shop.id,
-          grinderShopId: grinder.id,
-          sheetId,
-          revisionId: issued.id,
-          checksum,
-          stage: 'sent',
-          issuedBy: ctx.user.id,
-        })
-        .run();
-      if (body.note) {
-        tx.insert(schema.orderMessages)
-          .values({ id: crypto.randomUUID(), orderId: id, authorUserId: ctx.user.id, authorShopId: ctx.shop.id, body: body.note })
-          .run();
-      }
-      const bumped = tx
-        .update(schema.specSheets)
-        .set({ version: body.version + 1 })
-        .where(and(eq(schema.specSheets.id, sheetId), eq(schema.specSheets.version, body.version)))
-        .returning()
-        .get();
-      if (!bumped) throw conflict('This spec sheet changed while issuing. Reload and try again.');
-      audit(tx, {
-        shopId: ctx.shop.id,
-        userId: ctx.user.id,
-        action: 'issue',
-        entity: 'sheet',
-        entityId: sheetId,
-        detail: { revision: issued.number, orderId: id, grinderShopId: grinder.id, checksum, version: bumped.version },
-      });
-      audit(tx, {
-        shopId: ctx.shop.id,
-        userId: ctx.user.id,
-        action: 'issue',
-        entity: 'order',
-        entityId: id,
-        detail: { to: 'sent', revision: issued.number, checksum },
-      });
-      const [created] = selectOrders(tx, eq(schema.grindOrders.id, id));
-      if (!created) throw new Error(`Order ${id} was not written`);
-      return created;
-    });
+    const order = issueSheet(db, actorOf(ctx), req.params.id, body);
     await mail('issued', order, { message: body.note || null });
     res.status(201).json({ order });
   });
 
   router.get('/sheets/:id/orders', async (req, res) => {
     const ctx = await requireShopRole(auth, db, req, { job: ['read'] });
-    const sheet = db
-      .select({ id: schema.specSheets.id })
-      .from(schema.specSheets)
-      .where(and(eq(schema.specSheets.id, req.params.id), eq(schema.specSheets.shopId, ctx.shop.id)))
-      .get();
-    if (!sheet) throw notFound('Spec sheet');
-    res.json({
-      orders: selectOrders(db, and(eq(schema.grindOrders.sheetId, sheet.id), eq(schema.grindOrders.repairShopId, ctx.shop.id))),
-    });
+    res.json({ orders: sheetOrders(db, ctx.shop.id, req.params.id) });
   });
 
   router.get('/incoming', async (req, res) => {
     const request = pageRequest(req);
     const ctx = await requireShopRole(auth, db, req, { incoming: ['read'] });
     if (ctx.shop.kind !== 'grinding') throw forbidden('Switch to your grinding shop to see incoming sheets');
-    const page = toPage(selectOrderRows(db, eq(schema.grindOrders.grinderShopId, ctx.shop.id), request), request.limit, (r) => ({ at: r.createdAt, id: r.order.id }));
+    const page = toPage(incomingRows(db, ctx.shop.id, request), request.limit, (r) => ({ at: r.createdAt, id: r.order.id }));
     res.json({ orders: page.rows.map((r) => r.order), nextCursor: page.nextCursor });
   });
 
@@ -343,67 +71,7 @@ export function ordersRouter({ db, auth, mailer, publicUrl }: AppDeps) {
   router.post('/orders/:id/move', async (req, res) => {
     const body = parse(orderMoveSchema, req.body);
     const ctx = await requireMember(auth, db, req);
-    const id = req.params.id;
-    const { order, message } = db.transaction((tx) => {
-      const { order: current, side: viewSide } = requireOrder(tx, ctx, id);
-      // Reading is wider than moving: a tech sees the order but moves nothing.
-      const side: Side | null = viewSide === 'grinder' ? 'grinder' : ctx.role === 'builder' ? 'builder' : null;
-      if (!side) throw forbidden('Only a builder or the grinder can move an order');
-      if (current.version !== body.version) {
-        throw conflict(
-          `This order changed after you opened it (version ${current.version}, yours ${body.version}); it is now ${orderStageLabels[current.stage].toLowerCase()}. Reload and try again.`,
-        );
-      }
-      const move = orderMoves[current.stage].find((m) => m.to === body.to);
-      if (!move || move.by !== side) {
-        const reason = move ? `only the ${move.by} can move it to ${body.to}` : `it cannot go to ${body.to}`;
-        throw new HttpError(409, 'illegal_move', `This order is ${current.stage}, so ${reason}. ${allowedMovesText(current.stage)}`);
-      }
-      const fields: Record<string, string> = {};
-      if (body.to === 'quoted' && !body.quote) fields.quote = 'Enter the price and lead time to quote';
-      if (body.to === 'changes-asked' && !body.message) fields.message = 'Say what needs to change';
-      if (body.to === 'shipped' && !body.shipping) fields.shipping = 'Enter the carrier and tracking text to ship';
-      for (const [field, to] of Object.entries(moveFields)) {
-        if (body[field as keyof typeof moveFields] && body.to !== to) fields[field] = `Only a move to ${to} takes ${field}`;
-      }
-      const [first] = Object.entries(fields);
-      if (first) throw new HttpError(400, 'invalid', `${first[0]}: ${first[1]}`, fields);
-
-      const moved = tx
-        .update(schema.grindOrders)
-        .set({
-          stage: body.to,
-          version: body.version + 1,
-          ...(body.quote ? { quote: body.quote } : {}),
-          ...(body.shipping ? { shipping: body.shipping } : {}),
-        })
-        .where(and(eq(schema.grindOrders.id, id), eq(schema.grindOrders.version, body.version)))
-        .returning()
-        .get();
-      if (!moved) throw conflict('This order changed while saving. Reload and try again.');
-      if (body.message) {
-        tx.insert(schema.orderMessages)
-          .values({ id: crypto.randomUUID(), orderId: id, authorUserId: ctx.user.id, authorShopId: ctx.shop.id, body: body.message })
-          .run();
-      }
-      audit(tx, {
-        shopId: ctx.shop.id,
-        userId: ctx.user.id,
-        action: 'move',
-        entity: 'order',
-        entityId: id,
-        detail: {
-          from: current.stage,
-          to: body.to,
-          ...(body.quote ? { quote: body.quote } : {}),
-          ...(body.shipping ? { shipping: body.shipping } : {}),
-          version: moved.version,
-        },
-      });
-      const [updated] = selectOrders(tx, eq(schema.grindOrders.id, id));
-      if (!updated) throw new Error(`Order ${id} vanished`);
-      return { order: updated, message: body.message ?? null };
-    });
+    const { order, message } = moveOrder(db, ctx, req.params.id, body);
     if (order.stage === 'quoted' || order.stage === 'changes-asked' || order.stage === 'shipped') {
       await mail(order.stage, order, { message });
     }
@@ -419,18 +87,7 @@ export function ordersRouter({ db, auth, mailer, publicUrl }: AppDeps) {
   router.post('/orders/:id/messages', async (req, res) => {
     const body = parse(messageSchema, req.body);
     const ctx = await requireMember(auth, db, req);
-    const message = db.transaction((tx) => {
-      const { order } = requireOrder(tx, ctx, req.params.id);
-      const id = crypto.randomUUID();
-      tx.insert(schema.orderMessages)
-        .values({ id, orderId: order.id, authorUserId: ctx.user.id, authorShopId: ctx.shop.id, body: body.body })
-        .run();
-      audit(tx, { shopId: ctx.shop.id, userId: ctx.user.id, action: 'message', entity: 'order_message', entityId: id, detail: { orderId: order.id } });
-      const written = loadMessages(tx, order).find((m) => m.id === id);
-      if (!written) throw new Error(`Message ${id} was not written`);
-      return written;
-    });
-    res.status(201).json({ message });
+    res.status(201).json({ message: addOrderMessage(db, ctx, req.params.id, body) });
   });
 
   return router;

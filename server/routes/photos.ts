@@ -1,77 +1,21 @@
 import fs from 'node:fs';
 import path from 'node:path';
 
-import { Router, type Request, type Response } from 'express';
-import { and, asc, eq, sql } from 'drizzle-orm';
+import { Router, type Request } from 'express';
 import multer from 'multer';
 
-import { schema } from '@/db';
-import { photoLimits, photoMimeTypes, photoPatchSchema, type Photo } from '@/shared/measurements';
+import { photoLimits, photoMimeTypes, photoPatchSchema } from '@/shared/measurements';
 
-import { requireShopRole, type InShop } from '../access';
-import { audit } from '../audit';
+import { actorOf, requireShopRole, type InShop } from '../access';
 import type { AppDeps } from '../deps';
 import { HttpError, notFound, parse } from '../http';
-import { requireJob } from '../scope';
+import { requireJob } from '../store/jobs';
+import { deletePhoto, insertPhotos, jobPhotos, requirePhotoRow, updatePhoto } from '../store/photos';
 import { allowedExtensions, detectImageType, extensionFor } from '../uploads/image-type';
+import { readHead, removeQuietly, sendPhotoFile } from '../uploads/photo-files';
 import { requireMultipart, runMultipart } from '../uploads/multipart';
 
-type PhotoRow = typeof schema.photos.$inferSelect;
-
 export const PHOTO_FIELD = 'photos';
-
-export function toPhoto(row: PhotoRow): Photo {
-  return {
-    id: row.id,
-    jobId: row.jobId,
-    originalName: row.originalName,
-    caption: row.caption,
-    mimeType: row.mimeType,
-    size: row.size,
-    shareable: row.shareable,
-    url: `/api/photos/${row.id}/file`,
-    createdAt: row.createdAt.toISOString(),
-  };
-}
-
-const inShop = (shopId: string, id: string) => and(eq(schema.photos.id, id), eq(schema.photos.shopId, shopId));
-
-/** Reads the first bytes of a stored file. */
-function readHead(file: string): Uint8Array {
-  const fd = fs.openSync(file, 'r');
-  try {
-    const head = Buffer.alloc(16);
-    const n = fs.readSync(fd, head, 0, head.length, 0);
-    return head.subarray(0, n);
-  } finally {
-    fs.closeSync(fd);
-  }
-}
-
-/** Streams a stored photo with headers that keep browsers from guessing its type. */
-export async function sendPhotoFile(res: Response, uploadsDir: string, row: Pick<PhotoRow, 'id' | 'shopId' | 'storedName' | 'mimeType'>) {
-  const file = path.join(uploadsDir, row.shopId, row.storedName);
-  if (!fs.existsSync(file)) throw new HttpError(404, 'not_found', "This photo's file is missing from the server");
-  res.setHeader('Content-Type', row.mimeType);
-  res.setHeader('Content-Length', String(fs.statSync(file).size));
-  res.setHeader('X-Content-Type-Options', 'nosniff');
-  res.setHeader('Cache-Control', 'private, max-age=3600');
-  res.setHeader('Content-Disposition', `inline; filename="photo-${row.id}${extensionFor[row.mimeType]}"`);
-  await new Promise<void>((resolve, reject) => {
-    const stream = fs.createReadStream(file);
-    stream.on('error', reject);
-    stream.on('end', () => resolve());
-    stream.pipe(res);
-  });
-}
-
-function removeQuietly(file: string) {
-  try {
-    fs.rmSync(file, { force: true });
-  } catch (error) {
-    console.error(`Could not remove ${file}`, error);
-  }
-}
 
 /**
  * Photos of failed parts on a job. Files go to `<uploadsDir>/<shopId>/` under
@@ -118,14 +62,7 @@ export function photosRouter({ db, auth, uploadsDir }: AppDeps) {
 
   router.get('/jobs/:jobId/photos', async (req, res) => {
     const ctx = await requireShopRole(auth, db, req, { measurement: ['read'] });
-    requireJob(db, ctx.shop.id, req.params.jobId);
-    const rows = db
-      .select()
-      .from(schema.photos)
-      .where(and(eq(schema.photos.jobId, req.params.jobId), eq(schema.photos.shopId, ctx.shop.id)))
-      .orderBy(asc(schema.photos.createdAt), asc(sql`${schema.photos}.rowid`))
-      .all();
-    res.json({ photos: rows.map(toPhoto) });
+    res.json({ photos: jobPhotos(db, ctx.shop.id, req.params.jobId) });
   });
 
   router.post('/jobs/:jobId/photos', async (req, res) => {
@@ -167,28 +104,7 @@ export function photosRouter({ db, auth, uploadsDir }: AppDeps) {
         kept.push(finalPath);
         return { id: crypto.randomUUID(), storedName, originalName: file.originalname.slice(0, 200), mimeType, size: file.size };
       });
-      const rows = db.transaction((tx) => {
-        requireJob(tx, ctx.shop.id, jobId);
-        const inserted = stored.map((s) =>
-          tx
-            .insert(schema.photos)
-            .values({ ...s, shopId: ctx.shop.id, jobId, caption, createdBy: ctx.user.id })
-            .returning()
-            .get(),
-        );
-        for (const p of inserted) {
-          audit(tx, {
-            shopId: ctx.shop.id,
-            userId: ctx.user.id,
-            action: 'create',
-            entity: 'photo',
-            entityId: p.id,
-            detail: { jobId, originalName: p.originalName, mimeType: p.mimeType, size: p.size },
-          });
-        }
-        return inserted;
-      });
-      res.status(201).json({ photos: rows.map(toPhoto) });
+      res.status(201).json({ photos: insertPhotos(db, actorOf(ctx), jobId, stored, caption) });
     } catch (error) {
       for (const file of [...written, ...kept]) removeQuietly(file);
       throw error;
@@ -197,46 +113,18 @@ export function photosRouter({ db, auth, uploadsDir }: AppDeps) {
 
   router.get('/photos/:id/file', async (req, res) => {
     const ctx = await readerOr404(req);
-    const row = db.select().from(schema.photos).where(inShop(ctx.shop.id, req.params.id)).get();
-    if (!row) throw notFound('Photo');
-    await sendPhotoFile(res, uploadsDir, row);
+    await sendPhotoFile(res, uploadsDir, requirePhotoRow(db, ctx.shop.id, req.params.id));
   });
 
   router.patch('/photos/:id', async (req, res) => {
     const body = parse(photoPatchSchema, req.body);
     const ctx = await requireShopRole(auth, db, req, { measurement: ['write'] });
-    const id = req.params.id;
-    const row = db.transaction((tx) => {
-      const current = tx.select({ id: schema.photos.id }).from(schema.photos).where(inShop(ctx.shop.id, id)).get();
-      if (!current) throw notFound('Photo');
-      const updated =
-        Object.keys(body).length === 0
-          ? tx.select().from(schema.photos).where(inShop(ctx.shop.id, id)).get()
-          : tx.update(schema.photos).set(body).where(inShop(ctx.shop.id, id)).returning().get();
-      if (!updated) throw notFound('Photo');
-      audit(tx, { shopId: ctx.shop.id, userId: ctx.user.id, action: 'update', entity: 'photo', entityId: id, detail: { fields: Object.keys(body) } });
-      return updated;
-    });
-    res.json({ photo: toPhoto(row) });
+    res.json({ photo: updatePhoto(db, actorOf(ctx), req.params.id, body) });
   });
 
   router.delete('/photos/:id', async (req, res) => {
     const ctx = await requireShopRole(auth, db, req, { measurement: ['write'] });
-    const id = req.params.id;
-    const removed = db.transaction((tx) => {
-      const current = tx.select().from(schema.photos).where(inShop(ctx.shop.id, id)).get();
-      if (!current) throw notFound('Photo');
-      tx.delete(schema.photos).where(inShop(ctx.shop.id, id)).run();
-      audit(tx, {
-        shopId: ctx.shop.id,
-        userId: ctx.user.id,
-        action: 'delete',
-        entity: 'photo',
-        entityId: id,
-        detail: { jobId: current.jobId, originalName: current.originalName },
-      });
-      return current;
-    });
+    const removed = deletePhoto(db, actorOf(ctx), req.params.id);
     // The row is gone first, so a file left by a failed removal is never served.
     removeQuietly(path.join(uploadsDir, removed.shopId, removed.storedName));
     res.status(204).end();

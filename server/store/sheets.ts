@@ -1,0 +1,268 @@
+import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
+
+import type { Db } from '@/db';
+import { schema } from '@/db';
+import type { z } from 'zod';
+
+import { analyzeRecords, revisionResults } from '@/shared/analysis';
+import type { EngineSpec } from '@/shared/engine';
+import type { ProfileSpec } from '@/shared/profile';
+import type { Revision, RevisionResults, Sheet, sheetCreateSchema, sheetSaveSchema, SheetWithHistory } from '@/shared/sheets';
+
+import { conflict, HttpError, notFound } from '../http';
+import { audit } from './audit';
+import type { Actor, Reader } from './db';
+import { requireEngine } from './engines';
+import { requireJob } from './jobs';
+import { prepared } from './prepared';
+import { findJobProfile } from './profiles';
+
+type SheetRow = typeof schema.specSheets.$inferSelect;
+type RevisionRow = typeof schema.sheetRevisions.$inferSelect;
+
+export function toRevision(row: RevisionRow): Revision {
+  return {
+    id: row.id,
+    sheetId: row.sheetId,
+    number: row.number,
+    state: row.state,
+    label: row.label,
+    spec: row.spec,
+    engine: row.engine,
+    results: row.results,
+    note: row.note,
+    createdBy: row.createdBy,
+    createdAt: row.createdAt.toISOString(),
+    updatedAt: row.updatedAt.toISOString(),
+    issuedAt: row.issuedAt ? row.issuedAt.toISOString() : null,
+  };
+}
+
+function toSheet(row: SheetRow, current: RevisionRow): Sheet {
+  return {
+    id: row.id,
+    shopId: row.shopId,
+    jobId: row.jobId,
+    title: row.title,
+    version: row.version,
+    createdAt: row.createdAt.toISOString(),
+    updatedAt: row.updatedAt.toISOString(),
+    current: toRevision(current),
+  };
+}
+
+function withHistory(row: SheetRow, revisions: RevisionRow[]): SheetWithHistory {
+  const latest = revisions[revisions.length - 1];
+  if (!latest) throw new Error(`Sheet ${row.id} has no revisions`);
+  return { ...toSheet(row, latest), revisions: revisions.map(toRevision) };
+}
+
+const sheetStatements = (db: Reader) =>
+  prepared(db, 'sheets.load', (d) => ({
+    sheet: d
+      .select()
+      .from(schema.specSheets)
+      .where(and(eq(schema.specSheets.id, sql.placeholder('id')), eq(schema.specSheets.shopId, sql.placeholder('shopId'))))
+      .prepare(),
+    revisions: d
+      .select()
+      .from(schema.sheetRevisions)
+      .where(eq(schema.sheetRevisions.sheetId, sql.placeholder('id')))
+      .orderBy(asc(schema.sheetRevisions.number))
+      .prepare(),
+  }));
+
+/** The sheet with every revision, oldest first; a 404 for another shop's sheet. */
+export function loadSheet(db: Reader, shopId: string, id: string): SheetWithHistory {
+  const statements = sheetStatements(db);
+  const sheet = statements.sheet.get({ id, shopId });
+  if (!sheet) throw notFound('Spec sheet');
+  return withHistory(sheet, statements.revisions.all({ id }));
+}
+
+/** The sheet row in the shop, or a 404. */
+export function requireSheetRow(db: Reader, shopId: string, id: string): SheetRow {
+  const sheet = db
+    .select()
+    .from(schema.specSheets)
+    .where(and(eq(schema.specSheets.id, id), eq(schema.specSheets.shopId, shopId)))
+    .get();
+  if (!sheet) throw notFound('Spec sheet');
+  return sheet;
+}
+
+/** The sheet's latest revision (every sheet has one). */
+export function latestRevisionRow(db: Reader, sheetId: string): RevisionRow {
+  const latest = db
+    .select()
+    .from(schema.sheetRevisions)
+    .where(eq(schema.sheetRevisions.sheetId, sheetId))
+    .orderBy(desc(schema.sheetRevisions.number))
+    .limit(1)
+    .get();
+  if (!latest) throw new Error(`Sheet ${sheetId} has no revisions`);
+  return latest;
+}
+
+/** The job's sheets, latest change first, each with its current revision; a 404 for another shop's job. */
+export function jobSheets(db: Reader, shopId: string, jobId: string): Sheet[] {
+  requireJob(db, shopId, jobId);
+  const sheets = db
+    .select()
+    .from(schema.specSheets)
+    .where(and(eq(schema.specSheets.jobId, jobId), eq(schema.specSheets.shopId, shopId)))
+    .orderBy(desc(schema.specSheets.updatedAt), asc(schema.specSheets.id))
+    .all();
+  const latest = new Map<string, RevisionRow>();
+  if (sheets.length) {
+    const revisions = db
+      .select()
+      .from(schema.sheetRevisions)
+      .where(
+        inArray(
+          schema.sheetRevisions.sheetId,
+          sheets.map((s) => s.id),
+        ),
+      )
+      .orderBy(asc(schema.sheetRevisions.number))
+      .all();
+    for (const r of revisions) latest.set(r.sheetId, r);
+  }
+  return sheets.flatMap((s) => {
+    const current = latest.get(s.id);
+    return current ? [toSheet(s, current)] : [];
+  });
+}
+
+/**
+ * The numbers a revision keeps, computed from its profile values and engine snapshot. Calc may
+ * refuse them (a CalcInputError in calc's terms: the route declares the request's names).
+ */
+function computeResults(engine: EngineSpec, spec: ProfileSpec): RevisionResults {
+  return revisionResults(analyzeRecords(engine, spec));
+}
+
+/** A new sheet on the job from one of its profiles, with revision 1 as a draft against the job's engine. */
+export function createSheet(
+  db: Db,
+  who: Actor,
+  jobId: string,
+  body: z.output<typeof sheetCreateSchema>,
+): SheetWithHistory {
+  return db.transaction((tx) => {
+    requireJob(tx, who.shopId, jobId);
+    const engine = requireEngine(tx, who.shopId, jobId);
+    const profile = findJobProfile(tx, who.shopId, jobId, body.profileId);
+    if (!profile) {
+      throw new HttpError(400, 'invalid', "profileId: Choose one of this job's profiles", {
+        profileId: "Choose one of this job's profiles",
+      });
+    }
+    const results = computeResults(engine, profile.spec);
+    const created = tx
+      .insert(schema.specSheets)
+      .values({ id: crypto.randomUUID(), shopId: who.shopId, jobId, title: body.title, createdBy: who.userId })
+      .returning()
+      .get();
+    const revision = tx
+      .insert(schema.sheetRevisions)
+      .values({
+        id: crypto.randomUUID(),
+        sheetId: created.id,
+        number: 1,
+        state: 'draft',
+        label: profile.label,
+        spec: profile.spec,
+        engine,
+        results,
+        note: body.note,
+        createdBy: who.userId,
+      })
+      .returning()
+      .get();
+    audit(tx, {
+      shopId: who.shopId,
+      userId: who.userId,
+      action: 'create',
+      entity: 'sheet',
+      entityId: created.id,
+      detail: { jobId, profileId: profile.id, revision: 1 },
+    });
+    return withHistory(created, [revision]);
+  });
+}
+
+/**
+ * Saves a sheet: edits the draft revision in place, or writes the next revision when the
+ * latest is issued (or `newRevision` asks for one), leaving the earlier one as it was.
+ */
+export function saveSheet(db: Db, who: Actor, id: string, { version, refreshEngine, newRevision, ...changes }: z.output<typeof sheetSaveSchema>): SheetWithHistory {
+  return db.transaction((tx) => {
+    const current = tx
+      .select()
+      .from(schema.specSheets)
+      .where(and(eq(schema.specSheets.id, id), eq(schema.specSheets.shopId, who.shopId)))
+      .get();
+    if (!current) throw notFound('Spec sheet');
+    if (current.version !== version) {
+      throw conflict(
+        `Someone saved this spec sheet after you opened it (version ${current.version}, yours ${version}). Reload to see their changes, then edit again.`,
+      );
+    }
+    const latest = latestRevisionRow(tx, id);
+
+    const label = changes.label ?? latest.label;
+    const spec = changes.spec ?? latest.spec;
+    const note = changes.note ?? latest.note;
+    const engine = refreshEngine ? requireEngine(tx, who.shopId, current.jobId) : latest.engine;
+    const results = computeResults(engine, spec);
+
+    // An issued revision is the grinder's contract: never touch it, write the next one.
+    const startNext = latest.state === 'issued' || newRevision === true;
+    const saved = startNext
+      ? tx
+          .insert(schema.sheetRevisions)
+          .values({
+            id: crypto.randomUUID(),
+            sheetId: id,
+            number: latest.number + 1,
+            state: 'draft',
+            label,
+            spec,
+            engine,
+            results,
+            note,
+            createdBy: who.userId,
+          })
+          .returning()
+          .get()
+      : tx
+          .update(schema.sheetRevisions)
+          .set({ label, spec, engine, results, note })
+          .where(and(eq(schema.sheetRevisions.id, latest.id), eq(schema.sheetRevisions.state, 'draft')))
+          .returning()
+          .get();
+    if (!saved) throw conflict('This revision was issued while saving. Reload and try again.');
+
+    const bumped = tx
+      .update(schema.specSheets)
+      .set({ version: version + 1 })
+      .where(and(eq(schema.specSheets.id, id), eq(schema.specSheets.version, version)))
+      .returning()
+      .get();
+    if (!bumped) throw conflict('This spec sheet changed while saving. Reload and try again.');
+    audit(tx, {
+      shopId: who.shopId,
+      userId: who.userId,
+      action: startNext ? 'revise' : 'update',
+      entity: 'sheet',
+      entityId: id,
+      detail: {
+        revision: saved.number,
+        fields: [...Object.keys(changes), ...(refreshEngine ? ['engine'] : [])],
+        version: bumped.version,
+      },
+    });
+    return loadSheet(tx, who.shopId, id);
+  });
+}
