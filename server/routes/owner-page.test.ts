@@ -1,14 +1,13 @@
 import { createHash, randomBytes } from 'node:crypto';
 
-import Stripe from 'stripe';
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { schema } from '@/db';
-import { startLocalPayments } from '@/server/payments';
 import { offerChecksum, revisionChecksum } from '@/shared/checksum';
 import type { OwnerView } from '@/shared/owner';
-import { Client, createTestApp, makeJobWithEngine, memberWithRole, makeShop, signUp, verifyEmail, type TestApp } from '@/tests/fixtures';
+import { Client, createTestApp, makeShop, memberWithRole, signUp, verifyEmail, type TestApp } from '@/tests/fixtures';
+import { ownerPageKit } from '@/tests/owner-page-kit';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -16,51 +15,7 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-const INTERNAL_FINDINGS = 'INTERNAL: lifter bore 3E scored, bill the core charge twice';
-const INTERNAL_SHEET_NOTE = 'INTERNAL: grinder owes us for the last core';
-
-/** A job with internal findings, a sheet, an owner page with one option, and a share link. */
-async function sharedJob(name = 'Owner shop') {
-  const s = await makeJobWithEngine(t, name);
-  const builder = s.founder;
-  const job = (await builder.get(`/api/jobs/${s.jobId}`)).body.job;
-  expect((await builder.patch(`/api/jobs/${s.jobId}`, { version: job.version, findings: INTERNAL_FINDINGS })).status).toBe(200);
-  const sheet = (await builder.post(`/api/jobs/${s.jobId}/sheets`, { title: 'Towing regrind', profileId: s.profileId, note: INTERNAL_SHEET_NOTE })).body.sheet;
-  const page = await builder.put(`/api/jobs/${s.jobId}/owner`, { version: 0, whatFailed: 'A lifter stopped rolling and wore the cam lobe.' });
-  expect(page.status).toBe(200);
-  const option = await builder.post(`/api/jobs/${s.jobId}/owner/options`, {
-    sheetId: sheet.id,
-    title: 'Towing regrind',
-    ownerNote: 'More pull at low speed.',
-    priceCents: 76_000,
-    depositCents: 22_500,
-    leadTimeDays: 8,
-  });
-  expect(option.status).toBe(201);
-  const link = await builder.post(`/api/jobs/${s.jobId}/share-links`, {});
-  expect(link.status).toBe(201);
-  return { ...s, builder, sheet, desk: option.body.desk, token: link.body.token as string, linkId: link.body.link.id as string };
-}
-
-const owner = () => new Client(t.url);
-
-function webhookBody(sessionId: string, eventId = `evt_test_${randomBytes(8).toString('hex')}`) {
-  return JSON.stringify({
-    id: eventId,
-    object: 'event',
-    type: 'checkout.session.completed',
-    data: { object: { id: sessionId, object: 'checkout.session', payment_status: 'paid', amount_total: 22_500, currency: 'usd' } },
-  });
-}
-
-async function postWebhook(payload: string, signature: string) {
-  const res = await fetch(`${t.url}/api/payments/webhook`, { method: 'POST', headers: { 'content-type': 'application/json', 'stripe-signature': signature }, body: payload });
-  return { status: res.status, body: (await res.json()) as Record<string, any> };
-}
-
-const signer = new Stripe('sk_test_signing_only');
-/** Signed as the payment service signs: with the secret this start of the local fake made up, unless told. */
-const sign = (payload: string, secret: string = t.payments.webhookSecret) => signer.webhooks.generateTestHeaderString({ payload, secret });
+const { INTERNAL_FINDINGS, INTERNAL_SHEET_NOTE, sharedJob, owner } = ownerPageKit(() => t);
 
 describe('share links', () => {
   it('are 256-bit random tokens stored only as a hash', async () => {
@@ -206,140 +161,6 @@ describe('approval', () => {
   });
 });
 
-describe('deposit payment', () => {
-  async function approved(name: string) {
-    const s = await sharedJob(name);
-    const o = owner();
-    const option = ((await o.get(`/api/share/${s.token}`)).body.view as OwnerView).options[0]!;
-    expect((await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, offer: option.offer, name: 'Test Owner', agree: true })).status).toBe(201);
-    return { ...s, o };
-  }
-
-  it('goes through the local fake: checkout, pay page, signed webhook, paid on the job', async () => {
-    const s = await approved('Pay shop');
-    expect((await s.o.post(`/api/share/${s.token}/deposit/confirm`, { sessionId: 'cs_nothing' })).status).toBe(404);
-    const start = await s.o.post(`/api/share/${s.token}/deposit`);
-    expect(start.status).toBe(201);
-    const payUrl = new URL(start.body.url);
-    const page = await fetch(payUrl);
-    expect(await page.text()).toContain('$225.00');
-    // Paying sends the signed event and returns the owner to the share page.
-    const paid = await fetch(payUrl, { method: 'POST', redirect: 'manual' });
-    expect(paid.status).toBe(303);
-    const back = new URL(paid.headers.get('location')!);
-    // The token never goes to the payment service: the owner comes back through /share/back.
-    expect(back.pathname).toBe('/share/back');
-    const session = t.paymentService.sessions.get(back.searchParams.get('deposit')!)!;
-    expect(JSON.stringify(session)).not.toContain(s.token);
-    const sessionId = back.searchParams.get('deposit')!;
-
-    const view = (await s.o.get(`/api/share/${s.token}`)).body.view as OwnerView;
-    expect(view.payment).toMatchObject({ state: 'paid', amountCents: 22_500, currency: 'usd' });
-    expect(new Date(view.payment!.paidAt!).getTime()).toBeGreaterThan(Date.now() - 60_000);
-    const confirm = await s.o.post(`/api/share/${s.token}/deposit/confirm`, { sessionId });
-    expect(confirm.body.payment.state).toBe('paid');
-    const desk = (await s.builder.get(`/api/jobs/${s.jobId}/owner`)).body.desk;
-    expect(desk.payments[0]).toMatchObject({ state: 'paid', amountCents: 22_500 });
-    expect(t.db.select().from(schema.outbox).all().some((m) => m.to === s.builder.email && m.subject.startsWith('Deposit paid: $225.00'))).toBe(true);
-    expect((await s.o.post(`/api/share/${s.token}/deposit`)).status).toBe(409);
-  });
-
-  it('needs an approval first', async () => {
-    const s = await sharedJob('Unapproved shop');
-    expect((await owner().post(`/api/share/${s.token}/deposit`)).status).toBe(409);
-  });
-
-  it('reconciles on return with a retrieve when the webhook has not arrived', async () => {
-    const s = await approved('Return shop');
-    const start = await s.o.post(`/api/share/${s.token}/deposit`);
-    const sessionId = new URL(start.body.url).pathname.split('/').pop()!;
-    // The service marks it paid but the event never reaches the app.
-    const session = t.paymentService.sessions.get(sessionId)!;
-    Object.assign(session, { status: 'complete', payment_status: 'paid' });
-    expect(((await s.o.get(`/api/share/${s.token}`)).body.view as OwnerView).payment?.state).toBe('open');
-    const confirm = await s.o.post(`/api/share/${s.token}/deposit/confirm`, { sessionId });
-    expect(confirm.body.payment).toMatchObject({ state: 'paid', amountCents: 22_500 });
-  });
-});
-
-describe('payment webhook', () => {
-  async function openPayment(name: string) {
-    const s = await sharedJob(name);
-    const o = owner();
-    const option = ((await o.get(`/api/share/${s.token}`)).body.view as OwnerView).options[0]!;
-    await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, offer: option.offer, name: 'Test Owner', agree: true });
-    const start = await o.post(`/api/share/${s.token}/deposit`);
-    const sessionId = new URL(start.body.url).pathname.split('/').pop()!;
-    const payment = () => t.db.select().from(schema.payments).where(eq(schema.payments.checkoutSessionId, sessionId)).get()!;
-    return { sessionId, payment };
-  }
-
-  it('accepts a valid signature (generateTestHeaderString) and marks the payment paid', async () => {
-    const { sessionId, payment } = await openPayment('Hook ok shop');
-    const payload = webhookBody(sessionId);
-    const res = await postWebhook(payload, sign(payload));
-    expect(res).toEqual({ status: 200, body: { received: true, duplicate: false } });
-    expect(payment()).toMatchObject({ state: 'paid', amountCents: 22_500 });
-  });
-
-  it('rejects a tampered body, a wrong secret or a missing header with 400 and changes nothing', async () => {
-    const { sessionId, payment } = await openPayment('Hook bad shop');
-    const payload = webhookBody(sessionId);
-    const tampered = payload.replace('22500', '1');
-    for (const [body, signature] of [
-      [tampered, sign(payload)],
-      [payload, sign(payload, 'whsec_someone_else')],
-      [payload, 't=1,v1=00'],
-    ] as const) {
-      const res = await postWebhook(body, signature);
-      expect(res.status).toBe(400);
-      expect(res.body.error.code).toBe('bad_signature');
-    }
-    const missing = await fetch(`${t.url}/api/payments/webhook`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: payload });
-    expect(missing.status).toBe(400);
-    expect(payment().state).toBe('open');
-    expect(t.db.select().from(schema.paymentEvents).all().some((e) => payload.includes(e.id))).toBe(false);
-  });
-
-  it('answers a signed event it cannot read with 400 naming the field, never a server error, and writes nothing', async () => {
-    const { sessionId, payment } = await openPayment('Hook shape shop');
-    const event = JSON.parse(webhookBody(sessionId, 'evt_test_odd_shape')) as { data: { object: Record<string, unknown> } } & Record<string, unknown>;
-    const session = event.data.object;
-    const odd: [string, unknown][] = [
-      ['(body)', ''],
-      ['(body)', [1, 2]],
-      ['id', { ...event, id: undefined }],
-      ['id', { ...event, id: 42 }],
-      ['type', { ...event, type: null }],
-      ['data', { ...event, data: 'paid' }],
-      ['data.object.id', { ...event, data: { object: { ...session, id: undefined } } }],
-      ['data.object.amount_total', { ...event, data: { object: { ...session, amount_total: '22500' } } }],
-      ['data.object.amount_total', { ...event, data: { object: { ...session, amount_total: -1 } } }],
-      ['data.object.currency', { ...event, data: { object: { ...session, currency: 'dollars' } } }],
-    ];
-    for (const [field, body] of odd) {
-      const payload = JSON.stringify(body);
-      const res = await postWebhook(payload, sign(payload));
-      expect(res.status, payload).toBe(400);
-      expect(Object.keys(res.body.error.fields), payload).toContain(field);
-    }
-    expect(payment().state).toBe('open');
-    expect(t.db.select().from(schema.paymentEvents).all().some((e) => e.id === 'evt_test_odd_shape')).toBe(false);
-  });
-
-  it('ignores a replayed event', async () => {
-    const { sessionId, payment } = await openPayment('Hook replay shop');
-    const payload = webhookBody(sessionId, 'evt_test_replayed_once');
-    expect((await postWebhook(payload, sign(payload))).body.duplicate).toBe(false);
-    const paidAt = payment().paidAt;
-    const auditRows = t.db.select().from(schema.auditLog).where(eq(schema.auditLog.entityId, payment().id)).all().length;
-    const replay = await postWebhook(payload, sign(payload));
-    expect(replay).toEqual({ status: 200, body: { received: true, duplicate: true } });
-    expect(payment().paidAt).toEqual(paidAt);
-    expect(t.db.select().from(schema.auditLog).where(eq(schema.auditLog.entityId, payment().id)).all().length).toBe(auditRows);
-  });
-});
-
 describe('an owner with an account', () => {
   it('finds the summary sent to their e-mail, approves it signed in, and sees nothing else', async () => {
     const s = await sharedJob('Account owner shop');
@@ -452,110 +273,5 @@ describe('the approval binds the whole offer (finding 4)', () => {
     for (const change of [{ priceCents: 50_001 }, { depositCents: 0 }, { currency: 'cad' }, { leadTimeDays: 8 }, { title: 'Stock regrind ' }, { checksum: '0123456789ac' }]) {
       expect(offerChecksum({ ...terms, ...change })).not.toBe(offerChecksum(terms));
     }
-  });
-});
-
-describe('deposits that cannot be forged or paid twice (findings 2 and 3)', () => {
-  async function approvedJob(name: string) {
-    const s = await sharedJob(name);
-    const o = owner();
-    const option = ((await o.get(`/api/share/${s.token}`)).body.view as OwnerView).options[0]!;
-    expect((await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, offer: option.offer, name: 'Test Owner', agree: true })).status).toBe(201);
-    const rows = () => t.db.select().from(schema.payments).where(eq(schema.payments.jobId, s.jobId)).all();
-    return { ...s, o, rows };
-  }
-  const sessionOf = (url: string) => new URL(url).pathname.split('/').pop()!;
-
-  it('makes up a new signing secret and API key on every start and listens only on the loopback interface', async () => {
-    const other = await startLocalPayments({ publicUrl: t.url });
-    try {
-      expect(other.payments.webhookSecret).not.toBe(t.payments.webhookSecret);
-      expect(other.payments.webhookSecret.length).toBeGreaterThanOrEqual(32);
-      expect(new URL(other.origin).hostname).toBe('127.0.0.1');
-      // A secret from another start does not sign for this app.
-      const { sessionId } = await (async () => {
-        const s = await approvedJob('Other secret shop');
-        return { sessionId: sessionOf((await s.o.post(`/api/share/${s.token}/deposit`)).body.url) };
-      })();
-      const payload = webhookBody(sessionId);
-      expect((await postWebhook(payload, sign(payload, other.payments.webhookSecret))).status).toBe(400);
-    } finally {
-      await other.service.close();
-    }
-  });
-
-  it('refuses and records a signed event whose amount or currency is not the deposit, and marks nothing paid', async () => {
-    const s = await approvedJob('Mismatch shop');
-    const sessionId = sessionOf((await s.o.post(`/api/share/${s.token}/deposit`)).body.url);
-    const forged = JSON.stringify({
-      id: 'evt_test_one_unit_elsewhere',
-      object: 'event',
-      type: 'checkout.session.completed',
-      data: { object: { id: sessionId, object: 'checkout.session', payment_status: 'paid', amount_total: 1, currency: 'jpy' } },
-    });
-    const res = await postWebhook(forged, sign(forged));
-    expect(res.status).toBe(400);
-    expect(res.body.error.code).toBe('amount_mismatch');
-    expect(Object.keys(res.body.error.fields).sort()).toEqual(['data.object.amount_total', 'data.object.currency']);
-    expect(s.rows()).toMatchObject([{ state: 'open', amountCents: 22_500, currency: 'usd', paidAt: null }]);
-    expect(t.db.select().from(schema.paymentEvents).where(eq(schema.paymentEvents.id, 'evt_test_one_unit_elsewhere')).get()?.outcome).toBe('refused');
-    const refusal = t.db.select().from(schema.auditLog).where(eq(schema.auditLog.entityId, s.rows()[0]!.id)).all().find((a) => a.action === 'refuse');
-    expect(refusal?.detail).toMatchObject({ expected: { amountCents: 22_500, currency: 'usd' }, reported: { amountCents: 1, currency: 'jpy' } });
-    expect(((await s.o.get(`/api/share/${s.token}`)).body.view as OwnerView).payment?.state).toBe('open');
-  });
-
-  it('answers the same open session to a second tab, even asked at the same moment', async () => {
-    const s = await approvedJob('Two tabs shop');
-    const before = t.paymentService.sessions.size;
-    const [first, second] = await Promise.all([s.o.post(`/api/share/${s.token}/deposit`), owner().post(`/api/share/${s.token}/deposit`)]);
-    const answered = [first, second].filter((r) => r.status < 300);
-    expect(answered.length).toBeGreaterThanOrEqual(1);
-    // The one that lost the race is told to try again; it never opens a second session.
-    for (const r of [first, second].filter((r) => r.status >= 300)) expect(r.status).toBe(409);
-    const again = await owner().post(`/api/share/${s.token}/deposit`);
-    expect(again.status).toBe(200);
-    expect(again.body.url).toBe(answered[0]!.body.url);
-    expect(t.paymentService.sessions.size - before).toBe(1);
-    expect(s.rows()).toHaveLength(1);
-    // Paid in one tab, the other tab's button is refused.
-    await t.paymentService.pay(sessionOf(again.body.url));
-    expect((await owner().post(`/api/share/${s.token}/deposit`)).status).toBe(409);
-    expect(s.rows().filter((p) => p.state === 'paid')).toHaveLength(1);
-  });
-
-  it('opens a new session when the open one has expired', async () => {
-    const s = await approvedJob('Expired session shop');
-    const first = (await s.o.post(`/api/share/${s.token}/deposit`)).body.url as string;
-    await t.payments.stripe.checkout.sessions.expire(sessionOf(first));
-    const second = await s.o.post(`/api/share/${s.token}/deposit`);
-    expect(second.status).toBe(201);
-    expect(second.body.url).not.toBe(first);
-    expect(s.rows().map((p) => p.state).sort()).toEqual(['expired', 'open']);
-  });
-
-  it('refunds a second paid session through the payment service and counts the deposit once', async () => {
-    const s = await approvedJob('Paid twice shop');
-    const firstUrl = (await s.o.post(`/api/share/${s.token}/deposit`)).body.url as string;
-    // An older tab's session, opened before this one and paid after it (as a late payment page would).
-    const approval = t.db.select().from(schema.ownerApprovals).where(eq(schema.ownerApprovals.jobId, s.jobId)).get()!;
-    const late = await t.payments.stripe.checkout.sessions.create({
-      mode: 'payment',
-      success_url: `${t.url}/share/back`,
-      line_items: [{ quantity: 1, price_data: { currency: 'usd', unit_amount: 22_500, product_data: { name: 'Deposit' } } }],
-    });
-    t.db.insert(schema.payments).values({ id: crypto.randomUUID(), shopId: s.shopId, jobId: s.jobId, approvalId: approval.id, checkoutSessionId: late.id, amountCents: 22_500, currency: 'usd', state: 'expired' }).run();
-    await t.paymentService.pay(sessionOf(firstUrl));
-    await t.paymentService.pay(late.id);
-    const rows = s.rows();
-    expect(rows.filter((p) => p.state === 'paid')).toHaveLength(1);
-    const second = rows.find((p) => p.checkoutSessionId === late.id)!;
-    expect(second.state).toBe('refunded');
-    const refund = [...t.paymentService.refunds.values()].find((r) => r.id === second.refundId);
-    expect(refund).toMatchObject({ amount: 22_500, currency: 'usd', payment_intent: second.paymentIntentId });
-    expect(((await s.o.get(`/api/share/${s.token}`)).body.view as OwnerView).payment).toMatchObject({ state: 'paid', amountCents: 22_500 });
-    const desk = (await s.builder.get(`/api/jobs/${s.jobId}/owner`)).body.desk;
-    expect(desk.payments.map((p: { state: string }) => p.state).sort()).toEqual(['paid', 'refunded']);
-    // One "paid" mail to the builder, not two.
-    expect(t.db.select().from(schema.outbox).all().filter((m) => m.to === s.builder.email && m.subject.startsWith('Deposit paid'))).toHaveLength(1);
   });
 });
