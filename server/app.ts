@@ -30,6 +30,7 @@ import { profilesRouter } from './routes/profiles';
 import { sheetsRouter } from './routes/sheets';
 import { teamRouter } from './routes/team';
 import { shopLimitsRouter } from './routes/shop-limits';
+import { pingDatabase } from './store/db';
 import { authBodyParser, defaultAuthRateLimit, jsonBodyLimit, requireSameOrigin, securityHeaders, setClientAddress, withRateLimitAnswers, type AuthRateLimit } from './security';
 
 export type CreateAppOptions = {
@@ -94,7 +95,7 @@ export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLi
   app.use('/api', express.json({ limit: jsonBodyLimit }));
 
   app.get('/api/health', (_req, res) => {
-    db.$client.prepare('select 1').get();
+    pingDatabase(db);
     res.json({ ok: true });
   });
   // What kind of server this is, for the app's demo banner: no secrets, no account needed.

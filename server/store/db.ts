@@ -7,3 +7,8 @@ export type Writer = Pick<Db, 'select' | 'insert' | 'update' | 'delete'>;
 
 /** Who writes, in which shop: the scope of every shop record and the audit row's who. */
 export type Actor = { shopId: string; userId: string };
+
+/** Answers when the database does (the health check). */
+export function pingDatabase(db: Db) {
+  db.$client.prepare('select 1').get();
+}
