@@ -2,9 +2,16 @@
  * Unit conversion at the edge of calc. The kernel works in inches, cc, lbf
  * and lbf/in; the UI may show mm, cm³, N and N/mm. These helpers use mathjs
  * units and belong in forms and formatters, never inside the math.
+ *
+ * mathjs is built here with `create` from the unit function's factories alone, so the web
+ * export's tree shaking keeps only the unit code (and what it needs) in this chunk.
  */
-import { unit } from 'mathjs';
+import { create, unitDependencies } from 'mathjs';
 import { requireFinite } from './errors';
+
+// mathjs declares its dependency maps as entries of a Record, so under noUncheckedIndexedAccess
+// they read as possibly undefined; the export always exists.
+const { unit } = create({ unitDependencies: unitDependencies! });
 
 function convert(field: string, value: number, from: string, to: string): number {
   return unit(requireFinite(field, value), from).toNumber(to);

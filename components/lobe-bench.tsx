@@ -12,7 +12,7 @@ import type { ProfileSpec } from '@/shared/profile';
 import { Button } from './button';
 import { ChoiceGroup } from './choice-group';
 import { analyzeLobes, type LobeRow } from './lobe-analysis';
-import { LobeOverlay } from './lobe-overlay';
+import { LobeOverlay } from './plots';
 
 type LobeBenchProps = {
   jobId: string;

@@ -11,7 +11,7 @@ import { Cautions } from '@/components/cautions';
 import { CheckList, StatusBadge } from '@/components/check-list';
 import { ChoiceGroup } from '@/components/choice-group';
 import { CompareTable } from '@/components/compare-table';
-import { LiftPlot } from '@/components/lift-plot';
+import { LiftPlot } from '@/components/plots';
 import { ProfileDraftEditor } from '@/components/profile-draft-editor';
 import { ProfilePicker } from '@/components/profile-picker';
 import { EmptyState, ErrorNotice, Pending } from '@/components/query-state';

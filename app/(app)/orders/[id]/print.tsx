@@ -2,7 +2,7 @@ import { Link, useLocalSearchParams, type Href } from 'expo-router';
 import { useMemo } from 'react';
 import { ScrollView, StyleSheet, Text, View } from 'react-native';
 
-import { LiftPlot } from '@/components/lift-plot';
+import { LiftPlot } from '@/components/plots';
 import { NoPrint } from '@/components/no-print';
 import { PrintButton } from '@/components/print-button';
 import { ErrorNotice, Pending } from '@/components/query-state';
