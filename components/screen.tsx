@@ -4,6 +4,9 @@ import { ScrollView, StyleSheet, Text, View } from 'react-native';
 
 import { breakpoints, colors, space, type as typeScale } from '@/constants/theme';
 
+/** A link back up, for example to the list this record is in. */
+export type BackLink = { href: Href; label: string };
+
 type ScreenProps = {
   title: string;
   /** A short line under the title: the shop, the record, what to do here. */
@@ -11,7 +14,7 @@ type ScreenProps = {
   /** Controls at the right of the title (or under it on a phone). */
   actions?: ReactNode;
   /** A link back up, for example to the list this record is in. */
-  back?: { href: Href; label: string };
+  back?: BackLink;
   children: ReactNode;
   testID?: string;
 };

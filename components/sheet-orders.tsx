@@ -1,4 +1,4 @@
-import { Link, type Href } from 'expo-router';
+import { Link } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, Text, TextInput, View } from 'react-native';
 
@@ -150,7 +150,7 @@ function OrderRow({ order, canMove }: { order: Order; canMove: boolean }) {
         </Text>
       ) : null}
       {canMove ? <OrderMoves order={order} side="builder" /> : null}
-      <Link href={{ pathname: '/orders/[id]', params: { id: order.id } } as Href} style={styles.link} testID={`open-order-${order.revisionNumber}`}>
+      <Link href={{ pathname: '/orders/[id]', params: { id: order.id } }} style={styles.link} testID={`open-order-${order.revisionNumber}`}>
         Open the order page
       </Link>
     </View>

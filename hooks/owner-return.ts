@@ -9,9 +9,10 @@ export function rememberOwnerPage(path: string) {
   if (typeof sessionStorage !== 'undefined') sessionStorage.setItem(KEY, path);
 }
 
-/** The remembered share page, if this tab opened the payment page from one. */
-export function rememberedOwnerPage(): string | null {
+/** The token of the remembered share page, if this tab opened the payment page from one. */
+export function rememberedOwnerToken(): string | null {
   if (typeof sessionStorage === 'undefined') return null;
   const path = sessionStorage.getItem(KEY);
-  return path && /^\/share\/[A-Za-z0-9_-]+$/.test(path) ? path : null;
+  const match = path ? /^\/share\/([A-Za-z0-9_-]+)$/.exec(path) : null;
+  return match?.[1] ?? null;
 }

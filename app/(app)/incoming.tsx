@@ -1,4 +1,4 @@
-import { Link, type Href } from 'expo-router';
+import { Link } from 'expo-router';
 import { StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 
 import { LoadMore } from '@/components/load-more';
@@ -43,7 +43,7 @@ function IncomingCard({ order, wide }: { order: Order; wide: boolean }) {
   const age = formatAge(order.issuedAt);
   return (
     <View role="listitem" style={[styles.cardWrap, wide && styles.cardHalf]}>
-      <Link href={{ pathname: '/orders/[id]', params: { id: order.id } } as Href} style={styles.card} testID={`incoming-${order.id}`}>
+      <Link href={{ pathname: '/orders/[id]', params: { id: order.id } }} style={styles.card} testID={`incoming-${order.id}`}>
         <View style={styles.cardInner}>
           <View style={styles.head}>
             <OrderStageChip stage={order.stage} />

@@ -3,13 +3,13 @@ import { StyleSheet, Text, View } from 'react-native';
 
 import { ownerType } from '@/components/owner-type';
 import { colors, space } from '@/constants/theme';
-import { rememberedOwnerPage } from '@/hooks/owner-return';
+import { rememberedOwnerToken } from '@/hooks/owner-return';
 
 /** Back from the payment page: on to the summary this tab came from, with the payment session to check. */
 export default function OwnerReturnScreen() {
   const { deposit } = useLocalSearchParams<{ deposit?: string }>();
-  const page = rememberedOwnerPage();
-  if (page) return <Redirect href={deposit ? `${page}?deposit=${encodeURIComponent(deposit)}` : page} />;
+  const token = rememberedOwnerToken();
+  if (token) return <Redirect href={{ pathname: '/share/[token]', params: deposit ? { token, deposit } : { token } }} />;
   return (
     <View style={styles.page} testID="owner-return">
       <Stack.Screen options={{ title: 'Back from the payment page' }} />

@@ -1,5 +1,5 @@
 import { useAtom } from 'jotai';
-import { useLocalSearchParams, type Href } from 'expo-router';
+import { useLocalSearchParams } from 'expo-router';
 import { useMemo, useState } from 'react';
 import { StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 
@@ -15,7 +15,7 @@ import { LiftPlot } from '@/components/lift-plot';
 import { ProfileDraftEditor } from '@/components/profile-draft-editor';
 import { ProfilePicker } from '@/components/profile-picker';
 import { EmptyState, ErrorNotice, Pending } from '@/components/query-state';
-import { Screen, Section } from '@/components/screen';
+import { Screen, Section, type BackLink } from '@/components/screen';
 import { breakpoints, colors, space, type as typeScale } from '@/constants/theme';
 import { ApiError } from '@/hooks/api';
 import { compareSelectionAtom, plotModeAtom, profileDraftsAtom } from '@/hooks/compare-state';
@@ -50,7 +50,7 @@ export default function Compare() {
   const job = useJobQuery(jobId);
   const engine = useEngineQuery(jobId);
   const profiles = useJobProfilesQuery(jobId);
-  const back = { href: { pathname: '/jobs/[id]', params: { id: jobId } } as Href, label: 'Back to the job' };
+  const back: BackLink = { href: { pathname: '/jobs/[id]', params: { id: jobId } }, label: 'Back to the job' };
 
   if (job.isPending || engine.isPending || profiles.isPending) return <Pending label="Loading the engine and profiles…" />;
   const failed = job.error ?? engine.error ?? profiles.error;
@@ -85,7 +85,7 @@ function CompareView({
   vehicle: string;
   engine: EngineSpec;
   profiles: Profile[];
-  back: { href: Href; label: string };
+  back: BackLink;
 }) {
   const wide = useWindowDimensions().width >= breakpoints.wide;
   const canWrite = roleAllows(useMeQuery().data?.activeShop?.role, { sheet: ['write'] });

@@ -1,4 +1,4 @@
-import { useLocalSearchParams, type Href } from 'expo-router';
+import { useLocalSearchParams } from 'expo-router';
 import { StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 
 import { Button } from '@/components/button';
@@ -9,7 +9,7 @@ import { OrderStageChip } from '@/components/order-stage-chip';
 import { OrderThread } from '@/components/order-thread';
 import { ErrorNotice, Pending } from '@/components/query-state';
 import { RevisionView } from '@/components/revision-view';
-import { Screen, Section } from '@/components/screen';
+import { Screen, Section, type BackLink } from '@/components/screen';
 import { formatCents, formatDateTime } from '@/constants/format';
 import { breakpoints, colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
 import { ApiError } from '@/hooks/api';
@@ -22,7 +22,7 @@ export default function OrderPage() {
   const { id } = useLocalSearchParams<{ id: string }>();
   const order = useOrderQuery(id);
   const side = orderSide(useMeQuery().data?.activeShop?.role);
-  const back = side === 'grinder' ? { href: '/incoming' as Href, label: 'Back to incoming' } : undefined;
+  const back: BackLink | undefined = side === 'grinder' ? { href: '/incoming', label: 'Back to incoming' } : undefined;
   if (order.isPending) return <Pending label="Loading the grind order…" />;
   if (order.isError) {
     const gone = order.error instanceof ApiError && order.error.status === 404;
@@ -35,14 +35,14 @@ export default function OrderPage() {
   return <OrderView order={order.data} side={side} back={back} />;
 }
 
-function OrderView({ order, side, back }: { order: OrderDetail; side: OrderSide | null; back?: { href: Href; label: string } }) {
+function OrderView({ order, side, back }: { order: OrderDetail; side: OrderSide | null; back?: BackLink }) {
   const wide = useWindowDimensions().width >= breakpoints.wide;
   const r = order.revision;
   const otherSide = side === 'grinder' ? order.repairShop.name : order.grinderShop.name;
   const waitingOn = orderMoves[order.stage].find((m) => m.by !== side);
   const jobId = useSheetQuery(order.sheetId, side === 'builder').data?.jobId;
   const sheetBack = jobId
-    ? { href: { pathname: '/jobs/[id]/sheets/[sheetId]', params: { id: jobId, sheetId: order.sheetId } } as Href, label: 'Back to the spec sheet' }
+    ? ({ href: { pathname: '/jobs/[id]/sheets/[sheetId]', params: { id: jobId, sheetId: order.sheetId } }, label: 'Back to the spec sheet' } satisfies BackLink)
     : back;
 
   const identity = (

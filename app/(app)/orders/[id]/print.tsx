@@ -1,4 +1,4 @@
-import { Link, useLocalSearchParams, type Href } from 'expo-router';
+import { Link, useLocalSearchParams } from 'expo-router';
 import { useMemo } from 'react';
 import { ScrollView, StyleSheet, Text, View } from 'react-native';
 
@@ -35,7 +35,7 @@ function PrintSheet({ order }: { order: OrderDetail }) {
     <View style={styles.sheet}>
       <NoPrint>
         <View style={styles.tools}>
-          <Link href={{ pathname: '/orders/[id]', params: { id: order.id } } as Href} style={styles.back} testID="print-back">
+          <Link href={{ pathname: '/orders/[id]', params: { id: order.id } }} style={styles.back} testID="print-back">
             ← Back to the order
           </Link>
           <PrintButton />

@@ -1,4 +1,4 @@
-import { useLocalSearchParams, type Href } from 'expo-router';
+import { useLocalSearchParams } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, Text, TextInput, useWindowDimensions, View } from 'react-native';
 
@@ -7,7 +7,7 @@ import { StatusBadge } from '@/components/check-list';
 import { ChoiceGroup } from '@/components/choice-group';
 import { ErrorNotice, Pending } from '@/components/query-state';
 import { RevisionView } from '@/components/revision-view';
-import { Screen, Section } from '@/components/screen';
+import { Screen, Section, type BackLink } from '@/components/screen';
 import { IssuePanel, SheetOrders } from '@/components/sheet-orders';
 import { formatDateTime } from '@/constants/format';
 import { breakpoints, colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
@@ -21,7 +21,7 @@ import type { Revision, SheetWithHistory } from '@/shared/sheets';
 export default function SheetPage() {
   const { id: jobId, sheetId } = useLocalSearchParams<{ id: string; sheetId: string }>();
   const sheet = useSheetQuery(sheetId);
-  const back = { href: { pathname: '/jobs/[id]', params: { id: jobId } } as Href, label: 'Back to the job' };
+  const back: BackLink = { href: { pathname: '/jobs/[id]', params: { id: jobId } }, label: 'Back to the job' };
   if (sheet.isPending) return <Pending label="Loading the spec sheet…" />;
   if (sheet.isError) {
     const gone = sheet.error instanceof ApiError && sheet.error.status === 404;
@@ -34,7 +34,7 @@ export default function SheetPage() {
   return <SheetView sheet={sheet.data} back={back} />;
 }
 
-function SheetView({ sheet, back }: { sheet: SheetWithHistory; back: { href: Href; label: string } }) {
+function SheetView({ sheet, back }: { sheet: SheetWithHistory; back: BackLink }) {
   const wide = useWindowDimensions().width >= breakpoints.wide;
   const role = useMeQuery().data?.activeShop?.role;
   const canWrite = roleAllows(role, { sheet: ['write'] });
