@@ -3,7 +3,7 @@ import { ScrollView, StyleSheet, Text, View } from 'react-native';
 
 import type { ProfileAnalysis } from '@/calc/analysis';
 import { colors, fonts, seriesColors, space, type as typeScale } from '@/constants/theme';
-import { compareRows, delta, formatValue, type Trend } from '@/shared/compare-rows';
+import { compareRows, delta, formatValue, type Trend } from '@/lib/compare-rows';
 
 const trendMark: Record<Trend, string> = { up: '▲', down: '▼', same: '' };
 

@@ -3,7 +3,7 @@ import { StyleSheet, Text, View } from 'react-native';
 import { centerlineFromReadings, degreeCam } from '@/calc/degree';
 import { isCalcInputError } from '@/calc/errors';
 import { colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
-import { parseNumberText } from '@/shared/number-draft';
+import { parseNumberText } from '@/lib/number-draft';
 
 type DegreeReadoutProps = {
   stopBefore: string;

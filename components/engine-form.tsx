@@ -13,16 +13,16 @@ import {
   engineNumberSpecs as specs,
   type EngineDraft,
   type EngineNumberKey,
-} from '@/shared/engine-fields';
+} from '@/lib/engine-fields';
 
-import { Button } from './button';
-import { ChoiceGroup } from './choice-group';
-import { DraftField, draftResolver } from './number-field';
-import { ErrorNotice, Pending } from './query-state';
-import { outcomeOfError, SaveNotice, type SaveOutcome } from './save-notice';
-import { Section } from './screen';
-import { TextField } from './text-field';
-import { UnitToggle } from './unit-toggle';
+import { Button } from '@/components/button';
+import { ChoiceGroup } from '@/components/choice-group';
+import { DraftField, draftResolver } from '@/components/number-field';
+import { ErrorNotice, Pending } from '@/components/query-state';
+import { outcomeOfError, SaveNotice, type SaveOutcome } from '@/components/save-notice';
+import { Section } from '@/components/screen';
+import { TextField } from '@/components/text-field';
+import { UnitToggle } from '@/components/unit-toggle';
 
 const lifterChoices = lifterTypes.map((value) => ({ value, label: lifterTypeLabels[value] }));
 

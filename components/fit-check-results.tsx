@@ -7,8 +7,8 @@ import { breakpoints, colors, fonts, radius, space, type as typeScale } from '@/
 import { productCautions } from '@/shared/cautions';
 import type { FitCheckRun } from '@/shared/measurements';
 
-import { Cautions } from './cautions';
-import { CheckList, StatusBadge } from './check-list';
+import { Cautions } from '@/components/cautions';
+import { CheckList, StatusBadge } from '@/components/check-list';
 
 type Group = { key: string; title: string; ids: CheckId[] };
 

@@ -2,7 +2,7 @@ import { Controller, type Control, type FieldPath, type FieldValues, type UseFor
 
 import { ApiError } from '@/hooks/api';
 
-import { TextField } from './text-field';
+import { TextField } from '@/components/text-field';
 
 type FormFieldProps<T extends FieldValues> = {
   control: Control<T>;

@@ -5,7 +5,7 @@ import { formatDate, formatMiles } from '@/constants/format';
 import { colors, radius, space, type as typeScale } from '@/constants/theme';
 import type { Job } from '@/shared/jobs';
 
-import { StatusChip } from './status-chip';
+import { StatusChip } from '@/components/status-chip';
 
 /** One job in the list: vehicle, owner, stage, odometer, last change. Opens the job page. */
 export function JobCard({ job }: { job: Job }) {

@@ -6,10 +6,10 @@ import { colors, fonts, radius, space, touchTarget, type as typeScale } from '@/
 import { useAddChecklistItemMutation, useChecklistQuery, useRemoveChecklistItemMutation, useTickChecklistItemMutation } from '@/hooks/use-checklist';
 import { checklistAddSchema, type ChecklistItem } from '@/shared/measurements';
 
-import { Button } from './button';
-import { ErrorNotice, Pending } from './query-state';
-import { Section } from './screen';
-import { TextField } from './text-field';
+import { Button } from '@/components/button';
+import { ErrorNotice, Pending } from '@/components/query-state';
+import { Section } from '@/components/screen';
+import { TextField } from '@/components/text-field';
 
 /** The regrind job's checklist: tick items off (with who and when), add the shop's own, remove ones that do not apply. */
 export function JobChecklist({ jobId, canWrite }: { jobId: string; canWrite: boolean }) {

@@ -7,10 +7,10 @@ import { z } from 'zod';
 import { space } from '@/constants/theme';
 import { jobCreateSchema, jobStatuses, jobStatusLabels, mileageSchema, type Job, type JobStatus } from '@/shared/jobs';
 
-import { Button } from './button';
-import { ChoiceGroup } from './choice-group';
-import { applyServerErrors, FormField } from './form-field';
-import { ErrorNotice } from './query-state';
+import { Button } from '@/components/button';
+import { ChoiceGroup } from '@/components/choice-group';
+import { applyServerErrors, FormField } from '@/components/form-field';
+import { ErrorNotice } from '@/components/query-state';
 
 /** The form keeps mileage as typed text; it becomes a whole number (or blank) on submit. */
 const jobFormSchema = jobCreateSchema.extend({

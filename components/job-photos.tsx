@@ -7,10 +7,10 @@ import { colors, fonts, radius, space, touchTarget, type as typeScale } from '@/
 import { useDeletePhotoMutation, useJobPhotosQuery, useSavePhotoMutation, useUploadPhotosMutation } from '@/hooks/use-photos';
 import { photoLimits, type Photo } from '@/shared/measurements';
 
-import { Button } from './button';
-import { ErrorNotice, Pending } from './query-state';
-import { Section } from './screen';
-import { TextField } from './text-field';
+import { Button } from '@/components/button';
+import { ErrorNotice, Pending } from '@/components/query-state';
+import { Section } from '@/components/screen';
+import { TextField } from '@/components/text-field';
 
 const megabytes = photoLimits.maxBytes / 1024 / 1024;
 

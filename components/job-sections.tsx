@@ -10,10 +10,10 @@ import { useJobSheetsQuery } from '@/hooks/use-sheets';
 import { lifterTypeLabels } from '@/shared/engine';
 import type { Profile } from '@/shared/profile';
 
-import { Button } from './button';
-import { StatusBadge } from './check-list';
-import { ErrorNotice, Pending } from './query-state';
-import { Section } from './screen';
+import { Button } from '@/components/button';
+import { StatusBadge } from '@/components/check-list';
+import { ErrorNotice, Pending } from '@/components/query-state';
+import { Section } from '@/components/screen';
 
 const n = (v: number, digits: number) => v.toFixed(digits);
 

@@ -5,7 +5,7 @@ import Svg, { G, Line, Path, Rect, Text as SvgText } from 'react-native-svg';
 import type { ProfileAnalysis } from '@/calc/analysis';
 import { colors, fonts, seriesColors, space, type as typeScale } from '@/constants/theme';
 
-import { buildPlotPaths, niceTicks, type PlotMode } from './lift-plot-paths';
+import { buildPlotPaths, niceTicks, type PlotMode } from '@/components/lift-plot-paths';
 
 type LiftPlotProps = {
   analyses: readonly ProfileAnalysis[];

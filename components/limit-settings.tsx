@@ -5,11 +5,11 @@ import type { CheckLimitOverrides, CheckLimits } from '@/calc/checks';
 import { colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
 import { ApiError } from '@/hooks/api';
 import { useSaveShopLimitsMutation, type ShopLimitsAnswer } from '@/hooks/use-shop-limits';
-import { parseNumberText } from '@/shared/number-draft';
+import { parseNumberText } from '@/lib/number-draft';
 
-import { Button } from './button';
-import { SaveNotice, type SaveOutcome } from './save-notice';
-import { TextField } from './text-field';
+import { Button } from '@/components/button';
+import { SaveNotice, type SaveOutcome } from '@/components/save-notice';
+import { TextField } from '@/components/text-field';
 
 type RuleKey = keyof CheckLimits;
 type Part = 'min' | 'max' | 'watchBand';

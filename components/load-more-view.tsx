@@ -3,8 +3,8 @@ import { StyleSheet, View } from 'react-native';
 
 import { space } from '@/constants/theme';
 
-import { Button } from './button';
-import { Pending } from './query-state';
+import { Button } from '@/components/button';
+import { Pending } from '@/components/query-state';
 
 export type LoadMoreProps = {
   /** The server said there is another page. */

@@ -1,7 +1,7 @@
 import { useEffect, useRef } from 'react';
 import type { View } from 'react-native';
 
-import { LoadMoreView, type LoadMoreProps } from './load-more-view';
+import { LoadMoreView, type LoadMoreProps } from '@/components/load-more-view';
 
 /** End of a paged list: the next page loads as this comes within a screen of view; the button stays as a fallback. */
 export function LoadMore(props: LoadMoreProps) {

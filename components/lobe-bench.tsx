@@ -9,10 +9,10 @@ import { useUploadLobesMutation } from '@/hooks/use-measurements';
 import type { Measurement } from '@/shared/measurements';
 import type { ProfileSpec } from '@/shared/profile';
 
-import { Button } from './button';
-import { ChoiceGroup } from './choice-group';
-import { analyzeLobes, type LobeRow } from './lobe-analysis';
-import { LobeOverlay } from './lobe-overlay';
+import { Button } from '@/components/button';
+import { ChoiceGroup } from '@/components/choice-group';
+import { analyzeLobes, type LobeRow } from '@/components/lobe-analysis';
+import { LobeOverlay } from '@/components/lobe-overlay';
 
 type LobeBenchProps = {
   jobId: string;

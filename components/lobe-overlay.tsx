@@ -5,8 +5,8 @@ import Svg, { G, Line, Path, Text as SvgText } from 'react-native-svg';
 import type { LobeSpec } from '@/calc/lift-curve';
 import { colors, fonts, space, type as typeScale } from '@/constants/theme';
 
-import { buildOverlayPaths } from './lobe-overlay-paths';
-import { niceTicks } from './lift-plot-paths';
+import { buildOverlayPaths } from '@/components/lobe-overlay-paths';
+import { niceTicks } from '@/components/lift-plot-paths';
 
 type LobeOverlayProps = {
   lobeId: string;

@@ -1,4 +1,4 @@
-import type { MeasureConfig } from './measure-form';
+import type { MeasureConfig } from '@/components/measure-form';
 
 const ptvColumns = [
   { key: 'crankAngle', label: 'Crank angle', unit: '° ATDC', hint: 'Before TDC is negative, e.g. −10' },

@@ -8,12 +8,12 @@ import { ApiError } from '@/hooks/api';
 import { useCreateMeasurementMutation, useSaveMeasurementMutation } from '@/hooks/use-measurements';
 import type { Measurement, MeasurementCreate, MeasurementKind } from '@/shared/measurements';
 import { measurementDataSchemas } from '@/shared/measurements';
-import { parseNumberText } from '@/shared/number-draft';
+import { parseNumberText } from '@/lib/number-draft';
 
-import { Button } from './button';
-import { ChoiceGroup } from './choice-group';
-import { SaveNotice, type SaveOutcome } from './save-notice';
-import { TextField } from './text-field';
+import { Button } from '@/components/button';
+import { ChoiceGroup } from '@/components/choice-group';
+import { SaveNotice, type SaveOutcome } from '@/components/save-notice';
+import { TextField } from '@/components/text-field';
 
 /** One input: a number in a fixed unit, or a short text. */
 export type MeasureField = {

@@ -10,9 +10,9 @@ import {
   type NumberDraft,
   type NumberSpec,
   type ShownUnits,
-} from '@/shared/number-draft';
+} from '@/lib/number-draft';
 
-import { TextField } from './text-field';
+import { TextField } from '@/components/text-field';
 
 type NumberFieldProps = {
   spec: NumberSpec;

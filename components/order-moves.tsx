@@ -6,9 +6,9 @@ import { ApiError } from '@/hooks/api';
 import { useMoveOrderMutation } from '@/hooks/use-orders';
 import { orderMoves, type Order, type OrderMove, type OrderStage } from '@/shared/orders';
 
-import { Button } from './button';
-import { ErrorNotice } from './query-state';
-import { TextField } from './text-field';
+import { Button } from '@/components/button';
+import { ErrorNotice } from '@/components/query-state';
+import { TextField } from '@/components/text-field';
 
 export type OrderSide = 'builder' | 'grinder';
 

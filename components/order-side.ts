@@ -1,6 +1,6 @@
 import { roleAllows } from '@/shared/roles';
 
-import type { OrderSide } from './order-moves';
+import type { OrderSide } from '@/components/order-moves';
 
 /** Which side of an order the active role acts for: the grinding shop, the repair shop's builder, or neither (read only). */
 export function orderSide(role: string | null | undefined): OrderSide | null {

@@ -7,10 +7,10 @@ import { ApiError } from '@/hooks/api';
 import { useOrderMessagesQuery, useSendMessageMutation } from '@/hooks/use-orders';
 import type { OrderMessage } from '@/shared/orders';
 
-import { Button } from './button';
-import type { OrderSide } from './order-moves';
-import { EmptyState, ErrorNotice, Pending } from './query-state';
-import { TextField } from './text-field';
+import { Button } from '@/components/button';
+import type { OrderSide } from '@/components/order-moves';
+import { EmptyState, ErrorNotice, Pending } from '@/components/query-state';
+import { TextField } from '@/components/text-field';
 
 /** The conversation between the repair shop and the grinding shop on one order, with a composer. */
 export function OrderThread({ orderId, side, initial }: { orderId: string; side: OrderSide | null; initial: OrderMessage[] }) {

@@ -9,9 +9,9 @@ import { rememberOwnerPage } from '@/hooks/owner-return';
 import { ownerKeys, useApproveMutation, useStartDepositMutation } from '@/hooks/use-owner';
 import type { OwnerView, OwnerViewOption } from '@/shared/owner';
 
-import { Button } from './button';
-import { TextField } from './text-field';
-import { ownerType } from './owner-type';
+import { Button } from '@/components/button';
+import { TextField } from '@/components/text-field';
+import { ownerType } from '@/components/owner-type';
 
 /** Opens the payment page in this tab, so the owner comes back here when done. */
 function goTo(url: string) {

@@ -17,11 +17,11 @@ import {
 import { useJobSheetsQuery } from '@/hooks/use-sheets';
 import type { OwnerDesk, ShareLink } from '@/shared/owner';
 
-import { Button } from './button';
-import { ChoiceGroup } from './choice-group';
-import { ErrorNotice, Pending } from './query-state';
-import { Section } from './screen';
-import { TextField } from './text-field';
+import { Button } from '@/components/button';
+import { ChoiceGroup } from '@/components/choice-group';
+import { ErrorNotice, Pending } from '@/components/query-state';
+import { Section } from '@/components/screen';
+import { TextField } from '@/components/text-field';
 
 const linkStateLabels: Record<ShareLink['state'], string> = { active: 'Open', expired: 'Expired', revoked: 'Withdrawn' };
 

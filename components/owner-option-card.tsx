@@ -4,7 +4,7 @@ import { formatCents } from '@/constants/format';
 import { colors, fonts, radius, space } from '@/constants/theme';
 import type { OwnerViewOption } from '@/shared/owner';
 
-import { ownerType } from './owner-type';
+import { ownerType } from '@/components/owner-type';
 
 type OwnerOptionCardProps = {
   option: OwnerViewOption;

@@ -6,10 +6,10 @@ import { formatCents } from '@/constants/format';
 import { colors, radius, space } from '@/constants/theme';
 import { useConfirmDepositMutation, useOwnerViewQuery } from '@/hooks/use-owner';
 
-import { OwnerDecision } from './owner-decision';
-import { OwnerOptionCard } from './owner-option-card';
-import { ownerType } from './owner-type';
-import { ErrorNotice, Pending } from './query-state';
+import { OwnerDecision } from '@/components/owner-decision';
+import { OwnerOptionCard } from '@/components/owner-option-card';
+import { ownerType } from '@/components/owner-type';
+import { ErrorNotice, Pending } from '@/components/query-state';
 
 /**
  * The owner's summary, opened from a share link with no account: what failed,

@@ -1,4 +1,4 @@
-import { Button } from './button';
+import { Button } from '@/components/button';
 
 /** Opens the browser's print dialog (Letter or A4, as the printer is set up). */
 export function PrintButton() {

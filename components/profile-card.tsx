@@ -4,7 +4,7 @@ import { StyleSheet, Text, View } from 'react-native';
 import { formatDate } from '@/constants/format';
 import { colors, radius, space, type as typeScale } from '@/constants/theme';
 import type { UnitConverter } from '@/hooks/use-units';
-import { formatNumber } from '@/shared/number-draft';
+import { formatNumber } from '@/lib/number-draft';
 import type { Profile } from '@/shared/profile';
 
 /** Lobe lift in the chosen length unit, or inches while the converter loads. */

@@ -2,9 +2,9 @@ import { StyleSheet, View } from 'react-native';
 
 import { space } from '@/constants/theme';
 import type { ProfileSpec } from '@/shared/profile';
-import { draftFields, draftText, type DraftPath, type ProfileDraft } from '@/shared/profile-draft';
+import { draftFields, draftText, type DraftPath, type ProfileDraft } from '@/lib/profile-draft';
 
-import { TextField } from './text-field';
+import { TextField } from '@/components/text-field';
 
 type ProfileDraftEditorProps = {
   spec: ProfileSpec;

@@ -4,7 +4,7 @@ import { StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 
 import { breakpoints, colors, space, type as typeScale } from '@/constants/theme';
 import { useUnits, type UnitConverter } from '@/hooks/use-units';
-import { draftFromValue, formatNumber } from '@/shared/number-draft';
+import { draftFromValue, formatNumber } from '@/lib/number-draft';
 import { profileCreateSchema, type Profile, type ProfileCreate } from '@/shared/profile';
 import {
   advertisedHeightPicks,
@@ -17,16 +17,16 @@ import {
   sides,
   type ProfileDraft,
   type Side,
-} from '@/shared/profile-fields';
+} from '@/lib/profile-fields';
 
-import { Button } from './button';
-import { ChoiceGroup } from './choice-group';
-import { DraftField, draftResolver } from './number-field';
-import { ErrorNotice, Pending } from './query-state';
-import { outcomeOfError, SaveNotice, type SaveOutcome } from './save-notice';
-import { Section } from './screen';
-import { TextField } from './text-field';
-import { UnitToggle } from './unit-toggle';
+import { Button } from '@/components/button';
+import { ChoiceGroup } from '@/components/choice-group';
+import { DraftField, draftResolver } from '@/components/number-field';
+import { ErrorNotice, Pending } from '@/components/query-state';
+import { outcomeOfError, SaveNotice, type SaveOutcome } from '@/components/save-notice';
+import { Section } from '@/components/screen';
+import { TextField } from '@/components/text-field';
+import { UnitToggle } from '@/components/unit-toggle';
 
 type ProfileValues = { label: string; coreNotes: string; spec: ProfileCreate['spec'] };
 

@@ -3,7 +3,7 @@ import { ActivityIndicator, StyleSheet, Text, View } from 'react-native';
 
 import { colors, radius, space, type as typeScale } from '@/constants/theme';
 
-import { Button } from './button';
+import { Button } from '@/components/button';
 
 /** A spinner with words, for anything that takes a moment. */
 export function Pending({ label }: { label: string }) {

@@ -4,7 +4,7 @@ import { colors, fonts, space, type as typeScale } from '@/constants/theme';
 import { lifterTypeLabels } from '@/shared/engine';
 import type { Revision } from '@/shared/sheets';
 
-import { CheckList } from './check-list';
+import { CheckList } from '@/components/check-list';
 
 const f = (v: number, d: number) => v.toFixed(d).replace('-', '−');
 

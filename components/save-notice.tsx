@@ -2,9 +2,9 @@ import { StyleSheet, Text, View } from 'react-native';
 
 import { colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
 import { ApiError } from '@/hooks/api';
-import { placeServerFields } from '@/shared/number-draft';
+import { placeServerFields } from '@/lib/number-draft';
 
-import { Button } from './button';
+import { Button } from '@/components/button';
 
 /** What happened on the last save: done, someone else saved first, or what to fix. */
 export type SaveOutcome = { kind: 'saved'; message: string } | { kind: 'conflict'; message: string } | { kind: 'error'; message: string };

@@ -3,7 +3,7 @@ import { StyleSheet, Text, View } from 'react-native';
 import { colors, space, type as typeScale } from '@/constants/theme';
 import type { Sheet } from '@/shared/sheets';
 
-import { ChoiceGroup } from './choice-group';
+import { ChoiceGroup } from '@/components/choice-group';
 
 /** Picks which of the job's spec sheets the checks and overlays use. */
 export function SheetChoice({ sheets, value, onChange }: { sheets: readonly Sheet[]; value: string | null; onChange: (id: string) => void }) {

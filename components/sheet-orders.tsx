@@ -8,12 +8,12 @@ import { useGrindingShopsQuery, useIssueSheetMutation, useSheetOrdersQuery } fro
 import type { Order } from '@/shared/orders';
 import type { SheetWithHistory } from '@/shared/sheets';
 
-import { Button } from './button';
-import { ChoiceGroup } from './choice-group';
-import { OrderMoves } from './order-moves';
-import { OrderStageChip } from './order-stage-chip';
-import { EmptyState, ErrorNotice, Pending } from './query-state';
-import { Section } from './screen';
+import { Button } from '@/components/button';
+import { ChoiceGroup } from '@/components/choice-group';
+import { OrderMoves } from '@/components/order-moves';
+import { OrderStageChip } from '@/components/order-stage-chip';
+import { EmptyState, ErrorNotice, Pending } from '@/components/query-state';
+import { Section } from '@/components/screen';
 
 /** Sends the sheet's current draft revision to one grinding shop, after a confirm step. */
 export function IssuePanel({ sheet }: { sheet: SheetWithHistory }) {

@@ -14,10 +14,10 @@ import {
 import { roleLabels, type ShopRole } from '@/shared/roles';
 import { inviteSchema, type InviteInput, type Team, type TeamInvitation, type TeamMember } from '@/shared/team';
 
-import { Button } from './button';
-import { ChoiceGroup } from './choice-group';
-import { applyServerErrors, FormField } from './form-field';
-import { ErrorNotice, Pending } from './query-state';
+import { Button } from '@/components/button';
+import { ChoiceGroup } from '@/components/choice-group';
+import { applyServerErrors, FormField } from '@/components/form-field';
+import { ErrorNotice, Pending } from '@/components/query-state';
 
 const dateOnly = (iso: string) => new Date(iso).toLocaleDateString(undefined, { year: 'numeric', month: 'short', day: 'numeric' });
 const roleChoices = (roles: ShopRole[]) => roles.map((r) => ({ value: r, label: roleLabels[r] }));

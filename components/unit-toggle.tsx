@@ -4,7 +4,7 @@ import { StyleSheet, View } from 'react-native';
 import { space } from '@/constants/theme';
 import { lengthSystemAtom, volumeUnitAtom, type LengthSystem, type VolumeUnit } from '@/hooks/use-units';
 
-import { ChoiceGroup } from './choice-group';
+import { ChoiceGroup } from '@/components/choice-group';
 
 const lengthChoices: readonly { value: LengthSystem; label: string }[] = [
   { value: 'imperial', label: 'in · lbf' },

@@ -1,7 +1,7 @@
 import { atom } from 'jotai';
 
 import type { PlotMode } from '@/components/lift-plot-paths';
-import type { ProfileDraft } from '@/shared/profile-draft';
+import type { ProfileDraft } from '@/lib/profile-draft';
 
 /** Profiles chosen for comparison, per job (ids, in the order picked; the first is the baseline). */
 export const compareSelectionAtom = atom<Record<string, string[]>>({});

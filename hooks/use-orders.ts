@@ -3,8 +3,8 @@ import { useInfiniteQuery, useMutation, useQuery, useQueryClient } from '@tansta
 import type { IssueBody, Order, OrderDetail, OrderMessage, OrderMove } from '@/shared/orders';
 import type { Page } from '@/shared/paging';
 
-import { api, pagePath, staleTimes } from './api';
-import { sheetKeys } from './use-sheets';
+import { api, pagePath, staleTimes } from '@/hooks/api';
+import { sheetKeys } from '@/hooks/use-sheets';
 
 export type GrindingShop = { id: string; name: string };
 

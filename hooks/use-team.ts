@@ -3,8 +3,8 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { ShopRole } from '@/shared/roles';
 import type { InvitationView, InviteInput, Team } from '@/shared/team';
 
-import { api, staleTimes } from './api';
-import { meKeys } from './use-me';
+import { api, staleTimes } from '@/hooks/api';
+import { meKeys } from '@/hooks/use-me';
 
 export const teamKeys = {
   team: ['team'] as const,

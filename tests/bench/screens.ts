@@ -22,7 +22,7 @@ import { createApp } from '@/server/app';
 import { analyzeRecords } from '@/shared/analysis';
 import { engineSchema } from '@/shared/engine';
 import { profileSpecSchema } from '@/shared/profile';
-import { applyDraft } from '@/shared/profile-draft';
+import { applyDraft } from '@/lib/profile-draft';
 
 import { ensureWebExport } from './web-export';
 

@@ -28,7 +28,7 @@ import { analyzeRecords } from '@/shared/analysis';
 import { allCautions } from '@/shared/cautions';
 import type { EngineSpec } from '@/shared/engine';
 import type { Profile, ProfileSpec } from '@/shared/profile';
-import { applyDraft, sameSpec, type ProfileDraft } from '@/shared/profile-draft';
+import { applyDraft, sameSpec, type ProfileDraft } from '@/lib/profile-draft';
 import { roleAllows } from '@/shared/roles';
 
 type Column = { profile: Profile; spec: ProfileSpec; analysis: ProfileAnalysis | null; error: string | null; fieldErrors: Partial<Record<string, string>> };

@@ -14,7 +14,7 @@ import { breakpoints, colors, fonts, radius, space, type as typeScale } from '@/
 import { ApiError } from '@/hooks/api';
 import { useMeQuery } from '@/hooks/use-me';
 import { useSaveSheetMutation, useSheetQuery } from '@/hooks/use-sheets';
-import { diffRevisions } from '@/shared/revision-diff';
+import { diffRevisions } from '@/lib/revision-diff';
 import { roleAllows } from '@/shared/roles';
 import type { Revision, SheetWithHistory } from '@/shared/sheets';
 

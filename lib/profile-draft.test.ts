@@ -2,8 +2,8 @@ import { describe, expect, it } from 'vitest';
 
 import { DEMO_TOWING } from '@/calc/demo';
 
-import { profileSpecSchema } from './profile';
-import { applyDraft, draftText, sameSpec } from './profile-draft';
+import { profileSpecSchema } from '@/shared/profile';
+import { applyDraft, draftText, sameSpec } from '@/lib/profile-draft';
 
 const spec = profileSpecSchema.parse(DEMO_TOWING);
 

@@ -1,5 +1,5 @@
-import { draftsFor, type NumberDraft, type NumberSpec } from './number-draft';
-import { lobeSchema, profileSpecSchema, type ProfileSpec } from './profile';
+import { draftsFor, type NumberDraft, type NumberSpec } from '@/lib/number-draft';
+import { lobeSchema, profileSpecSchema, type ProfileSpec } from '@/shared/profile';
 
 type Bounded = { minValue: number | null; maxValue: number | null };
 const range = (schema: Bounded) => ({ min: schema.minValue ?? Number.NEGATIVE_INFINITY, max: schema.maxValue ?? Number.POSITIVE_INFINITY });

@@ -3,8 +3,8 @@ import { describe, expect, it } from 'vitest';
 import { DEMO_ENGINE, DEMO_TOWING } from '@/calc/demo';
 import { inchesToMm, mmToInches, ccToCubicInches, cubicInchesToCc, lbfToNewtons, newtonsToLbf, lbfPerInchToNPerMm, nPerMmToLbfPerInch } from '@/calc/units';
 
-import { engineSchema } from './engine';
-import { engineDraftFrom, engineNumberList, engineNumberSpecs } from './engine-fields';
+import { engineSchema } from '@/shared/engine';
+import { engineDraftFrom, engineNumberList, engineNumberSpecs } from '@/lib/engine-fields';
 import {
   checkDraft,
   draftFromText,
@@ -17,9 +17,9 @@ import {
   shownText,
   type Quantity,
   type ShownUnits,
-} from './number-draft';
-import { profileCreateSchema, profileSpecSchema } from './profile';
-import { profileDraftFrom, profileNumberList, profileNumberSpecs } from './profile-fields';
+} from '@/lib/number-draft';
+import { profileCreateSchema, profileSpecSchema } from '@/shared/profile';
+import { profileDraftFrom, profileNumberList, profileNumberSpecs } from '@/lib/profile-fields';
 
 // Sources: conversions by mathjs units through calc/units; form behaviour is Lobewright's own (common practice, no source).
 

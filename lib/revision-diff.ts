@@ -1,4 +1,4 @@
-import type { Revision } from './sheets';
+import type { Revision } from '@/shared/sheets';
 
 export type RevisionChange = { path: string; label: string; from: string; to: string };
 

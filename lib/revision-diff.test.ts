@@ -2,11 +2,11 @@ import { describe, expect, it } from 'vitest';
 
 import { DEMO_ENGINE, DEMO_TOWING } from '@/calc/demo';
 
-import { analyzeRecords, revisionResults } from './analysis';
-import { engineSchema } from './engine';
-import { profileSpecSchema } from './profile';
-import { diffRevisions } from './revision-diff';
-import type { Revision } from './sheets';
+import { analyzeRecords, revisionResults } from '@/shared/analysis';
+import { engineSchema } from '@/shared/engine';
+import { profileSpecSchema } from '@/shared/profile';
+import { diffRevisions } from '@/lib/revision-diff';
+import type { Revision } from '@/shared/sheets';
 
 const engine = engineSchema.parse(DEMO_ENGINE);
 const spec = profileSpecSchema.parse(DEMO_TOWING);

@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { analyzeProfile } from '@/calc/analysis';
 import { DEMO_ENGINE, DEMO_STOCK_REGRIND, DEMO_TOWING } from '@/calc/demo';
 
-import { compareRows, delta, formatValue } from './compare-rows';
+import { compareRows, delta, formatValue } from '@/lib/compare-rows';
 
 const stock = analyzeProfile({ engine: DEMO_ENGINE, profile: DEMO_STOCK_REGRIND });
 const towing = analyzeProfile({ engine: DEMO_ENGINE, profile: DEMO_TOWING });

@@ -1,5 +1,5 @@
-import { engineSchema, springSchema, type EngineSpec, type LifterTypeName } from './engine';
-import { draftsFor, type NumberDraft, type NumberSpec } from './number-draft';
+import { engineSchema, springSchema, type EngineSpec, type LifterTypeName } from '@/shared/engine';
+import { draftsFor, type NumberDraft, type NumberSpec } from '@/lib/number-draft';
 
 type Bounded = { minValue: number | null; maxValue: number | null };
 const range = (schema: Bounded) => ({ min: schema.minValue ?? Number.NEGATIVE_INFINITY, max: schema.maxValue ?? Number.POSITIVE_INFINITY });

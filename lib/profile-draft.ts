@@ -1,4 +1,4 @@
-import { profileSpecSchema, type ProfileSpec } from './profile';
+import { profileSpecSchema, type ProfileSpec } from '@/shared/profile';
 
 /** The profile values the compare screen lets a builder try, as dotted paths into ProfileSpec. */
 export const draftFields = [
