@@ -3,8 +3,8 @@ import { useLocalSearchParams } from 'expo-router';
 import { useEffect } from 'react';
 import { StyleSheet, Text } from 'react-native';
 
-import { AuthCard } from '@/components/auth-card';
-import { Button } from '@/components/button';
+import { AuthCard } from '@/components/account/auth-card';
+import { Button } from '@/components/ui/button';
 import { colors, type as typeScale } from '@/constants/theme';
 import { meKeys } from '@/hooks/use-me';
 

@@ -2,7 +2,7 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
 import type { ChecklistItem } from '@/shared/measurements';
 
-import { api, staleTimes } from '@/hooks/api';
+import { api, staleTimes } from '@/lib/api';
 
 export const checklistKeys = {
   all: ['checklist'] as const,

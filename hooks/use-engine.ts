@@ -2,7 +2,7 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
 import type { EngineRecord, EngineSave } from '@/shared/engine';
 
-import { api, staleTimes } from '@/hooks/api';
+import { api, staleTimes } from '@/lib/api';
 
 export const engineKeys = {
   all: ['engine'] as const,

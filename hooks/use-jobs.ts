@@ -3,7 +3,7 @@ import { useInfiniteQuery, useMutation, useQuery, useQueryClient } from '@tansta
 import type { Job, JobCreate, JobPatch } from '@/shared/jobs';
 import type { Page } from '@/shared/paging';
 
-import { api, pagePath, staleTimes } from '@/hooks/api';
+import { api, pagePath, staleTimes } from '@/lib/api';
 
 export const jobKeys = {
   all: ['jobs'] as const,

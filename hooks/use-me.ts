@@ -2,7 +2,7 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
 import type { Me, ShopCreate } from '@/shared/me';
 
-import { api, ApiError, staleTimes } from '@/hooks/api';
+import { api, ApiError, staleTimes } from '@/lib/api';
 
 export const meKeys = { all: ['me'] as const };
 

@@ -3,7 +3,7 @@ import { useInfiniteQuery, useMutation, useQuery, useQueryClient } from '@tansta
 import type { IssueBody, Order, OrderDetail, OrderMessage, OrderMove } from '@/shared/orders';
 import type { Page } from '@/shared/paging';
 
-import { api, pagePath, staleTimes } from '@/hooks/api';
+import { api, pagePath, staleTimes } from '@/lib/api';
 import { sheetKeys } from '@/hooks/use-sheets';
 
 export type GrindingShop = { id: string; name: string };

@@ -2,7 +2,7 @@ import { useQuery } from '@tanstack/react-query';
 
 import type { OutboxMessage } from '@/shared/orders';
 
-import { api, ApiError, staleTimes } from '@/hooks/api';
+import { api, ApiError, staleTimes } from '@/lib/api';
 
 export const outboxKeys = {
   all: ['outbox'] as const,

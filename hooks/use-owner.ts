@@ -3,7 +3,7 @@ import { useInfiniteQuery, useMutation, useQuery, useQueryClient } from '@tansta
 import type { Approval, ApproveBody, OwnerDesk, OwnerOptionCreate, OwnerOptionPatch, OwnerPageSave, OwnerView, Payment, ShareLink, ShareLinkCreate } from '@/shared/owner';
 import type { Page } from '@/shared/paging';
 
-import { api, pagePath, staleTimes } from '@/hooks/api';
+import { api, pagePath, staleTimes } from '@/lib/api';
 
 const enc = encodeURIComponent;
 

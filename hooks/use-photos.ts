@@ -2,8 +2,8 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
 import type { Photo } from '@/shared/measurements';
 
-import { api, staleTimes, upload } from '@/hooks/api';
-import { appendPickedFile, type PickedFile } from '@/hooks/form-file';
+import { api, staleTimes, upload } from '@/lib/api';
+import { appendPickedFile, type PickedFile } from '@/lib/form-file';
 
 export const photoKeys = {
   all: ['photos'] as const,

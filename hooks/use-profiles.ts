@@ -2,7 +2,7 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
 import type { Profile, ProfileCreate, ProfilePatch } from '@/shared/profile';
 
-import { api, staleTimes } from '@/hooks/api';
+import { api, staleTimes } from '@/lib/api';
 
 export const profileKeys = {
   all: ['profiles'] as const,

@@ -2,7 +2,7 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
 import type { Sheet, SheetCreate, SheetSave, SheetWithHistory } from '@/shared/sheets';
 
-import { api, staleTimes } from '@/hooks/api';
+import { api, staleTimes } from '@/lib/api';
 
 export const sheetKeys = {
   all: ['sheets'] as const,

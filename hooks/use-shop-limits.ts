@@ -2,7 +2,7 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
 import type { ShopLimitsResponse, ShopLimitsSave } from '@/shared/measurements';
 
-import { api, staleTimes } from '@/hooks/api';
+import { api, staleTimes } from '@/lib/api';
 
 /** The overrides and version, every rule as it applies (with its source), and calc's defaults. */
 export type ShopLimitsAnswer = ShopLimitsResponse;

@@ -3,7 +3,7 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { ShopRole } from '@/shared/roles';
 import type { InvitationView, InviteInput, Team } from '@/shared/team';
 
-import { api, staleTimes } from '@/hooks/api';
+import { api, staleTimes } from '@/lib/api';
 import { meKeys } from '@/hooks/use-me';
 
 export const teamKeys = {

@@ -3,11 +3,11 @@ import { useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
 import { StyleSheet, Text, View } from 'react-native';
 
-import { Button } from '@/components/button';
-import { ChoiceGroup } from '@/components/choice-group';
-import { applyServerErrors, FormField } from '@/components/form-field';
-import { ErrorNotice } from '@/components/query-state';
-import { Screen, Section } from '@/components/screen';
+import { Button } from '@/components/ui/button';
+import { ChoiceGroup } from '@/components/ui/choice-group';
+import { applyServerErrors, FormField } from '@/components/ui/form-field';
+import { ErrorNotice } from '@/components/ui/query-state';
+import { Screen, Section } from '@/components/ui/screen';
 import { colors, radius, space, type as typeScale } from '@/constants/theme';
 import { useCreateShopMutation, useMeQuery, useSignOutMutation, useSwitchShopMutation } from '@/hooks/use-me';
 import { shopCreateSchema, type MeShop, type ShopCreate } from '@/shared/me';

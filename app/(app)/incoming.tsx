@@ -1,10 +1,10 @@
 import { Link } from 'expo-router';
 import { StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 
-import { LoadMore } from '@/components/load-more';
-import { OrderStageChip } from '@/components/order-stage-chip';
-import { EmptyState, ErrorNotice, Pending } from '@/components/query-state';
-import { Screen } from '@/components/screen';
+import { LoadMore } from '@/components/ui/load-more';
+import { OrderStageChip } from '@/components/order/order-stage-chip';
+import { EmptyState, ErrorNotice, Pending } from '@/components/ui/query-state';
+import { Screen } from '@/components/ui/screen';
 import { formatAge } from '@/constants/format';
 import { breakpoints, colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
 import { useIncomingQuery } from '@/hooks/use-orders';

@@ -1,10 +1,10 @@
 import { useState } from 'react';
 import { Pressable, StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 
-import { Button } from '@/components/button';
-import { MailHtml } from '@/components/mail-html';
-import { EmptyState, ErrorNotice, Pending } from '@/components/query-state';
-import { Screen, Section } from '@/components/screen';
+import { Button } from '@/components/ui/button';
+import { MailHtml } from '@/components/mailbox/mail-html';
+import { EmptyState, ErrorNotice, Pending } from '@/components/ui/query-state';
+import { Screen, Section } from '@/components/ui/screen';
 import { formatDateTime } from '@/constants/format';
 import { breakpoints, colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
 import { useOutboxMessageQuery, useOutboxQuery } from '@/hooks/use-outbox';

@@ -1,9 +1,9 @@
 import { StyleSheet, Text, View } from 'react-native';
 
-import { LimitSettings } from '@/components/limit-settings';
-import { ErrorNotice, Pending } from '@/components/query-state';
-import { Screen, Section } from '@/components/screen';
-import { TeamSettings } from '@/components/team-settings';
+import { LimitSettings } from '@/components/measure/limit-settings';
+import { ErrorNotice, Pending } from '@/components/ui/query-state';
+import { Screen, Section } from '@/components/ui/screen';
+import { TeamSettings } from '@/components/team/team-settings';
 import { colors, space, type as typeScale } from '@/constants/theme';
 import { useMeQuery } from '@/hooks/use-me';
 import { useShopLimitsQuery } from '@/hooks/use-shop-limits';

@@ -5,10 +5,10 @@ import { useForm } from 'react-hook-form';
 import { StyleSheet, Text } from 'react-native';
 import { z } from 'zod';
 
-import { AuthCard } from '@/components/auth-card';
-import { Button } from '@/components/button';
-import { applyServerErrors, FormField } from '@/components/form-field';
-import { ErrorNotice } from '@/components/query-state';
+import { AuthCard } from '@/components/account/auth-card';
+import { Button } from '@/components/ui/button';
+import { applyServerErrors, FormField } from '@/components/ui/form-field';
+import { ErrorNotice } from '@/components/ui/query-state';
 import { colors, type as typeScale } from '@/constants/theme';
 import { useRequestPasswordResetMutation } from '@/hooks/use-me';
 

@@ -1,11 +1,11 @@
 import { useLocalSearchParams } from 'expo-router';
 import { StyleSheet, Text, View } from 'react-native';
 
-import { AuthCard } from '@/components/auth-card';
-import { Button } from '@/components/button';
-import { ErrorNotice, Pending } from '@/components/query-state';
+import { AuthCard } from '@/components/account/auth-card';
+import { Button } from '@/components/ui/button';
+import { ErrorNotice, Pending } from '@/components/ui/query-state';
 import { colors, space, type as typeScale } from '@/constants/theme';
-import { ApiError } from '@/hooks/api';
+import { ApiError } from '@/lib/api';
 import { useMeQuery } from '@/hooks/use-me';
 import { useAnswerInvitationMutation, useInvitationQuery } from '@/hooks/use-team';
 import { roleLabels } from '@/shared/roles';

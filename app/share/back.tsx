@@ -1,9 +1,9 @@
 import { Redirect, Stack, useLocalSearchParams } from 'expo-router';
 import { StyleSheet, Text, View } from 'react-native';
 
-import { ownerType } from '@/components/owner-type';
+import { ownerType } from '@/components/owner/owner-type';
 import { colors, space } from '@/constants/theme';
-import { rememberedOwnerToken } from '@/hooks/owner-return';
+import { rememberedOwnerToken } from '@/lib/owner-return';
 
 /** Back from the payment page: on to the summary this tab came from, with the payment session to check. */
 export default function OwnerReturnScreen() {

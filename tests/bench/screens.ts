@@ -16,7 +16,7 @@ import zlib from 'node:zlib';
 import { chromium } from 'playwright-core';
 
 import { DEMO_ENGINE, DEMO_STOCK_REGRIND, DEMO_TOWING } from '@/calc/demo';
-import { buildPlotPaths } from '@/components/lift-plot-paths';
+import { buildPlotPaths } from '@/lib/lift-plot-paths';
 import { openDb } from '@/db';
 import { createApp } from '@/server/app';
 import { analyzeRecords } from '@/shared/analysis';

@@ -2,12 +2,12 @@ import { useRouter } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, useWindowDimensions, View } from 'react-native';
 
-import { Button } from '@/components/button';
-import { JobCard } from '@/components/job-card';
-import { JobForm } from '@/components/job-form';
-import { LoadMore } from '@/components/load-more';
-import { EmptyState, ErrorNotice, Pending } from '@/components/query-state';
-import { Screen, Section } from '@/components/screen';
+import { Button } from '@/components/ui/button';
+import { JobCard } from '@/components/job/job-card';
+import { JobForm } from '@/components/job/job-form';
+import { LoadMore } from '@/components/ui/load-more';
+import { EmptyState, ErrorNotice, Pending } from '@/components/ui/query-state';
+import { Screen, Section } from '@/components/ui/screen';
 import { breakpoints, space } from '@/constants/theme';
 import { useCreateJobMutation, useJobsQuery } from '@/hooks/use-jobs';
 import { useMeQuery } from '@/hooks/use-me';

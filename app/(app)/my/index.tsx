@@ -1,9 +1,9 @@
 import { Link } from 'expo-router';
 import { StyleSheet, Text, View } from 'react-native';
 
-import { LoadMore } from '@/components/load-more';
-import { EmptyState, ErrorNotice, Pending } from '@/components/query-state';
-import { Screen } from '@/components/screen';
+import { LoadMore } from '@/components/ui/load-more';
+import { EmptyState, ErrorNotice, Pending } from '@/components/ui/query-state';
+import { Screen } from '@/components/ui/screen';
 import { colors, radius, space, type as typeScale } from '@/constants/theme';
 import { useMyJobsQuery } from '@/hooks/use-owner';
 

@@ -1,14 +1,14 @@
 import { useRouter } from 'expo-router';
 import { StyleSheet, useWindowDimensions, View } from 'react-native';
 
-import { Button } from '@/components/button';
-import { ProfileCard } from '@/components/profile-card';
-import { EmptyState, ErrorNotice, Pending } from '@/components/query-state';
-import { Screen } from '@/components/screen';
+import { Button } from '@/components/ui/button';
+import { ProfileCard } from '@/components/profile/profile-card';
+import { EmptyState, ErrorNotice, Pending } from '@/components/ui/query-state';
+import { Screen } from '@/components/ui/screen';
 import { breakpoints, space } from '@/constants/theme';
 import { useMeQuery } from '@/hooks/use-me';
 import { useLibraryProfilesQuery } from '@/hooks/use-profiles';
-import { useUnits } from '@/hooks/use-units';
+import { useUnits } from '@/state/units';
 import { roleAllows } from '@/shared/roles';
 
 export default function Profiles() {

@@ -6,19 +6,19 @@ import { StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 import type { ProfileAnalysis } from '@/calc/analysis';
 import { compareProfilesForOwner } from '@/calc/compare';
 import { isCalcInputError } from '@/calc/errors';
-import { Button } from '@/components/button';
-import { Cautions } from '@/components/cautions';
-import { CheckList, StatusBadge } from '@/components/check-list';
-import { ChoiceGroup } from '@/components/choice-group';
-import { CompareTable } from '@/components/compare-table';
-import { LiftPlot } from '@/components/lift-plot';
-import { ProfileDraftEditor } from '@/components/profile-draft-editor';
-import { ProfilePicker } from '@/components/profile-picker';
-import { EmptyState, ErrorNotice, Pending } from '@/components/query-state';
-import { Screen, Section, type BackLink } from '@/components/screen';
+import { Button } from '@/components/ui/button';
+import { Cautions } from '@/components/compare/cautions';
+import { CheckList, CheckStatusChip } from '@/components/sheet/check-list';
+import { ChoiceGroup } from '@/components/ui/choice-group';
+import { CompareTable } from '@/components/compare/compare-table';
+import { LiftPlot } from '@/components/compare/lift-plot';
+import { ProfileDraftEditor } from '@/components/compare/profile-draft-editor';
+import { ProfilePicker } from '@/components/compare/profile-picker';
+import { EmptyState, ErrorNotice, Pending } from '@/components/ui/query-state';
+import { Screen, Section, type BackLink } from '@/components/ui/screen';
 import { breakpoints, colors, space, type as typeScale } from '@/constants/theme';
-import { ApiError } from '@/hooks/api';
-import { compareSelectionAtom, plotModeAtom, profileDraftsAtom } from '@/hooks/compare-state';
+import { ApiError } from '@/lib/api';
+import { compareSelectionAtom, plotModeAtom, profileDraftsAtom } from '@/state/compare';
 import { useEngineQuery } from '@/hooks/use-engine';
 import { useJobQuery } from '@/hooks/use-jobs';
 import { useMeQuery } from '@/hooks/use-me';
@@ -198,7 +198,7 @@ function CompareView({
           ) : null}
           {shown.map((c, i) => (
             <Section key={c.profile.id} title={`Checks: ${c.profile.label}`}>
-              <StatusBadge status={c.analysis.status} testID={`status-${i}`} />
+              <CheckStatusChip status={c.analysis.status} testID={`status-${i}`} />
               <CheckList checks={c.analysis.checks} skipped={c.analysis.skipped} testID={`checks-${i}`} />
             </Section>
           ))}

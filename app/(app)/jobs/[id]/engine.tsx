@@ -1,11 +1,11 @@
 import { useLocalSearchParams } from 'expo-router';
 import { StyleSheet, View } from 'react-native';
 
-import { EngineForm } from '@/components/engine-form';
-import { ErrorNotice, Pending } from '@/components/query-state';
-import { Screen } from '@/components/screen';
+import { EngineForm } from '@/components/job/engine-form';
+import { ErrorNotice, Pending } from '@/components/ui/query-state';
+import { Screen } from '@/components/ui/screen';
 import { space } from '@/constants/theme';
-import { ApiError } from '@/hooks/api';
+import { ApiError } from '@/lib/api';
 import { useEngineQuery } from '@/hooks/use-engine';
 import { useJobQuery } from '@/hooks/use-jobs';
 import { useMeQuery } from '@/hooks/use-me';

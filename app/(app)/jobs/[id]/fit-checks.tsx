@@ -2,15 +2,15 @@ import { Stack, useLocalSearchParams } from 'expo-router';
 import { useState } from 'react';
 import { Pressable, StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 
-import { Button } from '@/components/button';
-import { StatusBadge } from '@/components/check-list';
-import { FitCheckResults } from '@/components/fit-check-results';
-import { EmptyState, ErrorNotice, Pending } from '@/components/query-state';
-import { Screen, Section } from '@/components/screen';
-import { SheetChoice } from '@/components/sheet-choice';
+import { Button } from '@/components/ui/button';
+import { CheckStatusChip } from '@/components/sheet/check-list';
+import { FitCheckResults } from '@/components/measure/fit-check-results';
+import { EmptyState, ErrorNotice, Pending } from '@/components/ui/query-state';
+import { Screen, Section } from '@/components/ui/screen';
+import { SheetChoice } from '@/components/sheet/sheet-choice';
 import { formatDateTime } from '@/constants/format';
 import { breakpoints, colors, fonts, radius, space, touchTarget, type as typeScale } from '@/constants/theme';
-import { useCheckedSheet } from '@/hooks/fit-check-state';
+import { useCheckedSheet } from '@/state/fit-check';
 import { useFitCheckRunsQuery, useRunFitChecksMutation } from '@/hooks/use-fit-checks';
 import { useJobQuery } from '@/hooks/use-jobs';
 import { useMeQuery } from '@/hooks/use-me';
@@ -94,7 +94,7 @@ function SheetRuns({ sheetId }: { sheetId: string }) {
                 style={[styles.historyItem, active && styles.historyActive]}
                 testID={`fit-run-${r.id}`}
               >
-                <StatusBadge status={r.results.status} />
+                <CheckStatusChip status={r.results.status} />
                 <Text style={styles.historyText}>
                   Revision {r.revisionNumber} · {formatDateTime(r.createdAt)}
                 </Text>

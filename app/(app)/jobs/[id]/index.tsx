@@ -2,18 +2,18 @@ import { Stack, useLocalSearchParams } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 
-import { Button } from '@/components/button';
-import { JobChecklist } from '@/components/job-checklist';
-import { JobForm } from '@/components/job-form';
-import { JobPhotos } from '@/components/job-photos';
-import { OwnerSection } from '@/components/owner-desk';
-import { EngineSummary, JobProfiles, JobSheets } from '@/components/job-sections';
-import { ErrorNotice, Pending } from '@/components/query-state';
-import { Screen, Section } from '@/components/screen';
-import { StatusChip } from '@/components/status-chip';
+import { Button } from '@/components/ui/button';
+import { JobChecklist } from '@/components/job/job-checklist';
+import { JobForm } from '@/components/job/job-form';
+import { JobPhotos } from '@/components/job/job-photos';
+import { OwnerSection } from '@/components/owner/owner-desk';
+import { EngineSummary, JobProfiles, JobSheets } from '@/components/job/job-sections';
+import { ErrorNotice, Pending } from '@/components/ui/query-state';
+import { Screen, Section } from '@/components/ui/screen';
+import { JobStatusChip } from '@/components/job/job-status-chip';
 import { formatDateTime, formatMiles } from '@/constants/format';
 import { breakpoints, colors, space, type as typeScale } from '@/constants/theme';
-import { ApiError } from '@/hooks/api';
+import { ApiError } from '@/lib/api';
 import { useJobQuery, useSaveJobMutation } from '@/hooks/use-jobs';
 import { useMeQuery } from '@/hooks/use-me';
 import type { Job } from '@/shared/jobs';
@@ -83,7 +83,7 @@ function JobDetail({ job }: { job: Job }) {
             </Section>
             <JobPhotos jobId={job.id} canWrite={canMeasure} />
             <Section title="Record">
-              <StatusChip status={job.status} />
+              <JobStatusChip status={job.status} />
               <Text style={styles.meta}>Checked in {formatDateTime(job.createdAt)}</Text>
               <Text style={styles.meta}>
                 Last saved {formatDateTime(job.updatedAt)} (version {job.version})

@@ -1,9 +1,9 @@
 import { Stack, useLocalSearchParams } from 'expo-router';
 import { StyleSheet, useWindowDimensions, View } from 'react-native';
 
-import { OwnerOptions, OwnerStatus, OwnerWords, ShareLinks } from '@/components/owner-desk';
-import { ErrorNotice, Pending } from '@/components/query-state';
-import { Screen } from '@/components/screen';
+import { OwnerOptions, OwnerStatus, OwnerWords, ShareLinks } from '@/components/owner/owner-desk';
+import { ErrorNotice, Pending } from '@/components/ui/query-state';
+import { Screen } from '@/components/ui/screen';
 import { breakpoints, space } from '@/constants/theme';
 import { useJobQuery } from '@/hooks/use-jobs';
 import { useMeQuery } from '@/hooks/use-me';

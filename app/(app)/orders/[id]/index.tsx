@@ -1,18 +1,18 @@
 import { useLocalSearchParams } from 'expo-router';
 import { StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 
-import { Button } from '@/components/button';
-import { OrderEvents } from '@/components/order-events';
-import { OrderMoves, type OrderSide } from '@/components/order-moves';
-import { orderSide } from '@/components/order-side';
-import { OrderStageChip } from '@/components/order-stage-chip';
-import { OrderThread } from '@/components/order-thread';
-import { ErrorNotice, Pending } from '@/components/query-state';
-import { RevisionView } from '@/components/revision-view';
-import { Screen, Section, type BackLink } from '@/components/screen';
+import { Button } from '@/components/ui/button';
+import { OrderEvents } from '@/components/order/order-events';
+import { OrderMoves, type OrderSide } from '@/components/order/order-moves';
+import { orderSide } from '@/lib/order-side';
+import { OrderStageChip } from '@/components/order/order-stage-chip';
+import { OrderThread } from '@/components/order/order-thread';
+import { ErrorNotice, Pending } from '@/components/ui/query-state';
+import { RevisionView } from '@/components/sheet/revision-view';
+import { Screen, Section, type BackLink } from '@/components/ui/screen';
 import { formatCents, formatDateTime } from '@/constants/format';
 import { breakpoints, colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
-import { ApiError } from '@/hooks/api';
+import { ApiError } from '@/lib/api';
 import { useMeQuery } from '@/hooks/use-me';
 import { useOrderQuery } from '@/hooks/use-orders';
 import { useSheetQuery } from '@/hooks/use-sheets';

@@ -2,11 +2,11 @@ import { Link, useLocalSearchParams } from 'expo-router';
 import { useMemo } from 'react';
 import { ScrollView, StyleSheet, Text, View } from 'react-native';
 
-import { LiftPlot } from '@/components/lift-plot';
-import { NoPrint } from '@/components/no-print';
-import { PrintButton } from '@/components/print-button';
-import { ErrorNotice, Pending } from '@/components/query-state';
-import { RevisionView } from '@/components/revision-view';
+import { LiftPlot } from '@/components/compare/lift-plot';
+import { NoPrint } from '@/components/ui/no-print';
+import { PrintButton } from '@/components/ui/print-button';
+import { ErrorNotice, Pending } from '@/components/ui/query-state';
+import { RevisionView } from '@/components/sheet/revision-view';
 import { formatDate } from '@/constants/format';
 import { colors, fonts, space, type as typeScale } from '@/constants/theme';
 import { useOrderQuery } from '@/hooks/use-orders';

@@ -2,16 +2,16 @@ import { useLocalSearchParams } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, Text, TextInput, useWindowDimensions, View } from 'react-native';
 
-import { Button } from '@/components/button';
-import { StatusBadge } from '@/components/check-list';
-import { ChoiceGroup } from '@/components/choice-group';
-import { ErrorNotice, Pending } from '@/components/query-state';
-import { RevisionView } from '@/components/revision-view';
-import { Screen, Section, type BackLink } from '@/components/screen';
-import { IssuePanel, SheetOrders } from '@/components/sheet-orders';
+import { Button } from '@/components/ui/button';
+import { CheckStatusChip } from '@/components/sheet/check-list';
+import { ChoiceGroup } from '@/components/ui/choice-group';
+import { ErrorNotice, Pending } from '@/components/ui/query-state';
+import { RevisionView } from '@/components/sheet/revision-view';
+import { Screen, Section, type BackLink } from '@/components/ui/screen';
+import { IssuePanel, SheetOrders } from '@/components/sheet/sheet-orders';
 import { formatDateTime } from '@/constants/format';
 import { breakpoints, colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
-import { ApiError } from '@/hooks/api';
+import { ApiError } from '@/lib/api';
 import { useMeQuery } from '@/hooks/use-me';
 import { useSaveSheetMutation, useSheetQuery } from '@/hooks/use-sheets';
 import { diffRevisions } from '@/lib/revision-diff';
@@ -54,7 +54,7 @@ function SheetView({ sheet, back }: { sheet: SheetWithHistory; back: BackLink })
         <View style={[wide ? styles.main : undefined, styles.stack]}>
           <Section title={shown.number === current.number ? `Revision ${shown.number}: current` : `Revision ${shown.number}`}>
             <View style={styles.badges}>
-              <StatusBadge status={shown.results.status} />
+              <CheckStatusChip status={shown.results.status} />
               <Text style={[styles.state, shown.state === 'issued' ? styles.issued : styles.draft]} testID="revision-state">
                 {shown.state === 'draft' ? 'Draft' : 'Issued'}
               </Text>
