@@ -6,7 +6,7 @@ import { StyleSheet, Text } from 'react-native';
 import { AuthCard } from '@/components/account/auth-card';
 import { Button } from '@/components/ui/button';
 import { colors, type as typeScale } from '@/constants/theme';
-import { meKeys } from '@/hooks/use-me';
+import { invalidateMe } from '@/hooks/use-me';
 
 /** Where the verification link lands. better-auth adds ?error= when the link was wrong or too old. */
 export default function Verified() {
@@ -14,7 +14,7 @@ export default function Verified() {
   const queryClient = useQueryClient();
   useEffect(() => {
     // Verifying can sign the person in and open a shop: read who they are again.
-    void queryClient.invalidateQueries({ queryKey: meKeys.all });
+    void invalidateMe(queryClient);
   }, [queryClient]);
   if (error) {
     return (

@@ -1,4 +1,4 @@
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 
 import type { ChecklistItem } from '@/shared/measurements';
 
@@ -17,9 +17,13 @@ export function useChecklistQuery(jobId: string) {
   });
 }
 
+/** Refetch a job's checklist. */
+export const invalidateChecklist = (queryClient: QueryClient, jobId: string) =>
+  queryClient.invalidateQueries({ queryKey: checklistKeys.job(jobId) });
+
 function useSettle(jobId: string) {
   const queryClient = useQueryClient();
-  return () => queryClient.invalidateQueries({ queryKey: checklistKeys.job(jobId) });
+  return () => invalidateChecklist(queryClient, jobId);
 }
 
 export function useAddChecklistItemMutation(jobId: string) {

@@ -6,7 +6,8 @@ import { formatCents, formatDateTime } from '@/constants/format';
 import { colors, fonts, radius, space } from '@/constants/theme';
 import { ApiError } from '@/lib/api';
 import { openPaymentPage } from '@/lib/payment-page';
-import { ownerKeys, useApproveMutation, useStartDepositMutation } from '@/hooks/use-owner';
+import { useStartDepositMutation } from '@/hooks/use-deposits';
+import { invalidateOwnerView, useApproveMutation } from '@/hooks/use-owner-page';
 import type { OwnerView, OwnerViewOption } from '@/shared/owner';
 
 import { Button } from '@/components/ui/button';
@@ -26,7 +27,7 @@ export function OwnerDecision({ base, view, chosen }: { base: string; view: Owne
   const money = (cents: number) => formatCents(cents, view.currency);
   const reload = () => {
     approve.reset();
-    void queryClient.invalidateQueries({ queryKey: ownerKeys.view(base) });
+    void invalidateOwnerView(queryClient, base);
   };
 
   if (view.approval) {

@@ -14,7 +14,7 @@ import {
   useOwnerDeskQuery,
   useSaveOwnerPageMutation,
   type NewShareLink,
-} from '@/hooks/use-owner';
+} from '@/hooks/use-owner-page';
 import { useJobSheetsQuery } from '@/hooks/use-sheets';
 import type { OwnerDesk, ShareLink } from '@/shared/owner';
 

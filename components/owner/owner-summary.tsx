@@ -4,7 +4,8 @@ import { Image, ScrollView, StyleSheet, Text, View } from 'react-native';
 
 import { formatCents } from '@/constants/format';
 import { colors, radius, space } from '@/constants/theme';
-import { useConfirmDepositMutation, useOwnerViewQuery } from '@/hooks/use-owner';
+import { useConfirmDepositMutation } from '@/hooks/use-deposits';
+import { useOwnerViewQuery } from '@/hooks/use-owner-page';
 
 import { OwnerDecision } from '@/components/owner/owner-decision';
 import { OwnerOptionCard } from '@/components/owner/owner-option-card';

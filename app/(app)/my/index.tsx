@@ -5,7 +5,7 @@ import { LoadMore } from '@/components/ui/load-more';
 import { EmptyState, ErrorNotice, Pending } from '@/components/ui/query-state';
 import { Screen } from '@/components/ui/screen';
 import { colors, radius, space, type as typeScale } from '@/constants/theme';
-import { useMyJobsQuery } from '@/hooks/use-owner';
+import { useMyJobsQuery } from '@/hooks/use-owner-page';
 
 /** A signed-in owner's vehicles: each summary a shop sent to their e-mail. */
 export default function MyJobsScreen() {

@@ -7,7 +7,7 @@ import { Screen } from '@/components/ui/screen';
 import { breakpoints, space } from '@/constants/theme';
 import { useJobQuery } from '@/hooks/use-jobs';
 import { useMeQuery } from '@/hooks/use-me';
-import { useOwnerDeskQuery } from '@/hooks/use-owner';
+import { useOwnerDeskQuery } from '@/hooks/use-owner-page';
 import { roleAllows } from '@/shared/roles';
 
 /** The builder's side of the owner's page: the words, the options and prices, the links, and what the owner did. */

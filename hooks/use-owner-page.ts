@@ -1,21 +1,32 @@
-import { useInfiniteQuery, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useInfiniteQuery, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 
-import type { Approval, ApproveBody, OwnerDesk, OwnerOptionCreate, OwnerOptionPatch, OwnerPageSave, OwnerView, Payment, ShareLink, ShareLinkCreate } from '@/shared/owner';
+import type { Approval, ApproveBody, OwnerDesk, OwnerOptionCreate, OwnerOptionPatch, OwnerPageSave, OwnerView, ShareLink, ShareLinkCreate } from '@/shared/owner';
 import type { Page } from '@/shared/paging';
 
 import { api, pagePath, staleTimes } from '@/lib/api';
 
 const enc = encodeURIComponent;
 
-export const ownerKeys = {
+/** The owner page's queries: the builder's desk on a job, the owner's view of it, and a signed-in owner's list. */
+export const ownerPageKeys = {
   desk: (jobId: string) => ['owner-desk', jobId] as const,
   view: (base: string) => ['owner-view', base] as const,
+  myJobs: ['my-jobs'] as const,
 };
+
+/** Refetch the builder's desk for a job's owner page. */
+export const invalidateOwnerDesk = (queryClient: QueryClient, jobId: string) => queryClient.invalidateQueries({ queryKey: ownerPageKeys.desk(jobId) });
+
+/** Refetch the owner's page at `base` (see ownerApiBase). */
+export const invalidateOwnerView = (queryClient: QueryClient, base: string) => queryClient.invalidateQueries({ queryKey: ownerPageKeys.view(base) });
+
+/** Refetch a signed-in owner's list of summaries. */
+export const invalidateMyJobs = (queryClient: QueryClient) => queryClient.invalidateQueries({ queryKey: ownerPageKeys.myJobs });
 
 /** The builder's view of the owner's page on a job. */
 export function useOwnerDeskQuery(jobId: string) {
   return useQuery({
-    queryKey: ownerKeys.desk(jobId),
+    queryKey: ownerPageKeys.desk(jobId),
     staleTime: staleTimes.record,
     queryFn: async () => (await api<{ desk: OwnerDesk }>(`/api/jobs/${enc(jobId)}/owner`)).desk,
   });
@@ -26,7 +37,7 @@ function useDeskMutation<V>(jobId: string, send: (vars: V) => Promise<{ desk: Ow
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: send,
-    onSuccess: ({ desk }) => queryClient.setQueryData(ownerKeys.desk(jobId), desk),
+    onSuccess: ({ desk }) => queryClient.setQueryData(ownerPageKeys.desk(jobId), desk),
   });
 }
 
@@ -54,7 +65,7 @@ export function useCreateShareLinkMutation(jobId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (body: ShareLinkCreate) => api<NewShareLink>(`/api/jobs/${enc(jobId)}/share-links`, { method: 'POST', body }),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: ownerKeys.desk(jobId) }),
+    onSuccess: () => invalidateOwnerDesk(queryClient, jobId),
   });
 }
 
@@ -62,7 +73,7 @@ export function useRevokeShareLinkMutation(jobId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (id: string) => api<{ link: ShareLink }>(`/api/share-links/${enc(id)}/revoke`, { method: 'POST' }),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: ownerKeys.desk(jobId) }),
+    onSuccess: () => invalidateOwnerDesk(queryClient, jobId),
   });
 }
 
@@ -80,7 +91,7 @@ export type OwnerJob = { jobId: string; vehicle: string; shopName: string; appro
 /** A signed-in owner's summaries (links the shop sent to their e-mail). */
 export function useMyJobsQuery() {
   return useInfiniteQuery({
-    queryKey: ['my-jobs'],
+    queryKey: ownerPageKeys.myJobs,
     staleTime: staleTimes.list,
     initialPageParam: null as string | null,
     queryFn: ({ pageParam }) => api<Page<'jobs', OwnerJob>>(pagePath('/api/my/jobs', pageParam)),
@@ -92,7 +103,7 @@ export function useMyJobsQuery() {
 /** The owner's page at `base` (see ownerApiBase). */
 export function useOwnerViewQuery(base: string) {
   return useQuery({
-    queryKey: ownerKeys.view(base),
+    queryKey: ownerPageKeys.view(base),
     staleTime: staleTimes.record,
     retry: false,
     queryFn: async () => (await api<{ view: OwnerView }>(base)).view,
@@ -103,22 +114,6 @@ export function useApproveMutation(base: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (body: ApproveBody) => api<{ approval: Approval }>(`${base}/approve`, { method: 'POST', body }),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: ownerKeys.view(base) }),
-  });
-}
-
-/** Starts the deposit: the answer is the payment page to open. */
-export function useStartDepositMutation(base: string) {
-  return useMutation({
-    mutationFn: () => api<{ url: string }>(`${base}/deposit`, { method: 'POST' }),
-  });
-}
-
-/** Back from the payment page: asks the server to check the session (the webhook usually got there first). */
-export function useConfirmDepositMutation(base: string) {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: (sessionId: string) => api<{ payment: Payment }>(`${base}/deposit/confirm`, { method: 'POST', body: { sessionId } }),
-    onSettled: () => queryClient.invalidateQueries({ queryKey: ownerKeys.view(base) }),
+    onSuccess: () => invalidateOwnerView(queryClient, base),
   });
 }
