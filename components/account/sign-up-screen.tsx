@@ -41,9 +41,9 @@ const kindChoices = [
   { value: 'grinding', label: 'Grinding shop' },
 ] as const;
 
+/** `join` is set when the invitation page links here with ?join=1: the person joins the inviting shop once their address is verified. */
 export function SignUpScreen({ join }: { join?: string }) {
   const signUp = useSignUpMutation();
-  // The invitation page links here with ?join=1: the person joins the inviting shop once their address is verified.
   const [formError, setFormError] = useState<string | null>(null);
   const { control, handleSubmit, setError } = useForm<SignUpValues>({
     resolver: zodResolver(signUpSchema),
