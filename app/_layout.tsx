@@ -9,9 +9,9 @@ import { useFonts } from 'expo-font';
 import { Stack } from 'expo-router';
 import { useState } from 'react';
 
-import { DemoBanner } from '@/components/demo-banner';
-import { GlobalStyle } from '@/components/global-style';
-import { Pending } from '@/components/query-state';
+import { DemoBanner } from '@/components/ui/demo-banner';
+import { GlobalStyle } from '@/components/ui/global-style';
+import { Pending } from '@/components/ui/query-state';
 import { colors } from '@/constants/theme';
 import { useMeQuery } from '@/hooks/use-me';
 

@@ -1,4 +1,4 @@
-import { colors } from './theme';
+import { colors } from '@/constants/theme';
 
 /** Page-wide rules the web build adds: page colours, a strong focus ring, and print output in black on white. */
 export const pageCss = `

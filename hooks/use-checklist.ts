@@ -1,8 +1,8 @@
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 
 import type { ChecklistItem } from '@/shared/measurements';
 
-import { api, staleTimes } from './api';
+import { api, staleTimes } from '@/lib/api';
 
 export const checklistKeys = {
   all: ['checklist'] as const,
@@ -17,9 +17,13 @@ export function useChecklistQuery(jobId: string) {
   });
 }
 
+/** Refetch a job's checklist. */
+export const invalidateChecklist = (queryClient: QueryClient, jobId: string) =>
+  queryClient.invalidateQueries({ queryKey: checklistKeys.job(jobId) });
+
 function useSettle(jobId: string) {
   const queryClient = useQueryClient();
-  return () => queryClient.invalidateQueries({ queryKey: checklistKeys.job(jobId) });
+  return () => invalidateChecklist(queryClient, jobId);
 }
 
 export function useAddChecklistItemMutation(jobId: string) {

@@ -1,8 +1,8 @@
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 
 import type { EngineRecord, EngineSave } from '@/shared/engine';
 
-import { api, staleTimes } from './api';
+import { api, staleTimes } from '@/lib/api';
 
 export const engineKeys = {
   all: ['engine'] as const,
@@ -10,6 +10,9 @@ export const engineKeys = {
 };
 
 /** The engine on a job, or null before anyone has entered it. */
+/** Refetch a job's engine. */
+export const invalidateEngine = (queryClient: QueryClient, jobId: string) => queryClient.invalidateQueries({ queryKey: engineKeys.job(jobId) });
+
 export function useEngineQuery(jobId: string) {
   return useQuery({
     queryKey: engineKeys.job(jobId),

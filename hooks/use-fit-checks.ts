@@ -1,8 +1,8 @@
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 
 import type { FitCheckRun } from '@/shared/measurements';
 
-import { api, staleTimes } from './api';
+import { api, staleTimes } from '@/lib/api';
 
 export const fitCheckKeys = {
   all: ['fit-checks'] as const,
@@ -10,6 +10,10 @@ export const fitCheckKeys = {
 };
 
 /** Earlier runs on a sheet, newest first. */
+/** Refetch a sheet's fit-check runs. */
+export const invalidateFitChecks = (queryClient: QueryClient, sheetId: string) =>
+  queryClient.invalidateQueries({ queryKey: fitCheckKeys.sheet(sheetId) });
+
 export function useFitCheckRunsQuery(sheetId: string | null) {
   return useQuery({
     queryKey: fitCheckKeys.sheet(sheetId ?? ''),
@@ -27,6 +31,6 @@ export function useRunFitChecksMutation(sheetId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: async () => (await api<{ run: FitCheckRun }>(`/api/sheets/${encodeURIComponent(sheetId)}/fit-checks`, { method: 'POST', body: {} })).run,
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: fitCheckKeys.sheet(sheetId) }),
+    onSuccess: () => invalidateFitChecks(queryClient, sheetId),
   });
 }

@@ -1,9 +1,9 @@
-import { useInfiniteQuery, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useInfiniteQuery, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 
 import type { Job, JobCreate, JobPatch } from '@/shared/jobs';
 import type { Page } from '@/shared/paging';
 
-import { api, pagePath, staleTimes } from './api';
+import { api, pagePath, staleTimes } from '@/lib/api';
 
 export const jobKeys = {
   all: ['jobs'] as const,
@@ -12,6 +12,9 @@ export const jobKeys = {
 };
 
 /** The shop's jobs, newest change first, a page at a time (`fetchNextPage` for more); `data` is every job loaded so far. */
+/** Refetch the jobs list (every page loaded so far). */
+export const invalidateJobList = (queryClient: QueryClient) => queryClient.invalidateQueries({ queryKey: jobKeys.list() });
+
 export function useJobsQuery(enabled = true) {
   return useInfiniteQuery({
     queryKey: jobKeys.list(),
@@ -38,7 +41,7 @@ export function useCreateJobMutation() {
     mutationFn: async (body: JobCreate) => (await api<{ job: Job }>('/api/jobs', { method: 'POST', body })).job,
     onSuccess: (job) => {
       queryClient.setQueryData(jobKeys.detail(job.id), job);
-      return queryClient.invalidateQueries({ queryKey: jobKeys.list() });
+      return invalidateJobList(queryClient);
     },
   });
 }
@@ -50,7 +53,7 @@ export function useSaveJobMutation(id: string) {
       (await api<{ job: Job }>(`/api/jobs/${encodeURIComponent(id)}`, { method: 'PATCH', body })).job,
     onSuccess: (job) => {
       queryClient.setQueryData(jobKeys.detail(job.id), job);
-      return queryClient.invalidateQueries({ queryKey: jobKeys.list() });
+      return invalidateJobList(queryClient);
     },
   });
 }

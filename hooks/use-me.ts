@@ -1,10 +1,13 @@
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 
 import type { Me, ShopCreate } from '@/shared/me';
 
-import { api, ApiError, staleTimes } from './api';
+import { api, ApiError, staleTimes } from '@/lib/api';
 
 export const meKeys = { all: ['me'] as const };
+
+/** Refetch who is signed in (their shops, role, verification). */
+export const invalidateMe = (queryClient: QueryClient) => queryClient.invalidateQueries({ queryKey: meKeys.all });
 
 /** The signed-in person, or null when nobody is signed in. */
 export function useMeQuery() {
@@ -28,7 +31,7 @@ function useResetAll() {
   const queryClient = useQueryClient();
   return async () => {
     queryClient.removeQueries({ predicate: (q) => q.queryKey[0] !== meKeys.all[0] });
-    await queryClient.invalidateQueries({ queryKey: meKeys.all });
+    await invalidateMe(queryClient);
   };
 }
 

@@ -1,9 +1,9 @@
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 
 import type { Measurement, MeasurementCreate, MeasurementKind } from '@/shared/measurements';
 
-import { api, staleTimes, upload } from './api';
-import { appendPickedFile, type PickedFile } from './form-file';
+import { api, staleTimes, upload } from '@/lib/api';
+import { appendPickedFile, type PickedFile } from '@/lib/form-file';
 
 export const measurementKeys = {
   all: ['measurements'] as const,
@@ -28,9 +28,13 @@ export function latestOfKind<K extends MeasurementKind>(list: readonly Measureme
   return found[0] ?? null;
 }
 
+/** Refetch a job's measurements. */
+export const invalidateMeasurements = (queryClient: QueryClient, jobId: string) =>
+  queryClient.invalidateQueries({ queryKey: measurementKeys.job(jobId) });
+
 function useSettle(jobId: string) {
   const queryClient = useQueryClient();
-  return () => queryClient.invalidateQueries({ queryKey: measurementKeys.job(jobId) });
+  return () => invalidateMeasurements(queryClient, jobId);
 }
 
 export function useCreateMeasurementMutation(jobId: string) {

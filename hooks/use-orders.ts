@@ -1,10 +1,10 @@
-import { useInfiniteQuery, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useInfiniteQuery, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 
 import type { IssueBody, Order, OrderDetail, OrderMessage, OrderMove } from '@/shared/orders';
 import type { Page } from '@/shared/paging';
 
-import { api, pagePath, staleTimes } from './api';
-import { sheetKeys } from './use-sheets';
+import { api, pagePath, staleTimes } from '@/lib/api';
+import { invalidateSheets, sheetKeys } from '@/hooks/use-sheets';
 
 export type GrindingShop = { id: string; name: string };
 
@@ -59,15 +59,23 @@ export function useOrderQuery(id: string) {
   });
 }
 
+/** Refetch an order and its thread. */
+export const invalidateOrder = (queryClient: QueryClient, id: string) =>
+  Promise.all([queryClient.invalidateQueries({ queryKey: orderKeys.messages(id) }), queryClient.invalidateQueries({ queryKey: orderKeys.detail(id) })]);
+
+/** Refetch the lists an order appears in (its sheet's orders, incoming) and its thread. */
+export const invalidateOrderLists = (queryClient: QueryClient, order: { id: string; sheetId: string }) =>
+  Promise.all([
+    queryClient.invalidateQueries({ queryKey: orderKeys.sheet(order.sheetId) }),
+    queryClient.invalidateQueries({ queryKey: orderKeys.incoming() }),
+    queryClient.invalidateQueries({ queryKey: orderKeys.messages(order.id) }),
+  ]);
+
 function useSettleOrder() {
   const queryClient = useQueryClient();
   return (order: OrderDetail) => {
     queryClient.setQueryData(orderKeys.detail(order.id), order);
-    return Promise.all([
-      queryClient.invalidateQueries({ queryKey: orderKeys.sheet(order.sheetId) }),
-      queryClient.invalidateQueries({ queryKey: orderKeys.incoming() }),
-      queryClient.invalidateQueries({ queryKey: orderKeys.messages(order.id) }),
-    ]);
+    return invalidateOrderLists(queryClient, order);
   };
 }
 
@@ -80,7 +88,7 @@ export function useIssueSheetMutation(sheetId: string) {
       Promise.all([
         queryClient.invalidateQueries({ queryKey: sheetKeys.detail(sheetId) }),
         queryClient.invalidateQueries({ queryKey: orderKeys.sheet(sheetId) }),
-        queryClient.invalidateQueries({ queryKey: sheetKeys.all }),
+        invalidateSheets(queryClient),
       ]),
   });
 }
@@ -108,9 +116,6 @@ export function useSendMessageMutation(id: string) {
     mutationFn: async (body: { body: string }) =>
       (await api<{ message: OrderMessage }>(`/api/orders/${enc(id)}/messages`, { method: 'POST', body })).message,
     onSuccess: () =>
-      Promise.all([
-        queryClient.invalidateQueries({ queryKey: orderKeys.messages(id) }),
-        queryClient.invalidateQueries({ queryKey: orderKeys.detail(id) }),
-      ]),
+      invalidateOrder(queryClient, id),
   });
 }

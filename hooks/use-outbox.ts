@@ -1,8 +1,8 @@
-import { useQuery } from '@tanstack/react-query';
+import { useQuery, type QueryClient } from '@tanstack/react-query';
 
 import type { OutboxMessage } from '@/shared/orders';
 
-import { api, ApiError, staleTimes } from './api';
+import { api, ApiError, staleTimes } from '@/lib/api';
 
 export const outboxKeys = {
   all: ['outbox'] as const,
@@ -16,6 +16,9 @@ export const outboxKeys = {
  * The server decides, not the bundle: `expo export` always bundles with NODE_ENV=production,
  * even for the build a developer serves locally with the outbox on.
  */
+/** Refetch the development mailbox. */
+export const invalidateOutbox = (queryClient: QueryClient) => queryClient.invalidateQueries({ queryKey: outboxKeys.all });
+
 export function useOutboxQuery(enabled = true) {
   return useQuery({
     queryKey: outboxKeys.list(),

@@ -1,9 +1,9 @@
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 
 import type { Photo } from '@/shared/measurements';
 
-import { api, staleTimes, upload } from './api';
-import { appendPickedFile, type PickedFile } from './form-file';
+import { api, staleTimes, upload } from '@/lib/api';
+import { appendPickedFile, type PickedFile } from '@/lib/form-file';
 
 export const photoKeys = {
   all: ['photos'] as const,
@@ -18,9 +18,12 @@ export function useJobPhotosQuery(jobId: string) {
   });
 }
 
+/** Refetch a job's photos. */
+export const invalidatePhotos = (queryClient: QueryClient, jobId: string) => queryClient.invalidateQueries({ queryKey: photoKeys.job(jobId) });
+
 function useSettle(jobId: string) {
   const queryClient = useQueryClient();
-  return () => queryClient.invalidateQueries({ queryKey: photoKeys.job(jobId) });
+  return () => invalidatePhotos(queryClient, jobId);
 }
 
 /** Sends up to six photos in one request (multipart field `photos`, as the server names it). */

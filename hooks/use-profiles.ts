@@ -1,8 +1,8 @@
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 
 import type { Profile, ProfileCreate, ProfilePatch } from '@/shared/profile';
 
-import { api, staleTimes } from './api';
+import { api, staleTimes } from '@/lib/api';
 
 export const profileKeys = {
   all: ['profiles'] as const,
@@ -37,13 +37,15 @@ export function useProfileQuery(id: string) {
   });
 }
 
+/** Refetch the list a profile is in: the job's when it belongs to one, else the library. */
+export const invalidateProfileList = (queryClient: QueryClient, jobId: string | null | undefined) =>
+  queryClient.invalidateQueries({ queryKey: jobId ? profileKeys.job(jobId) : profileKeys.library() });
+
 function useSettle() {
   const queryClient = useQueryClient();
   return (profile: Profile) => {
     queryClient.setQueryData(profileKeys.detail(profile.id), profile);
-    return queryClient.invalidateQueries({
-      queryKey: profile.jobId ? profileKeys.job(profile.jobId) : profileKeys.library(),
-    });
+    return invalidateProfileList(queryClient, profile.jobId);
   };
 }
 
@@ -75,6 +77,6 @@ export function useDeleteProfileMutation() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (id: string) => api(`/api/profiles/${encodeURIComponent(id)}`, { method: 'DELETE' }),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: profileKeys.library() }),
+    onSuccess: () => invalidateProfileList(queryClient, null),
   });
 }

@@ -1,8 +1,8 @@
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 
 import type { Sheet, SheetCreate, SheetSave, SheetWithHistory } from '@/shared/sheets';
 
-import { api, staleTimes } from './api';
+import { api, staleTimes } from '@/lib/api';
 
 export const sheetKeys = {
   all: ['sheets'] as const,
@@ -27,11 +27,17 @@ export function useSheetQuery(id: string, enabled = true) {
   });
 }
 
+/** Refetch a job's sheets. */
+export const invalidateJobSheets = (queryClient: QueryClient, jobId: string) => queryClient.invalidateQueries({ queryKey: sheetKeys.job(jobId) });
+
+/** Refetch every sheet query (lists and details), for a change that touches a sheet's revisions. */
+export const invalidateSheets = (queryClient: QueryClient) => queryClient.invalidateQueries({ queryKey: sheetKeys.all });
+
 function useSettle() {
   const queryClient = useQueryClient();
   return (sheet: SheetWithHistory) => {
     queryClient.setQueryData(sheetKeys.detail(sheet.id), sheet);
-    return queryClient.invalidateQueries({ queryKey: sheetKeys.job(sheet.jobId) });
+    return invalidateJobSheets(queryClient, sheet.jobId);
   };
 }
 

@@ -1,8 +1,8 @@
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 
 import type { ShopLimitsResponse, ShopLimitsSave } from '@/shared/measurements';
 
-import { api, staleTimes } from './api';
+import { api, staleTimes } from '@/lib/api';
 
 /** The overrides and version, every rule as it applies (with its source), and calc's defaults. */
 export type ShopLimitsAnswer = ShopLimitsResponse;
@@ -10,6 +10,9 @@ export type ShopLimitsAnswer = ShopLimitsResponse;
 export const shopLimitKeys = { all: ['shop-limits'] as const };
 
 /** The shop's own limits, its version, and the limits the checks use (defaults merged, each with its source). */
+/** Refetch the shop's limits. */
+export const invalidateShopLimits = (queryClient: QueryClient) => queryClient.invalidateQueries({ queryKey: shopLimitKeys.all });
+
 export function useShopLimitsQuery() {
   return useQuery({
     queryKey: shopLimitKeys.all,
@@ -25,7 +28,7 @@ export function useSaveShopLimitsMutation() {
     mutationFn: (body: ShopLimitsSave) => api<ShopLimitsAnswer>('/api/shop/limits', { method: 'PUT', body }),
     onSuccess: (answer) => {
       queryClient.setQueryData(shopLimitKeys.all, answer);
-      return queryClient.invalidateQueries({ queryKey: shopLimitKeys.all });
+      return invalidateShopLimits(queryClient);
     },
   });
 }

@@ -1,15 +1,18 @@
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 
 import type { ShopRole } from '@/shared/roles';
 import type { InvitationView, InviteInput, Team } from '@/shared/team';
 
-import { api, staleTimes } from './api';
-import { meKeys } from './use-me';
+import { api, staleTimes } from '@/lib/api';
+import { invalidateMe } from '@/hooks/use-me';
 
 export const teamKeys = {
   team: ['team'] as const,
   invitation: (id: string) => ['invitation', id] as const,
 };
+
+/** Refetch the shop's staff and invitations. */
+export const invalidateTeam = (queryClient: QueryClient) => queryClient.invalidateQueries({ queryKey: teamKeys.team });
 
 /** The shop's staff and open invitations (builders of a repair shop, grinders of a grinding shop). */
 export function useTeamQuery(enabled: boolean) {
@@ -52,7 +55,7 @@ export function useAnswerInvitationMutation(id: string) {
     mutationFn: (answer: 'accept' | 'decline') => api<InvitationView>(`/api/invitations/${encodeURIComponent(id)}/${answer}`, { method: 'POST' }),
     onSuccess: async (view) => {
       queryClient.setQueryData(teamKeys.invitation(id), view);
-      await queryClient.invalidateQueries({ queryKey: meKeys.all });
+      await invalidateMe(queryClient);
     },
   });
 }

@@ -1,8 +1,8 @@
 import { Tabs } from 'expo-router';
 import { useWindowDimensions, View } from 'react-native';
 
-import { NavBar, type NavItem } from '@/components/nav-bar';
-import { VerifyBanner } from '@/components/verify-banner';
+import { NavBar, type NavItem } from '@/components/ui/nav-bar';
+import { VerifyBanner } from '@/components/account/verify-banner';
 import { breakpoints, colors } from '@/constants/theme';
 import { useMeQuery } from '@/hooks/use-me';
 import { useOutboxQuery } from '@/hooks/use-outbox';

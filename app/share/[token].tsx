@@ -1,7 +1,7 @@
 import { useLocalSearchParams } from 'expo-router';
 
-import { OwnerSummary } from '@/components/owner-summary';
-import { ownerApiBase } from '@/hooks/use-owner';
+import { OwnerSummary } from '@/components/owner/owner-summary';
+import { ownerApiBase } from '@/hooks/use-owner-page';
 
 /** The owner's summary opened from a share link, with no account. */
 export default function SharedSummaryScreen() {

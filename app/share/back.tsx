@@ -1,32 +1,9 @@
-import { Redirect, Stack, useLocalSearchParams } from 'expo-router';
-import { StyleSheet, Text, View } from 'react-native';
+import { useLocalSearchParams } from 'expo-router';
 
-import { ownerType } from '@/components/owner-type';
-import { colors, space } from '@/constants/theme';
-import { rememberedOwnerPage } from '@/hooks/owner-return';
+import { OwnerReturnScreen } from '@/components/owner/owner-return-screen';
 
 /** Back from the payment page: on to the summary this tab came from, with the payment session to check. */
-export default function OwnerReturnScreen() {
+export default function OwnerReturnRoute() {
   const { deposit } = useLocalSearchParams<{ deposit?: string }>();
-  const page = rememberedOwnerPage();
-  if (page) return <Redirect href={deposit ? `${page}?deposit=${encodeURIComponent(deposit)}` : page} />;
-  return (
-    <View style={styles.page} testID="owner-return">
-      <Stack.Screen options={{ title: 'Back from the payment page' }} />
-      <Text role="heading" aria-level={1} style={styles.title}>
-        Back from the payment page
-      </Text>
-      <Text style={styles.body} role="status">
-        {deposit
-          ? 'If you paid, the shop will see it in a moment. Open the link the shop sent you again to see your summary with the payment.'
-          : 'Open the link the shop sent you again to see your summary.'}
-      </Text>
-    </View>
-  );
+  return <OwnerReturnScreen deposit={deposit} />;
 }
-
-const styles = StyleSheet.create({
-  page: { flex: 1, padding: space.xl, gap: space.md, backgroundColor: colors.surface },
-  title: { ...ownerType.display, color: colors.ink },
-  body: { ...ownerType.body, color: colors.ink },
-});

@@ -18,13 +18,13 @@ import zlib from 'node:zlib';
 import { chromium } from 'playwright-core';
 
 import { DEMO_ENGINE, DEMO_STOCK_REGRIND, DEMO_TOWING } from '@/calc/demo';
-import { buildPlotPaths } from '@/components/lift-plot-paths';
+import { buildPlotPaths } from '@/lib/lift-plot-paths';
 import { openDb } from '@/db';
 import { createApp } from '@/server/app';
 import { analyzeRecords } from '@/shared/analysis';
 import { engineSchema } from '@/shared/engine';
 import { profileSpecSchema } from '@/shared/profile';
-import { applyDraft } from '@/shared/profile-draft';
+import { applyDraft } from '@/lib/profile-draft';
 
 import { ensureWebExport } from './web-export';
 

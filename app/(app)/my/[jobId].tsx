@@ -1,7 +1,7 @@
 import { useLocalSearchParams } from 'expo-router';
 
-import { OwnerSummary } from '@/components/owner-summary';
-import { ownerApiBase } from '@/hooks/use-owner';
+import { OwnerSummary } from '@/components/owner/owner-summary';
+import { ownerApiBase } from '@/hooks/use-owner-page';
 
 /** A signed-in owner's summary of one job. */
 export default function MyJobScreen() {

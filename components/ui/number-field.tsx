@@ -1,0 +1,114 @@
+import { Controller, type Control, type FieldErrors, type FieldPath, type FieldValues, type Resolver } from 'react-hook-form';
+
+import {
+  draftFromText,
+  rangeText,
+  resolveDrafts,
+  setAt,
+  shownText,
+  shownUnit,
+  type NumberDraft,
+  type NumberSpec,
+  type ShownUnits,
+} from '@/lib/number-draft';
+
+import { TextField } from '@/components/ui/text-field';
+
+type NumberFieldProps = {
+  spec: NumberSpec;
+  draft: NumberDraft;
+  units: ShownUnits;
+  onChange: (draft: NumberDraft) => void;
+  onBlur?: () => void;
+  error?: string;
+  editable?: boolean;
+  testID?: string;
+};
+
+/**
+ * A number in the unit chosen on the toggle, with its range as a hint. It
+ * shows the text as typed until the unit changes, then the saved value
+ * converted, so nothing is rounded away by switching back and forth.
+ */
+export function NumberField({ spec, draft, units, onChange, onBlur, error, editable = true, testID }: NumberFieldProps) {
+  const range = `Range ${rangeText(spec, units)}`;
+  return (
+    <TextField
+      label={spec.label}
+      unit={shownUnit(spec, units)}
+      hint={spec.hint ? `${spec.hint}. ${range}` : range}
+      error={error}
+      value={draft ? shownText(spec, draft, units) : ''}
+      onChangeText={(text) => onChange(draftFromText(spec, text, units))}
+      onBlur={onBlur}
+      editable={editable}
+      inputMode={spec.min < 0 ? 'text' : 'decimal'}
+      autoCorrect={false}
+      autoCapitalize="none"
+      testID={testID}
+    />
+  );
+}
+
+type DraftFieldProps<T extends FieldValues, TOut> = {
+  control: Control<T, unknown, TOut>;
+  spec: NumberSpec;
+  units: ShownUnits;
+  editable?: boolean;
+  /** Test ids are the form's prefix and the field's path with dashes: `engine-spring-seatLoad`. */
+  testPrefix: string;
+};
+
+/** The test id for a number field: `engine` + `spring.seatLoad` → `engine-spring-seatLoad`. */
+export const fieldTestId = (prefix: string, path: string) => `${prefix}-${path.replace(/^spec\./, '').replace(/\./g, '-')}`;
+
+/** A NumberField bound to a react-hook-form field named by the spec's path. */
+export function DraftField<T extends FieldValues, TOut>({ control, spec, units, editable, testPrefix }: DraftFieldProps<T, TOut>) {
+  return (
+    <Controller
+      control={control}
+      name={spec.path as FieldPath<T>}
+      render={({ field, fieldState }) => (
+        <NumberField
+          spec={spec}
+          draft={field.value as NumberDraft}
+          units={units}
+          onChange={field.onChange}
+          onBlur={field.onBlur}
+          error={fieldState.error?.message}
+          editable={editable}
+          testID={fieldTestId(testPrefix, spec.path)}
+        />
+      )}
+    />
+  );
+}
+
+type Parser<T> = Parameters<typeof resolveDrafts<T>>[3];
+
+/**
+ * A react-hook-form resolver for a form of number drafts: checks each number
+ * in the unit shown and the rest with
+ * the shared schema, and hands the submit handler the record in calc units.
+ * useForm reads its options on every render, so a resolver rebuilt when the
+ * units change is the one the next submit uses.
+ */
+export function draftResolver<TDraft extends FieldValues, TOut>(
+  specs: readonly NumberSpec[],
+  schema: Parser<TOut>,
+  others: (values: TDraft) => Record<string, unknown>,
+  units: ShownUnits | null,
+): Resolver<TDraft, unknown, TOut> {
+  return async (values) => {
+    if (!units) {
+      return { values: {}, errors: { root: { type: 'units', message: 'Unit conversion is still loading. Try again in a moment.' } } as FieldErrors<TDraft> };
+    }
+    const result = resolveDrafts(specs, values, others(values), schema, units);
+    if (result.errors === null) return { values: result.values, errors: {} };
+    const errors: Record<string, unknown> = {};
+    for (const [path, message] of Object.entries(result.errors)) {
+      setAt(errors, path === '(form)' ? 'root' : path, { type: 'validate', message });
+    }
+    return { values: {}, errors: errors as FieldErrors<TDraft> };
+  };
+}

@@ -1,0 +1,61 @@
+import type { ProfileAnalysis } from '@/calc/analysis';
+import { compareProfilesForOwner, type OwnerComparison } from '@/calc/compare';
+import { isCalcInputError } from '@/calc/errors';
+import { applyDraft, type ProfileDraft } from '@/lib/profile-draft';
+import { analyzeRecords } from '@/shared/analysis';
+import type { EngineSpec } from '@/shared/engine';
+import type { Profile, ProfileSpec } from '@/shared/profile';
+
+/** One profile on the compare screen: the spec with any typed values applied, and its analysis or why there is none. */
+export type CompareColumn = {
+  profile: Profile;
+  spec: ProfileSpec;
+  analysis: ProfileAnalysis | null;
+  error: string | null;
+  fieldErrors: Partial<Record<string, string>>;
+};
+
+/** Runs calc's analysis on a profile with its typed-but-unsaved values; a bad value keeps the saved spec and names the field. */
+export function analyzeColumn(engine: EngineSpec, profile: Profile, draft: ProfileDraft | undefined): CompareColumn {
+  const applied = draft ? applyDraft(profile.spec, draft) : ({ ok: true, spec: profile.spec } as const);
+  const spec = applied.ok ? applied.spec : profile.spec;
+  const fieldErrors = applied.ok ? {} : applied.errors;
+  try {
+    return { profile, spec, analysis: analyzeRecords(engine, spec), error: null, fieldErrors };
+  } catch (error) {
+    const message = isCalcInputError(error) ? `${error.field}: ${error.message}` : error instanceof Error ? error.message : String(error);
+    return { profile, spec, analysis: null, error: message, fieldErrors };
+  }
+}
+
+export type AnalyzedColumn = CompareColumn & { analysis: ProfileAnalysis };
+
+/** What the screen shows from the columns that could be worked out: plots, the owner's comparison of the first two, and whether to warn. */
+export function summarizeColumns(columns: readonly CompareColumn[]): {
+  shown: AnalyzedColumn[];
+  analyses: ProfileAnalysis[];
+  names: string[];
+  nearLimit: boolean;
+  owner: OwnerComparison | null;
+} {
+  const shown = columns.filter((c): c is AnalyzedColumn => c.analysis !== null);
+  const analyses = shown.map((c) => c.analysis);
+  const names = shown.map((c) => c.profile.label);
+  const nearLimit = analyses.some((a) => a.status !== 'pass');
+  const owner =
+    analyses.length >= 2 && analyses[0] && analyses[1]
+      ? compareProfilesForOwner({ current: analyses[0], candidate: analyses[1], currentName: names[0], candidateName: names[1] })
+      : null;
+  return { shown, analyses, names, nearLimit, owner };
+}
+
+/** The profiles chosen on a job, in the order picked; with no choice yet, the job's first two. */
+export function chosenProfiles(picked: readonly string[] | undefined, profiles: readonly Profile[]): Profile[] {
+  const ids = picked ?? profiles.slice(0, 2).map((p) => p.id);
+  return ids.map((id) => profiles.find((p) => p.id === id)).filter((p): p is Profile => Boolean(p));
+}
+
+/** Adds or removes a profile from the comparison, keeping the three most recently picked. */
+export function toggleChoice(current: readonly string[], id: string): string[] {
+  return current.includes(id) ? current.filter((x) => x !== id) : [...current, id].slice(-3);
+}

@@ -1,0 +1,31 @@
+import { atom, useAtom } from 'jotai';
+import { useMemo } from 'react';
+
+import { analyzeColumn, chosenProfiles, summarizeColumns, toggleChoice } from '@/lib/compare-analysis';
+import type { PlotMode } from '@/lib/lift-plot-paths';
+import type { ProfileDraft } from '@/lib/profile-draft';
+import type { EngineSpec } from '@/shared/engine';
+import type { Profile } from '@/shared/profile';
+
+/** Profiles chosen for comparison, per job (ids, in the order picked; the first is the baseline). */
+export const compareSelectionAtom = atom<Record<string, string[]>>({});
+
+/** Typed but unsaved profile values, per profile id. */
+export const profileDraftsAtom = atom<Record<string, ProfileDraft>>({});
+
+/** What the compare plot shows. */
+export const plotModeAtom = atom<PlotMode>('lift');
+
+/** The compare screen's state for one job: the chosen profiles, their typed values and each one's analysis. */
+export function useCompare(jobId: string, engine: EngineSpec, profiles: readonly Profile[]) {
+  const [selection, setSelection] = useAtom(compareSelectionAtom);
+  const [drafts, setDrafts] = useAtom(profileDraftsAtom);
+  const [mode, setMode] = useAtom(plotModeAtom);
+  const chosen = useMemo(() => chosenProfiles(selection[jobId], profiles), [selection, jobId, profiles]);
+  const columns = useMemo(() => chosen.map((p) => analyzeColumn(engine, p, drafts[p.id])), [engine, chosen, drafts]);
+  const summary = useMemo(() => summarizeColumns(columns), [columns]);
+  const chosenIds = chosen.map((p) => p.id);
+  const toggle = (id: string) => setSelection((s) => ({ ...s, [jobId]: toggleChoice(s[jobId] ?? chosenIds, id) }));
+  const setDraft = (profileId: string, draft: ProfileDraft) => setDrafts((d) => ({ ...d, [profileId]: draft }));
+  return { chosen, chosenIds, columns, ...summary, toggle, drafts, setDraft, mode, setMode };
+}
