@@ -14,6 +14,7 @@ import { DEMO_ANALYSIS_INPUT, DEMO_ENGINE, DEMO_TOWING } from './demo';
 import { CalcInputError } from './errors';
 import { valveEvents } from './events';
 import { dynamicCompression, staticCompression } from './geometry';
+import { offsetAtLiftRaw, synthesizeLobe } from './lift-curve';
 import { durationAtHeight } from './measured';
 import { ptvSweep } from './ptv';
 
@@ -68,9 +69,15 @@ describe('analyzeProfile on the demo engine (demo data, invented)', () => {
   it('agrees with the standalone compression functions', () => {
     const s = staticCompression(DEMO_ENGINE);
     expect(a.compression.static.ratio).toBeCloseTo(s.ratio, 12);
-    const d = dynamicCompression({ ...DEMO_ENGINE, ivcAbdc: 63 });
+    // IVC at the 0.006 in valve-lift reference: 0.006 / 1.6 = 0.00375 in tappet lift on the intake lobe.
+    const ivc = 108 + offsetAtLiftRaw(synthesizeLobe(DEMO_TOWING.intake), 0.006 / 1.6) - 180;
+    expect(a.compression.dynamic.ivcAbdc).toBeCloseTo(ivc, 12);
+    const d = dynamicCompression({ ...DEMO_ENGINE, ivcAbdc: ivc });
     expect(a.compression.dynamic.ratio).toBeCloseTo(d.ratio, 12);
-    expect(a.compression.dynamic.convention).toMatch(/advertised checking height/);
+    expect(a.compression.dynamic.convention).toMatch(/0\.006 in valve lift/);
+    // the common figure beside it: 0.050 in closing (212/2 + 108 − 180 = 34° ABDC) + 15° = 49° ABDC
+    expect(a.compression.dynamic.at050Plus15.ivcAbdc).toBeCloseTo(49, 12);
+    expect(a.compression.dynamic.at050Plus15.ratio).toBeCloseTo(dynamicCompression({ ...DEMO_ENGINE, ivcAbdc: 49 }).ratio, 12);
     // displacement: 752.495 cc × 8 = 6019.96 cc (hand-worked from the sweptVolume test)
     expect(a.displacement.cc).toBeCloseTo(6019.96, 1);
   });
