@@ -16,6 +16,8 @@ import {
   type CheckLimits,
   type CheckResult,
   type CheckStatus,
+  type MaximumRule,
+  type MinimumRule,
   type SkippedCheck,
 } from './checks';
 import { CC_PER_CUBIC_INCH, CHECKING_HEIGHT_050, CURVE_STEP_DEG, RAD_PER_DEG } from './constants';
@@ -23,8 +25,6 @@ import { curvatureRaw, pressureAngleRaw, ENVELOPE_CRITERION, type FlankPeak } fr
 import { CalcInputError, requireInRange, requireInteger, requireNonNegative, requireObject, requirePositive } from './errors';
 import { type DegreeResult } from './degree';
 import { requireIcl, requireLsa, valveEventsRaw, type ValveEvents } from './events';
-
-const DEG_PER_RAD = 180 / Math.PI;
 import {
   checkCompressionInput,
   dynamicCompressionRaw,
@@ -53,6 +53,8 @@ import { findWornLobes, type LobeMaxLift, type WornLobeResult } from './measured
 import { baselineOffsetRaw, ptvSweepRaw, requireBaseline, requireValveAngle, type PtvBaseline, type PtvSweep } from './ptv';
 import { lifterSideOfCut, preloadAfterRegrind, regrindCleanup, type CleanupResult, type LifterCutResult, type PreloadResult } from './regrind';
 import { requireSpring, springCheckRaw, type SpringCheck } from './springs';
+
+const DEG_PER_RAD = 180 / Math.PI;
 
 // ---------------------------------------------------------------------------
 // Input (JSON-friendly)
@@ -249,7 +251,7 @@ export interface LobeGeometry {
   } | null;
   /** Material margin against the core's lobe, inches on the radius (null without a core). */
   envelope: {
-    /** Cam degrees ATDC overlap (half the crank angle) of margin[0]. */
+    /** Cam degrees of margin[0] from the candidate's lobe centre (−180: the whole turn). */
     start: number;
     /** Cam degrees between samples. */
     step: number;
@@ -468,14 +470,33 @@ export interface AnalysisWorkspace {
   cam: { intake: CamBuffers; exhaust: CamBuffers; coreIntake: CamBuffers; coreExhaust: CamBuffers };
   marginIntake: Float64Array;
   marginExhaust: Float64Array;
+  /** The last core lobes fitted, kept while the core's sheet repeats (one core, several candidates). */
+  cores: { intake: LobeShape | null; exhaust: LobeShape | null };
+}
+
+/** The core's lobe shape, reused from the workspace when its sheet is the same as last time. */
+function coreShape(ws: AnalysisWorkspace, name: 'intake' | 'exhaust', spec: LobeSpec): LobeShape {
+  const last = ws.cores[name];
+  if (
+    last !== null &&
+    last.duration050 === spec.duration050 &&
+    last.advertisedDuration === spec.advertisedDuration &&
+    last.advertisedHeight === spec.advertisedHeight &&
+    last.lobeLift === spec.lobeLift
+  ) {
+    return last;
+  }
+  const shape = synthesizeLobeRaw(spec, `core.${name}`);
+  ws.cores[name] = shape;
+  return shape;
 }
 
 /**
  * The grid cam geometry and the envelope use: a whole cam turn in 1 cam-degree
- * steps, in cam degrees ATDC overlap (half the crank angle), so the intake
- * lobe centre sits at ICL/2 and the exhaust centre at −ECL/2.
+ * steps, in cam degrees from the candidate lobe's centre (index 180 is the nose).
  */
 export const CAM_GRID: CurveGrid = { start: -180, step: 1, count: 360 };
+const CAM_CENTRE = 180;
 
 function createCamBuffers(): CamBuffers {
   const n = CAM_GRID.count;
@@ -484,11 +505,18 @@ function createCamBuffers(): CamBuffers {
 
 /**
  * Unchecked: tappet lift, velocity (in/cam°) and acceleration (in/cam°²) of a
- * lobe centred at `centre` cam degrees on CAM_GRID, wrapping round the turn.
+ * lobe on CAM_GRID, where index j lies j − 180 + shift cam degrees from the
+ * lobe's centre, wrapping round the turn. Returns the index range of the
+ * event about index 180 − shift (it may wrap past the ends).
  */
-function fillCamLobe(shape: LobeShape, centre: number, out: CamBuffers): void {
+function fillCamLobe(shape: LobeShape, shift: number, out: CamBuffers, liftOnly = false): { from: number; to: number } {
   const { lift, velocity, acceleration } = out;
-  const { start, step, count } = CAM_GRID;
+  const count = CAM_GRID.count;
+  lift.fill(0);
+  if (!liftOnly) {
+    velocity.fill(0);
+    acceleration.fill(0);
+  }
   const halfCam = shape.halfEvent / 2;
   const invPhi = 1 / shape.halfEvent;
   const L = shape.lobeLift;
@@ -497,16 +525,13 @@ function fillCamLobe(shape: LobeShape, centre: number, out: CamBuffers): void {
   // crank-degree derivatives ×2 and ×4 per cam degree
   const vScale = 2 * L * invPhi;
   const aScale = 4 * L * invPhi * invPhi;
-  for (let i = 0; i < count; i++) {
-    let d = start + i * step - centre;
-    d -= 360 * Math.floor((d + 180) / 360);
+  const from = Math.ceil(CAM_CENTRE - shift - halfCam);
+  const to = Math.floor(CAM_CENTRE - shift + halfCam);
+  for (let j = from; j <= to; j++) {
+    const d = j - CAM_CENTRE + shift;
     const u = d < 0 ? -d : d;
-    if (u >= halfCam) {
-      lift[i] = 0;
-      velocity[i] = 0;
-      acceleration[i] = 0;
-      continue;
-    }
+    if (u >= halfCam) continue;
+    const i = j < 0 ? j + count : j >= count ? j - count : j;
     const psi = 2 * u * invPhi;
     const m = 1 - psi * psi;
     const iD = 1 / (1 + km1 * m);
@@ -516,16 +541,12 @@ function fillCamLobe(shape: LobeShape, centre: number, out: CamBuffers): void {
     const gpp = -8 * k * km1 * psi * psi * iD * iD * iD - 2 * gm;
     const g2 = g * g;
     lift[i] = L * g2 * g;
+    if (liftOnly) continue;
     const v = vScale * 3 * g2 * gp; // d lift / d|offset|
     velocity[i] = d > 0 ? v : -v;
     acceleration[i] = aScale * (6 * g * gp * gp + 3 * g2 * gpp);
   }
-}
-
-/** Cam degrees from `centre`, wrapped into [−180, 180). */
-function fromCentre(angle: number, centre: number): number {
-  const d = angle - centre;
-  return d - 360 * Math.floor((d + 180) / 360);
+  return { from, to };
 }
 
 /** The sweep through overlap used by the analysis, crank degrees ATDC. */
@@ -545,6 +566,7 @@ export function createAnalysisWorkspace(): AnalysisWorkspace {
     cam: { intake: createCamBuffers(), exhaust: createCamBuffers(), coreIntake: createCamBuffers(), coreExhaust: createCamBuffers() },
     marginIntake: new Float64Array(CAM_GRID.count),
     marginExhaust: new Float64Array(CAM_GRID.count),
+    cores: { intake: null, exhaust: null },
   };
 }
 
@@ -562,6 +584,37 @@ export const DYNAMIC_CR_REFERENCE = Object.freeze({
 });
 
 const DYNAMIC_CR_WHAT = `Dynamic compression, intake closing at ${DYNAMIC_CR_REFERENCE.valveLift} in valve lift`;
+
+const DYNAMIC_CR_CONVENTION =
+  `IVC taken at ${DYNAMIC_CR_REFERENCE.valveLift} in valve lift, the same for every sheet: the intake lobe's closing point at ` +
+  `(${DYNAMIC_CR_REFERENCE.valveLift} in + lash) / rocker ratio of tappet lift; trapped volume from the exact slider-crank ` +
+  'piston position at IVC';
+
+/**
+ * Rules built from a number the input carries (the wheel radius, the cleanup
+ * cut, the entered largest cut), shared while the number repeats so the rule
+ * wording is built once per value.
+ */
+const DERIVED_RULES = new Map<string, Map<number, MinimumRule | MaximumRule>>();
+
+function derivedRule(kind: 'min' | 'max', limit: number, source: string): MinimumRule | MaximumRule {
+  let bySource = DERIVED_RULES.get(source);
+  if (bySource === undefined) {
+    bySource = new Map();
+    DERIVED_RULES.set(source, bySource);
+  }
+  let rule = bySource.get(limit);
+  if (rule === undefined) {
+    if (bySource.size > 512) bySource.clear();
+    rule = kind === 'min' ? { min: limit, watchBand: 0, source } : { max: limit, watchBand: 0, source };
+    bySource.set(limit, rule);
+  }
+  return rule;
+}
+
+const WHEEL_SOURCE = "the grinding wheel's radius: a wheel cannot grind a concave flank tighter than itself";
+const CLEANUP_SOURCE = "the deepest damage plus the shop's cleanup allowance, on the radius";
+const LARGEST_CUT_SOURCE = "entered by the shop or grinder for this core's hardened layer";
 
 /** Check wording, built once (the rule text cache keys on these strings). */
 const WHAT = {
@@ -676,8 +729,8 @@ function feasibilityOf(
   let coreBase: number | null = null;
   if (core !== undefined) {
     requireObject('core', core);
-    coreIntake = synthesizeLobeRaw(requireLobeSpec(core.intake, 'core.intake'), 'core.intake');
-    coreExhaust = synthesizeLobeRaw(requireLobeSpec(core.exhaust, 'core.exhaust'), 'core.exhaust');
+    coreIntake = coreShape(ws, 'intake', requireLobeSpec(core.intake, 'core.intake'));
+    coreExhaust = coreShape(ws, 'exhaust', requireLobeSpec(core.exhaust, 'core.exhaust'));
     const lsa = requireLsa('core.lsa', core.lsa);
     coreIcl = requireIcl('core.icl', core.icl);
     coreEcl = 2 * lsa - coreIcl;
@@ -694,14 +747,18 @@ function feasibilityOf(
   }
 
   const geometry = (name: 'intake' | 'exhaust', lobe: CheckedLobe, centreCam: number, coreShape: LobeShape | null, coreCentre: number): LobeGeometry => {
+    const at = (index: number): number => index - CAM_CENTRE;
     if (baseCircle === null) {
       if (name === 'intake') skip({ id: 'finishingStock', subject: 'core', note: 'not measured: give the regrind base circle' });
       return NO_GEOMETRY;
     }
     if (g === undefined && coreShape === null) return NO_GEOMETRY;
     const cam = ws.cam[name];
-    fillCamLobe(lobe.shape, centreCam, cam);
+    const event = fillCamLobe(lobe.shape, 0, cam);
     const { start, step, count } = CAM_GRID;
+    // the event plus one base-circle sample each side (the base circle's curvature counts too)
+    const from = Math.max(0, event.from - 1);
+    const to = Math.min(count - 1, event.to + 1);
     const rb = baseCircle / 2;
     let pressure: LobeGeometry['pressureAngle'] = null;
     let curvature: LobeGeometry['curvature'] = null;
@@ -712,10 +769,10 @@ function feasibilityOf(
     } else {
       const rr = roller ? (rollerDiameter ?? 0) / 2 : 0;
       if (roller) {
-        const p = pressureAngleRaw(cam.lift, cam.velocity, 0, count - 1, start, step, rb + rr, null);
+        const p = pressureAngleRaw(cam.lift, cam.velocity, from, to, start, step, rb + rr, null);
         pressure = {
-          rise: { value: Math.atan(p.riseTan) * DEG_PER_RAD, at: fromCentre(p.riseAt, centreCam) },
-          fall: { value: Math.atan(p.fallTan) * DEG_PER_RAD, at: fromCentre(p.fallAt, centreCam) },
+          rise: { value: Math.atan(p.riseTan) * DEG_PER_RAD, at: p.riseAt },
+          fall: { value: Math.atan(p.fallTan) * DEG_PER_RAD, at: p.fallAt },
         };
         checks.push(
           checkMaximum(
@@ -724,12 +781,12 @@ function feasibilityOf(
           ),
         );
       }
-      const x = curvatureRaw(cam.lift, cam.velocity, cam.acceleration, 0, count - 1, start, step, rb, rr, null, null);
-      const concave = x.concaveCurvature > 0 ? { value: 1 / x.concaveCurvature, at: fromCentre(x.concaveAt, centreCam) } : null;
+      const x = curvatureRaw(cam.lift, cam.velocity, cam.acceleration, from, to, start, step, rb, rr, null, null);
+      const concave = x.concaveCurvature > 0 ? { value: 1 / x.concaveCurvature, at: x.concaveAt } : null;
       curvature = {
         follower: roller ? 'roller' : 'flat',
-        minPitch: roller ? { value: x.minPitch, at: fromCentre(x.minPitchAt, centreCam) } : null,
-        minSurface: { value: x.minSurface, at: fromCentre(x.minSurfaceAt, centreCam) },
+        minPitch: roller ? { value: x.minPitch, at: x.minPitchAt } : null,
+        minSurface: { value: x.minSurface, at: x.minSurfaceAt },
         concave,
         undercut: x.undercut,
         wheelTooLarge: wheelDiameter === null ? null : concave !== null && concave.value < wheelDiameter / 2,
@@ -741,7 +798,7 @@ function feasibilityOf(
         checks.push(
           checkMinimum(
             { id: 'grindingWheel', subject: name, value: concave.value, unit: 'in', what: WHAT_GEOMETRY[name].wheel },
-            { min: wheelDiameter / 2, watchBand: 0, source: 'the grinding wheel\'s radius: a wheel cannot grind a concave flank tighter than itself' },
+            derivedRule('min', wheelDiameter / 2, WHEEL_SOURCE) as MinimumRule,
           ),
         );
       }
@@ -749,7 +806,9 @@ function feasibilityOf(
     let envelope: LobeGeometry['envelope'] = null;
     if (coreShape !== null && cut !== null) {
       const coreCam = name === 'intake' ? ws.cam.coreIntake : ws.cam.coreExhaust;
-      fillCamLobe(coreShape, coreCentre, coreCam);
+      // index j is j − 180 cam degrees from the candidate's centre, so centreCam − coreCentre + j − 180 from the core's
+      const phase = centreCam - coreCentre;
+      fillCamLobe(coreShape, phase, coreCam, true);
       const margin = name === 'intake' ? ws.marginIntake : ws.marginExhaust;
       let minMargin = Infinity;
       let minI = 0;
@@ -770,8 +829,8 @@ function feasibilityOf(
         step,
         margin,
         minMargin,
-        minAt: fromCentre(start + minI * step, centreCam),
-        phase: centreCam - coreCentre,
+        minAt: at(minI),
+        phase,
         inside: minMargin >= -1e-12,
         finishingStock: stock,
         status: minMargin >= stock - 1e-12 ? 'pass' : 'fail',
@@ -813,7 +872,7 @@ function feasibilityOf(
     checks.push(
       checkMinimum(
         { id: 'cleanup', subject: cleanup.limitingLobe, value: cut, unit: 'in', what: 'Base-circle cut against the cut that cleans up the damage' },
-        { min: cleanup.cleanupCut, watchBand: 0, source: 'the deepest damage plus the shop\'s cleanup allowance, on the radius' },
+        derivedRule('min', cleanup.cleanupCut, CLEANUP_SOURCE) as MinimumRule,
       ),
     );
   } else {
@@ -823,7 +882,7 @@ function feasibilityOf(
     checks.push(
       checkMaximum(
         { id: 'largestCut', subject: 'core', value: cut, unit: 'in', what: 'Base-circle cut against the largest the hardened layer allows' },
-        { max: largestCut, watchBand: 0, source: 'entered by the shop or grinder for this core\'s hardened layer' },
+        derivedRule('max', largestCut, LARGEST_CUT_SOURCE) as MaximumRule,
       ),
     );
   } else {
@@ -903,10 +962,7 @@ export function analyzeProfile(input: AnalysisInput, options?: { workspace?: Ana
   }
   const dyn = dynamicCompressionRaw(e.bore, e.stroke, e.rodLength, c.clearanceCc, ivc);
   const dyn050 = dynamicCompressionRaw(e.bore, e.stroke, e.rodLength, c.clearanceCc, ivc050);
-  const convention =
-    `IVC taken at ${DYNAMIC_CR_REFERENCE.valveLift} in valve lift (${refTappet.toFixed(4)} in tappet lift with ` +
-    `${c.intake.rockerRatio} rocker ratio${c.intake.lash > 0 ? ` and ${c.intake.lash} in lash` : ''}), ${ivc.toFixed(1)}° ABDC; ` +
-    'trapped volume from the exact slider-crank piston position at IVC';
+  const convention = DYNAMIC_CR_CONVENTION;
 
   const checks: CheckResult[] = [];
   const skipped: SkippedCheck[] = [];
@@ -1012,7 +1068,7 @@ export function analyzeProfile(input: AnalysisInput, options?: { workspace?: Ana
           effectiveStroke: dyn050.effectiveStroke,
           trappedSweptCc: dyn050.trappedSweptCc,
           ivcAbdc: ivc050,
-          convention: `IVC at 0.050 in tappet lift plus 15°, ${ivc050.toFixed(1)}° ABDC`,
+          convention: 'IVC at 0.050 in tappet lift plus 15°',
           source: 'common practice, no source',
         },
       },

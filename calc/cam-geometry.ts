@@ -332,7 +332,7 @@ export function pitchCurvature(input: {
   const pitch = kind === 'roller' ? new Float64Array(lobe.n) : null;
   const surface = new Float64Array(lobe.n);
   const x = curvatureRaw(lobe.lift, lobe.velocity, lobe.acceleration, 0, lobe.n - 1, lobe.start, lobe.step, baseCircle / 2, rollerRadius, pitch, surface);
-  return curvatureResult(kind, x, wheel);
+  return curvatureResult(kind, x, wheel, pitch, surface);
 }
 
 /** Shape the kernel's extremes as a CurvatureResult (arrays given or empty). */

@@ -148,53 +148,79 @@ function kernel(k: number, psi: number): void {
   K[2] = 6 * g * gp * gp + 3 * g2 * gpp;
 }
 
-/** Normalised derivative `order` (1 = −dG/dψ, 2 = d²G/dψ²) at ψ, signed so that its peak is a maximum. */
-function derivativeAt(k: number, psi: number, order: 1 | 2): number {
+/** Normalised acceleration d²G/dψ² at ψ. */
+function accelAt(k: number, psi: number): number {
   kernel(k, psi);
-  return order === 1 ? -(K[1] ?? 0) : (K[2] ?? 0);
+  return K[2] ?? 0;
 }
 
+const GOLDEN = (Math.sqrt(5) - 1) / 2;
+
 /**
- * Largest −dG/dψ (order 1: speed) or d²G/dψ² (order 2: acceleration) over
- * ψ ∈ [0, 1] and where: a coarse scan, then golden-section refinement.
+ * Peaks of the normalised lobe: the largest d²G/dψ² (a coarse scan, then
+ * golden-section refinement; it is single-peaked on the flank) and the
+ * largest speed −dG/dψ, which sits where d²G/dψ² crosses zero between the
+ * nose (negative) and that peak (Illinois false position).
  */
-function peakOf(k: number, order: 1 | 2): { value: number; psi: number } {
-  const accelAt = (kk: number, psi: number): number => derivativeAt(kk, psi, order);
-  const n = 48;
-  let best = 0;
+function lobePeaks(k: number): { accel: number; accelPsi: number; speed: number; speedPsi: number } {
+  const n = 12;
+  let best = -Infinity;
   let bestI = n;
-  for (let i = 0; i <= n; i++) {
+  for (let i = 1; i < n; i++) {
     const v = accelAt(k, i / n);
     if (v > best) {
       best = v;
       bestI = i;
     }
   }
-  let lo = Math.max(0, (bestI - 1) / n);
-  let hi = Math.min(1, (bestI + 1) / n);
-  const r = (Math.sqrt(5) - 1) / 2;
-  let x1 = hi - r * (hi - lo);
-  let x2 = lo + r * (hi - lo);
+  let lo = (bestI - 1) / n;
+  let hi = (bestI + 1) / n;
+  let x1 = hi - GOLDEN * (hi - lo);
+  let x2 = lo + GOLDEN * (hi - lo);
   let f1 = accelAt(k, x1);
   let f2 = accelAt(k, x2);
-  for (let i = 0; i < 40; i++) {
+  while (hi - lo > 1e-7) {
     if (f1 > f2) {
       hi = x2;
       x2 = x1;
       f2 = f1;
-      x1 = hi - r * (hi - lo);
+      x1 = hi - GOLDEN * (hi - lo);
       f1 = accelAt(k, x1);
     } else {
       lo = x1;
       x1 = x2;
       f1 = f2;
-      x2 = lo + r * (hi - lo);
+      x2 = lo + GOLDEN * (hi - lo);
       f2 = accelAt(k, x2);
     }
   }
-  const psi = (lo + hi) / 2;
-  const value = Math.max(best, accelAt(k, psi));
-  return value === best && best === 0 ? { value: 0, psi: 1 } : { value, psi };
+  const accelPsi = (lo + hi) / 2;
+  const accel = accelAt(k, accelPsi);
+  // zero of the acceleration in (0, accelPsi): Illinois false position
+  let a = 0;
+  let fa = accelAt(k, 0);
+  let b = accelPsi;
+  let fb = accel;
+  let side = 0;
+  let x = b;
+  for (let i = 0; i < 60 && b - a > 1e-12; i++) {
+    x = (a * fb - b * fa) / (fb - fa);
+    const fx = accelAt(k, x);
+    if (fx === 0) break;
+    if (fx < 0) {
+      a = x;
+      fa = fx;
+      if (side === -1) fb /= 2;
+      side = -1;
+    } else {
+      b = x;
+      fb = fx;
+      if (side === 1) fa /= 2;
+      side = 1;
+    }
+  }
+  kernel(k, x);
+  return { accel, accelPsi, speed: -(K[1] ?? 0), speedPsi: x };
 }
 
 /** Unchecked kernel of synthesizeLobe; throws CalcInputError when no smooth lobe fits. */
@@ -205,11 +231,11 @@ export function synthesizeLobeRaw(spec: LobeSpec, prefix?: string): LobeShape {
   const c1 = 1 - Math.cbrt(advertisedHeight / lobeLift);
   const c2 = 1 - Math.cbrt(CHECKING_HEIGHT_050 / lobeLift);
   const e = Math.exp(logit(c1) - logit(c2));
-  const where = `${advertisedDuration}° at ${advertisedHeight} in beside ${duration050}° at 0.050 in for a ${lobeLift} in lobe`;
+  const where = (): string => `${advertisedDuration}° at ${advertisedHeight} in beside ${duration050}° at 0.050 in for a ${lobeLift} in lobe`;
   const tooLong = (): CalcInputError =>
     new CalcInputError(
       fieldPath(prefix, 'advertisedDuration'),
-      `${where}: the advertised duration is too long for the difference in height (the ramp would pass ${RAMP_MAX}°), ` +
+      `${where()}: the advertised duration is too long for the difference in height (the ramp would pass ${RAMP_MAX}°), ` +
         `so no smooth lobe fits. Check advertisedDuration, duration050 and advertisedHeight`,
       advertisedDuration,
     );
@@ -221,21 +247,20 @@ export function synthesizeLobeRaw(spec: LobeSpec, prefix?: string): LobeShape {
   if (!(k <= WARP_MAX)) {
     throw new CalcInputError(
       fieldPath(prefix, 'advertisedDuration'),
-      `${where}: advertisedDuration and duration050 are too close for the difference in height, ` +
+      `${where()}: advertisedDuration and duration050 are too close for the difference in height, ` +
         `so the lobe would need its hardest deceleration on the flanks instead of at the nose. Check both durations and advertisedHeight`,
       advertisedDuration,
     );
   }
   const scale = lobeLift / phi2;
   const peakDeceleration = (-6 * lobeLift) / (k * phi2);
-  const pos = peakOf(k, 2);
-  const speed = peakOf(k, 1);
-  const peakAcceleration = pos.value * scale;
+  const peaks = lobePeaks(k);
+  const peakAcceleration = peaks.accel * scale;
   if (!(peakAcceleration <= LOBE_ACCELERATION_MAX && -peakDeceleration <= LOBE_ACCELERATION_MAX)) {
     const worst = Math.max(peakAcceleration, -peakDeceleration);
     throw new CalcInputError(
       fieldPath(prefix, 'lobeLift'),
-      `${where}: the lobe would need ${worst.toExponential(2)} in/crank°² of tappet acceleration, past the ` +
+      `${where()}: the lobe would need ${worst.toExponential(2)} in/crank°² of tappet acceleration, past the ` +
         `${LOBE_ACCELERATION_MAX} in/crank°² a real lobe stays under. Check lobeLift, duration050 and advertisedDuration`,
       lobeLift,
     );
@@ -249,9 +274,9 @@ export function synthesizeLobeRaw(spec: LobeSpec, prefix?: string): LobeShape {
     duration050,
     advertisedDuration,
     advertisedHeight,
-    peakVelocity: (speed.value * lobeLift) / halfEvent,
+    peakVelocity: (peaks.speed * lobeLift) / halfEvent,
     peakAcceleration,
-    peakAccelerationAt: pos.psi * halfEvent,
+    peakAccelerationAt: peaks.accelPsi * halfEvent,
     peakDeceleration,
     peakDecelerationAt: 0,
   };
