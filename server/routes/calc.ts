@@ -66,14 +66,14 @@ export function calcRouter({ auth, db }: AppDeps, rate: CalcRateLimit = defaultC
   });
 
   router.post('/calc/analyze', signedIn, limiter, (req, res) => {
-    const { engine, profiles, ptvBaseline, regrind, limits, curves } = parse(calcAnalyzeSchema, req.body);
+    const { engine, profiles, ptvBaseline, regrind, core, grinding, limits, curves } = parse(calcAnalyzeSchema, req.body);
     const workspace = createAnalysisWorkspace();
     const analyses = profiles.map((spec, i) => {
       const fields = renamePrefixes([
         ['regrind.regrindBaseCircle', `profiles.${i}.baseCircle`],
         ['profile', `profiles.${i}`],
       ]);
-      const analysis: ProfileAnalysis = runCalc(() => analyzeRecords(engine, spec, { ptvBaseline, regrind, limits }, workspace), fields);
+      const analysis: ProfileAnalysis = runCalc(() => analyzeRecords(engine, spec, { ptvBaseline, regrind, core, grinding, limits }, workspace), fields);
       // The workspace's curves are overwritten by the next profile, so copy out now.
       return curves ? analysisToJson(analysis) : withoutCurves(analysis);
     });
