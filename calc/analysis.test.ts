@@ -10,10 +10,12 @@ import {
   type AnalysisInput,
 } from './analysis';
 import { degreeCam } from './degree';
-import { DEMO_ANALYSIS_INPUT, DEMO_ENGINE, DEMO_TOWING } from './demo';
+import { regrindEnvelope } from './cam-geometry';
+import { DEMO_ANALYSIS_INPUT, DEMO_CORE, DEMO_ENGINE, DEMO_FEASIBILITY_INPUT, DEMO_STOCK_REGRIND, DEMO_TOWING } from './demo';
 import { CalcInputError } from './errors';
 import { valveEvents } from './events';
 import { dynamicCompression, staticCompression } from './geometry';
+import { lobeLiftAt, offsetAtLiftRaw, synthesizeLobe } from './lift-curve';
 import { durationAtHeight } from './measured';
 import { ptvSweep } from './ptv';
 
@@ -68,9 +70,15 @@ describe('analyzeProfile on the demo engine (demo data, invented)', () => {
   it('agrees with the standalone compression functions', () => {
     const s = staticCompression(DEMO_ENGINE);
     expect(a.compression.static.ratio).toBeCloseTo(s.ratio, 12);
-    const d = dynamicCompression({ ...DEMO_ENGINE, ivcAbdc: 63 });
+    // IVC at the 0.006 in valve-lift reference: 0.006 / 1.6 = 0.00375 in tappet lift on the intake lobe.
+    const ivc = 108 + offsetAtLiftRaw(synthesizeLobe(DEMO_TOWING.intake), 0.006 / 1.6) - 180;
+    expect(a.compression.dynamic.ivcAbdc).toBeCloseTo(ivc, 12);
+    const d = dynamicCompression({ ...DEMO_ENGINE, ivcAbdc: ivc });
     expect(a.compression.dynamic.ratio).toBeCloseTo(d.ratio, 12);
-    expect(a.compression.dynamic.convention).toMatch(/advertised checking height/);
+    expect(a.compression.dynamic.convention).toMatch(/0\.006 in valve lift/);
+    // the common figure beside it: 0.050 in closing (212/2 + 108 − 180 = 34° ABDC) + 15° = 49° ABDC
+    expect(a.compression.dynamic.at050Plus15.ivcAbdc).toBeCloseTo(49, 12);
+    expect(a.compression.dynamic.at050Plus15.ratio).toBeCloseTo(dynamicCompression({ ...DEMO_ENGINE, ivcAbdc: 49 }).ratio, 12);
     // displacement: 752.495 cc × 8 = 6019.96 cc (hand-worked from the sweptVolume test)
     expect(a.displacement.cc).toBeCloseTo(6019.96, 1);
   });
@@ -257,5 +265,102 @@ describe('checkDegreeing and checkWornLobes', () => {
     expect(result.worn).toEqual(['3E']);
     expect(checks.find((c) => c.subject === '3E')?.status).toBe('fail');
     expect(checks.find((c) => c.subject === '1E')?.status).toBe('pass');
+  });
+});
+
+describe('dynamic compression at one reference lift (finding 3)', () => {
+  it('regression: the same lobe quoted at 0.006 in or 0.020 in gives the same dynamic CR', () => {
+    // Sheet B describes sheet A's intake lobe at a 0.020 in advertised height. The old rule took IVC at
+    // each sheet's own advertised height, so the two differed by the ~10° between those heights.
+    const shape = synthesizeLobe(DEMO_TOWING.intake);
+    const advertised020 = 2 * offsetAtLiftRaw(shape, 0.02);
+    const a = analyzeProfile(DEMO_ANALYSIS_INPUT);
+    const b = analyzeProfile(withProfile({ intake: { ...DEMO_TOWING.intake, advertisedHeight: 0.02, advertisedDuration: advertised020 } }));
+    expect(Math.abs(a.compression.dynamic.ratio - b.compression.dynamic.ratio)).toBeLessThan(0.05);
+    expect(a.events.advertised.ivcAbdc - b.events.advertised.ivcAbdc).toBeGreaterThan(5);
+    expect(a.checks.find((c) => c.id === 'dynamicCompression')?.rule).toMatch(/0\.006 in valve lift/);
+    expect(a.compression.dynamic.source).toMatch(/SAE J604/);
+  });
+
+  it('regression: lash on solid lifters closes the valve earlier and raises dynamic CR', () => {
+    const solid = { ...DEMO_ENGINE, lifterType: 'solid-roller' as const };
+    const tight = analyzeProfile({ ...DEMO_ANALYSIS_INPUT, engine: solid });
+    const lashed = analyzeProfile({ ...DEMO_ANALYSIS_INPUT, engine: solid, profile: { ...DEMO_TOWING, intake: { ...DEMO_TOWING.intake, lash: 0.02 } } });
+    expect(lashed.compression.dynamic.ivcAbdc).toBeLessThan(tight.compression.dynamic.ivcAbdc - 1);
+    expect(lashed.compression.dynamic.ratio).toBeGreaterThan(tight.compression.dynamic.ratio);
+    expect(lashed.compression.dynamic.convention).toMatch(/lash/);
+  });
+});
+
+describe('feasibility of the towing profile on the demo core (demo data, invented)', () => {
+  const a = analyzeProfile(DEMO_FEASIBILITY_INPUT);
+  const f = a.feasibility;
+
+  it('cuts 1.240 − 1.200 = 0.040 in and matches the standalone envelope', () => {
+    expect(f.cut).toBeCloseTo(0.04, 12);
+    const core = synthesizeLobe(DEMO_CORE.exhaust);
+    const cand = synthesizeLobe(DEMO_TOWING.exhaust);
+    const cam = (shape: ReturnType<typeof synthesizeLobe>) => ({
+      start: -180,
+      step: 1,
+      lift: Array.from({ length: 360 }, (_, i) => lobeLiftAt(shape, 2 * (i - 180)).lift),
+    });
+    // exhaust centres: towing ECL 2·112 − 108 = 116, core 2·114 − 110 = 118 crank ° BTDC, so the towing lobe sits 1 cam degree later
+    const alone = regrindEnvelope({ core: cam(core), candidate: cam(cand), baseCircle: 1.24, cut: 0.04, phase: 1, follower: { kind: 'roller', rollerDiameter: 0.75 }, finishingStock: 0.005, step: 1 });
+    expect(f.exhaust.envelope?.phase).toBeCloseTo(1, 12);
+    expect(f.exhaust.envelope?.minMargin).toBeCloseTo(alone.minMargin, 9);
+  });
+
+  it('shows why the towing lobe does not fit at the cleanup cut', () => {
+    // Nose bound (hand-worked): 0.315 + 0.020 − 0.012 − 0.005 = 0.318 in < 0.340 in towing exhaust lobe.
+    expect(f.cleanup?.cleanupCut).toBeCloseTo(0.034, 12);
+    expect(f.cleanup?.largestLift).toBeCloseTo(0.318, 12);
+    expect(f.exhaust.envelope?.status).toBe('fail');
+    expect(a.checks.find((c) => c.id === 'finishingStock' && c.subject === 'exhaust')?.status).toBe('fail');
+    expect(a.checks.find((c) => c.id === 'cleanup')?.status).toBe('pass');
+    expect(a.checks.find((c) => c.id === 'largestCut')?.status).toBe('pass');
+    expect(a.status).toBe('fail');
+  });
+
+  it('the stock regrind fits with half the cut of margin everywhere', () => {
+    const s = analyzeProfile({ ...DEMO_FEASIBILITY_INPUT, profile: DEMO_STOCK_REGRIND });
+    expect(s.feasibility.intake.envelope?.minMargin).toBeCloseTo(0.02, 12);
+    expect(s.feasibility.exhaust.envelope?.status).toBe('pass');
+  });
+
+  it('reports pressure angle and curvature on both lobes against their limits', () => {
+    for (const lobe of [f.intake, f.exhaust]) {
+      expect(lobe.pressureAngle?.rise.value).toBeGreaterThan(10);
+      expect(lobe.pressureAngle?.rise.at).toBeLessThan(0); // the rise is the opening flank
+      expect(lobe.curvature?.undercut).toBe(false);
+      expect(lobe.curvature?.minPitch?.at).toBeCloseTo(0, 9); // tightest at the nose
+    }
+    expect(a.checks.filter((c) => c.id === 'pressureAngle').map((c) => c.status)).toEqual(['pass', 'pass']);
+    expect(a.checks.find((c) => c.id === 'pressureAngle')?.source).toMatch(/Norton/);
+  });
+
+  it('says what the cut does to preload and pushrods', () => {
+    expect(f.lifter?.preloadLeft).toBeCloseTo(0.025, 12);
+    expect(f.lifter?.restoredPushrodLength).toBeCloseTo(7.42, 12);
+    expect(f.lifter?.largestCutStockPushrods).toBeCloseTo(0.05, 12);
+  });
+
+  it('serializes the margin as a plain array', () => {
+    const json = analysisToJson(a);
+    expect(Array.isArray(json.feasibility.exhaust.envelope?.margin)).toBe(true);
+    expect(json.feasibility.exhaust.envelope?.margin).toHaveLength(360);
+  });
+
+  it('gives the same numbers with a reused workspace', () => {
+    const ws = createAnalysisWorkspace();
+    analyzeProfile({ ...DEMO_FEASIBILITY_INPUT, profile: DEMO_STOCK_REGRIND }, { workspace: ws });
+    const again = analyzeProfile(DEMO_FEASIBILITY_INPUT, { workspace: ws });
+    expect(again.feasibility.exhaust.envelope?.minMargin).toBe(f.exhaust.envelope?.minMargin);
+  });
+
+  it('refuses a regrind base circle larger than the core, and bad grinding numbers', () => {
+    expect(() => analyzeProfile({ ...DEMO_FEASIBILITY_INPUT, regrind: undefined, profile: { ...DEMO_TOWING, baseCircle: 1.3 } })).toThrow(/profile.baseCircle/);
+    expect(() => analyzeProfile({ ...DEMO_FEASIBILITY_INPUT, grinding: { rollerDiameter: Number.NaN } })).toThrow(/grinding.rollerDiameter/);
+    expect(() => analyzeProfile({ ...DEMO_FEASIBILITY_INPUT, core: 'stock' as never })).toThrow(/^core/);
   });
 });

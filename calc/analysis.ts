@@ -16,10 +16,13 @@ import {
   type CheckLimits,
   type CheckResult,
   type CheckStatus,
+  type MaximumRule,
+  type MinimumRule,
   type SkippedCheck,
 } from './checks';
 import { CC_PER_CUBIC_INCH, CHECKING_HEIGHT_050, CURVE_STEP_DEG, RAD_PER_DEG } from './constants';
-import { CalcInputError, requireInRange, requireInteger, requireNonNegative, requirePositive } from './errors';
+import { curvatureRaw, pressureAngleRaw, ENVELOPE_CRITERION, type FlankPeak } from './cam-geometry';
+import { CalcInputError, requireInRange, requireInteger, requireNonNegative, requireObject, requirePositive } from './errors';
 import { type DegreeResult } from './degree';
 import { requireIcl, requireLsa, valveEventsRaw, type ValveEvents } from './events';
 import {
@@ -34,20 +37,24 @@ import {
 import {
   createCurveBuffers,
   CYCLE_GRID,
-  DEFAULT_MOTION_LAW,
+  LOBE_LAW,
+  offsetAtLiftRaw,
   requireLobeSpec,
   sampleValveCurveRaw,
   synthesizeLobeRaw,
   type CurveBuffers,
   type CurveGrid,
   type LiftCurve,
+  type LobeLawName,
   type LobeShape,
+  type LobeSpec,
 } from './lift-curve';
 import { findWornLobes, type LobeMaxLift, type WornLobeResult } from './measured';
-import { requireMotionLaw, type MotionLawName } from './motion';
 import { baselineOffsetRaw, ptvSweepRaw, requireBaseline, requireValveAngle, type PtvBaseline, type PtvSweep } from './ptv';
-import { preloadAfterRegrind, type PreloadResult } from './regrind';
+import { lifterSideOfCut, preloadAfterRegrind, regrindCleanup, type CleanupResult, type LifterCutResult, type PreloadResult } from './regrind';
 import { requireSpring, springCheckRaw, type SpringCheck } from './springs';
+
+const DEG_PER_RAD = 180 / Math.PI;
 
 // ---------------------------------------------------------------------------
 // Input (JSON-friendly)
@@ -135,6 +142,34 @@ export interface RegrindInput {
   plungerTravel?: number;
 }
 
+/** The core the candidate is ground from: its stock sheet (the lobes before wear) and base circle. */
+export interface CoreInput {
+  /** The core's stock intake lobe, as its sheet gives it (crank degrees, inches of tappet lift). */
+  intake: LobeSpec;
+  /** The core's stock exhaust lobe. */
+  exhaust: LobeSpec;
+  /** The core's lobe separation, cam degrees. */
+  lsa: number;
+  /** The core's intake centreline, crank degrees ATDC. */
+  icl: number;
+  /** The core's base-circle diameter, inches. */
+  baseCircle: number;
+  /** Deepest damage on each kind of lobe, inches (findWornLobes' damageDepth); absent = sound. */
+  damageDepth?: { intake?: number; exhaust?: number };
+}
+
+/** The shop's and the grinder's numbers for grinding (inches; product settings). */
+export interface GrindingInput {
+  /** Lifter roller diameter, inches (roller lifters; needed for pressure angle and curvature). */
+  rollerDiameter?: number;
+  /** Grinding wheel diameter, inches: a concave flank tighter than its radius cannot be ground. */
+  wheelDiameter?: number;
+  /** Metal removed below the deepest damage so the new surface is clean, inches on the radius. */
+  cleanupAllowance?: number;
+  /** Largest base-circle cut on the diameter the hardened layer allows, inches, as entered. */
+  largestCut?: number;
+}
+
 export interface AnalysisInput {
   engine: EngineInput;
   profile: ProfileInput;
@@ -142,10 +177,12 @@ export interface AnalysisInput {
   ptvBaseline?: PtvBaselineInput;
   /** Preload data for a regrind on hydraulic lifters. */
   regrind?: RegrindInput;
+  /** The core the profile is ground from; without it the envelope is skipped. */
+  core?: CoreInput;
+  /** Follower and grinding numbers. */
+  grinding?: GrindingInput;
   /** The shop's own check limits. */
   limits?: CheckLimitOverrides;
-  /** Motion law for the synthesised flanks; default poly345. */
-  law?: MotionLawName;
 }
 
 // ---------------------------------------------------------------------------
@@ -195,8 +232,58 @@ export interface EventsAtHeight extends ValveEvents {
   exhaustHeight: number;
 }
 
+/** Cam geometry of one candidate lobe (cam degrees from the lobe centre, negative = opening flank). */
+export interface LobeGeometry {
+  /** Pressure angle peaks on the rise and the fall, degrees (roller only). */
+  pressureAngle: { rise: FlankPeak; fall: FlankPeak } | null;
+  /** Curvature extremes, inches. */
+  curvature: {
+    follower: 'roller' | 'flat';
+    /** Smallest convex pitch radius (roller). */
+    minPitch: FlankPeak | null;
+    /** Smallest convex surface radius; ≤ 0 = undercut. */
+    minSurface: FlankPeak;
+    /** Tightest concave surface radius, or null when no flank is concave. */
+    concave: FlankPeak | null;
+    undercut: boolean;
+    /** A concave flank tighter than the wheel's radius; null without a wheel diameter. */
+    wheelTooLarge: boolean | null;
+  } | null;
+  /** Material margin against the core's lobe, inches on the radius (null without a core). */
+  envelope: {
+    /** Cam degrees of margin[0] from the candidate's lobe centre (−180: the whole turn). */
+    start: number;
+    /** Cam degrees between samples. */
+    step: number;
+    margin: Float64Array;
+    /** Smallest margin, inches, and its cam angle from the candidate's lobe centre. */
+    minMargin: number;
+    minAt: number;
+    /** Candidate centreline minus the core's, cam degrees. */
+    phase: number;
+    inside: boolean;
+    finishingStock: number;
+    status: 'pass' | 'fail';
+  } | null;
+}
+
+export interface Feasibility {
+  /** Base-circle cut on the diameter, inches (core or stock base circle minus the profile's), or null. */
+  cut: number | null;
+  /** Base-circle diameter of the candidate, inches, or null. */
+  baseCircle: number | null;
+  intake: LobeGeometry;
+  exhaust: LobeGeometry;
+  /** Cleanup of the core's damage (needs the core's damage depth and the cleanup allowance). */
+  cleanup: CleanupResult | null;
+  /** What the cut does to the lifters (hydraulic, with the regrind preload data). */
+  lifter: LifterCutResult | null;
+  /** How the envelope is judged. */
+  criterion: string;
+}
+
 export interface ProfileAnalysis {
-  law: MotionLawName;
+  law: LobeLawName;
   /** Lobe separation angle, cam degrees (as given). */
   lsa: number;
   /** Installed intake centreline, crank degrees ATDC (as given). */
@@ -208,8 +295,18 @@ export interface ProfileAnalysis {
   displacement: Displacement;
   compression: {
     static: StaticCompression;
-    dynamic: DynamicCompression & { ivcAbdc: number; convention: string };
+    /** Intake closing at one reference valve lift for every sheet (DYNAMIC_CR_REFERENCE). */
+    dynamic: DynamicCompression & {
+      ivcAbdc: number;
+      /** Reference valve lift, inches (lash included for solid lifters). */
+      referenceLift: number;
+      convention: string;
+      source: string;
+      /** The common figure beside it: intake closing at 0.050 in tappet lift plus 15°. */
+      at050Plus15: DynamicCompression & { ivcAbdc: number; convention: string; source: string };
+    };
   };
+  feasibility: Feasibility;
   ptv: { intake: PtvSweep | null; exhaust: PtvSweep | null };
   preload: PreloadResult | null;
   limits: CheckLimits;
@@ -235,20 +332,13 @@ interface CheckedInput {
   intake: CheckedLobe;
   exhaust: CheckedLobe;
   clearanceCc: number;
-  law: MotionLawName;
-}
-
-function requireObject(field: string, value: unknown): void {
-  if (typeof value !== 'object' || value === null || Array.isArray(value)) {
-    throw new CalcInputError(field, 'is required and must be an object', value);
-  }
 }
 
 function isHydraulic(t: LifterType): boolean {
   return t === 'hydraulic-roller' || t === 'hydraulic-flat';
 }
 
-function checkLobe(lobe: LobeInput, rocker: number, hydraulic: boolean, law: MotionLawName, prefix: string): CheckedLobe {
+function checkLobe(lobe: LobeInput, rocker: number, hydraulic: boolean, prefix: string): CheckedLobe {
   requireObject(prefix, lobe);
   const spec = requireLobeSpec(lobe, prefix);
   const lash = requireNonNegative(`${prefix}.lash`, lobe.lash, 'in');
@@ -256,7 +346,7 @@ function checkLobe(lobe: LobeInput, rocker: number, hydraulic: boolean, law: Mot
   if (!(rocker * spec.lobeLift - lash > 0)) {
     throw new CalcInputError(`${prefix}.lash`, 'must be less than lobe lift × rocker ratio', lash);
   }
-  return { shape: synthesizeLobeRaw(spec, law, prefix), rockerRatio: rocker, lash };
+  return { shape: synthesizeLobeRaw(spec, prefix), rockerRatio: rocker, lash };
 }
 
 function checkInput(input: AnalysisInput): CheckedInput {
@@ -265,7 +355,6 @@ function checkInput(input: AnalysisInput): CheckedInput {
   requireObject('profile', input.profile);
   const e = input.engine;
   const p = input.profile;
-  const law = requireMotionLaw('law', input.law ?? DEFAULT_MOTION_LAW);
   const { clearanceCc } = checkCompressionInput(e, 'engine');
   requireCrank(e, 'engine');
   requireInteger('engine.cylinders', e.cylinders, 1);
@@ -282,8 +371,8 @@ function checkInput(input: AnalysisInput): CheckedInput {
   const icl = requireIcl('profile.icl', p.icl);
   if (p.baseCircle !== undefined) requirePositive('profile.baseCircle', p.baseCircle, 'in');
   const hydraulic = isHydraulic(e.lifterType);
-  const intake = checkLobe(p.intake, ri, hydraulic, law, 'profile.intake');
-  const exhaust = checkLobe(p.exhaust, rx, hydraulic, law, 'profile.exhaust');
+  const intake = checkLobe(p.intake, ri, hydraulic, 'profile.intake');
+  const exhaust = checkLobe(p.exhaust, rx, hydraulic, 'profile.exhaust');
   for (const [lobe, name] of [
     [intake, 'intake'],
     [exhaust, 'exhaust'],
@@ -297,7 +386,7 @@ function checkInput(input: AnalysisInput): CheckedInput {
       );
     }
   }
-  return { engine: { ...e, valveAngle }, lsa, icl, intake, exhaust, clearanceCc, law };
+  return { engine: { ...e, valveAngle }, lsa, icl, intake, exhaust, clearanceCc };
 }
 
 // ---------------------------------------------------------------------------
@@ -350,6 +439,7 @@ function samplePistonCycleRaw(stroke: number, rodLength: number, out: PistonCurv
 
 /** Piston depth, velocity and acceleration over the whole cycle grid (−360…+360°, 0.5° steps). */
 export function pistonCurve(input: { stroke: number; rodLength: number }): PistonCurve {
+  requireObject('input', input);
   const { stroke, rodLength } = requireCrank(input);
   const n = CYCLE_GRID.count;
   return samplePistonCycleRaw(stroke, rodLength, {
@@ -363,6 +453,13 @@ export function pistonCurve(input: { stroke: number; rodLength: number }): Pisto
 // ---------------------------------------------------------------------------
 // Workspace
 
+/** Tappet lift of one lobe on CAM_GRID: inches, in/cam°, in/cam°². */
+interface CamBuffers {
+  lift: Float64Array;
+  velocity: Float64Array;
+  acceleration: Float64Array;
+}
+
 /** Reusable buffers for analyzeProfile, so a tight loop allocates no curves. */
 export interface AnalysisWorkspace {
   intake: CurveBuffers;
@@ -370,6 +467,86 @@ export interface AnalysisWorkspace {
   piston: { depth: Float64Array; velocity: Float64Array; acceleration: Float64Array };
   ptvIntake: Float64Array;
   ptvExhaust: Float64Array;
+  cam: { intake: CamBuffers; exhaust: CamBuffers; coreIntake: CamBuffers; coreExhaust: CamBuffers };
+  marginIntake: Float64Array;
+  marginExhaust: Float64Array;
+  /** The last core lobes fitted, kept while the core's sheet repeats (one core, several candidates). */
+  cores: { intake: LobeShape | null; exhaust: LobeShape | null };
+}
+
+/** The core's lobe shape, reused from the workspace when its sheet is the same as last time. */
+function coreShape(ws: AnalysisWorkspace, name: 'intake' | 'exhaust', spec: LobeSpec): LobeShape {
+  const last = ws.cores[name];
+  if (
+    last !== null &&
+    last.duration050 === spec.duration050 &&
+    last.advertisedDuration === spec.advertisedDuration &&
+    last.advertisedHeight === spec.advertisedHeight &&
+    last.lobeLift === spec.lobeLift
+  ) {
+    return last;
+  }
+  const shape = synthesizeLobeRaw(spec, `core.${name}`);
+  ws.cores[name] = shape;
+  return shape;
+}
+
+/**
+ * The grid cam geometry and the envelope use: a whole cam turn in 1 cam-degree
+ * steps, in cam degrees from the candidate lobe's centre (index 180 is the nose).
+ */
+export const CAM_GRID: CurveGrid = { start: -180, step: 1, count: 360 };
+const CAM_CENTRE = 180;
+
+function createCamBuffers(): CamBuffers {
+  const n = CAM_GRID.count;
+  return { lift: new Float64Array(n), velocity: new Float64Array(n), acceleration: new Float64Array(n) };
+}
+
+/**
+ * Unchecked: tappet lift, velocity (in/cam°) and acceleration (in/cam°²) of a
+ * lobe on CAM_GRID, where index j lies j − 180 + shift cam degrees from the
+ * lobe's centre, wrapping round the turn. Returns the index range of the
+ * event about index 180 − shift (it may wrap past the ends).
+ */
+function fillCamLobe(shape: LobeShape, shift: number, out: CamBuffers, liftOnly = false): { from: number; to: number } {
+  const { lift, velocity, acceleration } = out;
+  const count = CAM_GRID.count;
+  lift.fill(0);
+  if (!liftOnly) {
+    velocity.fill(0);
+    acceleration.fill(0);
+  }
+  const halfCam = shape.halfEvent / 2;
+  const invPhi = 1 / shape.halfEvent;
+  const L = shape.lobeLift;
+  const k = shape.warpScale;
+  const km1 = k - 1;
+  // crank-degree derivatives ×2 and ×4 per cam degree
+  const vScale = 2 * L * invPhi;
+  const aScale = 4 * L * invPhi * invPhi;
+  const from = Math.ceil(CAM_CENTRE - shift - halfCam);
+  const to = Math.floor(CAM_CENTRE - shift + halfCam);
+  for (let j = from; j <= to; j++) {
+    const d = j - CAM_CENTRE + shift;
+    const u = d < 0 ? -d : d;
+    if (u >= halfCam) continue;
+    const i = j < 0 ? j + count : j >= count ? j - count : j;
+    const psi = 2 * u * invPhi;
+    const m = 1 - psi * psi;
+    const iD = 1 / (1 + km1 * m);
+    const g = k * m * iD;
+    const gm = k * iD * iD;
+    const gp = -2 * psi * gm;
+    const gpp = -8 * k * km1 * psi * psi * iD * iD * iD - 2 * gm;
+    const g2 = g * g;
+    lift[i] = L * g2 * g;
+    if (liftOnly) continue;
+    const v = vScale * 3 * g2 * gp; // d lift / d|offset|
+    velocity[i] = d > 0 ? v : -v;
+    acceleration[i] = aScale * (6 * g * gp * gp + 3 * g2 * gpp);
+  }
+  return { from, to };
 }
 
 /** The sweep through overlap used by the analysis, crank degrees ATDC. */
@@ -386,11 +563,58 @@ export function createAnalysisWorkspace(): AnalysisWorkspace {
     piston: { depth: new Float64Array(n), velocity: new Float64Array(n), acceleration: new Float64Array(n) },
     ptvIntake: new Float64Array(PTV_I1 - PTV_I0 + 1),
     ptvExhaust: new Float64Array(PTV_I1 - PTV_I0 + 1),
+    cam: { intake: createCamBuffers(), exhaust: createCamBuffers(), coreIntake: createCamBuffers(), coreExhaust: createCamBuffers() },
+    marginIntake: new Float64Array(CAM_GRID.count),
+    marginExhaust: new Float64Array(CAM_GRID.count),
+    cores: { intake: null, exhaust: null },
   };
 }
 
 // ---------------------------------------------------------------------------
 // Analysis
+
+/**
+ * Where dynamic compression takes intake closing: one valve lift for every
+ * sheet, so two sheets' figures compare whatever heights their makers quote.
+ */
+export const DYNAMIC_CR_REFERENCE = Object.freeze({
+  /** Valve lift, inches (rocker ratio and lash included). */
+  valveLift: 0.006,
+  source: 'the 0.006 in checking height of SAE J604 (from memory), taken at the valve so that rocker ratio and lash count',
+});
+
+const DYNAMIC_CR_WHAT = `Dynamic compression, intake closing at ${DYNAMIC_CR_REFERENCE.valveLift} in valve lift`;
+
+const DYNAMIC_CR_CONVENTION =
+  `IVC taken at ${DYNAMIC_CR_REFERENCE.valveLift} in valve lift, the same for every sheet: the intake lobe's closing point at ` +
+  `(${DYNAMIC_CR_REFERENCE.valveLift} in + lash) / rocker ratio of tappet lift; trapped volume from the exact slider-crank ` +
+  'piston position at IVC';
+
+/**
+ * Rules built from a number the input carries (the wheel radius, the cleanup
+ * cut, the entered largest cut), shared while the number repeats so the rule
+ * wording is built once per value.
+ */
+const DERIVED_RULES = new Map<string, Map<number, MinimumRule | MaximumRule>>();
+
+function derivedRule(kind: 'min' | 'max', limit: number, source: string): MinimumRule | MaximumRule {
+  let bySource = DERIVED_RULES.get(source);
+  if (bySource === undefined) {
+    bySource = new Map();
+    DERIVED_RULES.set(source, bySource);
+  }
+  let rule = bySource.get(limit);
+  if (rule === undefined) {
+    if (bySource.size > 512) bySource.clear();
+    rule = kind === 'min' ? { min: limit, watchBand: 0, source } : { max: limit, watchBand: 0, source };
+    bySource.set(limit, rule);
+  }
+  return rule;
+}
+
+const WHEEL_SOURCE = "the grinding wheel's radius: a wheel cannot grind a concave flank tighter than itself";
+const CLEANUP_SOURCE = "the deepest damage plus the shop's cleanup allowance, on the radius";
+const LARGEST_CUT_SOURCE = "entered by the shop or grinder for this core's hardened layer";
 
 /** Check wording, built once (the rule text cache keys on these strings). */
 const WHAT = {
@@ -447,6 +671,237 @@ function withHeights(e: ValveEvents, intakeHeight: number, exhaustHeight: number
   };
 }
 
+const NO_GEOMETRY: LobeGeometry = Object.freeze({ pressureAngle: null, curvature: null, envelope: null });
+
+const WHAT_GEOMETRY = {
+  intake: {
+    pressureAngle: 'Largest pressure angle, intake lobe',
+    undercut: 'Smallest convex cam radius, intake lobe',
+    wheel: 'Tightest concave flank radius, intake lobe',
+    stock: 'Smallest material margin to the core, intake lobe',
+  },
+  exhaust: {
+    pressureAngle: 'Largest pressure angle, exhaust lobe',
+    undercut: 'Smallest convex cam radius, exhaust lobe',
+    wheel: 'Tightest concave flank radius, exhaust lobe',
+    stock: 'Smallest material margin to the core, exhaust lobe',
+  },
+} as const;
+
+function optionalInRange(field: string, value: unknown, min: number, max: number): number | null {
+  return value === undefined || value === null ? null : requireInRange(field, value, { min, max, minOpen: min === 0, unit: 'in' });
+}
+
+/**
+ * The core question of a regrind: does the candidate fit inside the core at
+ * this cut, can the lobes be ground and followed, and what does the cut do to
+ * the lifters? Adds its checks and skipped notes to the lists.
+ */
+function feasibilityOf(
+  input: AnalysisInput,
+  c: CheckedInput,
+  limits: CheckLimits,
+  ws: AnalysisWorkspace,
+  checks: CheckResult[],
+  skipped: SkippedCheck[],
+): Feasibility {
+  const e = c.engine;
+  const roller = e.lifterType === 'hydraulic-roller' || e.lifterType === 'solid-roller';
+  const g = input.grinding;
+  if (g !== undefined) requireObject('grinding', g);
+  const rollerDiameter = optionalInRange('grinding.rollerDiameter', g?.rollerDiameter, 0, 4);
+  const wheelDiameter = optionalInRange('grinding.wheelDiameter', g?.wheelDiameter, 0, 60);
+  const allowance = g?.cleanupAllowance === undefined ? null : requireInRange('grinding.cleanupAllowance', g.cleanupAllowance, { min: 0, max: 0.25, unit: 'in' });
+  const largestCut = g?.largestCut === undefined ? null : requireInRange('grinding.largestCut', g.largestCut, { min: 0, max: 1, unit: 'in' });
+  const baseCircle = input.profile.baseCircle ?? null;
+  // Notes about what is missing only once the caller asks about the core or the grinding at all.
+  const asked = input.core !== undefined || g !== undefined;
+  const skip = (entry: SkippedCheck): void => {
+    if (asked) skipped.push(entry);
+  };
+
+  // the core, when given
+  const core = input.core;
+  let coreIntake: LobeShape | null = null;
+  let coreExhaust: LobeShape | null = null;
+  let coreIcl = 0;
+  let coreEcl = 0;
+  let coreBase: number | null = null;
+  if (core !== undefined) {
+    requireObject('core', core);
+    coreIntake = coreShape(ws, 'intake', requireLobeSpec(core.intake, 'core.intake'));
+    coreExhaust = coreShape(ws, 'exhaust', requireLobeSpec(core.exhaust, 'core.exhaust'));
+    const lsa = requireLsa('core.lsa', core.lsa);
+    coreIcl = requireIcl('core.icl', core.icl);
+    coreEcl = 2 * lsa - coreIcl;
+    coreBase = requireInRange('core.baseCircle', core.baseCircle, { min: 0, max: 6, minOpen: true, unit: 'in' });
+  }
+  const stockBase = coreBase ?? input.regrind?.stockBaseCircle ?? null;
+  let cut: number | null = null;
+  if (stockBase !== null && baseCircle !== null) {
+    cut = stockBase - baseCircle;
+    if (!(cut >= -1e-12)) {
+      throw new CalcInputError('profile.baseCircle', `must not exceed the core's base circle (${stockBase} in): grinding only removes metal`, baseCircle);
+    }
+    cut = Math.max(0, cut);
+  }
+
+  const geometry = (name: 'intake' | 'exhaust', lobe: CheckedLobe, centreCam: number, coreShape: LobeShape | null, coreCentre: number): LobeGeometry => {
+    const at = (index: number): number => index - CAM_CENTRE;
+    if (baseCircle === null) {
+      if (name === 'intake') skip({ id: 'finishingStock', subject: 'core', note: 'not measured: give the regrind base circle' });
+      return NO_GEOMETRY;
+    }
+    if (g === undefined && coreShape === null) return NO_GEOMETRY;
+    const cam = ws.cam[name];
+    const event = fillCamLobe(lobe.shape, 0, cam);
+    const { start, step, count } = CAM_GRID;
+    // the event plus one base-circle sample each side (the base circle's curvature counts too)
+    const from = Math.max(0, event.from - 1);
+    const to = Math.min(count - 1, event.to + 1);
+    const rb = baseCircle / 2;
+    let pressure: LobeGeometry['pressureAngle'] = null;
+    let curvature: LobeGeometry['curvature'] = null;
+    if (g === undefined) {
+      // no follower numbers asked for: no geometry
+    } else if (roller && rollerDiameter === null) {
+      skip({ id: 'pressureAngle', subject: name, note: 'not measured: give the lifter roller diameter' });
+    } else {
+      const rr = roller ? (rollerDiameter ?? 0) / 2 : 0;
+      if (roller) {
+        const p = pressureAngleRaw(cam.lift, cam.velocity, from, to, start, step, rb + rr, null);
+        pressure = {
+          rise: { value: Math.atan(p.riseTan) * DEG_PER_RAD, at: p.riseAt },
+          fall: { value: Math.atan(p.fallTan) * DEG_PER_RAD, at: p.fallAt },
+        };
+        checks.push(
+          checkMaximum(
+            { id: 'pressureAngle', subject: name, value: Math.max(pressure.rise.value, pressure.fall.value), unit: '°', what: WHAT_GEOMETRY[name].pressureAngle },
+            limits.pressureAngle,
+          ),
+        );
+      }
+      const x = curvatureRaw(cam.lift, cam.velocity, cam.acceleration, from, to, start, step, rb, rr, null, null);
+      const concave = x.concaveCurvature > 0 ? { value: 1 / x.concaveCurvature, at: x.concaveAt } : null;
+      curvature = {
+        follower: roller ? 'roller' : 'flat',
+        minPitch: roller ? { value: x.minPitch, at: x.minPitchAt } : null,
+        minSurface: { value: x.minSurface, at: x.minSurfaceAt },
+        concave,
+        undercut: x.undercut,
+        wheelTooLarge: wheelDiameter === null ? null : concave !== null && concave.value < wheelDiameter / 2,
+      };
+      checks.push(
+        checkMinimum({ id: 'undercut', subject: name, value: x.minSurface, unit: 'in', what: WHAT_GEOMETRY[name].undercut }, limits.undercut),
+      );
+      if (concave !== null && wheelDiameter !== null) {
+        checks.push(
+          checkMinimum(
+            { id: 'grindingWheel', subject: name, value: concave.value, unit: 'in', what: WHAT_GEOMETRY[name].wheel },
+            derivedRule('min', wheelDiameter / 2, WHEEL_SOURCE) as MinimumRule,
+          ),
+        );
+      }
+    }
+    let envelope: LobeGeometry['envelope'] = null;
+    if (coreShape !== null && cut !== null) {
+      const coreCam = name === 'intake' ? ws.cam.coreIntake : ws.cam.coreExhaust;
+      // index j is j − 180 cam degrees from the candidate's centre, so centreCam − coreCentre + j − 180 from the core's
+      const phase = centreCam - coreCentre;
+      fillCamLobe(coreShape, phase, coreCam, true);
+      const margin = name === 'intake' ? ws.marginIntake : ws.marginExhaust;
+      let minMargin = Infinity;
+      let minI = 0;
+      const half = cut / 2;
+      const cl = coreCam.lift;
+      const nl = cam.lift;
+      for (let i = 0; i < count; i++) {
+        const m = half + (cl[i] ?? 0) - (nl[i] ?? 0);
+        margin[i] = m;
+        if (m < minMargin) {
+          minMargin = m;
+          minI = i;
+        }
+      }
+      const stock = limits.finishingStock.min;
+      envelope = {
+        start,
+        step,
+        margin,
+        minMargin,
+        minAt: at(minI),
+        phase,
+        inside: minMargin >= -1e-12,
+        finishingStock: stock,
+        status: minMargin >= stock - 1e-12 ? 'pass' : 'fail',
+      };
+      checks.push(
+        checkMinimum({ id: 'finishingStock', subject: name, value: minMargin, unit: 'in', what: WHAT_GEOMETRY[name].stock }, limits.finishingStock),
+      );
+    } else if (name === 'intake') {
+      skip({
+        id: 'finishingStock',
+        subject: 'core',
+        note: 'not measured: give the core\'s stock lobes and base circle, and the regrind base circle',
+      });
+    }
+    return { pressureAngle: pressure, curvature, envelope };
+  };
+
+  const ecl = 2 * c.lsa - c.icl;
+  const intake = geometry('intake', c.intake, c.icl / 2, coreIntake, coreIcl / 2);
+  const exhaust = geometry('exhaust', c.exhaust, -ecl / 2, coreExhaust, -coreEcl / 2);
+
+  // cleanup of the damage
+  let cleanup: CleanupResult | null = null;
+  const damage = core?.damageDepth;
+  if (core !== undefined && coreIntake !== null && coreExhaust !== null && damage !== undefined && allowance !== null && cut !== null) {
+    requireObject('core.damageDepth', damage);
+    cleanup = regrindCleanup(
+      {
+        lobes: [
+          { id: 'intake', lobeLift: coreIntake.lobeLift, damageDepth: damage.intake ?? 0 },
+          { id: 'exhaust', lobeLift: coreExhaust.lobeLift, damageDepth: damage.exhaust ?? 0 },
+        ],
+        cleanupAllowance: allowance,
+        cut,
+        largestCut: largestCut ?? undefined,
+      },
+      'core',
+    );
+    checks.push(
+      checkMinimum(
+        { id: 'cleanup', subject: cleanup.limitingLobe, value: cut, unit: 'in', what: 'Base-circle cut against the cut that cleans up the damage' },
+        derivedRule('min', cleanup.cleanupCut, CLEANUP_SOURCE) as MinimumRule,
+      ),
+    );
+  } else {
+    skip({ id: 'cleanup', subject: 'core', note: 'not measured: give the core\'s damage depth and the cleanup allowance' });
+  }
+  if (largestCut !== null && cut !== null) {
+    checks.push(
+      checkMaximum(
+        { id: 'largestCut', subject: 'core', value: cut, unit: 'in', what: 'Base-circle cut against the largest the hardened layer allows' },
+        derivedRule('max', largestCut, LARGEST_CUT_SOURCE) as MaximumRule,
+      ),
+    );
+  } else {
+    skip({ id: 'largestCut', subject: 'core', note: 'not entered: the shop or grinder gives the largest cut the hardened layer allows' });
+  }
+
+  // the lifter side
+  let lifter: LifterCutResult | null = null;
+  const r = input.regrind;
+  if (cut !== null && r !== undefined && isHydraulic(e.lifterType)) {
+    lifter = lifterSideOfCut(
+      { cut, originalPreload: r.originalPreload, minimumPreload: Math.max(0, limits.hydraulicPreload.min), pushrodLength: r.pushrodLength, plungerTravel: r.plungerTravel },
+      'regrind',
+    );
+  }
+
+  return { cut, baseCircle, intake, exhaust, cleanup, lifter, criterion: ENVELOPE_CRITERION };
+}
+
 /**
  * Analyse a cam profile on an engine. Throws CalcInputError naming the first
  * bad field (dotted path, e.g. `profile.intake.duration050`).
@@ -493,14 +948,21 @@ export function analyzeProfile(input: AnalysisInput, options?: { workspace?: Ana
     perCylinderCc: sweptCc,
   };
   const staticCr: StaticCompression = { ratio: (sweptCc + c.clearanceCc) / c.clearanceCc, clearanceCc: c.clearanceCc, sweptCc };
-  const ivc = advertised.ivcAbdc;
-  if (!(ivc > -90 && ivc < 180)) {
-    throw new CalcInputError('profile.icl', `puts intake closing at ${ivc.toFixed(1)}° ABDC, outside the intake and compression strokes`, c.icl);
+  // Dynamic compression: intake closing at one reference valve lift for every sheet.
+  const refTappet = (DYNAMIC_CR_REFERENCE.valveLift + c.intake.lash) / c.intake.rockerRatio;
+  if (!(refTappet < c.intake.shape.lobeLift)) {
+    throw new CalcInputError('profile.intake.lobeLift', `never opens the valve past the ${DYNAMIC_CR_REFERENCE.valveLift} in reference lift`, c.intake.shape.lobeLift);
+  }
+  const ivc = c.icl + offsetAtLiftRaw(c.intake.shape, refTappet) - 180;
+  const ivc050 = at050.ivcAbdc + 15;
+  for (const v of [ivc, ivc050]) {
+    if (!(v > -90 && v < 180)) {
+      throw new CalcInputError('profile.icl', `puts intake closing at ${v.toFixed(1)}° ABDC, outside the intake and compression strokes`, c.icl);
+    }
   }
   const dyn = dynamicCompressionRaw(e.bore, e.stroke, e.rodLength, c.clearanceCc, ivc);
-  const convention =
-    `IVC taken at the advertised checking height (${c.intake.shape.advertisedHeight} in tappet lift), ` +
-    `${ivc.toFixed(1)}° ABDC; trapped volume from the exact slider-crank piston position at IVC`;
+  const dyn050 = dynamicCompressionRaw(e.bore, e.stroke, e.rodLength, c.clearanceCc, ivc050);
+  const convention = DYNAMIC_CR_CONVENTION;
 
   const checks: CheckResult[] = [];
   const skipped: SkippedCheck[] = [];
@@ -554,7 +1016,7 @@ export function analyzeProfile(input: AnalysisInput, options?: { workspace?: Ana
   // dynamic compression
   checks.push(
     checkMaximum(
-      { id: 'dynamicCompression', subject: 'engine', value: dyn.ratio, unit: ':1', what: 'Dynamic compression' },
+      { id: 'dynamicCompression', subject: 'engine', value: dyn.ratio, unit: ':1', what: DYNAMIC_CR_WHAT },
       limits.dynamicCompression,
     ),
   );
@@ -580,8 +1042,10 @@ export function analyzeProfile(input: AnalysisInput, options?: { workspace?: Ana
     );
   }
 
+  const feasibility = feasibilityOf(input, c, limits, ws, checks, skipped);
+
   return {
-    law: c.law,
+    law: LOBE_LAW,
     lsa: c.lsa,
     icl: c.icl,
     events: { at050, advertised },
@@ -591,8 +1055,25 @@ export function analyzeProfile(input: AnalysisInput, options?: { workspace?: Ana
     displacement,
     compression: {
       static: staticCr,
-      dynamic: { ratio: dyn.ratio, effectiveStroke: dyn.effectiveStroke, trappedSweptCc: dyn.trappedSweptCc, ivcAbdc: ivc, convention },
+      dynamic: {
+        ratio: dyn.ratio,
+        effectiveStroke: dyn.effectiveStroke,
+        trappedSweptCc: dyn.trappedSweptCc,
+        ivcAbdc: ivc,
+        referenceLift: DYNAMIC_CR_REFERENCE.valveLift,
+        convention,
+        source: DYNAMIC_CR_REFERENCE.source,
+        at050Plus15: {
+          ratio: dyn050.ratio,
+          effectiveStroke: dyn050.effectiveStroke,
+          trappedSweptCc: dyn050.trappedSweptCc,
+          ivcAbdc: ivc050,
+          convention: 'IVC at 0.050 in tappet lift plus 15°',
+          source: 'common practice, no source',
+        },
+      },
     },
+    feasibility,
     ptv,
     preload,
     limits,
@@ -637,6 +1118,7 @@ export function analysisToJson(analysis: ProfileAnalysis): ProfileAnalysisJson {
 
 /** Check a degreed-in cam against the sheet (|measured ICL − sheet ICL|). */
 export function checkDegreeing(result: DegreeResult, overrides?: CheckLimitOverrides): CheckResult {
+  requireObject('result', result);
   const limits = resolveCheckLimits(overrides);
   return checkMaximum(
     { id: 'degreeing', subject: 'intake', value: Math.abs(result.difference), unit: '°', what: 'Installed ICL difference from the sheet' },
@@ -644,18 +1126,21 @@ export function checkDegreeing(result: DegreeResult, overrides?: CheckLimitOverr
   );
 }
 
-/** Run worn-lobe detection with the shop's threshold and return one check per lobe. */
+/**
+ * Run worn-lobe detection with the shop's threshold and return one check per
+ * lobe: each lobe's damage depth (inches below its siblings' median or, given
+ * `stockLobeLift`, below the sheet's stock lobe lift, whichever is more).
+ */
 export function checkWornLobes(
   lobes: readonly LobeMaxLift[],
   overrides?: CheckLimitOverrides,
+  stockLobeLift?: number,
 ): { result: WornLobeResult; checks: CheckResult[] } {
   const limits = resolveCheckLimits(overrides);
-  const result = findWornLobes({ lobes, threshold: limits.wornLobe.max });
+  const result = findWornLobes({ lobes, threshold: limits.wornLobe.max, stockLobeLift });
+  const what = stockLobeLift === undefined ? 'Max lift below the median of its siblings' : 'Max lift below its siblings or the stock lobe lift';
   const checks = result.lobes.map((row) =>
-    checkMaximum(
-      { id: 'wornLobe', subject: row.id, value: Math.max(0, row.shortfall), unit: 'in', what: 'Max lift below the median of its siblings' },
-      limits.wornLobe,
-    ),
+    checkMaximum({ id: 'wornLobe', subject: row.id, value: row.damageDepth, unit: 'in', what }, limits.wornLobe),
   );
   return { result, checks };
 }

@@ -4,7 +4,9 @@
  * Each analysis: valve events at both checking heights; intake, exhaust and
  * piston curves over the whole cycle at 0.5° steps with velocity and
  * acceleration; piston-to-valve sweeps for both valves; static and dynamic
- * compression; spring, retainer and preload checks. Inputs cycle through 64
+ * compression; spring, retainer and preload checks; and on both lobes the
+ * regrind envelope against the core, pressure angle and radius of curvature
+ * (a whole cam turn at 1°), with the cleanup and lifter side of the cut. Inputs cycle through 64
  * varied profiles and engines so no result can be reused between calls.
  *
  * The budget is judged on CPU time used by this process (one JavaScript
@@ -14,14 +16,14 @@
  * Run: npm run bench. Exits 1 when under budget.
  */
 import { analyzeProfile, createAnalysisWorkspace, type AnalysisInput } from './analysis';
-import { DEMO_ANALYSIS_INPUT } from './demo';
+import { DEMO_FEASIBILITY_INPUT } from './demo';
 
 const BUDGET = 20000;
 const WARMUP_MS = 800;
 const MEASURE_MS = 3000;
 
 function variants(count: number): AnalysisInput[] {
-  const base = DEMO_ANALYSIS_INPUT;
+  const base = DEMO_FEASIBILITY_INPUT;
   const out: AnalysisInput[] = [];
   for (let i = 0; i < count; i++) {
     const f = i / count;
@@ -58,7 +60,14 @@ function run(inputs: AnalysisInput[], ms: number): { count: number; wallSeconds:
       const input = inputs[k];
       if (!input) continue;
       const a = analyzeProfile(input, { workspace: ws });
-      sink += (a.ptv.intake?.minClearance ?? 0) + a.compression.dynamic.ratio + (a.intake.curve.velocity[900] ?? 0) + (a.piston.acceleration[100] ?? 0);
+      sink +=
+        (a.ptv.intake?.minClearance ?? 0) +
+        a.compression.dynamic.ratio +
+        (a.intake.curve.velocity[900] ?? 0) +
+        (a.piston.acceleration[100] ?? 0) +
+        (a.feasibility.exhaust.envelope?.minMargin ?? Number.NaN) +
+        (a.feasibility.intake.pressureAngle?.rise.value ?? Number.NaN) +
+        (a.feasibility.exhaust.curvature?.minSurface.value ?? Number.NaN);
       count++;
     }
     now = performance.now();
@@ -72,7 +81,7 @@ run(inputs, WARMUP_MS);
 const r = run(inputs, MEASURE_MS);
 const perCpuSecond = Math.round(r.count / r.cpuSeconds);
 const perWallSecond = Math.round(r.count / r.wallSeconds);
-const sample = analyzeProfile(DEMO_ANALYSIS_INPUT);
+const sample = analyzeProfile(DEMO_FEASIBILITY_INPUT);
 const points = sample.intake.curve.count * 3 + sample.exhaust.curve.count * 3 + sample.piston.count * 3;
 
 console.log(`calc analyses/s: ${perCpuSecond} (budget ${BUDGET}) per CPU-second on one thread`);

@@ -14,7 +14,32 @@ describe('default limits', () => {
     expect(DEFAULT_CHECK_LIMITS.ptvExhaust.min).toBe(0.1);
     expect(DEFAULT_CHECK_LIMITS.hydraulicPreload.min).toBe(0.02);
     expect(DEFAULT_CHECK_LIMITS.hydraulicPreload.max).toBe(0.06);
-    for (const rule of Object.values(DEFAULT_CHECK_LIMITS)) expect(rule.source).toMatch(/common practice, no source/);
+    for (const rule of Object.values(DEFAULT_CHECK_LIMITS)) expect(rule.source).toMatch(/common practice, no source|from memory/);
+    // Norton, Design of Machinery, §8.7 (from memory): about 30° for a translating roller follower.
+    expect(DEFAULT_CHECK_LIMITS.pressureAngle.max).toBe(30);
+    expect(DEFAULT_CHECK_LIMITS.pressureAngle.source).toMatch(/Norton/);
+  });
+});
+
+describe('check functions validate their rules (finding 5)', () => {
+  it('regression: a NaN rule is refused, never a pass', () => {
+    // The old checkMinimum compared against NaN, found no margin below zero and answered "pass".
+    const nanRule = { min: Number.NaN, watchBand: 0.02, source: 'test rule' };
+    expect(() => checkMinimum({ ...base, value: 0.15 }, nanRule)).toThrow(CalcInputError);
+    expect(() => checkMinimum({ ...base, value: 0.15 }, nanRule)).toThrow(/rule\.min/);
+    expect(() => checkMaximum({ ...base, value: 1 }, { max: Infinity, watchBand: 0, source: 'x' })).toThrow(/rule\.max/);
+    expect(() => checkRange({ ...base, value: 0.03 }, { min: 0.02, max: 0.06, watchBand: Number.NaN, source: 'x' })).toThrow(/rule\.watchBand/);
+    expect(() => checkRange({ ...base, value: 0.03 }, { min: 0.06, max: 0.02, watchBand: 0, source: 'x' })).toThrow(/rule\.max/);
+    expect(() => checkMinimum({ ...base, value: 0.15 }, { min: 0.06, watchBand: 0.02, source: '' })).toThrow(/rule\.source/);
+  });
+
+  it('regression: missing or non-object arguments are a CalcInputError, not a TypeError', () => {
+    expect(() => checkMinimum(undefined as never, DEFAULT_CHECK_LIMITS.coilBind)).toThrow(CalcInputError);
+    expect(() => checkMinimum({ ...base, value: 0.1 }, undefined as never)).toThrow(CalcInputError);
+    expect(() => checkMaximum({ ...base, value: 0.1 }, 'strict' as never)).toThrow(CalcInputError);
+    expect(() => resolveCheckLimits({ coilBind: 5 } as never)).toThrow(/limits\.coilBind/);
+    expect(() => resolveCheckLimits({ springSurge: {} } as never)).toThrow(/limits\.springSurge/);
+    expect(() => worstStatus(undefined as never)).toThrow(CalcInputError);
   });
 });
 

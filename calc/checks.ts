@@ -3,7 +3,7 @@
  * returns pass / watch / fail, the margin, the limit and the rule's source.
  * Defaults are trade rules of thumb; a shop can override any of them.
  */
-import { CalcInputError, requireFinite, requireNonNegative } from './errors';
+import { CalcInputError, requireFinite, requireNonNegative, requireObject } from './errors';
 
 export type CheckStatus = 'pass' | 'watch' | 'fail';
 
@@ -15,7 +15,13 @@ export type CheckId =
   | 'hydraulicPreload'
   | 'dynamicCompression'
   | 'degreeing'
-  | 'wornLobe';
+  | 'wornLobe'
+  | 'pressureAngle'
+  | 'undercut'
+  | 'grindingWheel'
+  | 'finishingStock'
+  | 'cleanup'
+  | 'largestCut';
 
 /** Value must be at least `min`; within `watchBand` above it is "watch". */
 export interface MinimumRule {
@@ -54,8 +60,14 @@ export interface CheckLimits {
   dynamicCompression: MaximumRule;
   /** Degreed-in ICL difference from the sheet, crank degrees (absolute). */
   degreeing: MaximumRule;
-  /** Worn lobe: max lift below the median of its siblings, inches. */
+  /** Worn lobe: max lift below the median of its siblings or the stock lobe lift, inches. */
   wornLobe: MaximumRule;
+  /** Largest pressure angle of an in-line roller follower, degrees. */
+  pressureAngle: MaximumRule;
+  /** Smallest convex cam-surface radius, inches (0 = a cusp: undercut). */
+  undercut: MinimumRule;
+  /** Finishing stock: the smallest material margin between core and candidate, inches on the radius. */
+  finishingStock: MinimumRule;
 }
 
 /** A shop's own limits: any subset of any rule. */
@@ -85,6 +97,17 @@ export const DEFAULT_CHECK_LIMITS: Readonly<CheckLimits> = Object.freeze({
   dynamicCompression: Object.freeze({ max: 8.5, watchBand: 0.3, source: `${COMMON}; pump gasoline, iron heads` }),
   degreeing: Object.freeze({ max: 2, watchBand: 1, source: COMMON }),
   wornLobe: Object.freeze({ max: 0.005, watchBand: 0.002, source: COMMON }),
+  pressureAngle: Object.freeze({
+    max: 30,
+    watchBand: 3,
+    source: 'R. L. Norton, Design of Machinery, §8.7: keep a translating roller follower under about 30° (from memory)',
+  }),
+  undercut: Object.freeze({
+    min: 0,
+    watchBand: 0.05,
+    source: 'geometry: a convex pitch radius below the roller radius, or a flat-tappet radius at or below 0, cannot be ground (Norton, Design of Machinery, §8.8, from memory)',
+  }),
+  finishingStock: Object.freeze({ min: 0.005, watchBand: 0.005, source: COMMON }),
 });
 
 /** Where a rule's number came from when a shop changed it. */
@@ -99,6 +122,9 @@ const KIND: Record<keyof CheckLimits, 'min' | 'max' | 'range'> = {
   dynamicCompression: 'max',
   degreeing: 'max',
   wornLobe: 'max',
+  pressureAngle: 'max',
+  undercut: 'min',
+  finishingStock: 'min',
 };
 
 /**
@@ -108,6 +134,12 @@ const KIND: Record<keyof CheckLimits, 'min' | 'max' | 'range'> = {
  */
 export function resolveCheckLimits(overrides?: CheckLimitOverrides): CheckLimits {
   if (overrides === undefined || overrides === null) return DEFAULT_CHECK_LIMITS;
+  requireObject('limits', overrides);
+  for (const key of Object.keys(overrides)) {
+    if (!(key in DEFAULT_CHECK_LIMITS)) throw new CalcInputError(`limits.${key}`, 'is not a check Lobewright knows', key);
+    const patch = (overrides as Record<string, unknown>)[key];
+    if (patch !== undefined) requireObject(`limits.${key}`, patch);
+  }
   const out = {} as Record<keyof CheckLimits, MinimumRule | MaximumRule | RangeRule>;
   for (const key of Object.keys(DEFAULT_CHECK_LIMITS) as (keyof CheckLimits)[]) {
     const base = DEFAULT_CHECK_LIMITS[key];
@@ -186,14 +218,37 @@ function ruleText(rule: object, key: string, build: () => string): string {
   return text;
 }
 
+/** Validate what is checked: id, subject, unit and wording as strings, a finite value. */
+function requireBase(base: CheckBase): number {
+  requireObject('base', base);
+  for (const f of ['id', 'subject', 'unit', 'what'] as const) {
+    if (typeof base[f] !== 'string') throw new CalcInputError(`base.${f}`, 'must be text', base[f]);
+  }
+  return requireFinite('value', base.value);
+}
+
+/** Validate a rule: finite limits, a watch band of 0 or more, a source in words. */
+function requireRule(rule: object, keys: readonly ('min' | 'max')[]): void {
+  requireObject('rule', rule);
+  const r = rule as Record<string, unknown>;
+  for (const k of keys) requireFinite(`rule.${k}`, r[k]);
+  requireNonNegative('rule.watchBand', r.watchBand);
+  if (typeof r.source !== 'string' || !r.source.trim()) throw new CalcInputError('rule.source', 'must name where the rule comes from', r.source);
+}
+
 function fmt(v: number, unit: string): string {
   const digits = unit === 'in' ? 3 : unit === ':1' ? 1 : 1;
   return unit === ':1' ? `${v.toFixed(digits)}:1` : `${v.toFixed(digits)} ${unit}`;
 }
 
+const MIN = ['min'] as const;
+const MAX = ['max'] as const;
+const MIN_MAX = ['min', 'max'] as const;
+
 /** A value that must be at least the rule's minimum. */
 export function checkMinimum(base: CheckBase, rule: MinimumRule): CheckResult {
-  const value = requireFinite('value', base.value);
+  const value = requireBase(base);
+  requireRule(rule, MIN);
   const margin = value - rule.min;
   const status = statusFor(margin, rule.watchBand);
   return {
@@ -211,7 +266,8 @@ export function checkMinimum(base: CheckBase, rule: MinimumRule): CheckResult {
 
 /** A value that must be at most the rule's maximum. */
 export function checkMaximum(base: CheckBase, rule: MaximumRule): CheckResult {
-  const value = requireFinite('value', base.value);
+  const value = requireBase(base);
+  requireRule(rule, MAX);
   const margin = rule.max - value;
   const status = statusFor(margin, rule.watchBand);
   return {
@@ -229,7 +285,9 @@ export function checkMaximum(base: CheckBase, rule: MaximumRule): CheckResult {
 
 /** A value that must lie inside the rule's range. */
 export function checkRange(base: CheckBase, rule: RangeRule): CheckResult {
-  const value = requireFinite('value', base.value);
+  const value = requireBase(base);
+  requireRule(rule, MIN_MAX);
+  if (!(rule.max > rule.min)) throw new CalcInputError('rule.max', `must be greater than min (${rule.min})`, rule.max);
   const low = value - rule.min;
   const high = rule.max - value;
   const margin = Math.min(low, high);
@@ -253,8 +311,12 @@ export function checkRange(base: CheckBase, rule: RangeRule): CheckResult {
 
 /** The worst status in a list: fail over watch over pass. */
 export function worstStatus(results: readonly { status: CheckStatus }[]): CheckStatus {
+  if (!Array.isArray(results)) throw new CalcInputError('results', 'must be a list of check results', results);
   let worst: CheckStatus = 'pass';
   for (const r of results) {
+    if (r === null || typeof r !== 'object' || (r.status !== 'pass' && r.status !== 'watch' && r.status !== 'fail')) {
+      throw new CalcInputError('results', 'every result needs a status of pass, watch or fail', r);
+    }
     if (r.status === 'fail') return 'fail';
     if (r.status === 'watch') worst = 'watch';
   }

@@ -5,6 +5,7 @@
  */
 import type { ProfileAnalysis } from './analysis';
 import type { CheckId, CheckResult } from './checks';
+import { requireObject } from './errors';
 
 export interface ProfileDifferences {
   /** Candidate − current, crank degrees at 0.050 in. */
@@ -64,6 +65,12 @@ const CHECK_WORDS: Record<CheckId, string> = {
   dynamicCompression: 'effective compression',
   degreeing: 'cam timing as installed',
   wornLobe: 'lobe wear',
+  pressureAngle: 'how hard the lobe pushes the lifter sideways',
+  undercut: 'whether the lobe shape can be ground',
+  grindingWheel: 'whether the grinding wheel fits the lobe shape',
+  finishingStock: 'whether the new lobe fits inside the old cam',
+  cleanup: 'whether the grind goes deep enough to clean up the damage',
+  largestCut: 'how deep the grind may go into the hardened surface',
 };
 
 /** Differences between two analyses (candidate − current). */
@@ -124,6 +131,7 @@ export function ownerFitText(analysis: ProfileAnalysis, name: string): string {
  * differences (under 1° or 0.005 in) are reported as "about the same".
  */
 export function compareProfilesForOwner(input: OwnerComparisonInput): OwnerComparison {
+  requireObject('input', input);
   const { current, candidate } = input;
   const cur = input.currentName?.trim() || 'current';
   const cand = input.candidateName?.trim() || 'proposed';

@@ -2,7 +2,7 @@
  * Degreeing a cam in: intake centreline from two equal-lift readings on the
  * degree wheel, the difference from the sheet, and the correction.
  */
-import { CalcInputError, requireFinite, requireNonNegative } from './errors';
+import { CalcInputError, requireFinite, requireNonNegative, requireObject } from './errors';
 import { requireIcl } from './events';
 
 export interface EqualLiftReadings {
@@ -22,6 +22,7 @@ export function centerlineFromReadingsRaw(openingAngle: number, closingAngle: nu
  * same lift (for example 0.050 in before and after max lift) on either flank.
  */
 export function centerlineFromReadings(input: EqualLiftReadings): number {
+  requireObject('input', input);
   const open = requireFinite('openingAngle', input.openingAngle);
   const close = requireFinite('closingAngle', input.closingAngle);
   if (!(close > open)) {
@@ -58,6 +59,7 @@ export interface DegreeResult {
  * sits retarded, so it needs advancing by the difference, and vice versa.
  */
 export function degreeCam(input: EqualLiftReadings & { sheetIcl: number; tolerance?: number }): DegreeResult {
+  requireObject('input', input);
   const measuredIcl = centerlineFromReadings(input);
   const sheetIcl = requireIcl('sheetIcl', input.sheetIcl);
   const tolerance = requireNonNegative('tolerance', input.tolerance ?? 0.5, 'crank degrees');

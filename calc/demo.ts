@@ -3,7 +3,7 @@
  * cam or part). A 5.9 L pushrod V8 on hydraulic rollers, with a stock-spec
  * regrind and a mild towing profile. Used by tests, the bench and seeds.
  */
-import type { AnalysisInput, EngineInput, ProfileInput } from './analysis';
+import type { AnalysisInput, CoreInput, EngineInput, GrindingInput, ProfileInput } from './analysis';
 
 export const DEMO_ENGINE: EngineInput = {
   bore: 4.03,
@@ -48,3 +48,28 @@ export const DEMO_ANALYSIS_INPUT: AnalysisInput = {
   },
   regrind: { originalPreload: 0.045, stockBaseCircle: 1.24, pushrodLength: 7.4 },
 };
+
+/**
+ * The demo's core: the engine's original cam, as its stock sheet describes it
+ * (the stock regrind copies these lobes onto a smaller base circle). Cylinder
+ * 3's exhaust lobe is galled 0.012 in deep (the demo lobe table).
+ */
+export const DEMO_CORE: CoreInput = {
+  intake: { duration050: 204, advertisedDuration: 262, advertisedHeight: 0.006, lobeLift: 0.305 },
+  exhaust: { duration050: 210, advertisedDuration: 268, advertisedHeight: 0.006, lobeLift: 0.315 },
+  lsa: 114,
+  icl: 110,
+  baseCircle: 1.24,
+  damageDepth: { exhaust: 0.012 },
+};
+
+/** The demo shop's grinding numbers (invented): roller, wheel, cleanup allowance and the largest cut. */
+export const DEMO_GRINDING: GrindingInput = {
+  rollerDiameter: 0.75,
+  wheelDiameter: 14,
+  cleanupAllowance: 0.005,
+  largestCut: 0.06,
+};
+
+/** The towing profile judged against the demo core, with the grinding numbers. */
+export const DEMO_FEASIBILITY_INPUT: AnalysisInput = { ...DEMO_ANALYSIS_INPUT, core: DEMO_CORE, grinding: DEMO_GRINDING };

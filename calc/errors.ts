@@ -31,10 +31,20 @@ function describe(value: unknown): string {
   return typeof value;
 }
 
-/** A finite number, or throw. */
+/**
+ * Largest magnitude any calc input may have. Inputs are inches, cc, degrees,
+ * lbf and lbf/in; nothing real comes near it, and products of a few such
+ * numbers stay far inside double range, so no result overflows to Infinity.
+ */
+export const INPUT_MAGNITUDE_MAX = 1e9;
+
+/** A finite number no larger than INPUT_MAGNITUDE_MAX in size, or throw. */
 export function requireFinite(field: string, value: unknown): number {
   if (typeof value !== 'number' || !Number.isFinite(value)) {
     throw new CalcInputError(field, `must be a finite number (got ${describe(value)})`, value);
+  }
+  if (value > INPUT_MAGNITUDE_MAX || value < -INPUT_MAGNITUDE_MAX) {
+    throw new CalcInputError(field, `is too large (got ${value}; at most ${INPUT_MAGNITUDE_MAX} in size)`, value);
   }
   return value;
 }
@@ -91,4 +101,22 @@ export function requireThat(condition: boolean, field: string, message: string, 
 /** Join a prefix and a field name into a dotted path. */
 export function fieldPath(prefix: string | undefined, name: string): string {
   return prefix ? `${prefix}.${name}` : name;
+}
+
+/** A plain object (not null, not an array), or throw naming the field. */
+export function requireObject(field: string, value: unknown): void {
+  if (typeof value !== 'object' || value === null || Array.isArray(value)) {
+    throw new CalcInputError(field, `is required and must be an object (got ${describe(value)})`, value);
+  }
+}
+
+/**
+ * Every number in a result must be finite: huge inputs can overflow to
+ * Infinity or NaN. Throws naming `field` (the input that was too large).
+ */
+export function requireFiniteResult(field: string, value: number): number {
+  if (!Number.isFinite(value)) {
+    throw new CalcInputError(field, 'is too large: the result would not be a finite number', value);
+  }
+  return value;
 }

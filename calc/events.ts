@@ -8,7 +8,7 @@
  * IVO is °BTDC, IVC °ABDC, EVO °BBDC, EVC °ATDC; a negative value means the
  * event falls on the other side of that dead centre.
  */
-import { fieldPath, requireFinite, requireInRange, requireNonNegative, requirePositive, requireThat } from './errors';
+import { fieldPath, requireFinite, requireInRange, requireNonNegative, requirePositive, requireThat, requireObject } from './errors';
 
 export interface ValveEventsInput {
   /** Intake duration at one checking height, crank degrees. */
@@ -76,6 +76,7 @@ export function valveEventsRaw(intakeDuration: number, exhaustDuration: number, 
  * the installed intake centreline. All results in crank degrees.
  */
 export function valveEvents(input: ValveEventsInput, prefix?: string): ValveEvents {
+  requireObject(prefix ?? 'input', input);
   const di = requireDuration(fieldPath(prefix, 'intakeDuration'), input.intakeDuration);
   const de = requireDuration(fieldPath(prefix, 'exhaustDuration'), input.exhaustDuration);
   const lsa = requireLsa(fieldPath(prefix, 'lsa'), input.lsa);
@@ -108,6 +109,7 @@ export interface EventTiming {
  * opening and closing points (for a card that lists events, not durations).
  */
 export function timingFromEvents(input: EventTimingInput): EventTiming {
+  requireObject('input', input);
   const ivo = requireFinite('ivoBtdc', input.ivoBtdc);
   const ivc = requireFinite('ivcAbdc', input.ivcAbdc);
   const evo = requireFinite('evoBbdc', input.evoBbdc);
@@ -137,6 +139,7 @@ export function valveLiftRaw(lobeLift: number, rockerRatio: number, lash: number
 
 /** Net valve lift, inches: lobe lift × rocker ratio − lash. */
 export function valveLift(input: ValveLiftInput, prefix?: string): number {
+  requireObject(prefix ?? 'input', input);
   const lobe = requirePositive(fieldPath(prefix, 'lobeLift'), input.lobeLift, 'in');
   const ratio = requireInRange(fieldPath(prefix, 'rockerRatio'), input.rockerRatio, { min: 0.5, max: 3, unit: '' });
   const lash = requireNonNegative(fieldPath(prefix, 'lash'), input.lash, 'in');

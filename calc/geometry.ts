@@ -3,7 +3,7 @@
  * compression ratios. Lengths in inches, volumes in cc, angles in crank degrees.
  */
 import { CC_PER_CUBIC_INCH, RAD_PER_DEG } from './constants';
-import { CalcInputError, fieldPath, requireFinite, requireInRange, requireInteger, requirePositive, requireThat } from './errors';
+import { CalcInputError, fieldPath, requireFinite, requireInRange, requireInteger, requirePositive, requireThat, requireObject } from './errors';
 
 export interface CrankInput {
   /** Stroke, inches. */
@@ -14,6 +14,7 @@ export interface CrankInput {
 
 /** Check stroke and rod: the rod must be longer than the crank throw (half the stroke). */
 export function requireCrank(input: CrankInput, prefix?: string): { stroke: number; rodLength: number } {
+  requireObject(prefix ?? 'input', input);
   const stroke = requirePositive(fieldPath(prefix, 'stroke'), input.stroke, 'in');
   const rodLength = requirePositive(fieldPath(prefix, 'rodLength'), input.rodLength, 'in');
   requireThat(
@@ -38,6 +39,7 @@ export function pistonDepthRaw(stroke: number, rodLength: number, crankAngleDeg:
  * crankAngle in crank degrees from TDC (any sign).
  */
 export function pistonDepth(input: CrankInput & { crankAngle: number }, prefix?: string): number {
+  requireObject(prefix ?? 'input', input);
   const { stroke, rodLength } = requireCrank(input, prefix);
   const angle = requireFinite(fieldPath(prefix, 'crankAngle'), input.crankAngle);
   return pistonDepthRaw(stroke, rodLength, angle);
@@ -67,6 +69,7 @@ export function pistonMotionRaw(stroke: number, rodLength: number, crankAngleDeg
 
 /** Piston depth, velocity and acceleration against crank angle (exact slider-crank). */
 export function pistonMotion(input: CrankInput & { crankAngle: number }): PistonMotion {
+  requireObject('input', input);
   const { stroke, rodLength } = requireCrank(input);
   return pistonMotionRaw(stroke, rodLength, requireFinite('crankAngle', input.crankAngle));
 }
@@ -83,6 +86,7 @@ export function sweptVolumeRaw(bore: number, stroke: number): number {
 
 /** Swept volume of one cylinder, cc, from bore and stroke in inches. */
 export function sweptVolume(input: { bore: number; stroke: number }, prefix?: string): number {
+  requireObject(prefix ?? 'input', input);
   const bore = requirePositive(fieldPath(prefix, 'bore'), input.bore, 'in');
   const stroke = requirePositive(fieldPath(prefix, 'stroke'), input.stroke, 'in');
   return sweptVolumeRaw(bore, stroke);
@@ -101,6 +105,7 @@ export interface Displacement {
 
 /** Engine displacement from bore and stroke (inches) and cylinder count. */
 export function displacement(input: { bore: number; stroke: number; cylinders: number }, prefix?: string): Displacement {
+  requireObject(prefix ?? 'input', input);
   const perCylinderCc = sweptVolume(input, prefix);
   const cylinders = requireInteger(fieldPath(prefix, 'cylinders'), input.cylinders, 1);
   const cc = perCylinderCc * cylinders;
@@ -142,6 +147,7 @@ export interface CheckedCompressionInput {
 
 /** Validate compression inputs and work out the clearance volume (cc). */
 export function checkCompressionInput(input: StaticCompressionInput, prefix?: string): CheckedCompressionInput {
+  requireObject(prefix ?? 'input', input);
   const bore = requirePositive(fieldPath(prefix, 'bore'), input.bore, 'in');
   const stroke = requirePositive(fieldPath(prefix, 'stroke'), input.stroke, 'in');
   const chamberCc = requirePositive(fieldPath(prefix, 'chamberCc'), input.chamberCc, 'cc');
@@ -228,6 +234,7 @@ export function dynamicCompressionRaw(
  * (exact slider-crank position) instead of the full stroke.
  */
 export function dynamicCompression(input: DynamicCompressionInput, prefix?: string): DynamicCompression {
+  requireObject(prefix ?? 'input', input);
   const { bore, stroke, clearanceCc } = checkCompressionInput(input, prefix);
   const { rodLength } = requireCrank({ stroke, rodLength: input.rodLength }, prefix);
   const ivc = requireInRange(fieldPath(prefix, 'ivcAbdc'), input.ivcAbdc, {

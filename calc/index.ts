@@ -45,11 +45,15 @@ export {
 export { MOTION_LAWS, motionLaw, motionLawInverse, type MotionLawName, type MotionLawPoint } from './motion';
 export {
   CYCLE_GRID,
-  DEFAULT_MOTION_LAW,
+  GRID_MAX,
+  LOBE_ACCELERATION_MAX,
+  LOBE_LAW,
   lobeLiftAt,
   RAMP_MAX,
   synthesizeLiftCurve,
   synthesizeLobe,
+  WARP_MAX,
+  type LobeLawName,
   type CurveGrid,
   type LiftCurve,
   type LobePoint,
@@ -80,7 +84,33 @@ export {
   type SpringCheck,
   type SpringCheckInput,
 } from './springs';
-export { preloadAfterRegrind, pushrodChangeForRegrind, type PreloadInput, type PreloadResult } from './regrind';
+export {
+  lifterSideOfCut,
+  preloadAfterRegrind,
+  pushrodChangeForRegrind,
+  regrindCleanup,
+  type CleanupInput,
+  type CleanupLobe,
+  type CleanupResult,
+  type LifterCutInput,
+  type LifterCutResult,
+  type PreloadInput,
+  type PreloadResult,
+} from './regrind';
+export {
+  ENVELOPE_CRITERION,
+  LOBE_SAMPLES_MAX,
+  pitchCurvature,
+  pressureAngle,
+  RADIUS_CLIP,
+  regrindEnvelope,
+  type CamFollower,
+  type CamLobeSamples,
+  type CurvatureResult,
+  type EnvelopeResult,
+  type FlankPeak,
+  type PressureAngleResult,
+} from './cam-geometry';
 export { ptvSweep, type PtvBaseline, type PtvSweep, type PtvSweepInput, type SampledLift } from './ptv';
 export {
   checkMaximum,
@@ -105,13 +135,19 @@ export {
   checkWornLobes,
   analysisToJson,
   analyzeProfile,
+  CAM_GRID,
   createAnalysisWorkspace,
+  DYNAMIC_CR_REFERENCE,
   LIFTER_TYPES,
   pistonCurve,
   PTV_SWEEP,
   type AnalysisInput,
   type AnalysisWorkspace,
+  type CoreInput,
   type EngineInput,
+  type Feasibility,
+  type GrindingInput,
+  type LobeGeometry,
   type EventsAtHeight,
   type LifterType,
   type LobeAnalysis,
@@ -134,4 +170,4 @@ export {
   type OwnerTopic,
   type ProfileDifferences,
 } from './compare';
-export { DEMO_ANALYSIS_INPUT, DEMO_ENGINE, DEMO_STOCK_REGRIND, DEMO_TOWING } from './demo';
+export { DEMO_ANALYSIS_INPUT, DEMO_CORE, DEMO_ENGINE, DEMO_FEASIBILITY_INPUT, DEMO_GRINDING, DEMO_STOCK_REGRIND, DEMO_TOWING } from './demo';

@@ -1,48 +1,63 @@
 /**
- * Lift-curve synthesis from a lobe spec.
+ * Lift-curve synthesis from a lobe spec: a single-dwell lobe.
  *
  * A regrind sheet gives, per lobe, the lobe lift L, the duration D₂ at 0.050 in
- * tappet lift and the advertised duration D₁ at a lower height h₁. The curve
- * built here is symmetric about the lobe centre and hits all three exactly:
+ * tappet lift and the advertised duration D₁ at a lower height h₁. A cam lobe
+ * rises and falls with no dwell at the top (a single-dwell cam), so the curve
+ * here is one symmetric function of the offset φ from the lobe centre, not a
+ * rise law mirrored at the nose:
  *
- *   lift(φ) = L · s(W(τ)),   τ = 1 − |φ| / Φ  (0 at the opening point, 1 at the nose)
+ *   lift(φ) = L · g(m)³,   m = 1 − ψ²,   ψ = |φ| / Φ ∈ [0, 1],
+ *   g(m) = k·m / (1 + (k − 1)·m)   (a Möbius warp: g(0) = 0, g(1) = 1, increasing).
  *
- * - s is a full-rise motion law (cycloidal, 3-4-5 or 4-5-6-7), so the flank
- *   starts from rest, rises monotonically and reaches L at the nose;
- * - W is a smooth, monotone warp of the law's time axis, W(0) = 0, W(1) = 1,
- *   W(τ) = τ^q / (τ^q + k(1 − τ)); in logit form logit W = q·ln τ − ln(1 − τ) − ln k;
- * - Φ is half the seat-to-seat event (crank degrees from centre to zero lift).
+ * With k = 1, g(m) = m and lift = L(1 − ψ²)³ = L·64x³(1 − x)³ over the event
+ * x ∈ [0, 1]: the 3-4-5-6 polynomial for a symmetric single-dwell rise and fall,
+ * s = h[64(θ/β)³ − 192(θ/β)⁴ + 192(θ/β)⁵ − 64(θ/β)⁶] (R. L. Norton, "Design of
+ * Machinery", single-dwell cam design with polynomials; also Norton, "Cam Design
+ * and Manufacturing Handbook", ch. 3; from memory). The warp k bends its time
+ * axis so that the lobe meets two checking heights.
  *
- * Let ξᵢ = s⁻¹(hᵢ / L) be where the law reaches each checking height. Hitting
- * both durations means W(1 − Dᵢ/2Φ) = ξᵢ for i = 1, 2. Subtracting the two
- * logit equations, (1 − τ₂)/(1 − τ₁) = D₂/D₁ drops out and
- *     q · ln(τ₂/τ₁) = Δ − ln(D₁/D₂),   Δ = logit ξ₂ − logit ξ₁,
- * so q > 0 exactly when the law's odds ratio e^Δ exceeds D₁/D₂. With q = 1
- * (a Möbius warp, smooth with a finite slope at both ends) Φ has the closed form
- *     Φ = a·b·(e^Δ − 1) / (b·e^Δ − a),   a = D₁/2, b = D₂/2.
- * When that Φ would give an unreal ramp (Φ − a > RAMP_MAX) Φ is capped and
- * q < 1 is solved instead; q must stay above Q_MIN so acceleration stays finite
- * at the opening point. ln k then follows from either checking point.
+ * Properties (each is a test):
+ * - lift, velocity and acceleration are zero at the seat (ψ = 1) and the jerk
+ *   there is finite, L·(−8·g‴ …) = 48·L·k³/Φ³ in magnitude;
+ * - the function depends on ψ² only, so it is smooth through the nose:
+ *   acceleration there is −6L/(kΦ²), the same from both flanks;
+ * - G(m) = g(m)³ is convex in m exactly when k ≤ 2, and a convex G puts the
+ *   largest deceleration exactly at the nose (lift″(ψ) = −2G′(m) + 4ψ²G″(m) ≥ −2G′(1)).
+ *   Sheets needing k > 2 are refused.
+ *
+ * Fit: let rᵢ = (hᵢ/L)^⅓ and cᵢ = 1 − rᵢ, so each checking point needs
+ * 1 − g(mᵢ) = rᵢ with ψᵢ = Dᵢ/(2Φ). In logit form logit(1 − g) = logit(ψ²) − ln k,
+ * so both points give, with a = D₁/2, b = D₂/2, E = exp(logit c₁ − logit c₂):
+ *     Φ² = a²b²(E − 1) / (E·b² − a²),   ln k = logit(a²/Φ²) − logit c₁.
+ * A fit exists only when E·b² > a² (else the advertised duration is too long for
+ * the lift). Both durations and the lobe lift are then met exactly.
  *
  * Velocity and acceleration follow by the chain rule and are exact, in inches
- * per crank degree and inches per crank degree². At the nose they are zero,
- * because every law here ends its rise with v = a = 0.
+ * per crank degree and inches per crank degree².
  */
 import { CHECKING_HEIGHT_050 } from './constants';
-import { CalcInputError, fieldPath, requireFinite, requireInRange, requireInteger, requireNonNegative, requirePositive } from './errors';
+import { CalcInputError, fieldPath, requireFinite, requireInRange, requireInteger, requireNonNegative, requireObject, requirePositive } from './errors';
 import { requireDuration } from './events';
-import { LAW_EVALUATORS, lawInverseRaw, requireMotionLaw, type LawEvaluator, type MotionLawName } from './motion';
 
 /**
  * Longest ramp the fit may use, crank degrees from the advertised point to zero
- * lift. Beyond it the ramp is held at this length and the warp exponent q
- * shrinks below 1 instead.
+ * lift. A sheet that needs more is refused.
  */
 export const RAMP_MAX = 90;
-/** Smallest warp exponent: below 2/3 the acceleration would grow without bound at the opening point. */
-export const Q_MIN = 0.7;
-/** The law the analysis uses unless told otherwise. */
-export const DEFAULT_MOTION_LAW: MotionLawName = 'poly345';
+/** Largest warp constant: above 2 the lobe's largest deceleration leaves the nose. */
+export const WARP_MAX = 2;
+/**
+ * Plausibility bound on tappet acceleration (either sign), inches per crank
+ * degree² (0.0005 in/crank°² = 0.002 in/cam°²). Lobewright's own bound, no
+ * source: several times the fastest lobes in the range regrind sheets use.
+ * A sheet whose lobe would need more is refused.
+ */
+export const LOBE_ACCELERATION_MAX = 0.0005;
+
+/** The one lobe law synthesis uses: the single-dwell 3-4-5-6 polynomial with a Möbius warp. */
+export type LobeLawName = 'single-dwell-3456';
+export const LOBE_LAW: LobeLawName = 'single-dwell-3456';
 
 export interface LobeSpec {
   /** Duration at 0.050 in tappet lift, crank degrees. */
@@ -56,20 +71,28 @@ export interface LobeSpec {
 }
 
 export interface LobeShape {
-  law: MotionLawName;
+  law: LobeLawName;
   /** Inches. */
   lobeLift: number;
   /** Half the seat-to-seat event: crank degrees from the centre to zero lift. */
   halfEvent: number;
   /** Seat-to-seat event (lift above zero), crank degrees. */
   seatToSeat: number;
-  /** Warp exponent q (1 = Möbius warp). */
-  warpExponent: number;
-  /** Warp constant k. */
+  /** Warp constant k (1 = the plain 3-4-5-6 polynomial). */
   warpScale: number;
   duration050: number;
   advertisedDuration: number;
   advertisedHeight: number;
+  /** Largest tappet speed, inches per crank degree. */
+  peakVelocity: number;
+  /** Largest positive tappet acceleration, inches per crank degree². */
+  peakAcceleration: number;
+  /** Where it falls, crank degrees from the lobe centre (on the closing flank; mirrored on the opening one). */
+  peakAccelerationAt: number;
+  /** Largest deceleration, inches per crank degree² (negative; at the nose). */
+  peakDeceleration: number;
+  /** Where it falls, crank degrees from the lobe centre (0 = the nose). */
+  peakDecelerationAt: number;
 }
 
 function logit(p: number): number {
@@ -78,6 +101,7 @@ function logit(p: number): number {
 
 /** Validate a lobe spec; throws CalcInputError naming the field. */
 export function requireLobeSpec(input: LobeSpec, prefix?: string): LobeSpec {
+  requireObject(prefix ?? 'spec', input);
   const duration050 = requireDuration(fieldPath(prefix, 'duration050'), input.duration050);
   const advertisedDuration = requireDuration(fieldPath(prefix, 'advertisedDuration'), input.advertisedDuration);
   const advertisedHeight = requireInRange(fieldPath(prefix, 'advertisedHeight'), input.advertisedHeight, {
@@ -103,58 +127,181 @@ export function requireLobeSpec(input: LobeSpec, prefix?: string): LobeSpec {
   return { duration050, advertisedDuration, advertisedHeight, lobeLift };
 }
 
-/** Unchecked kernel of synthesizeLobe; throws CalcInputError when no smooth flank fits. */
-export function synthesizeLobeRaw(spec: LobeSpec, law: MotionLawName, prefix?: string): LobeShape {
+// Scratch for the kernel (a typed array keeps doubles unboxed: no allocation in hot loops).
+const K = new Float64Array(3);
+
+/**
+ * Kernel in normalised form: G = g(m)³ and its first two derivatives with
+ * respect to ψ, at ψ ∈ [0, 1], left in K[0], K[1], K[2].
+ */
+function kernel(k: number, psi: number): void {
+  const m = 1 - psi * psi;
+  const km1 = k - 1;
+  const iD = 1 / (1 + km1 * m);
+  const g = k * m * iD;
+  const gm = k * iD * iD; // dg/dm
+  const gp = -2 * psi * gm; // dg/dψ
+  const gpp = -8 * k * km1 * psi * psi * iD * iD * iD - 2 * gm; // d²g/dψ²
+  const g2 = g * g;
+  K[0] = g2 * g;
+  K[1] = 3 * g2 * gp;
+  K[2] = 6 * g * gp * gp + 3 * g2 * gpp;
+}
+
+/** Normalised acceleration d²G/dψ² at ψ. */
+function accelAt(k: number, psi: number): number {
+  kernel(k, psi);
+  return K[2] ?? 0;
+}
+
+const GOLDEN = (Math.sqrt(5) - 1) / 2;
+
+/**
+ * Peaks of the normalised lobe: the largest d²G/dψ² (a coarse scan, then
+ * golden-section refinement; it is single-peaked on the flank) and the
+ * largest speed −dG/dψ, which sits where d²G/dψ² crosses zero between the
+ * nose (negative) and that peak (Illinois false position).
+ */
+function lobePeaks(k: number): { accel: number; accelPsi: number; speed: number; speedPsi: number } {
+  const n = 12;
+  let best = -Infinity;
+  let bestI = n;
+  for (let i = 1; i < n; i++) {
+    const v = accelAt(k, i / n);
+    if (v > best) {
+      best = v;
+      bestI = i;
+    }
+  }
+  let lo = (bestI - 1) / n;
+  let hi = (bestI + 1) / n;
+  let x1 = hi - GOLDEN * (hi - lo);
+  let x2 = lo + GOLDEN * (hi - lo);
+  let f1 = accelAt(k, x1);
+  let f2 = accelAt(k, x2);
+  while (hi - lo > 1e-7) {
+    if (f1 > f2) {
+      hi = x2;
+      x2 = x1;
+      f2 = f1;
+      x1 = hi - GOLDEN * (hi - lo);
+      f1 = accelAt(k, x1);
+    } else {
+      lo = x1;
+      x1 = x2;
+      f1 = f2;
+      x2 = lo + GOLDEN * (hi - lo);
+      f2 = accelAt(k, x2);
+    }
+  }
+  const accelPsi = (lo + hi) / 2;
+  const accel = accelAt(k, accelPsi);
+  // zero of the acceleration in (0, accelPsi): Illinois false position
+  let a = 0;
+  let fa = accelAt(k, 0);
+  let b = accelPsi;
+  let fb = accel;
+  let side = 0;
+  let x = b;
+  for (let i = 0; i < 60 && b - a > 1e-12; i++) {
+    x = (a * fb - b * fa) / (fb - fa);
+    const fx = accelAt(k, x);
+    if (fx === 0) break;
+    if (fx < 0) {
+      a = x;
+      fa = fx;
+      if (side === -1) fb /= 2;
+      side = -1;
+    } else {
+      b = x;
+      fb = fx;
+      if (side === 1) fa /= 2;
+      side = 1;
+    }
+  }
+  kernel(k, x);
+  return { accel, accelPsi, speed: -(K[1] ?? 0), speedPsi: x };
+}
+
+/** Unchecked kernel of synthesizeLobe; throws CalcInputError when no smooth lobe fits. */
+export function synthesizeLobeRaw(spec: LobeSpec, prefix?: string): LobeShape {
   const { duration050, advertisedDuration, advertisedHeight, lobeLift } = spec;
   const a = advertisedDuration / 2;
   const b = duration050 / 2;
-  const xi1 = lawInverseRaw(law, advertisedHeight / lobeLift);
-  const xi2 = lawInverseRaw(law, CHECKING_HEIGHT_050 / lobeLift);
-  const delta = logit(xi2) - logit(xi1);
-  const spread = Math.log(a / b);
+  const c1 = 1 - Math.cbrt(advertisedHeight / lobeLift);
+  const c2 = 1 - Math.cbrt(CHECKING_HEIGHT_050 / lobeLift);
+  const e = Math.exp(logit(c1) - logit(c2));
+  const where = (): string => `${advertisedDuration}° at ${advertisedHeight} in beside ${duration050}° at 0.050 in for a ${lobeLift} in lobe`;
   const tooLong = (): CalcInputError =>
     new CalcInputError(
       fieldPath(prefix, 'advertisedDuration'),
-      `${advertisedDuration}° at ${advertisedHeight} in is too long beside ${duration050}° at 0.050 in for a ` +
-        `${lobeLift} in lobe: no smooth lobe fits. Check the sheet's durations and heights` +
-        (law === 'poly4567' ? ', or use the 3-4-5 law, which allows a longer ramp' : ''),
+      `${where()}: the advertised duration is too long for the difference in height (the ramp would pass ${RAMP_MAX}°), ` +
+        `so no smooth lobe fits. Check advertisedDuration, duration050 and advertisedHeight`,
       advertisedDuration,
     );
-  if (!(delta > spread)) throw tooLong();
-  const e = Math.exp(delta);
-  let halfEvent = (a * b * (e - 1)) / (b * e - a);
-  let q = 1;
-  if (!(halfEvent <= a + RAMP_MAX)) {
-    halfEvent = a + RAMP_MAX;
-    const t1 = 1 - a / halfEvent;
-    const t2 = 1 - b / halfEvent;
-    q = (delta - spread) / Math.log(t2 / t1);
-    if (!(q >= Q_MIN)) throw tooLong();
+  if (!(e * b * b > a * a)) throw tooLong();
+  const phi2 = (a * a * b * b * (e - 1)) / (e * b * b - a * a);
+  const halfEvent = Math.sqrt(phi2);
+  if (!(halfEvent - a <= RAMP_MAX)) throw tooLong();
+  const k = Math.exp(logit((a * a) / phi2) - logit(c1));
+  if (!(k <= WARP_MAX)) {
+    throw new CalcInputError(
+      fieldPath(prefix, 'advertisedDuration'),
+      `${where()}: advertisedDuration and duration050 are too close for the difference in height, ` +
+        `so the lobe would need its hardest deceleration on the flanks instead of at the nose. Check both durations and advertisedHeight`,
+      advertisedDuration,
+    );
   }
-  const t1 = 1 - a / halfEvent;
-  const lnK = q * Math.log(t1) - Math.log(1 - t1) - logit(xi1);
+  const scale = lobeLift / phi2;
+  const peakDeceleration = (-6 * lobeLift) / (k * phi2);
+  const peaks = lobePeaks(k);
+  const peakAcceleration = peaks.accel * scale;
+  if (!(peakAcceleration <= LOBE_ACCELERATION_MAX && -peakDeceleration <= LOBE_ACCELERATION_MAX)) {
+    const worst = Math.max(peakAcceleration, -peakDeceleration);
+    throw new CalcInputError(
+      fieldPath(prefix, 'lobeLift'),
+      `${where()}: the lobe would need ${worst.toExponential(2)} in/crank°² of tappet acceleration, past the ` +
+        `${LOBE_ACCELERATION_MAX} in/crank°² a real lobe stays under. Check lobeLift, duration050 and advertisedDuration`,
+      lobeLift,
+    );
+  }
   return {
-    law,
+    law: LOBE_LAW,
     lobeLift,
     halfEvent,
     seatToSeat: 2 * halfEvent,
-    warpExponent: q,
-    warpScale: Math.exp(lnK),
+    warpScale: k,
     duration050,
     advertisedDuration,
     advertisedHeight,
+    peakVelocity: (peaks.speed * lobeLift) / halfEvent,
+    peakAcceleration,
+    peakAccelerationAt: peaks.accelPsi * halfEvent,
+    peakDeceleration,
+    peakDecelerationAt: 0,
   };
 }
 
 /**
- * Fit a symmetric lobe to a sheet's lobe lift and its durations at both
- * checking heights. Throws CalcInputError if the numbers cannot describe one
- * smooth lobe (for example an advertised duration far too long).
+ * Fit a symmetric single-dwell lobe to a sheet's lobe lift and its durations at
+ * both checking heights (shape `{ duration050, advertisedDuration, advertisedHeight, lobeLift }`,
+ * crank degrees and inches of tappet lift). Throws CalcInputError naming the
+ * field if the numbers cannot describe one smooth lobe.
  */
-export function synthesizeLobe(input: LobeSpec & { law?: MotionLawName }, prefix?: string): LobeShape {
-  const spec = requireLobeSpec(input, prefix);
-  const law = requireMotionLaw(fieldPath(prefix, 'law'), input.law ?? DEFAULT_MOTION_LAW);
-  return synthesizeLobeRaw(spec, law, prefix);
+export function synthesizeLobe(input: LobeSpec, prefix?: string): LobeShape {
+  return synthesizeLobeRaw(requireLobeSpec(input, prefix), prefix);
+}
+
+/**
+ * Crank degrees from the lobe centre at which tappet lift falls to `height`
+ * inches (0 < height < lobeLift): the closed-form inverse of the lobe.
+ */
+export function offsetAtLiftRaw(shape: LobeShape, height: number): number {
+  const r = Math.cbrt(height / shape.lobeLift);
+  const k = shape.warpScale;
+  // lift = L·g(m)³, so g(m) = r  ⇔  m = r / (k − (k − 1)·r)
+  const m = r / (k - (k - 1) * r);
+  return shape.halfEvent * Math.sqrt(Math.max(0, 1 - m));
 }
 
 export interface LobePoint {
@@ -166,52 +313,8 @@ export interface LobePoint {
   acceleration: number;
 }
 
-
 /** Unchecked: evaluate a shape at `offset` crank degrees from its centre into `out`. */
 export function evalLobeInto(shape: LobeShape, offset: number, out: LobePoint): LobePoint {
-  return evalLobeWith(LAW_EVALUATORS[shape.law], shape, offset, out);
-}
-
-// Scratch for the kernel (typed arrays keep doubles unboxed: no allocation in hot loops).
-const LAW = new Float64Array(3);
-const KERNEL = new Float64Array(3);
-
-/**
- * Kernel: tappet lift, velocity (closing flank) and acceleration at
- * |offset| = u < halfEvent, left in KERNEL[0], KERNEL[1], KERNEL[2].
- */
-function lobeKernel(law: LawEvaluator, lobeLift: number, invPhi: number, k: number, q: number, u: number): void {
-  const tau = 1 - u * invPhi;
-  let w: number;
-  let w1: number;
-  let w2: number;
-  if (q === 1) {
-    const id = 1 / (k + (1 - k) * tau);
-    w = tau * id;
-    w1 = k * id * id;
-    w2 = -2 * k * (1 - k) * id * id * id;
-  } else {
-    const n = Math.pow(tau, q);
-    const n1 = (q * n) / tau;
-    const n2 = ((q - 1) * n1) / tau;
-    const dn = n + k * (1 - tau);
-    const idn = 1 / dn;
-    const uu = n1 * (1 - tau) + n;
-    const u1 = n2 * (1 - tau);
-    w = n * idn;
-    w1 = k * uu * idn * idn;
-    w2 = k * (u1 * dn - 2 * uu * (n1 - k)) * idn * idn * idn;
-  }
-  law(w, LAW);
-  const s = LAW[0] ?? 0;
-  const v = LAW[1] ?? 0;
-  const a = LAW[2] ?? 0;
-  KERNEL[0] = lobeLift * s;
-  KERNEL[1] = -lobeLift * v * w1 * invPhi;
-  KERNEL[2] = lobeLift * (a * w1 * w1 + v * w2) * invPhi * invPhi;
-}
-
-function evalLobeWith(law: LawEvaluator, shape: LobeShape, offset: number, out: LobePoint): LobePoint {
   const u = offset < 0 ? -offset : offset;
   if (u >= shape.halfEvent) {
     out.lift = 0;
@@ -219,11 +322,13 @@ function evalLobeWith(law: LawEvaluator, shape: LobeShape, offset: number, out: 
     out.acceleration = 0;
     return out;
   }
-  lobeKernel(law, shape.lobeLift, 1 / shape.halfEvent, shape.warpScale, shape.warpExponent, u);
-  const vel = KERNEL[1] ?? 0;
-  out.lift = KERNEL[0] ?? 0;
+  const invPhi = 1 / shape.halfEvent;
+  kernel(shape.warpScale, u * invPhi);
+  const L = shape.lobeLift;
+  const vel = L * (K[1] ?? 0) * invPhi; // d/d|φ|: negative on the way down from the nose
+  out.lift = L * (K[0] ?? 0);
   out.velocity = offset > 0 ? vel : offset < 0 ? -vel : 0;
-  out.acceleration = KERNEL[2] ?? 0;
+  out.acceleration = L * (K[2] ?? 0) * invPhi * invPhi;
   return out;
 }
 
@@ -232,6 +337,10 @@ function evalLobeWith(law: LawEvaluator, shape: LobeShape, offset: number, out: 
  * lobe centre (negative = opening flank). Inches, in/deg, in/deg².
  */
 export function lobeLiftAt(shape: LobeShape, offset: number): LobePoint {
+  requireObject('shape', shape);
+  requirePositive('shape.halfEvent', shape.halfEvent, 'crank degrees');
+  requirePositive('shape.lobeLift', shape.lobeLift, 'in');
+  requireInRange('shape.warpScale', shape.warpScale, { min: 0, max: WARP_MAX, minOpen: true });
   requireFinite('offset', offset);
   return evalLobeInto(shape, offset, { lift: 0, velocity: 0, acceleration: 0 });
 }
@@ -258,7 +367,7 @@ export interface LiftCurve extends CurveGrid {
   maxLift: number;
   /** Largest valve speed, inches per crank degree. */
   peakVelocity: number;
-  /** Largest positive (opening-flank) acceleration, inches per crank degree². */
+  /** Largest positive (flank) acceleration, inches per crank degree². */
   peakAcceleration: number;
   /** Most negative (nose) acceleration, inches per crank degree² (≤ 0). */
   peakDeceleration: number;
@@ -293,8 +402,6 @@ function zeroRange(out: CurveBuffers, from: number, to: number): void {
   out.acceleration.fill(0, from, to + 1);
 }
 
-const LAW_CODE: Readonly<Record<MotionLawName, number>> = { cycloidal: 0, poly345: 1, poly4567: 2 };
-
 /**
  * Hot loop: valve lift, velocity and acceleration for grid indices i0..i1,
  * where index i sits u = u0 + (i − i0)·du crank degrees from the lobe centre
@@ -302,11 +409,9 @@ const LAW_CODE: Readonly<Record<MotionLawName, number>> = { cycloidal: 0, poly34
  * Everything is inlined: this runs ~650 times per analysis.
  */
 function fillFlank(
-  code: number,
   L: number,
   invPhi: number,
   k: number,
-  q: number,
   rockerRatio: number,
   lash: number,
   i0: number,
@@ -316,79 +421,39 @@ function fillFlank(
   out: CurveBuffers,
 ): void {
   const { lift, velocity, acceleration } = out;
-  const flank = du < 0 ? 1 : -1; // closing flank: lift falls as the crank turns
+  const flank = du < 0 ? -1 : 1; // d|φ|/dφ: +1 on the closing flank
   const step = du < 0 ? -du : du;
-  const oneMinusK = 1 - k;
+  const km1 = k - 1;
+  const rl = rockerRatio * L;
+  const vScale = flank * rl * invPhi;
+  const aScale = rl * invPhi * invPhi;
   for (let i = i0; i <= i1; i++) {
-    const u = i0 === i1 ? u0 : u0 + (i - i0) * step;
-    const tau = 1 - u * invPhi;
-    if (tau <= 0) {
+    const u = u0 + (i - i0) * step;
+    const psi = u * invPhi;
+    if (psi >= 1) {
       lift[i] = 0;
       velocity[i] = 0;
       acceleration[i] = 0;
       continue;
     }
-    let w: number;
-    let w1: number;
-    let w2: number;
-    if (q === 1) {
-      const id = 1 / (k + oneMinusK * tau);
-      w = tau * id;
-      w1 = k * id * id;
-      w2 = -2 * k * oneMinusK * id * id * id;
-    } else {
-      const n = Math.pow(tau, q);
-      const n1 = (q * n) / tau;
-      const n2 = ((q - 1) * n1) / tau;
-      const dn = n + k * (1 - tau);
-      const idn = 1 / dn;
-      const uu = n1 * (1 - tau) + n;
-      w = n * idn;
-      w1 = k * uu * idn * idn;
-      w2 = k * (n2 * (1 - tau) * dn - 2 * uu * (n1 - k)) * idn * idn * idn;
-    }
-    let s: number;
-    let v: number;
-    let a: number;
-    if (code === 1) {
-      const x = w;
-      const xx = x * (1 - x);
-      s = x * x * x * (10 + x * (-15 + 6 * x));
-      v = 30 * xx * xx;
-      a = x * (60 + x * (-180 + 120 * x));
-    } else if (code === 2) {
-      const x = w;
-      const x2 = x * x;
-      const xx = x * (1 - x);
-      s = x2 * x2 * (35 + x * (-84 + x * (70 - 20 * x)));
-      v = 140 * xx * xx * xx;
-      a = x2 * (420 + x * (-1680 + x * (2100 - 840 * x)));
-    } else {
-      const t = TWO_PI * w;
-      const sn = Math.sin(t);
-      s = t < 0.1 ? cycloidalSmall(t) : w - sn / TWO_PI;
-      v = 1 - Math.cos(t);
-      a = TWO_PI * sn;
-    }
-    const valve = rockerRatio * L * s - lash;
+    const m = 1 - psi * psi;
+    const iD = 1 / (1 + km1 * m);
+    const g = k * m * iD;
+    const gm = k * iD * iD;
+    const gp = -2 * psi * gm;
+    const gpp = -8 * k * km1 * psi * psi * iD * iD * iD - 2 * gm;
+    const g2 = g * g;
+    const valve = rl * g2 * g - lash;
     if (valve > 0) {
       lift[i] = valve;
-      velocity[i] = flank * rockerRatio * L * v * w1 * invPhi;
-      acceleration[i] = rockerRatio * L * (a * w1 * w1 + v * w2) * invPhi * invPhi;
+      velocity[i] = vScale * 3 * g2 * gp;
+      acceleration[i] = aScale * (6 * g * gp * gp + 3 * g2 * gpp);
     } else {
       lift[i] = 0;
       velocity[i] = 0;
       acceleration[i] = 0;
     }
   }
-}
-
-const TWO_PI = 2 * Math.PI;
-
-/** (t − sin t)/2π by series for small t (same as the cycloidal law in motion.ts). */
-function cycloidalSmall(t: number): number {
-  const t2 = t * t;
-  return (t * t2 * (1 / 6 - t2 * (1 / 120 - t2 / 5040))) / TWO_PI;
 }
 
 /**
@@ -412,58 +477,27 @@ export function sampleValveCurveRaw(
   zeroRange(out, dirty.lo, Math.min(dirty.hi, lo - 1));
   zeroRange(out, Math.max(dirty.lo, hi + 1), dirty.hi);
   const L = shape.lobeLift;
-  const phi = shape.halfEvent;
-  const invPhi = 1 / phi;
+  const invPhi = 1 / shape.halfEvent;
   const k = shape.warpScale;
-  const q = shape.warpExponent;
-  let peakVelocity = 0;
-  let peakAcceleration = 0;
-  let peakDeceleration = 0;
   // The lobe is symmetric: when the centre sits on a grid point, evaluate the
   // closing flank once and mirror it onto the opening flank (velocity flips).
   const centreIndex = (centerline - start) / step;
   const ic = Math.round(centreIndex);
-  const code = LAW_CODE[shape.law];
   const mirrored = Math.abs(centreIndex - ic) < 1e-9 && ic >= lo && ic <= hi;
   if (mirrored) {
     const top = Math.min(hi, ic + Math.max(ic - lo, hi - ic));
-    fillFlank(code, L, invPhi, k, q, rockerRatio, lash, ic, top, 0, step, out);
-    const bottom = lo;
-    for (let i = ic - 1; i >= bottom; i--) {
-      const m = 2 * ic - i;
-      if (m <= top) {
-        lift[i] = lift[m] ?? 0;
-        velocity[i] = -(velocity[m] ?? 0);
-        acceleration[i] = acceleration[m] ?? 0;
-      } else {
-        fillFlank(code, L, invPhi, k, q, rockerRatio, lash, i, i, (ic - i) * step, -step, out);
-      }
+    fillFlank(L, invPhi, k, rockerRatio, lash, ic, top, 0, step, out);
+    const m0 = Math.min(ic - lo, top - ic);
+    for (let d = 1; d <= m0; d++) {
+      lift[ic - d] = lift[ic + d] ?? 0;
+      velocity[ic - d] = -(velocity[ic + d] ?? 0);
+      acceleration[ic - d] = acceleration[ic + d] ?? 0;
     }
+    for (let i = ic - m0 - 1; i >= lo; i--) fillFlank(L, invPhi, k, rockerRatio, lash, i, i, (ic - i) * step, -step, out);
   } else {
     for (let i = lo; i <= hi; i++) {
       const offset = start + i * step - centerline;
-      // one point at a time; the sign of dOffset/di carries the flank direction
-      fillFlank(code, L, invPhi, k, q, rockerRatio, lash, i, i, offset < 0 ? -offset : offset, offset < 0 ? -1 : 1, out);
-    }
-  }
-  // peaks over the event (one flank is enough when it was mirrored)
-  const peakFrom = mirrored ? ic : lo;
-  for (let i = peakFrom; i <= hi; i++) {
-    const v = velocity[i] ?? 0;
-    const a = acceleration[i] ?? 0;
-    const speed = v < 0 ? -v : v;
-    if (speed > peakVelocity) peakVelocity = speed;
-    if (a > peakAcceleration) peakAcceleration = a;
-    if (a < peakDeceleration) peakDeceleration = a;
-  }
-  if (mirrored) {
-    // points on the opening flank beyond the mirror of the closing flank
-    for (let i = lo; i < 2 * ic - hi; i++) {
-      const v = velocity[i] ?? 0;
-      const a = acceleration[i] ?? 0;
-      if (v > peakVelocity) peakVelocity = v;
-      if (a > peakAcceleration) peakAcceleration = a;
-      if (a < peakDeceleration) peakDeceleration = a;
+      fillFlank(L, invPhi, k, rockerRatio, lash, i, i, offset < 0 ? -offset : offset, offset < 0 ? -1 : 1, out);
     }
   }
   out.written = hi >= lo ? { lo, hi } : { lo: 0, hi: -1 };
@@ -476,14 +510,14 @@ export function sampleValveCurveRaw(
     acceleration,
     centerline,
     maxLift: rockerRatio * shape.lobeLift - lash,
-    peakVelocity,
-    peakAcceleration,
-    peakDeceleration,
+    // exact peaks of the lobe (the valve is open wherever they fall: they lie well above the lash)
+    peakVelocity: rockerRatio * shape.peakVelocity,
+    peakAcceleration: rockerRatio * shape.peakAcceleration,
+    peakDeceleration: rockerRatio * shape.peakDeceleration,
   };
 }
 
 export interface SynthesizeCurveInput extends LobeSpec {
-  law?: MotionLawName;
   /** Lobe centre, crank degrees ATDC overlap (ICL for intake, −ECL for exhaust). */
   centerline: number;
   /** Rocker ratio; 1 gives tappet lift. */
@@ -497,13 +531,17 @@ export interface SynthesizeCurveInput extends LobeSpec {
 /** The analysis grid: a whole four-stroke cycle centred on overlap TDC at 0.5° steps. */
 export const CYCLE_GRID: CurveGrid = { start: -360, step: 0.5, count: 1441 };
 
-/** Check a sampling grid. */
+/** Most samples any grid or table may have (0.05° steps over a whole four-stroke cycle). */
+export const GRID_MAX = 14401;
+
+/** Check a sampling grid: finite start, positive step, 2 to GRID_MAX samples. */
 export function requireGrid(grid: CurveGrid, prefix?: string): CurveGrid {
-  return {
-    start: requireFinite(fieldPath(prefix, 'start'), grid.start),
-    step: requirePositive(fieldPath(prefix, 'step'), grid.step, 'crank degrees'),
-    count: requireInteger(fieldPath(prefix, 'count'), grid.count, 2),
-  };
+  requireObject(prefix ?? 'grid', grid);
+  const count = requireInteger(fieldPath(prefix, 'count'), grid.count, 2);
+  if (count > GRID_MAX) throw new CalcInputError(fieldPath(prefix, 'count'), `must be at most ${GRID_MAX} samples (got ${count})`, count);
+  const start = requireInRange(fieldPath(prefix, 'start'), grid.start, { min: -1e4, max: 1e4, unit: 'degrees' });
+  const step = requireInRange(fieldPath(prefix, 'step'), grid.step, { min: 0, max: 360, minOpen: true, unit: 'degrees' });
+  return { start, step, count };
 }
 
 /**

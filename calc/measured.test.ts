@@ -128,3 +128,38 @@ describe('findWornLobes', () => {
     expect(() => findWornLobes({ lobes: [{ id: 'a', maxLift: 0.3 }, { id: 'b', maxLift: 0.3 }], threshold: 0 })).toThrow(/threshold/);
   });
 });
+
+describe('findWornLobes against the stock lobe lift (finding 4)', () => {
+  // Demo-like data (invented): every exhaust lobe worn about 0.010 in below a 0.340 in stock lobe.
+  const allWorn = [
+    { id: '1E', maxLift: 0.3301 },
+    { id: '2E', maxLift: 0.3298 },
+    { id: '3E', maxLift: 0.3181 },
+    { id: '4E', maxLift: 0.3302 },
+  ];
+
+  it('regression: when most lobes are worn, the stock lift still flags them', () => {
+    // Against siblings alone (the old rule) only 3E stands out; the rest look alike.
+    expect(findWornLobes({ lobes: allWorn, threshold: 0.005 }).worn).toEqual(['3E']);
+    const r = findWornLobes({ lobes: allWorn, threshold: 0.005, stockLobeLift: 0.34 });
+    expect(r.worn).toEqual(['1E', '2E', '3E', '4E']);
+    expect(r.stockLobeLift).toBe(0.34);
+  });
+
+  it('gives the damage depth the cleanup uses: the larger shortfall, never below 0 (hand-worked)', () => {
+    const r = findWornLobes({ lobes: allWorn, threshold: 0.005, stockLobeLift: 0.34 });
+    const row = (id: string) => r.lobes.find((l) => l.id === id);
+    expect(row('3E')?.stockShortfall).toBeCloseTo(0.0219, 12); // 0.340 − 0.3181
+    expect(row('3E')?.damageDepth).toBeCloseTo(0.0219, 12);
+    expect(row('1E')?.damageDepth).toBeCloseTo(0.0099, 12); // 0.340 − 0.3301 beats 0.3301 − 0.3301 (siblings)
+    const sound = findWornLobes({ lobes: [{ id: '1I', maxLift: 0.34 }], threshold: 0.005, stockLobeLift: 0.333 });
+    expect(sound.lobes[0]?.damageDepth).toBe(0);
+    expect(sound.worn).toEqual([]);
+  });
+
+  it('refuses a bad stock lift and non-object arguments naming the field', () => {
+    expect(() => findWornLobes({ lobes: allWorn, threshold: 0.005, stockLobeLift: Number.NaN })).toThrow(/stockLobeLift/);
+    expect(() => findWornLobes(undefined as never)).toThrow(CalcInputError);
+    expect(() => findWornLobes({ lobes: [null as never, ...allWorn], threshold: 0.005 })).toThrow(/lobes\[0\]/);
+  });
+});

@@ -4,8 +4,8 @@
  * overlap), lift in inches (tappet or valve, as long as it is consistent).
  */
 import { CHECKING_HEIGHT_050 } from './constants';
-import { CalcInputError, fieldPath, requireFinite, requireNonNegative, requirePositive } from './errors';
-import { type CurveGrid, type LiftCurve, requireGrid } from './lift-curve';
+import { CalcInputError, fieldPath, requireInRange, requireNonNegative, requireObject, requirePositive } from './errors';
+import { GRID_MAX, type CurveGrid, type LiftCurve, requireGrid } from './lift-curve';
 
 export interface LiftReading {
   /** Crank degrees. */
@@ -16,13 +16,16 @@ export interface LiftReading {
 
 /** Validate a table and return its points sorted by angle. */
 export function requireLiftTable(points: readonly LiftReading[], field = 'points'): LiftReading[] {
-  if (!Array.isArray(points) || points.length < 3) {
-    throw new CalcInputError(field, 'needs at least 3 readings of angle and lift', points);
+  if (!Array.isArray(points) || points.length < 3 || points.length > GRID_MAX) {
+    throw new CalcInputError(field, `needs 3 to ${GRID_MAX} readings of angle and lift`, points);
   }
-  const sorted = points.map((p, i) => ({
-    angle: requireFinite(`${field}[${i}].angle`, p.angle),
-    lift: requireFinite(`${field}[${i}].lift`, p.lift),
-  }));
+  const sorted = points.map((p: LiftReading, i) => {
+    requireObject(`${field}[${i}]`, p);
+    return {
+      angle: requireInRange(`${field}[${i}].angle`, p.angle, { min: -1e4, max: 1e4, unit: 'degrees' }),
+      lift: requireInRange(`${field}[${i}].lift`, p.lift, { min: -2, max: 2, unit: 'in' }),
+    };
+  });
   sorted.sort((x, y) => x.angle - y.angle);
   for (let i = 1; i < sorted.length; i++) {
     const prev = sorted[i - 1];
@@ -130,6 +133,7 @@ export interface LiftTableInput {
 
 /** Max lift, centreline and durations at any heights from a measured table. */
 export function analyzeLiftTable(input: LiftTableInput): LiftTableAnalysis {
+  requireObject('input', input);
   const table = requireLiftTable(input.points);
   const peak = peakIndex(table);
   const top = at(table, peak);
@@ -159,6 +163,7 @@ export function analyzeLiftTable(input: LiftTableInput): LiftTableAnalysis {
  * so it can be drawn and swept like a synthesised curve.
  */
 export function liftCurveFromTable(input: { points: readonly LiftReading[]; grid: CurveGrid; rockerRatio?: number; lash?: number }): LiftCurve {
+  requireObject('input', input);
   const table = requireLiftTable(input.points);
   const grid = requireGrid(input.grid, 'grid');
   const ratio = requirePositive('rockerRatio', input.rockerRatio ?? 1);
@@ -221,7 +226,14 @@ export interface WornLobeRow extends LobeMaxLift {
   siblingMedian: number;
   /** siblingMedian − maxLift, inches (positive = lower than its siblings). */
   shortfall: number;
-  /** True when shortfall exceeds the threshold. */
+  /** The sheet's stock lobe lift minus maxLift, inches (positive = below stock); null without a stock lift. */
+  stockShortfall: number | null;
+  /**
+   * How deep the damage reaches, inches: the larger of the two shortfalls, never
+   * below 0. This is what the cleanup cut must remove (regrindCleanup).
+   */
+  damageDepth: number;
+  /** True when either shortfall exceeds the threshold. */
   worn: boolean;
 }
 
@@ -231,6 +243,8 @@ export interface WornLobeResult {
   worn: string[];
   /** Threshold used, inches. */
   threshold: number;
+  /** Stock lobe lift compared with, inches, or null. */
+  stockLobeLift: number | null;
 }
 
 function median(values: number[]): number {
@@ -240,21 +254,55 @@ function median(values: number[]): number {
   return v.length % 2 === 1 ? hi : ((v[mid - 1] ?? hi) + hi) / 2;
 }
 
+/** Most lobes one comparison takes (16 cylinders × 2 kinds, as the lobe table allows, with room). */
+export const WORN_LOBES_MAX = 64;
+
 /**
  * Flag lobes whose max lift is more than `threshold` inches below the median
- * of their siblings (the other lobes of the same kind on the same cam).
+ * of their siblings (the other lobes of the same kind on the same cam) or,
+ * when `stockLobeLift` is given, below the sheet's stock lobe lift, so a cam
+ * whose lobes are all worn is still caught. Argument:
+ * `{ lobes: { id, maxLift }[], threshold, stockLobeLift? }`, inches of tappet lift.
+ * With a stock lift one lobe is enough; without it at least two are needed.
  */
-export function findWornLobes(input: { lobes: readonly LobeMaxLift[]; threshold: number }, prefix?: string): WornLobeResult {
+export function findWornLobes(
+  input: { lobes: readonly LobeMaxLift[]; threshold: number; stockLobeLift?: number },
+  prefix?: string,
+): WornLobeResult {
+  requireObject(prefix ?? 'input', input);
   const threshold = requirePositive(fieldPath(prefix, 'threshold'), input.threshold, 'in');
-  if (!Array.isArray(input.lobes) || input.lobes.length < 2) {
-    throw new CalcInputError(fieldPath(prefix, 'lobes'), 'needs at least 2 lobes to compare', input.lobes);
+  const stock =
+    input.stockLobeLift === undefined
+      ? null
+      : requireInRange(fieldPath(prefix, 'stockLobeLift'), input.stockLobeLift, { min: 0, max: 2, minOpen: true, unit: 'in' });
+  const least = stock === null ? 2 : 1;
+  if (!Array.isArray(input.lobes) || input.lobes.length < least || input.lobes.length > WORN_LOBES_MAX) {
+    throw new CalcInputError(
+      fieldPath(prefix, 'lobes'),
+      stock === null ? `needs 2 to ${WORN_LOBES_MAX} lobes to compare (or a stock lobe lift)` : `needs 1 to ${WORN_LOBES_MAX} lobes`,
+      input.lobes,
+    );
   }
-  const lifts = input.lobes.map((l, i) => requirePositive(fieldPath(prefix, `lobes[${i}].maxLift`), l.maxLift, 'in'));
+  const lifts = input.lobes.map((l, i) => {
+    requireObject(fieldPath(prefix, `lobes[${i}]`), l);
+    return requireInRange(fieldPath(prefix, `lobes[${i}].maxLift`), l.maxLift, { min: 0, max: 2, minOpen: true, unit: 'in' });
+  });
   const lobes = input.lobes.map((l, i) => {
     const maxLift = lifts[i] ?? 0;
-    const siblingMedian = median(lifts.filter((_, j) => j !== i));
+    const others = lifts.filter((_, j) => j !== i);
+    const siblingMedian = others.length > 0 ? median(others) : maxLift;
     const shortfall = siblingMedian - maxLift;
-    return { id: String(l.id), maxLift, siblingMedian, shortfall, worn: shortfall > threshold };
+    const stockShortfall = stock === null ? null : stock - maxLift;
+    const damageDepth = Math.max(0, shortfall, stockShortfall ?? 0);
+    return {
+      id: String(l.id),
+      maxLift,
+      siblingMedian,
+      shortfall,
+      stockShortfall,
+      damageDepth,
+      worn: shortfall > threshold || (stockShortfall !== null && stockShortfall > threshold),
+    };
   });
-  return { lobes, worn: lobes.filter((l) => l.worn).map((l) => l.id), threshold };
+  return { lobes, worn: lobes.filter((l) => l.worn).map((l) => l.id), threshold, stockLobeLift: stock };
 }

@@ -13,7 +13,7 @@
  * gap along the stem by d·cos α. Inches and crank degrees ATDC overlap.
  */
 import { RAD_PER_DEG } from './constants';
-import { CalcInputError, fieldPath, requireFinite, requireInRange, requireNonNegative } from './errors';
+import { CalcInputError, fieldPath, requireFinite, requireInRange, requireNonNegative, requireObject } from './errors';
 import { pistonDepthRaw, requireCrank } from './geometry';
 
 export interface PtvBaseline {
@@ -73,6 +73,7 @@ export interface CheckedBaseline {
 
 /** Validate a baseline measurement. */
 export function requireBaseline(b: PtvBaseline, prefix?: string): CheckedBaseline {
+  requireObject(prefix ?? 'baseline', b);
   return {
     clearance: requireInRange(fieldPath(prefix, 'clearance'), b.clearance, { min: 0, max: 2, unit: 'in' }),
     crankAngle: requireInRange(fieldPath(prefix, 'crankAngle'), b.crankAngle ?? 0, { min: -180, max: 180 }),
@@ -131,6 +132,7 @@ export function baselineOffsetRaw(stroke: number, rodLength: number, cosAngle: n
  * baseline and the new valve lift curve. Reports the minimum and where it is.
  */
 export function ptvSweep(input: PtvSweepInput, prefix?: string): PtvSweep {
+  requireObject(prefix ?? 'input', input);
   const { stroke, rodLength } = requireCrank(input, prefix);
   const angle = requireValveAngle(fieldPath(prefix, 'valveAngle'), input.valveAngle);
   const baseline = requireBaseline(input.baseline, fieldPath(prefix, 'baseline'));

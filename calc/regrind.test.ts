@@ -1,6 +1,7 @@
 import * as fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { preloadAfterRegrind, pushrodChangeForRegrind } from './regrind';
+import { CalcInputError } from './errors';
+import { lifterSideOfCut, preloadAfterRegrind, pushrodChangeForRegrind, regrindCleanup } from './regrind';
 
 /** Height of a roller follower's axle above the cam centre: base-circle radius + roller radius. */
 function rollerAxleHeight(baseCircleDiameter: number, rollerDiameter: number): number {
@@ -66,5 +67,73 @@ describe('preloadAfterRegrind', () => {
   it('rejects a regrind with a larger base circle', () => {
     expect(() => preloadAfterRegrind({ originalPreload: 0.04, stockBaseCircle: 1.2, regrindBaseCircle: 1.26 })).toThrow(/regrindBaseCircle/);
     expect(() => preloadAfterRegrind({ originalPreload: Number.NaN, stockBaseCircle: 1.2, regrindBaseCircle: 1.1 })).toThrow(/originalPreload/);
+  });
+});
+
+describe('regrindCleanup', () => {
+  // Hand-worked (demo data, invented): 3E galled 0.012 in deep, 0.005 in cleanup allowance.
+  const lobes = [
+    { id: '1E', lobeLift: 0.315, damageDepth: 0 },
+    { id: '3E', lobeLift: 0.315, damageDepth: 0.012 },
+  ];
+
+  it('cuts deep enough to clean up the worst lobe: 2 × (0.012 + 0.005) = 0.034 in', () => {
+    const r = regrindCleanup({ lobes, cleanupAllowance: 0.005 });
+    expect(r.cleanupCut).toBeCloseTo(0.034, 15);
+    expect(r.limitingLobe).toBe('3E');
+    expect(r.cut).toBeCloseTo(0.034, 15);
+    expect(r.largestCut).toBeNull();
+    expect(r.cleanupWithinLimit).toBeNull();
+  });
+
+  it('gives the largest lift at a cut: 0.315 + 0.040/2 − 0.012 − 0.005 = 0.318 in', () => {
+    const r = regrindCleanup({ lobes, cleanupAllowance: 0.005, cut: 0.04, largestCut: 0.03 });
+    expect(r.largestLift).toBeCloseTo(0.318, 15);
+    expect(r.largestLiftLobe).toBe('3E');
+    expect(r.cleanupWithinLimit).toBe(false);
+  });
+
+  it('property: a deeper cut never shrinks the largest reachable lift', () => {
+    fc.assert(
+      fc.property(
+        fc.double({ min: 0, max: 0.2, noNaN: true }),
+        fc.double({ min: 0, max: 0.2, noNaN: true }),
+        fc.double({ min: 0, max: 0.05, noNaN: true }),
+        (c1, c2, damage) => {
+          const input = { lobes: [{ id: 'x', lobeLift: 0.3, damageDepth: damage }], cleanupAllowance: 0.005 };
+          const shallow = regrindCleanup({ ...input, cut: Math.min(c1, c2) });
+          const deep = regrindCleanup({ ...input, cut: Math.max(c1, c2) });
+          expect(deep.largestLift).toBeGreaterThanOrEqual(shallow.largestLift);
+        },
+      ),
+    );
+  });
+
+  it('refuses missing lobes and bad numbers naming the field', () => {
+    expect(() => regrindCleanup(undefined as never)).toThrow(CalcInputError);
+    expect(() => regrindCleanup({ lobes: [], cleanupAllowance: 0.005 })).toThrow(/lobes/);
+    expect(() => regrindCleanup({ lobes: [{ id: 'a', lobeLift: 0.3, damageDepth: -1 }], cleanupAllowance: 0.005 })).toThrow(/lobes\[0\]\.damageDepth/);
+    expect(() => regrindCleanup({ lobes, cleanupAllowance: Number.NaN })).toThrow(/cleanupAllowance/);
+  });
+});
+
+describe('lifterSideOfCut', () => {
+  it('drops the lifter by half the cut and says how far stock pushrods go (hand-worked)', () => {
+    // 0.040 in cut: drop 0.020, preload 0.045 − 0.020 = 0.025, pushrod 7.400 + 0.020 = 7.420;
+    // with a 0.020 in minimum preload the stock pushrods allow 2 × (0.045 − 0.020) = 0.050 in.
+    const r = lifterSideOfCut({ cut: 0.04, originalPreload: 0.045, minimumPreload: 0.02, pushrodLength: 7.4, plungerTravel: 0.12 });
+    expect(r.lifterDrop).toBeCloseTo(0.02, 12);
+    expect(r.preloadLeft).toBeCloseTo(0.025, 12);
+    expect(r.restoredPushrodLength).toBeCloseTo(7.42, 12);
+    expect(r.largestCutStockPushrods).toBeCloseTo(0.05, 12);
+    expect(r.stockPushrodsOk).toBe(true);
+    expect(r.plungerTravelLeft).toBeCloseTo(0.095, 12);
+    expect(lifterSideOfCut({ cut: 0.06, originalPreload: 0.045, minimumPreload: 0.02 }).stockPushrodsOk).toBe(false);
+  });
+
+  it('refuses bad arguments naming the field', () => {
+    expect(() => lifterSideOfCut(null as never)).toThrow(CalcInputError);
+    expect(() => lifterSideOfCut({ cut: -0.01, originalPreload: 0.045, minimumPreload: 0.02 })).toThrow(/^cut/);
+    expect(() => lifterSideOfCut({ cut: 0.04, originalPreload: Number.NaN, minimumPreload: 0.02 })).toThrow(/originalPreload/);
   });
 });

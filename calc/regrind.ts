@@ -2,7 +2,7 @@
  * Regrind geometry: grinding a lobe back to a smaller base circle drops the
  * lifter, which takes preload off a hydraulic lifter with fixed rockers.
  */
-import { fieldPath, requireFinite, requirePositive, requireThat } from './errors';
+import { CalcInputError, fieldPath, requireFinite, requireInRange, requireObject, requirePositive, requireThat } from './errors';
 
 /** Unchecked kernel of pushrodChangeForRegrind. */
 export function pushrodChangeRaw(baseCircleReduction: number): number {
@@ -15,6 +15,7 @@ export function pushrodChangeRaw(baseCircleReduction: number): number {
  * rides on the base-circle radius, so it drops by half the diameter change.
  */
 export function pushrodChangeForRegrind(input: { baseCircleReduction: number }): number {
+  requireObject('input', input);
   const reduction = requireFinite('baseCircleReduction', input.baseCircleReduction);
   requireThat(reduction >= 0, 'baseCircleReduction', 'must be 0 or more: a regrind cannot grow the base circle', reduction);
   requireThat(reduction < 1, 'baseCircleReduction', 'must be under 1 in: check it is a diameter change, not a diameter', reduction);
@@ -53,6 +54,7 @@ export interface PreloadResult {
 
 /** Preload after a regrind and the pushrod change that restores it. */
 export function preloadAfterRegrind(input: PreloadInput, prefix?: string): PreloadResult {
+  requireObject(prefix ?? 'input', input);
   const original = requireFinite(fieldPath(prefix, 'originalPreload'), input.originalPreload);
   requireThat(original >= 0 && original < 0.25, fieldPath(prefix, 'originalPreload'), 'must be between 0 and 0.25 in', original);
   const stock = requirePositive(fieldPath(prefix, 'stockBaseCircle'), input.stockBaseCircle, 'in');
@@ -79,5 +81,178 @@ export function preloadAfterRegrind(input: PreloadInput, prefix?: string): Prelo
     restoredPushrodLength: pushrod === null ? null : pushrod + lifterDrop,
     plungerTravelLeft: travel === null ? null : travel - Math.max(0, newPreload),
     withinPlungerTravel: travel === null ? null : newPreload > 0 && newPreload < travel,
+  };
+}
+
+// ---------------------------------------------------------------------------
+// Cleanup: how deep must the cut go, and what lift does it leave room for?
+
+export interface CleanupLobe {
+  /** Caller's label, e.g. "3E". */
+  id: string;
+  /**
+   * The lobe's undamaged lift, inches of tappet lift: the stock spec's lobe
+   * lift, or the measured max lift of an undamaged sibling.
+   */
+  lobeLift: number;
+  /** How far the damage reaches below the lobe's surface, inches (findWornLobes' damageDepth; 0 = sound). */
+  damageDepth: number;
+}
+
+export interface CleanupInput {
+  lobes: readonly CleanupLobe[];
+  /** Metal the shop removes below the deepest damage so the new surface is clean, inches on the radius. */
+  cleanupAllowance: number;
+  /** Base-circle cut on the diameter to report the largest lift at, inches; default: the cleanup cut. */
+  cut?: number;
+  /**
+   * Largest cut on the diameter the hardened layer allows, inches, as the shop
+   * or grinder enters it (it depends on the core's case depth, so it is not a constant).
+   */
+  largestCut?: number;
+}
+
+export interface CleanupResult {
+  /** Smallest base-circle cut on the diameter that cleans up every lobe, inches: 2 × max(damage + allowance). */
+  cleanupCut: number;
+  /** The lobe that sets it. */
+  limitingLobe: string;
+  /** The cut the largest lift is reported at, inches on the diameter. */
+  cut: number;
+  /**
+   * Largest lobe lift that fits inside every lobe at that cut, inches: the
+   * candidate's nose must stay the allowance under the deepest damage,
+   * Rb − cut/2 + L ≤ Rb + L_core − damage − allowance, so L ≤ L_core + cut/2 − damage − allowance
+   * (the nose bound; regrindEnvelope checks the flanks).
+   */
+  largestLift: number;
+  /** The lobe that sets the largest lift. */
+  largestLiftLobe: string;
+  /** The entered largest cut, inches, or null. */
+  largestCut: number | null;
+  /** Whether the cleanup cut is within the entered largest cut; null without one. */
+  cleanupWithinLimit: boolean | null;
+}
+
+/**
+ * Cleanup of a damaged core: the smallest base-circle cut that cleans up every
+ * lobe, the largest lobe lift that fits inside the core at a given cut, and the
+ * entered hardened-layer limit. Argument shape: CleanupInput (inches).
+ */
+export function regrindCleanup(input: CleanupInput, prefix?: string): CleanupResult {
+  requireObject(prefix ?? 'input', input);
+  const lobesField = fieldPath(prefix, 'lobes');
+  if (!Array.isArray(input.lobes) || input.lobes.length < 1 || input.lobes.length > 64) {
+    throw new CalcInputError(lobesField, 'needs 1 to 64 lobes', input.lobes);
+  }
+  const allowance = requireInRange(fieldPath(prefix, 'cleanupAllowance'), input.cleanupAllowance, { min: 0, max: 0.25, unit: 'in' });
+  const lobes = input.lobes.map((l, i) => {
+    const f = `${lobesField}[${i}]`;
+    requireObject(f, l);
+    return {
+      id: String(l.id),
+      lobeLift: requireInRange(`${f}.lobeLift`, l.lobeLift, { min: 0, max: 2, minOpen: true, unit: 'in' }),
+      damageDepth: requireInRange(`${f}.damageDepth`, l.damageDepth, { min: 0, max: 0.5, unit: 'in' }),
+    };
+  });
+  let need = -Infinity;
+  let limitingLobe = '';
+  for (const l of lobes) {
+    const d = l.damageDepth + allowance;
+    if (d > need) {
+      need = d;
+      limitingLobe = l.id;
+    }
+  }
+  const cleanupCut = 2 * need;
+  const cut = input.cut === undefined ? cleanupCut : requireInRange(fieldPath(prefix, 'cut'), input.cut, { min: 0, max: 1, unit: 'in' });
+  let largestLift = Infinity;
+  let largestLiftLobe = '';
+  for (const l of lobes) {
+    const lift = l.lobeLift + cut / 2 - l.damageDepth - allowance;
+    if (lift < largestLift) {
+      largestLift = lift;
+      largestLiftLobe = l.id;
+    }
+  }
+  const largestCut =
+    input.largestCut === undefined ? null : requireInRange(fieldPath(prefix, 'largestCut'), input.largestCut, { min: 0, max: 1, unit: 'in' });
+  return {
+    cleanupCut,
+    limitingLobe,
+    cut,
+    largestLift,
+    largestLiftLobe,
+    largestCut,
+    cleanupWithinLimit: largestCut === null ? null : cleanupCut <= largestCut + 1e-12,
+  };
+}
+
+// ---------------------------------------------------------------------------
+// The lifter side of the cut
+
+export interface LifterCutInput {
+  /** Base-circle cut on the diameter, inches. */
+  cut: number;
+  /** Hydraulic lifter preload with the original cam, inches of plunger travel. */
+  originalPreload: number;
+  /** Smallest preload the shop accepts, inches (the preload check's minimum). */
+  minimumPreload: number;
+  /** Current pushrod length, inches (optional). */
+  pushrodLength?: number;
+  /** The lifter's total plunger travel, inches (optional, from the lifter maker). */
+  plungerTravel?: number;
+}
+
+export interface LifterCutResult {
+  /** How far the lifter drops, inches: half the cut (it rides on the base-circle radius). */
+  lifterDrop: number;
+  /** Preload left with the stock pushrods, inches; ≤ 0 means lash. */
+  preloadLeft: number;
+  /** Pushrod length that restores the original preload, inches (null without the current length). */
+  restoredPushrodLength: number | null;
+  /** Pushrod length increase that restores it, inches. */
+  pushrodIncrease: number;
+  /**
+   * Largest cut on the diameter the stock pushrods allow, inches: the plunger
+   * extends by the lifter drop, so preload falls to the minimum at cut = 2 × (original − minimum).
+   */
+  largestCutStockPushrods: number;
+  /** Whether this cut leaves at least the minimum preload with stock pushrods. */
+  stockPushrodsOk: boolean;
+  /** Plunger travel left below the preload (null without plungerTravel), inches. */
+  plungerTravelLeft: number | null;
+}
+
+/**
+ * What a base-circle cut does to a hydraulic lifter (built on preloadAfterRegrind):
+ * the lifter drop, the preload left, the pushrod length that restores it and the
+ * largest cut the plunger's travel allows with stock pushrods. Argument shape:
+ * LifterCutInput (inches).
+ */
+export function lifterSideOfCut(input: LifterCutInput, prefix?: string): LifterCutResult {
+  requireObject(prefix ?? 'input', input);
+  const cut = requireInRange(fieldPath(prefix, 'cut'), input.cut, { min: 0, max: 0.99, maxOpen: false, unit: 'in' });
+  const minimum = requireInRange(fieldPath(prefix, 'minimumPreload'), input.minimumPreload, { min: 0, max: 0.25, unit: 'in' });
+  // a nominal 1 in base circle: only the reduction matters
+  const p = preloadAfterRegrind(
+    {
+      originalPreload: input.originalPreload,
+      stockBaseCircle: 1,
+      regrindBaseCircle: 1 - cut,
+      pushrodLength: input.pushrodLength,
+      plungerTravel: input.plungerTravel,
+    },
+    prefix,
+  );
+  const largestCutStockPushrods = Math.max(0, 2 * (p.newPreload + p.lifterDrop - minimum));
+  return {
+    lifterDrop: p.lifterDrop,
+    preloadLeft: p.newPreload,
+    restoredPushrodLength: p.restoredPushrodLength,
+    pushrodIncrease: p.pushrodIncrease,
+    largestCutStockPushrods,
+    stockPushrodsOk: p.newPreload >= minimum - 1e-12,
+    plungerTravelLeft: p.plungerTravelLeft,
   };
 }

@@ -2,7 +2,7 @@
  * Valve springs: open load and height, coil-bind margin, retainer-to-seal
  * margin, and the helical spring rate from wire size. Inches, lbf, lbf/in.
  */
-import { fieldPath, requireFinite, requireNonNegative, requirePositive, requireThat } from './errors';
+import { fieldPath, requireFinite, requireNonNegative, requirePositive, requireThat, requireObject } from './errors';
 
 export interface SpringCheckInput {
   /** Load at installed height (valve closed), lbf. */
@@ -35,6 +35,7 @@ export interface SpringSpec {
 
 /** Validate a spring spec (without lift). */
 export function requireSpring(input: SpringSpec, prefix?: string): SpringSpec {
+  requireObject(prefix ?? 'input', input);
   const seatLoad = requireNonNegative(fieldPath(prefix, 'seatLoad'), input.seatLoad, 'lbf');
   const rate = requirePositive(fieldPath(prefix, 'rate'), input.rate, 'lbf/in');
   const installedHeight = requirePositive(fieldPath(prefix, 'installedHeight'), input.installedHeight, 'in');
@@ -64,6 +65,7 @@ export function springCheckRaw(spring: SpringSpec, valveLift: number): SpringChe
  * spring would stack solid before the valve reaches full lift.
  */
 export function springCheck(input: SpringCheckInput, prefix?: string): SpringCheck {
+  requireObject(prefix ?? 'input', input);
   const spring = requireSpring(input, prefix);
   const lift = requirePositive(fieldPath(prefix, 'valveLift'), input.valveLift, 'in');
   requireThat(
@@ -92,6 +94,7 @@ export function retainerToSealRaw(retainerToSeal: number, valveLift: number): nu
  * clearance less the valve lift. Negative means the retainer hits the seal.
  */
 export function retainerToSealMargin(input: RetainerToSealInput, prefix?: string): { clearanceAtMaxLift: number } {
+  requireObject(prefix ?? 'input', input);
   const installed = requirePositive(fieldPath(prefix, 'retainerToSeal'), input.retainerToSeal, 'in');
   const lift = requirePositive(fieldPath(prefix, 'valveLift'), input.valveLift, 'in');
   return { clearanceAtMaxLift: retainerToSealRaw(installed, lift) };
@@ -110,6 +113,7 @@ export interface HelicalSpringInput {
 
 /** Rate of a round-wire helical compression spring, lbf/in: k = G·d⁴ / (8·D³·N). */
 export function helicalSpringRate(input: HelicalSpringInput): number {
+  requireObject('input', input);
   const d = requirePositive('wireDiameter', input.wireDiameter, 'in');
   const D = requirePositive('meanCoilDiameter', input.meanCoilDiameter, 'in');
   requireThat(D > d, 'meanCoilDiameter', `must be larger than wireDiameter (${d} in)`, D);

@@ -20,6 +20,21 @@ import {
   timingFromEvents,
   valveEvents,
   valveLift,
+  analyzeLiftTable,
+  analyzeProfile,
+  checkDegreeing,
+  compareProfilesForOwner,
+  findWornLobes,
+  lifterSideOfCut,
+  liftCurveFromTable,
+  pistonCurve,
+  pistonMotion,
+  pitchCurvature,
+  pressureAngle,
+  ptvSweep,
+  regrindCleanup,
+  regrindEnvelope,
+  resolveCheckLimits,
 } from './index';
 
 type Fn = (input: Record<string, number>) => unknown;
@@ -94,6 +109,65 @@ describe('every public function rejects bad numbers', () => {
       fc.property(fc.constantFrom(...sizes), fc.double({ min: -100, max: 0, noNaN: true }), ([, fn, ok, field], v) => {
         expect(() => fn({ ...ok, [field]: v })).toThrow(CalcInputError);
       }),
+    );
+  });
+});
+
+// Every public function that takes an object argument.
+const objectTaking: [string, (input: unknown) => unknown][] = [
+  ...cases.map(([name, fn]) => [name, (i: unknown) => fn(i as never)] as [string, (input: unknown) => unknown]),
+  ['pistonMotion', (i) => pistonMotion(i as never)],
+  ['pistonCurve', (i) => pistonCurve(i as never)],
+  ['analyzeProfile', (i) => analyzeProfile(i as never)],
+  ['analyzeLiftTable', (i) => analyzeLiftTable(i as never)],
+  ['liftCurveFromTable', (i) => liftCurveFromTable(i as never)],
+  ['findWornLobes', (i) => findWornLobes(i as never)],
+  ['ptvSweep', (i) => ptvSweep(i as never)],
+  ['checkDegreeing', (i) => checkDegreeing(i as never)],
+  ['compareProfilesForOwner', (i) => compareProfilesForOwner(i as never)],
+  ['pressureAngle', (i) => pressureAngle(i as never)],
+  ['pitchCurvature', (i) => pitchCurvature(i as never)],
+  ['regrindEnvelope', (i) => regrindEnvelope(i as never)],
+  ['regrindCleanup', (i) => regrindCleanup(i as never)],
+  ['lifterSideOfCut', (i) => lifterSideOfCut(i as never)],
+];
+
+describe('finding 5 (regression): bad arguments are CalcInputErrors', () => {
+  it('missing or non-object arguments throw a CalcInputError, never a TypeError', () => {
+    // The old functions read fields off undefined and threw TypeError.
+    for (const [name, fn] of objectTaking) {
+      for (const bad of [undefined, null, 42, 'text', [1, 2]]) {
+        let thrown: unknown = null;
+        try {
+          fn(bad);
+        } catch (error) {
+          thrown = error;
+        }
+        expect(thrown, `${name}(${JSON.stringify(bad)})`).toBeInstanceOf(CalcInputError);
+      }
+    }
+    expect(() => resolveCheckLimits('tight' as never)).toThrow(CalcInputError);
+  });
+
+  it('huge inputs are refused naming the field instead of coming back as Infinity or NaN', () => {
+    // The old displacement answered Infinity for a 1e200 in bore.
+    expect(() => displacement({ bore: 1e200, stroke: 3.6, cylinders: 8 })).toThrow(/^bore: is too large/);
+    expect(() => sweptVolume({ bore: 4, stroke: 1e300 })).toThrow(/^stroke/);
+    expect(() => springCheck({ seatLoad: 1e308, rate: 320, installedHeight: 1.8, coilBindHeight: 1.15, valveLift: 0.5 })).toThrow(/^seatLoad/);
+    fc.assert(
+      fc.property(fc.constantFrom(...cases), fc.double({ min: 1e9 * 1.0001, max: 1e308, noNaN: true }), ([, fn, ok], big) => {
+        for (const field of Object.keys(ok)) {
+          let result: unknown;
+          try {
+            result = fn({ ...ok, [field]: big });
+          } catch (error) {
+            expect(error).toBeInstanceOf(CalcInputError);
+            continue;
+          }
+          expect(JSON.stringify(result)).not.toMatch(/null|NaN|Infinity/);
+        }
+      }),
+      { numRuns: 30 },
     );
   });
 });

@@ -181,7 +181,12 @@ export function runFitChecks({ engine, spec, measured, limits: overrides }: FitC
       const found = checkWornLobes(group, overrides);
       checks.push(...found.checks);
       worn = worn
-        ? { lobes: [...worn.lobes, ...found.result.lobes], worn: [...worn.worn, ...found.result.worn], threshold: found.result.threshold }
+        ? {
+            lobes: [...worn.lobes, ...found.result.lobes],
+            worn: [...worn.worn, ...found.result.worn],
+            threshold: found.result.threshold,
+            stockLobeLift: found.result.stockLobeLift,
+          }
         : found.result;
     }
     lobes = { analyses, worn };

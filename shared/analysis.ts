@@ -6,7 +6,7 @@ import type { ProfileSpec } from './profile';
 import type { RevisionResults } from './sheets';
 
 /** Extra measurements an analysis can use when the job has them. */
-export type AnalysisExtras = Pick<AnalysisInput, 'ptvBaseline' | 'regrind'> & { limits?: CheckLimitOverrides };
+export type AnalysisExtras = Pick<AnalysisInput, 'ptvBaseline' | 'regrind' | 'core' | 'grinding'> & { limits?: CheckLimitOverrides };
 
 /** Maps stored records onto calc's input (calc has no nulls and no firing order). */
 export function toAnalysisInput(engine: EngineSpec, spec: ProfileSpec, extras: AnalysisExtras = {}): AnalysisInput {

@@ -26,6 +26,42 @@ export const regrindSchema = z.strictObject({
   plungerTravel: measure('Plunger travel', 'in', 0.01, 0.5).optional(),
 });
 
+/** A lobe of the core's stock sheet (the cam before wear). Crank degrees, inches of tappet lift. */
+const coreLobeSchema = z
+  .strictObject({
+    duration050: measure('Duration at 0.050 in', '°', 120, 330),
+    advertisedDuration: measure('Advertised duration', '°', 150, 360),
+    advertisedHeight: measure('Advertised checking height', 'in', 0.001, 0.049),
+    lobeLift: measure('Lobe lift', 'in', 0.15, 0.8),
+  })
+  .refine((l) => l.advertisedDuration > l.duration050, {
+    path: ['advertisedDuration'],
+    message: 'Advertised duration must be longer than the duration at 0.050 in',
+  });
+
+/** The core a candidate is ground from: its stock lobes, phasing, base circle and damage. */
+export const coreSchema = z.strictObject({
+  intake: coreLobeSchema,
+  exhaust: coreLobeSchema,
+  lsa: measure('Core lobe separation angle', '° cam', 90, 130),
+  icl: measure('Core intake centreline', '° ATDC', 80, 140),
+  baseCircle: measure('Core base circle', 'in', 0.6, 2),
+  damageDepth: z
+    .strictObject({
+      intake: measure('Intake damage depth', 'in', 0, 0.1).optional(),
+      exhaust: measure('Exhaust damage depth', 'in', 0, 0.1).optional(),
+    })
+    .optional(),
+});
+
+/** Follower and grinding numbers. Inches. */
+export const grindingSchema = z.strictObject({
+  rollerDiameter: measure('Roller diameter', 'in', 0.3, 1.5).optional(),
+  wheelDiameter: measure('Grinding wheel diameter', 'in', 1, 40).optional(),
+  cleanupAllowance: measure('Cleanup allowance', 'in', 0, 0.05).optional(),
+  largestCut: measure('Largest cut', 'in', 0, 0.3).optional(),
+});
+
 const watchBand = measure('Watch band', 'in or ratio', 0, 5).optional();
 const source = z.string().trim().min(1, 'Name the source, or leave it out').max(200, 'Keep the source under 200 characters').optional();
 const minimumRule = z.strictObject({ min: measure('Minimum', 'in', -1, 5).optional(), watchBand, source });
@@ -52,6 +88,9 @@ export const checkLimitsSchema = z.strictObject({
   dynamicCompression: maximumRule.optional(),
   degreeing: maximumRule.optional(),
   wornLobe: maximumRule.optional(),
+  pressureAngle: maximumRule.optional(),
+  undercut: minimumRule.optional(),
+  finishingStock: minimumRule.optional(),
 });
 
 /** Body of `POST /api/calc/analyze`: one engine, one to three profiles on it. */
@@ -63,6 +102,8 @@ export const calcAnalyzeSchema = z.strictObject({
     .max(3, 'Send at most three profiles'),
   ptvBaseline: ptvBaselineSchema.optional(),
   regrind: regrindSchema.optional(),
+  core: coreSchema.optional(),
+  grinding: grindingSchema.optional(),
   limits: checkLimitsSchema.optional(),
   /** False drops the sampled curves (lift, velocity, acceleration, piston motion, PTV sweep). */
   curves: z.boolean({ error: 'curves is true or false' }).default(true),

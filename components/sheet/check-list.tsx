@@ -16,6 +16,12 @@ const checkNames: Record<CheckResult['id'], string> = {
   dynamicCompression: 'Dynamic compression',
   degreeing: 'Cam degreed in',
   wornLobe: 'Lobe wear',
+  pressureAngle: 'Pressure angle',
+  undercut: 'Cam radius (undercut)',
+  grindingWheel: 'Concave flank vs wheel',
+  finishingStock: 'Fits the core',
+  cleanup: 'Cut cleans up damage',
+  largestCut: 'Cut vs hardened layer',
 };
 
 /** A check's verdict (pass, watch, fail) as a chip. */

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { analysisToJson, analyzeProfile, type AnalysisInput } from '@/calc/analysis';
-import { DEMO_ANALYSIS_INPUT, DEMO_ENGINE, DEMO_STOCK_REGRIND, DEMO_TOWING } from '@/calc/demo';
+import { DEMO_ANALYSIS_INPUT, DEMO_CORE, DEMO_ENGINE, DEMO_GRINDING, DEMO_STOCK_REGRIND, DEMO_TOWING } from '@/calc/demo';
 import { createTestApp, makeEngineSpec, makeProfileSpec, makeShop, signUp, type TestApp } from '@/tests/fixtures';
 
 let t: TestApp;
@@ -30,6 +30,20 @@ describe('POST /api/calc/analyze', () => {
     expect(res.body.analyses[1].ptv.intake).not.toBeNull();
     expect(res.body.analyses[1].preload).not.toBeNull();
     expect(res.body.analyses[1].intake.curve.lift.length).toBe(res.body.analyses[1].intake.curve.count);
+  });
+
+  it('answers whether the profile fits the core when given the core and the grinding numbers', async () => {
+    const person = await signUp(t, 'Core caller');
+    const body = { engine: makeEngineSpec(), profiles: [towing], ...extras, core: DEMO_CORE, grinding: DEMO_GRINDING };
+    const res = await person.post('/api/calc/analyze', body);
+    expect(res.status).toBe(200);
+    const expected = direct({ engine: DEMO_ENGINE, profile: DEMO_TOWING, ...extras, core: DEMO_CORE, grinding: DEMO_GRINDING });
+    expect(res.body.analyses[0]).toEqual(expected);
+    expect(res.body.analyses[0].feasibility.cut).toBeCloseTo(0.04, 12);
+    expect(res.body.analyses[0].feasibility.exhaust.envelope.margin).toHaveLength(360);
+    const bad = await person.post('/api/calc/analyze', { ...body, grinding: { rollerDiameter: 'big' } });
+    expect(bad.status).toBe(400);
+    expect(Object.keys(bad.body.error.fields)).toEqual(['grinding.rollerDiameter']);
   });
 
   it("applies the caller's check limits", async () => {

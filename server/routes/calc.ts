@@ -66,7 +66,7 @@ export function calcRouter({ auth, db }: AppDeps, rate: CalcRateLimit = defaultC
   });
 
   router.post('/calc/analyze', signedIn, limiter, (req, res) => {
-    const { engine, profiles, ptvBaseline, regrind, limits, curves } = parse(calcAnalyzeSchema, req.body);
+    const { engine, profiles, ptvBaseline, regrind, core, grinding, limits, curves } = parse(calcAnalyzeSchema, req.body);
     const workspace = createAnalysisWorkspace();
     const analyses = profiles.map((spec, i) => {
       // A calc error names the profile of the list it came from.
@@ -77,7 +77,7 @@ export function calcRouter({ auth, db }: AppDeps, rate: CalcRateLimit = defaultC
           ['profile', `profiles.${i}`],
         ]),
       );
-      const analysis: ProfileAnalysis = analyzeRecords(engine, spec, { ptvBaseline, regrind, limits }, workspace);
+      const analysis: ProfileAnalysis = analyzeRecords(engine, spec, { ptvBaseline, regrind, core, grinding, limits }, workspace);
       // The workspace's curves are overwritten by the next profile, so copy out now.
       return curves ? analysisToJson(analysis) : withoutCurves(analysis);
     });
