@@ -3,12 +3,11 @@ import { describe, expect, it } from 'vitest';
 import {
   analysisToJson,
   analyzeProfile,
-  checkDegreeing,
-  checkWornLobes,
   createAnalysisWorkspace,
   pistonCurve,
   type AnalysisInput,
 } from './analysis';
+import { checkDegreeing, checkWornLobes } from './checks';
 import { degreeCam } from './degree';
 import { regrindEnvelope } from './cam-geometry';
 import { DEMO_ANALYSIS_INPUT, DEMO_CORE, DEMO_ENGINE, DEMO_FEASIBILITY_INPUT, DEMO_STOCK_REGRIND, DEMO_TOWING } from './demo';

@@ -23,7 +23,6 @@ import {
 import { CC_PER_CUBIC_INCH, CHECKING_HEIGHT_050, CURVE_STEP_DEG, RAD_PER_DEG } from './constants';
 import { curvatureRaw, pressureAngleRaw, ENVELOPE_CRITERION, type FlankPeak } from './cam-geometry';
 import { CalcInputError, requireInRange, requireInteger, requireNonNegative, requireObject, requirePositive } from './errors';
-import { type DegreeResult } from './degree';
 import { requireIcl, requireLsa, valveEventsRaw, type ValveEvents } from './events';
 import {
   checkCompressionInput,
@@ -49,7 +48,6 @@ import {
   type LobeShape,
   type LobeSpec,
 } from './lift-curve';
-import { findWornLobes, type LobeMaxLift, type WornLobeResult } from './measured';
 import { baselineOffsetRaw, ptvSweepRaw, requireBaseline, requireValveAngle, type PtvBaseline, type PtvSweep } from './ptv';
 import { lifterSideOfCut, preloadAfterRegrind, regrindCleanup, type CleanupResult, type LifterCutResult, type PreloadResult } from './regrind';
 import { requireSpring, springCheckRaw, type SpringCheck } from './springs';
@@ -1111,36 +1109,4 @@ function toJson(value: unknown): unknown {
 /** A deep copy safe for JSON.stringify (curves become number arrays). */
 export function analysisToJson(analysis: ProfileAnalysis): ProfileAnalysisJson {
   return toJson(analysis) as ProfileAnalysisJson;
-}
-
-// ---------------------------------------------------------------------------
-// Checks that use measurements outside the profile analysis
-
-/** Check a degreed-in cam against the sheet (|measured ICL − sheet ICL|). */
-export function checkDegreeing(result: DegreeResult, overrides?: CheckLimitOverrides): CheckResult {
-  requireObject('result', result);
-  const limits = resolveCheckLimits(overrides);
-  return checkMaximum(
-    { id: 'degreeing', subject: 'intake', value: Math.abs(result.difference), unit: '°', what: 'Installed ICL difference from the sheet' },
-    limits.degreeing,
-  );
-}
-
-/**
- * Run worn-lobe detection with the shop's threshold and return one check per
- * lobe: each lobe's damage depth (inches below its siblings' median or, given
- * `stockLobeLift`, below the sheet's stock lobe lift, whichever is more).
- */
-export function checkWornLobes(
-  lobes: readonly LobeMaxLift[],
-  overrides?: CheckLimitOverrides,
-  stockLobeLift?: number,
-): { result: WornLobeResult; checks: CheckResult[] } {
-  const limits = resolveCheckLimits(overrides);
-  const result = findWornLobes({ lobes, threshold: limits.wornLobe.max, stockLobeLift });
-  const what = stockLobeLift === undefined ? 'Max lift below the median of its siblings' : 'Max lift below its siblings or the stock lobe lift';
-  const checks = result.lobes.map((row) =>
-    checkMaximum({ id: 'wornLobe', subject: row.id, value: row.damageDepth, unit: 'in', what }, limits.wornLobe),
-  );
-  return { result, checks };
 }

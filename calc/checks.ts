@@ -3,7 +3,9 @@
  * returns pass / watch / fail, the margin, the limit and the rule's source.
  * Defaults are trade rules of thumb; a shop can override any of them.
  */
+import type { DegreeResult } from './degree';
 import { CalcInputError, requireFinite, requireNonNegative, requireObject } from './errors';
+import { findWornLobesByKind, type LobeMaxLift, type UnjudgedLobe, type WornLobeResult } from './measured';
 
 export type CheckStatus = 'pass' | 'watch' | 'fail';
 
@@ -321,4 +323,36 @@ export function worstStatus(results: readonly { status: CheckStatus }[]): CheckS
     if (r.status === 'watch') worst = 'watch';
   }
   return worst;
+}
+
+// ---------------------------------------------------------------------------
+// Checks that use measurements outside the profile analysis
+
+/** Check a degreed-in cam against the sheet (|measured ICL − sheet ICL|), degrees. */
+export function checkDegreeing(result: DegreeResult, overrides?: CheckLimitOverrides): CheckResult {
+  requireObject('result', result);
+  const limits = resolveCheckLimits(overrides);
+  return checkMaximum(
+    { id: 'degreeing', subject: 'intake', value: Math.abs(result.difference), unit: '°', what: 'Installed ICL difference from the sheet' },
+    limits.degreeing,
+  );
+}
+
+/**
+ * Worn-lobe detection with the shop's threshold (`findWornLobesByKind`: each kind
+ * against its siblings' median or, given `stockLobeLift`, the sheet's stock lobe lift,
+ * whichever is more), one check per judged lobe, and the lobes it could not judge. Inches.
+ */
+export function checkWornLobes(
+  lobes: readonly LobeMaxLift[],
+  overrides?: CheckLimitOverrides,
+  stockLobeLift?: number,
+): { result: WornLobeResult; checks: CheckResult[]; unjudged: UnjudgedLobe[] } {
+  const limits = resolveCheckLimits(overrides);
+  const { unjudged, ...result } = findWornLobesByKind({ lobes, threshold: limits.wornLobe.max, stockLobeLift });
+  const what = stockLobeLift === undefined ? 'Max lift below the median of its siblings' : 'Max lift below its siblings or the stock lobe lift';
+  const checks = result.lobes.map((row) =>
+    checkMaximum({ id: 'wornLobe', subject: row.id, value: row.damageDepth, unit: 'in', what }, limits.wornLobe),
+  );
+  return { result, checks, unjudged };
 }

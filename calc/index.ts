@@ -65,6 +65,10 @@ export {
   analyzeLiftTable,
   durationAtHeight,
   findWornLobes,
+  findWornLobesByKind,
+  lobeKind,
+  tableMaxLifts,
+  type UnjudgedLobe,
   liftCurveFromTable,
   type LiftReading,
   type LiftTableAnalysis,
@@ -129,10 +133,10 @@ export {
   type MinimumRule,
   type RangeRule,
   type SkippedCheck,
-} from './checks';
-export {
   checkDegreeing,
   checkWornLobes,
+} from './checks';
+export {
   analysisToJson,
   analyzeProfile,
   CAM_GRID,

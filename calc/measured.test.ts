@@ -1,7 +1,7 @@
 import * as fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { CalcInputError } from './errors';
-import { analyzeLiftTable, durationAtHeight, findWornLobes, liftCurveFromTable, type LiftReading } from './measured';
+import { analyzeLiftTable, durationAtHeight, findWornLobes, findWornLobesByKind, liftCurveFromTable, tableMaxLifts, type LiftReading } from './measured';
 
 /** A tent-shaped lobe: lift = L(1 − |θ − c|/W), zero outside; linear interpolation is exact on it. */
 function tent(L: number, c: number, W: number, step = 2): LiftReading[] {
@@ -161,5 +161,41 @@ describe('findWornLobes against the stock lobe lift (finding 4)', () => {
     expect(() => findWornLobes({ lobes: allWorn, threshold: 0.005, stockLobeLift: Number.NaN })).toThrow(/stockLobeLift/);
     expect(() => findWornLobes(undefined as never)).toThrow(CalcInputError);
     expect(() => findWornLobes({ lobes: [null as never, ...allWorn], threshold: 0.005 })).toThrow(/lobes\[0\]/);
+  });
+});
+
+describe('findWornLobesByKind', () => {
+  // Worked by hand (median of the other lobes of the same kind, as findWornLobes defines it):
+  // 3I's siblings 0.300 and 0.302 have median 0.301, so 3I is 0.031 in short; 1I's siblings
+  // 0.302 and 0.270 have median 0.286, so 1I stands 0.014 in above them.
+  const lobes = [
+    { id: '1I', maxLift: 0.3 },
+    { id: '2I', maxLift: 0.302 },
+    { id: '3I', maxLift: 0.27 },
+    { id: '1E', maxLift: 0.29 },
+  ];
+
+  it('compares intakes with intakes only, and leaves a lone exhaust unjudged with the reason', () => {
+    const found = findWornLobesByKind({ lobes, threshold: 0.01 });
+    expect(found.worn).toEqual(['3I']);
+    expect(found.lobes.map((l) => l.id)).toEqual(['1I', '2I', '3I']);
+    expect(found.lobes[2]!.shortfall).toBeCloseTo(0.031, 12);
+    expect(found.lobes[0]!.shortfall).toBeCloseTo(-0.014, 12);
+    expect(found.unjudged).toEqual([{ id: '1E', note: 'only one exhaust lobe measured: nothing to compare it with' }]);
+  });
+
+  it('judges a lone lobe against the stock lobe lift when there is one', () => {
+    // 0.295 − 0.290 = 0.005 in below stock: judged, inside a 0.010 in threshold.
+    const found = findWornLobesByKind({ lobes, threshold: 0.01, stockLobeLift: 0.295 });
+    expect(found.unjudged).toEqual([]);
+    const exhaust = found.lobes.find((l) => l.id === '1E')!;
+    expect(exhaust.stockShortfall).toBeCloseTo(0.005, 12);
+    expect(exhaust.worn).toBe(false);
+    // 3I is 0.025 in below stock and 0.031 in below its siblings: the deeper one is the damage.
+    expect(found.lobes.find((l) => l.id === '3I')!.damageDepth).toBeCloseTo(0.031, 12);
+  });
+
+  it('takes a lobe table at its highest reading', () => {
+    expect(tableMaxLifts([{ id: '1I', points: [{ lift: 0.1 }, { lift: 0.31 }, { lift: 0.2 }] }])).toEqual([{ id: '1I', maxLift: 0.31 }]);
   });
 });

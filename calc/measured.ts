@@ -306,3 +306,46 @@ export function findWornLobes(
   });
   return { lobes, worn: lobes.filter((l) => l.worn).map((l) => l.id), threshold, stockLobeLift: stock };
 }
+
+/** A lobe's kind from its label: "3I" is cylinder 3's intake, "3E" its exhaust. */
+export const lobeKind = (id: string): 'intake' | 'exhaust' => (id.endsWith('I') ? 'intake' : 'exhaust');
+
+/** A measured lobe the worn-lobe comparison could not judge, and why. */
+export interface UnjudgedLobe {
+  id: string;
+  note: string;
+}
+
+/**
+ * Worn lobes on a whole cam: intakes compared with intakes, exhausts with exhausts
+ * (`findWornLobes` per kind), and with the stock lobe lift when given. Without a stock
+ * lift a kind with a single measured lobe has nothing to compare with; it is returned
+ * in `unjudged` with the reason, never as a pass. The one grouping both the
+ * measurements screen and the fit checks use. Inches of tappet lift.
+ */
+export function findWornLobesByKind(input: { lobes: readonly LobeMaxLift[]; threshold: number; stockLobeLift?: number }): WornLobeResult & {
+  unjudged: UnjudgedLobe[];
+} {
+  requireObject('input', input);
+  if (!Array.isArray(input.lobes)) throw new CalcInputError('lobes', 'must be a list of lobes', input.lobes);
+  const threshold = requirePositive('threshold', input.threshold, 'in');
+  const merged: WornLobeResult & { unjudged: UnjudgedLobe[] } = { lobes: [], worn: [], threshold, stockLobeLift: input.stockLobeLift ?? null, unjudged: [] };
+  for (const kind of ['intake', 'exhaust'] as const) {
+    const group = input.lobes.filter((l) => lobeKind(l.id) === kind);
+    if (group.length === 0) continue;
+    if (group.length < 2 && input.stockLobeLift === undefined) {
+      merged.unjudged.push({ id: group[0]!.id, note: `only one ${kind} lobe measured: nothing to compare it with` });
+      continue;
+    }
+    const found = findWornLobes({ lobes: group, threshold, stockLobeLift: input.stockLobeLift });
+    merged.lobes.push(...found.lobes);
+    merged.worn.push(...found.worn);
+    merged.stockLobeLift = found.stockLobeLift;
+  }
+  return merged;
+}
+
+/** Each measured lobe's max lift: the highest reading in its table, inches. */
+export function tableMaxLifts(lobes: readonly { id: string; points: readonly { lift: number }[] }[]): LobeMaxLift[] {
+  return lobes.map((l) => ({ id: l.id, maxLift: Math.max(...l.points.map((p) => p.lift)) }));
+}

@@ -1,4 +1,4 @@
-import { analyzeLiftTable, findWornLobes, type LiftTableAnalysis, type WornLobeRow } from '@/calc/measured';
+import { analyzeLiftTable, findWornLobesByKind, lobeKind, tableMaxLifts, type LiftTableAnalysis, type WornLobeRow } from '@/calc/measured';
 import { isCalcInputError } from '@/calc/errors';
 import type { MeasurementData } from '@/shared/measurements';
 
@@ -15,10 +15,11 @@ export type LobeRow = {
  * Max lift, duration at 0.050 in and centreline for every lobe in an uploaded
  * table, and each lobe against the median of its siblings (intakes with
  * intakes, exhausts with exhausts), flagged when short by more than `threshold` inches.
+ * A lobe whose table cannot be analysed is still judged on its highest reading.
  */
 export function analyzeLobes(data: MeasurementData['lobes'], threshold: number): LobeRow[] {
   const rows: LobeRow[] = data.lobes.map((lobe) => {
-    const kind = lobe.id.endsWith('I') ? 'intake' : 'exhaust';
+    const kind = lobeKind(lobe.id);
     try {
       return { id: lobe.id, kind, analysis: analyzeLiftTable({ points: lobe.points }), problem: null, wear: null };
     } catch (error) {
@@ -26,14 +27,8 @@ export function analyzeLobes(data: MeasurementData['lobes'], threshold: number):
       return { id: lobe.id, kind, analysis: null, problem: `Lobe ${lobe.id}: ${message}`, wear: null };
     }
   });
-  for (const kind of ['intake', 'exhaust'] as const) {
-    const siblings = rows.filter((r) => r.kind === kind && r.analysis);
-    if (siblings.length < 2) continue;
-    const result = findWornLobes({ lobes: siblings.map((r) => ({ id: r.id, maxLift: r.analysis?.maxLift ?? 0 })), threshold });
-    result.lobes.forEach((w, i) => {
-      const row = siblings[i];
-      if (row) row.wear = w;
-    });
-  }
+  // The same grouping and the same max lifts the fit checks judge (calc's findWornLobesByKind), so both screens agree.
+  const wear = findWornLobesByKind({ lobes: tableMaxLifts(data.lobes), threshold });
+  for (const row of rows) row.wear = wear.lobes.find((w) => w.id === row.id) ?? null;
   return rows;
 }

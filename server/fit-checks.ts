@@ -7,8 +7,9 @@
  * baselines, springs and lobes already carry the measurement's own path); the
  * route declares how they read in the request's terms.
  */
-import { analyzeLiftTable, type LiftTableAnalysis, type WornLobeResult } from '@/calc/measured';
-import { checkDegreeing, checkWornLobes, PTV_SWEEP } from '@/calc/analysis';
+import { analyzeLiftTable, tableMaxLifts, type LiftTableAnalysis, type WornLobeResult } from '@/calc/measured';
+import { PTV_SWEEP } from '@/calc/analysis';
+import { checkDegreeing, checkWornLobes } from '@/calc/checks';
 import { checkMinimum, resolveCheckLimits, worstStatus, type CheckLimitOverrides, type CheckResult, type SkippedCheck } from '@/calc/checks';
 import { CHECKING_HEIGHT_050 } from '@/calc/constants';
 import { degreeCam } from '@/calc/degree';
@@ -155,7 +156,6 @@ export function runFitChecks({ engine, spec, measured, limits: overrides }: FitC
     skipped.push({ id: 'wornLobe', subject: 'lobes', note: 'not measured: upload a lobe table (CSV)' });
   } else {
     const analyses: { id: string; table: LiftTableAnalysis }[] = [];
-    const maxLifts = measured.lobes.lobes.map((l) => ({ id: l.id, maxLift: Math.max(...l.points.map((p) => p.lift)) }));
     for (const lobe of measured.lobes.lobes) {
       const kind = lobe.id.endsWith('I') ? spec.intake : spec.exhaust;
       const top = Math.max(...lobe.points.map((p) => p.lift));
@@ -167,28 +167,10 @@ export function runFitChecks({ engine, spec, measured, limits: overrides }: FitC
         skipped.push({ id: 'wornLobe', subject: lobe.id, note: `table not analysed: ${error.message}` });
       }
     }
-    let worn: WornLobeResult | null = null;
-    for (const [suffix, name] of [
-      ['I', 'intake'],
-      ['E', 'exhaust'],
-    ] as const) {
-      const group = maxLifts.filter((l) => l.id.endsWith(suffix));
-      if (group.length === 0) continue;
-      if (group.length < 2) {
-        skipped.push({ id: 'wornLobe', subject: group[0]?.id ?? name, note: `only one ${name} lobe measured: nothing to compare it with` });
-        continue;
-      }
-      const found = checkWornLobes(group, overrides);
-      checks.push(...found.checks);
-      worn = worn
-        ? {
-            lobes: [...worn.lobes, ...found.result.lobes],
-            worn: [...worn.worn, ...found.result.worn],
-            threshold: found.result.threshold,
-            stockLobeLift: found.result.stockLobeLift,
-          }
-        : found.result;
-    }
+    const found = checkWornLobes(tableMaxLifts(measured.lobes.lobes), overrides);
+    checks.push(...found.checks);
+    skipped.push(...found.unjudged.map((u) => ({ id: 'wornLobe' as const, subject: u.id, note: u.note })));
+    const worn: WornLobeResult | null = found.result.lobes.length > 0 ? found.result : null;
     lobes = { analyses, worn };
   }
 
