@@ -22,6 +22,13 @@ export function formatCents(cents: number, currency = 'usd'): string {
   return format.format(cents / 100);
 }
 
+/** Money typed by a person ("225", "$1,050.50") as whole cents; NaN when it is not an amount of at most two decimals. */
+export function centsFromText(text: string): number {
+  const clean = text.replace(/[$,\s]/g, '');
+  if (!/^\d+(\.\d{1,2})?$/.test(clean)) return Number.NaN;
+  return Math.round(Number(clean) * 100);
+}
+
 /** How long ago, in plain words: "just now", "5 minutes", "3 hours", "2 days". */
 export function formatAge(iso: string, now: number = Date.now()): string {
   const minutes = Math.max(0, Math.floor((now - new Date(iso).getTime()) / 60_000));

@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
+import { centsFromText } from '@/constants/format';
 import { colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
 import { ApiError } from '@/lib/api';
 import { useMoveOrderMutation } from '@/hooks/use-orders';
@@ -46,11 +47,11 @@ export function OrderMoves({ order, side }: { order: Order; side: OrderSide }) {
     const errors: Record<string, string> = {};
     const body: OrderMove = { version: order.version, to };
     if (to === 'quoted') {
-      const dollars = Number(price.replace(/[$,\s]/g, ''));
+      const priceCents = centsFromText(price);
       const days = Number(leadTime);
-      if (!price.trim() || !Number.isFinite(dollars) || dollars < 0) errors['quote.priceCents'] = 'Enter the price in dollars, like 485.00';
+      if (!Number.isFinite(priceCents)) errors['quote.priceCents'] = 'Enter the price in dollars, like 485.00';
       if (!leadTime.trim() || !Number.isInteger(days) || days < 0 || days > 365) errors['quote.leadTimeDays'] = 'Enter the lead time as whole days, 0 to 365';
-      body.quote = { priceCents: Math.round(dollars * 100), leadTimeDays: days };
+      body.quote = { priceCents, leadTimeDays: days };
       if (message.trim()) body.message = message.trim();
     }
     if (to === 'changes-asked') {

@@ -1,7 +1,7 @@
 import { useState, type ReactNode } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
-import { formatCents, formatDateTime } from '@/constants/format';
+import { centsFromText, formatCents, formatDateTime } from '@/constants/format';
 import { colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
 import { ApiError } from '@/lib/api';
 import { copyText } from '@/lib/clipboard';
@@ -25,13 +25,6 @@ import { Section } from '@/components/ui/screen';
 import { TextField } from '@/components/ui/text-field';
 
 const linkStateLabels: Record<ShareLink['state'], string> = { active: 'Open', expired: 'Expired', revoked: 'Withdrawn' };
-
-/** Dollars typed by a person ("225", "$1,050.50") to whole cents; NaN when it is not an amount. */
-export function centsFromText(text: string): number {
-  const clean = text.replace(/[$,\s]/g, '');
-  if (!/^\d+(\.\d{1,2})?$/.test(clean)) return Number.NaN;
-  return Math.round(Number(clean) * 100);
-}
 
 /** On the job page: where the owner stands, and the way to the owner's page. */
 export function OwnerSection({ jobId }: { jobId: string }) {

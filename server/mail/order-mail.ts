@@ -1,3 +1,5 @@
+import { formatCents } from '@/constants/format';
+
 import { composeMail } from './compose';
 import type { MailMessage } from './index';
 
@@ -22,10 +24,6 @@ export function orderLink(publicUrl: string, orderId: string) {
   return `${publicUrl.replace(/\/+$/, '')}/orders/${encodeURIComponent(orderId)}`;
 }
 
-function dollars(cents: number) {
-  return `$${(cents / 100).toFixed(2)}`;
-}
-
 /** Subject, lines of text and the call to action for each kind of order mail (Lobewright's own wording). */
 function content(kind: OrderMailKind, f: OrderMailFacts): { subject: string; lines: string[]; action: string } {
   const sheet = `"${f.sheetTitle}" revision ${f.revisionNumber} (checksum ${f.checksum})`;
@@ -46,7 +44,7 @@ function content(kind: OrderMailKind, f: OrderMailFacts): { subject: string; lin
         subject: `${f.grinderShopName} quoted ${f.sheetTitle}, rev ${f.revisionNumber}`,
         lines: [
           `${f.grinderShopName} accepted ${sheet}.`,
-          ...(f.quote ? [`Price: ${dollars(f.quote.priceCents)}. Lead time: ${f.quote.leadTimeDays} days.`] : []),
+          ...(f.quote ? [`Price: ${formatCents(f.quote.priceCents)}. Lead time: ${f.quote.leadTimeDays} days.`] : []),
           ...(f.message ? [`Their note: ${f.message}`] : []),
         ],
         action: 'See the quote',
