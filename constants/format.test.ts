@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 
-import { centsFromText, formatCents } from './format';
+import { centsFromText, formatCents, quoteSentence } from './format';
 
 describe('money', () => {
   it('reads what people type as whole cents, and nothing that is not an amount', () => {
@@ -17,5 +17,12 @@ describe('money', () => {
     expect(formatCents(48_500)).toBe('$485.00');
     expect(formatCents(105_050, 'usd')).toBe('$1,050.50');
     expect(formatCents(2_250, 'eur')).toBe('€22.50');
+  });
+});
+
+describe('quoteSentence', () => {
+  it('says the price and the lead time, with one day in the singular', () => {
+    expect(quoteSentence({ priceCents: 48_500, leadTimeDays: 8 })).toBe('Quote $485.00, ready in 8 days');
+    expect(quoteSentence({ priceCents: 105_050, leadTimeDays: 1 })).toBe('Quote $1,050.50, ready in 1 day');
   });
 });

@@ -29,6 +29,11 @@ export function centsFromText(text: string): number {
   return Math.round(Number(clean) * 100);
 }
 
+/** A grinder's quote in one sentence, the same on the order, the sheet's order list and the mail: "Quote $485.00, ready in 8 days". */
+export function quoteSentence(quote: { priceCents: number; leadTimeDays: number }): string {
+  return `Quote ${formatCents(quote.priceCents)}, ready in ${quote.leadTimeDays} ${quote.leadTimeDays === 1 ? 'day' : 'days'}`;
+}
+
 /** How long ago, in plain words: "just now", "5 minutes", "3 hours", "2 days". */
 export function formatAge(iso: string, now: number = Date.now()): string {
   const minutes = Math.max(0, Math.floor((now - new Date(iso).getTime()) / 60_000));

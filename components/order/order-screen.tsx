@@ -9,7 +9,7 @@ import { OrderThread } from '@/components/order/order-thread';
 import { ErrorNotice, Pending } from '@/components/ui/query-state';
 import { RevisionView } from '@/components/sheet/revision-view';
 import { Screen, Section, type BackLink } from '@/components/ui/screen';
-import { formatCents, formatDateTime } from '@/constants/format';
+import { formatDateTime, quoteSentence } from '@/constants/format';
 import { breakpoints, colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
 import { ApiError } from '@/lib/api';
 import { useMeQuery } from '@/hooks/use-me';
@@ -66,7 +66,7 @@ function OrderView({ order, side, back }: { order: OrderDetail; side: OrderSide 
       <OrderStageChip stage={order.stage} testID="order-stage" />
       {order.quote ? (
         <Text style={styles.body} testID="order-quote">
-          Quote {formatCents(order.quote.priceCents)}, ready in {order.quote.leadTimeDays} {order.quote.leadTimeDays === 1 ? 'day' : 'days'}
+          {quoteSentence(order.quote)}
         </Text>
       ) : null}
       {order.shipping ? (

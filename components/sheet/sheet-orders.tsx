@@ -2,7 +2,7 @@ import { Link } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, Text, TextInput, View } from 'react-native';
 
-import { formatCents, formatDateTime } from '@/constants/format';
+import { formatDateTime, quoteSentence } from '@/constants/format';
 import { colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
 import { useGrindingShopsQuery, useIssueSheetMutation, useSheetOrdersQuery } from '@/hooks/use-orders';
 import type { Order } from '@/shared/orders';
@@ -141,7 +141,7 @@ function OrderRow({ order, canMove }: { order: Order; canMove: boolean }) {
       </Text>
       {order.quote ? (
         <Text style={styles.body} testID={`sheet-order-quote-${order.revisionNumber}`}>
-          Quote {formatCents(order.quote.priceCents)}, ready in {order.quote.leadTimeDays} {order.quote.leadTimeDays === 1 ? 'day' : 'days'}
+          {quoteSentence(order.quote)}
         </Text>
       ) : null}
       {order.shipping ? (

@@ -1,4 +1,4 @@
-import { formatCents } from '@/constants/format';
+import { quoteSentence } from '@/constants/format';
 
 import { composeMail } from './compose';
 import type { MailMessage } from './index';
@@ -44,7 +44,7 @@ function content(kind: OrderMailKind, f: OrderMailFacts): { subject: string; lin
         subject: `${f.grinderShopName} quoted ${f.sheetTitle}, rev ${f.revisionNumber}`,
         lines: [
           `${f.grinderShopName} accepted ${sheet}.`,
-          ...(f.quote ? [`Price: ${formatCents(f.quote.priceCents)}. Lead time: ${f.quote.leadTimeDays} days.`] : []),
+          ...(f.quote ? [`${quoteSentence(f.quote)}.`] : []),
           ...(f.message ? [`Their note: ${f.message}`] : []),
         ],
         action: 'See the quote',
