@@ -1,5 +1,8 @@
+import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
+import { useForm } from 'react-hook-form';
 import { StyleSheet, Text, View } from 'react-native';
+import { z } from 'zod';
 
 import { centsFromText } from '@/constants/format';
 import { colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
@@ -9,7 +12,7 @@ import { orderMoves, type Order, type OrderMove, type OrderStage } from '@/share
 
 import { Button } from '@/components/ui/button';
 import { ErrorNotice } from '@/components/ui/query-state';
-import { TextField } from '@/components/ui/text-field';
+import { FormField } from '@/components/ui/form-field';
 
 export type OrderSide = 'builder' | 'grinder';
 
@@ -27,52 +30,76 @@ const moveLabels: Record<OrderStage, string> = {
 /** Moves that need more than a press open a short form first. */
 const needsForm: Partial<Record<OrderStage, true>> = { quoted: true, 'changes-asked': true, shipped: true };
 
+type MoveForm = { price: string; leadTime: string; message: string; carrier: string; tracking: string };
+const emptyForm: MoveForm = { price: '', leadTime: '', message: '', carrier: '', tracking: '' };
+
+/** Where the server's field names land on this form. */
+const formField: Record<string, keyof MoveForm> = {
+  'quote.priceCents': 'price',
+  'quote.leadTimeDays': 'leadTime',
+  message: 'message',
+  'shipping.carrier': 'carrier',
+  'shipping.tracking': 'tracking',
+};
+
+/** What a move's form must hold before it is sent, field by field (the server checks the same again). */
+function moveFormSchema(to: OrderStage | null) {
+  return z
+    .object({ price: z.string(), leadTime: z.string(), message: z.string(), carrier: z.string(), tracking: z.string() })
+    .superRefine((v, ctx) => {
+      const need = (ok: boolean, path: keyof MoveForm, message: string) => {
+        if (!ok) ctx.addIssue({ code: 'custom', path: [path], message });
+      };
+      if (to === 'quoted') {
+        const days = Number(v.leadTime);
+        need(Number.isFinite(centsFromText(v.price)), 'price', 'Enter the price in dollars, like 485.00');
+        need(v.leadTime.trim() !== '' && Number.isInteger(days) && days >= 0 && days <= 365, 'leadTime', 'Enter the lead time as whole days, 0 to 365');
+      }
+      if (to === 'changes-asked') need(v.message.trim() !== '', 'message', 'Say what should change on the sheet');
+      if (to === 'shipped') {
+        need(v.carrier.trim() !== '', 'carrier', 'Name the carrier');
+        need(v.tracking.trim() !== '', 'tracking', 'Enter the tracking text');
+      }
+    });
+}
+
+/** The request body of a move from its checked form. */
+function moveBody(order: Order, to: OrderStage, v: MoveForm): OrderMove {
+  const message = v.message.trim();
+  const body: OrderMove = { version: order.version, to };
+  if (to === 'quoted') body.quote = { priceCents: centsFromText(v.price), leadTimeDays: Number(v.leadTime) };
+  if (to === 'shipped') body.shipping = { carrier: v.carrier.trim(), tracking: v.tracking.trim() };
+  if (message || to === 'changes-asked') body.message = message;
+  return body;
+}
+
 /** The moves this side may make from the order's stage, as buttons, with the form each one needs. */
 export function OrderMoves({ order, side }: { order: Order; side: OrderSide }) {
   const moves = orderMoves[order.stage].filter((m) => m.by === side);
   const move = useMoveOrderMutation(order.id);
   const [open, setOpen] = useState<OrderStage | null>(null);
-  const [price, setPrice] = useState('');
-  const [leadTime, setLeadTime] = useState('');
-  const [message, setMessage] = useState('');
-  const [carrier, setCarrier] = useState('');
-  const [tracking, setTracking] = useState('');
-  const [local, setLocal] = useState<Record<string, string>>({});
+  const { control, handleSubmit, setError, clearErrors, resetField } = useForm<MoveForm>({
+    defaultValues: emptyForm,
+    resolver: (values, context, options) => zodResolver(moveFormSchema(open))(values, context, options),
+  });
 
   if (moves.length === 0) return null;
-  const serverFields = move.error instanceof ApiError ? move.error.fields : {};
-  const fieldError = (key: string) => local[key] ?? serverFields[key];
 
-  const submit = (to: OrderStage) => {
-    const errors: Record<string, string> = {};
-    const body: OrderMove = { version: order.version, to };
-    if (to === 'quoted') {
-      const priceCents = centsFromText(price);
-      const days = Number(leadTime);
-      if (!Number.isFinite(priceCents)) errors['quote.priceCents'] = 'Enter the price in dollars, like 485.00';
-      if (!leadTime.trim() || !Number.isInteger(days) || days < 0 || days > 365) errors['quote.leadTimeDays'] = 'Enter the lead time as whole days, 0 to 365';
-      body.quote = { priceCents, leadTimeDays: days };
-      if (message.trim()) body.message = message.trim();
-    }
-    if (to === 'changes-asked') {
-      if (!message.trim()) errors.message = 'Say what should change on the sheet';
-      body.message = message.trim();
-    }
-    if (to === 'shipped') {
-      if (!carrier.trim()) errors['shipping.carrier'] = 'Name the carrier';
-      if (!tracking.trim()) errors['shipping.tracking'] = 'Enter the tracking text';
-      body.shipping = { carrier: carrier.trim(), tracking: tracking.trim() };
-      if (message.trim()) body.message = message.trim();
-    }
-    setLocal(errors);
-    if (Object.keys(errors).length > 0) return;
-    move.mutate(body, {
+  const send = (to: OrderStage, values: MoveForm) =>
+    move.mutate(moveBody(order, to, values), {
       onSuccess: () => {
         setOpen(null);
-        setMessage('');
+        resetField('message');
+      },
+      onError: (error) => {
+        if (!(error instanceof ApiError)) return;
+        for (const [field, message] of Object.entries(error.fields)) {
+          const name = formField[field];
+          if (name) setError(name, { type: 'server', message });
+        }
       },
     });
-  };
+  const submit = (to: OrderStage) => handleSubmit((values) => send(to, values))();
 
   return (
     <View style={styles.stack} testID="order-moves">
@@ -86,9 +113,9 @@ export function OrderMoves({ order, side }: { order: Order; side: OrderSide }) {
             disabled={move.isPending || open === m.to}
             onPress={() => {
               move.reset();
-              setLocal({});
+              clearErrors();
               if (needsForm[m.to]) setOpen(m.to);
-              else submit(m.to);
+              else send(m.to, emptyForm);
             }}
             testID={`move-${m.to}`}
           />
@@ -99,22 +126,21 @@ export function OrderMoves({ order, side }: { order: Order; side: OrderSide }) {
           <Text style={styles.formTitle}>{moveLabels[open]}</Text>
           {open === 'quoted' ? (
             <>
-              <TextField label="Price" unit="USD" value={price} onChangeText={setPrice} inputMode="decimal" error={fieldError('quote.priceCents')} testID="quote-price" />
-              <TextField label="Lead time" unit="days" value={leadTime} onChangeText={setLeadTime} inputMode="numeric" error={fieldError('quote.leadTimeDays')} testID="quote-lead-time" />
+              <FormField control={control} name="price" label="Price" unit="USD" keyboardType="decimal-pad" testID="quote-price" />
+              <FormField control={control} name="leadTime" label="Lead time" unit="days" keyboardType="numeric" testID="quote-lead-time" />
             </>
           ) : null}
           {open === 'shipped' ? (
             <>
-              <TextField label="Carrier" value={carrier} onChangeText={setCarrier} error={fieldError('shipping.carrier')} testID="ship-carrier" />
-              <TextField label="Tracking" value={tracking} onChangeText={setTracking} error={fieldError('shipping.tracking')} testID="ship-tracking" />
+              <FormField control={control} name="carrier" label="Carrier" testID="ship-carrier" />
+              <FormField control={control} name="tracking" label="Tracking" testID="ship-tracking" />
             </>
           ) : null}
-          <TextField
+          <FormField
+            control={control}
+            name="message"
             label={open === 'changes-asked' ? 'What should change' : 'Message to the shop (optional)'}
-            value={message}
-            onChangeText={setMessage}
             multiline
-            error={fieldError('message')}
             hint={open === 'changes-asked' ? 'The builder saves a new revision and issues it again.' : undefined}
             testID="move-message"
           />
