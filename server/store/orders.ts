@@ -22,7 +22,7 @@ import { conflict, forbidden, HttpError, notFound } from '../http';
 import type { PageRequest } from '../paging';
 import { audit } from './audit';
 import type { Actor, Reader } from './db';
-import { toRevision } from './sheets';
+import { latestRevisionRow, toRevision } from './sheets';
 
 type Side = 'builder' | 'grinder';
 
@@ -206,14 +206,7 @@ export function issueSheet(db: Db, who: Actor, sheetId: string, body: z.output<t
       .where(and(eq(schema.specSheets.id, sheetId), eq(schema.specSheets.shopId, who.shopId)))
       .get();
     if (!sheet) throw notFound('Spec sheet');
-    const latest = tx
-      .select()
-      .from(schema.sheetRevisions)
-      .where(eq(schema.sheetRevisions.sheetId, sheetId))
-      .orderBy(desc(schema.sheetRevisions.number))
-      .limit(1)
-      .get();
-    if (!latest) throw new Error(`Sheet ${sheetId} has no revisions`);
+    const latest = latestRevisionRow(tx, sheetId);
     if (latest.state !== 'draft') {
       throw conflict(`Revision ${latest.number} is already issued — edit the sheet to start a new revision, then issue that.`);
     }
