@@ -90,7 +90,8 @@ describe.each(Object.keys(viewports) as ViewportName[])('the tech on the bench a
     expect(await shown(page, 'lobes-worn-summary').textContent()).toContain('3E');
     expect(await page.locator('[data-testid="lobes-table"]:visible [role="row"]').count()).toBe(17);
     // The overlay starts on the worn lobe: measured curve over the sheet's lobe.
-    expect(await shown(page, 'lobe-overlay').locator('path').count()).toBe(2);
+    // The plots arrive in their own chunk on first use: wait for the overlay, then count its curves.
+    await expect.poll(() => shown(page, 'lobe-overlay').locator('path').count(), { timeout: 15_000 }).toBe(2);
 
     // PTV baseline with clay, one reading each side of TDC.
     await shown(page, 'ptv-method-clay').click();
