@@ -15,8 +15,8 @@ export const teamKeys = {
 export const invalidateTeam = (queryClient: QueryClient) => queryClient.invalidateQueries({ queryKey: teamKeys.team });
 
 /** The shop's staff and open invitations (builders of a repair shop, grinders of a grinding shop). */
-export function useTeamQuery(enabled: boolean) {
-  return useQuery({ queryKey: teamKeys.team, enabled, staleTime: staleTimes.record, queryFn: () => api<Team>('/api/shop/team') });
+export function useTeamQuery() {
+  return useQuery({ queryKey: teamKeys.team, staleTime: staleTimes.record, queryFn: () => api<Team>('/api/shop/team') });
 }
 
 /** Every team change answers with the whole team, which replaces the cached one. */

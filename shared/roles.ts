@@ -64,6 +64,18 @@ export const staffRoles = {
   grinding: ['grinder'],
 } as const satisfies Record<ShopKind, readonly ShopRole[]>;
 
+/** True when `role` is one this kind of shop gives its staff; a vehicle owner's or another kind's role is not. */
+export function isStaffRole(kind: ShopKind, role: string | null | undefined): role is ShopRole {
+  const staff: readonly string[] = staffRoles[kind];
+  return typeof role === 'string' && staff.includes(role);
+}
+
+/** The role an invitation offers unless the manager picks another: the least one this kind of shop gives. */
+export const defaultStaffRole = {
+  repair: 'tech',
+  grinding: 'grinder',
+} as const satisfies Record<ShopKind, ShopRole>;
+
 export const roleLabels: Record<ShopRole, string> = {
   builder: 'Builder',
   tech: 'Technician',
@@ -73,6 +85,5 @@ export const roleLabels: Record<ShopRole, string> = {
 
 /** True for whoever manages a shop's team: a builder of a repair shop, a grinder of a grinding shop. */
 export function managesTeam(kind: ShopKind, role: string | null | undefined): boolean {
-  const staff: readonly string[] = staffRoles[kind];
-  return Boolean(role) && staff.includes(role!) && roleAllows(role, { invitation: ['create', 'cancel'], member: ['update', 'delete'] });
+  return isStaffRole(kind, role) && roleAllows(role, { invitation: ['create', 'cancel'], member: ['update', 'delete'] });
 }

@@ -29,6 +29,8 @@ export type Team = {
   invitations: TeamInvitation[];
   /** The roles this shop's kind can give its staff. */
   roles: ShopRole[];
+  /** The role a new invitation offers unless the manager picks another. */
+  defaultRole: ShopRole;
 };
 
 const roleField = z.enum(shopRoleNames, { error: 'Choose a role' });

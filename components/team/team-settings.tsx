@@ -27,7 +27,7 @@ const roleChoices = (roles: ShopRole[]) => roles.map((r) => ({ value: r, label: 
  * invited, and a form to invite someone by e-mail. A removed person loses access on their next request.
  */
 export function TeamSettings() {
-  const team = useTeamQuery(true);
+  const team = useTeamQuery();
   if (team.isPending) return <Pending label="Loading the team…" />;
   if (team.isError) return <ErrorNotice error={team.error} onRetry={() => team.refetch()} />;
   return (
@@ -125,10 +125,9 @@ function InviteForm({ team }: { team: Team }) {
   const invite = useInviteMutation();
   const [formError, setFormError] = useState<string | null>(null);
   const [sentTo, setSentTo] = useState<string | null>(null);
-  const first = team.roles.at(-1) ?? team.roles[0]!;
   const { control, handleSubmit, setError, reset } = useForm<InviteInput>({
     resolver: zodResolver(inviteSchema),
-    defaultValues: { email: '', role: first },
+    defaultValues: { email: '', role: team.defaultRole },
   });
   const submit = handleSubmit(async (values) => {
     setFormError(null);

@@ -57,6 +57,7 @@ describe('inviting staff', () => {
       ]),
     );
     expect(team.roles).toEqual(['builder', 'tech']);
+    expect(team.defaultRole).toBe('tech');
   });
 
   it('lets a person already signed up and verified accept from the invitation page, which opens the shop', async () => {
@@ -128,7 +129,9 @@ describe('inviting staff', () => {
     const { founder } = await makeShop(t, 'grinding', 'Grinding team');
     expect((await founder.post('/api/shop/invitations', { email: address(), role: 'grinder' })).status).toBe(201);
     expect((await founder.post('/api/shop/invitations', { email: address(), role: 'tech' })).status).toBe(400);
-    expect((await founder.get('/api/shop/team')).body.roles).toEqual(['grinder']);
+    const grindingTeam = (await founder.get('/api/shop/team')).body;
+    expect(grindingTeam.roles).toEqual(['grinder']);
+    expect(grindingTeam.defaultRole).toBe('grinder');
   });
 });
 

@@ -2,7 +2,7 @@ import { Router, type Request } from 'express';
 import { isAPIError } from 'better-auth/api';
 import { fromNodeHeaders } from 'better-auth/node';
 
-import { managesTeam, roleLabels, staffRoles, type ShopKind, type ShopRole } from '@/shared/roles';
+import { isStaffRole, managesTeam, roleLabels, staffRoles, type ShopKind, type ShopRole } from '@/shared/roles';
 import { inviteSchema, memberRoleSchema } from '@/shared/team';
 
 import { requireMember, requireSignedIn } from '../access';
@@ -29,9 +29,8 @@ async function library<T>(call: () => Promise<T>): Promise<T> {
 
 /** A staff role this kind of shop gives, or a 400 naming the field. */
 function requireStaffRole(kind: ShopKind, role: ShopRole) {
-  const allowed: readonly ShopRole[] = staffRoles[kind];
-  if (allowed.includes(role)) return;
-  const names = allowed.map((r) => roleLabels[r].toLowerCase()).join(' or ');
+  if (isStaffRole(kind, role)) return;
+  const names = staffRoles[kind].map((r) => roleLabels[r].toLowerCase()).join(' or ');
   throw new HttpError(400, 'invalid', `role: A ${kind === 'repair' ? 'repair' : 'grinding'} shop's staff are ${names}`, { role: `Choose ${names}` });
 }
 

@@ -2,7 +2,7 @@ import { and, asc, eq, inArray } from 'drizzle-orm';
 
 import type { Db } from '@/db';
 import { schema } from '@/db';
-import { isShopRole, staffRoles, type ShopKind } from '@/shared/roles';
+import { defaultStaffRole, isShopRole, isStaffRole, staffRoles, type ShopKind } from '@/shared/roles';
 import type { InvitationView, Team } from '@/shared/team';
 
 import { forbidden, notFound } from '../http';
@@ -49,6 +49,7 @@ export function loadTeam(db: Reader, ctx: TeamViewer): Team {
     members: members.flatMap((m) => (isShopRole(m.role) ? [{ ...m, role: m.role, joinedAt: m.joinedAt.toISOString(), you: m.userId === ctx.user.id }] : [])),
     invitations: invitations.flatMap((i) => (i.role && isShopRole(i.role) ? [{ ...i, role: i.role, expiresAt: i.expiresAt.toISOString() }] : [])),
     roles,
+    defaultRole: defaultStaffRole[ctx.shop.kind],
   };
 }
 
@@ -59,8 +60,7 @@ export function requireStaffMember(db: Reader, ctx: TeamViewer, memberId: string
     .from(schema.memberships)
     .where(and(eq(schema.memberships.id, memberId), eq(schema.memberships.organizationId, ctx.shop.id)))
     .get();
-  const staff: readonly string[] = staffRoles[ctx.shop.kind];
-  if (!row || !staff.includes(row.role)) throw notFound('Team member');
+  if (!row || !isStaffRole(ctx.shop.kind, row.role)) throw notFound('Team member');
   // The one acting stays a manager, so a shop always keeps someone who can manage its team.
   if (row.userId === ctx.user.id) throw forbidden('Ask another member of the team to change or remove your own place in it');
   return row;
@@ -94,8 +94,7 @@ export function requireStaffInvitation(db: Reader, shop: TeamViewer['shop'], id:
     .from(schema.invitations)
     .where(and(eq(schema.invitations.id, id), eq(schema.invitations.organizationId, shop.id)))
     .get();
-  const staff: readonly (string | null)[] = staffRoles[shop.kind];
-  if (!row || !staff.includes(row.role)) throw notFound('Invitation');
+  if (!row || !isStaffRole(shop.kind, row.role)) throw notFound('Invitation');
   return row;
 }
 
