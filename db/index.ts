@@ -20,8 +20,22 @@ export function openDb(file: string = process.env.DATABASE_PATH || defaultDataba
   client.pragma('foreign_keys = ON');
   client.pragma('busy_timeout = 5000');
   client.pragma('synchronous = NORMAL');
-  const db = drizzle({ client, schema });
+  const db = immediateByDefault(drizzle({ client, schema }));
   migrate(db, { migrationsFolder });
+  return db;
+}
+
+/**
+ * Every transaction opened through `db.transaction` begins IMMEDIATE unless it asks otherwise: it takes the
+ * write lock at BEGIN, so a second connection (another worker process on the same file) waits its turn
+ * (busy_timeout) instead of failing half-way. A DEFERRED transaction that reads, then writes after another
+ * connection committed, fails with SQLITE_BUSY_SNAPSHOT, and waiting cannot save it
+ * (https://www.sqlite.org/lang_transaction.html, "Deferred, Immediate, and Exclusive Transactions").
+ * Nested calls are savepoints and take no lock of their own.
+ */
+function immediateByDefault(db: Db): Db {
+  const begin = db.transaction.bind(db);
+  db.transaction = ((run, config) => begin(run, { behavior: 'immediate', ...config })) as Db['transaction'];
   return db;
 }
 
