@@ -390,18 +390,39 @@ export const orderMessages = sqliteTable(
   (t) => [index('order_messages_order_idx').on(t.orderId, t.createdAt)],
 );
 
-/** E-mail kept by the local transport (the default when no SMTP_URL is set). */
+/**
+ * Every e-mail, written in the same transaction as the change it tells of. Without SMTP_URL it is only
+ * kept here (`kept`) for the development mailbox; with it, one sender sends it (`pending` → `sent`),
+ * retrying with backoff, and after the last try marks it `failed` for the shop to see.
+ */
 export const outbox = sqliteTable(
   'outbox',
   {
     id: text('id').primaryKey(),
+    /** The shop the mail is about, when there is one: its failures are shown to that shop. */
+    shopId: text('shop_id').references(() => shops.id, { onDelete: 'set null' }),
     to: text('to').notNull(),
     subject: text('subject').notNull(),
     text: text('text').notNull(),
     html: text('html').notNull(),
+    status: text('status', { enum: ['kept', 'pending', 'sent', 'failed'] })
+      .notNull()
+      .default('kept'),
+    attempts: integer('attempts').notNull().default(0),
+    /** When a pending mail may next be tried. */
+    nextAttemptAt: integer('next_attempt_at', { mode: 'timestamp_ms' }),
+    /** A sender's claim on a mail it is sending; after this time another sender may take it. */
+    claimedUntil: integer('claimed_until', { mode: 'timestamp_ms' }),
+    lastError: text('last_error'),
+    sentAt: integer('sent_at', { mode: 'timestamp_ms' }),
     createdAt: createdAt(),
   },
-  (t) => [index('outbox_created_idx').on(t.createdAt), index('outbox_to_created_idx').on(t.to, t.createdAt, t.id)],
+  (t) => [
+    index('outbox_created_idx').on(t.createdAt),
+    index('outbox_to_created_idx').on(t.to, t.createdAt, t.id),
+    index('outbox_due_idx').on(t.status, t.nextAttemptAt),
+    index('outbox_shop_status_idx').on(t.shopId, t.status, t.createdAt),
+  ],
 );
 
 /** The owner's page on a job: the builder's plain words about what failed (one row per job, written on first save). */

@@ -2,7 +2,7 @@ import type { Request } from 'express';
 import { fromNodeHeaders } from 'better-auth/node';
 
 import type { Db } from '@/db';
-import { isShopRole, roleAllows, type Permission, type ShopKind, type ShopRole } from '@/shared/roles';
+import { isShopRole, managesTeam, roleAllows, type Permission, type ShopKind, type ShopRole } from '@/shared/roles';
 
 import type { Auth } from './auth';
 import { forbidden, HttpError } from './http';
@@ -83,6 +83,13 @@ export async function requireMember(auth: Auth, db: Db, req: Request): Promise<I
   const row = membershipIn(db, signed.user.id, signed.activeShopId);
   if (!row || !isShopRole(row.role)) throw forbidden('You are no longer a member of this shop');
   return { ...signed, shop: { id: row.id, name: row.name, kind: row.kind }, role: row.role };
+}
+
+/** Whoever manages the shop's team and its mail: a builder of a repair shop, a grinder of a grinding shop. */
+export async function requireTeamManager(auth: Auth, db: Db, req: Request): Promise<InShop> {
+  const ctx = await requireMember(auth, db, req);
+  if (!managesTeam(ctx.shop.kind, ctx.role)) throw forbidden();
+  return ctx;
 }
 
 /** The person acting and their active shop, as the store takes them. */

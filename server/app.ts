@@ -28,6 +28,7 @@ import { paymentWebhook } from './routes/payment-webhook';
 import { photosRouter } from './routes/photos';
 import { profilesRouter } from './routes/profiles';
 import { sheetsRouter } from './routes/sheets';
+import { shopMailRouter } from './routes/shop-mail';
 import { teamRouter } from './routes/team';
 import { shopLimitsRouter } from './routes/shop-limits';
 import { pingDatabase } from './store/db';
@@ -105,7 +106,7 @@ export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLi
   app.use('/api/jobs', jobsRouter(deps, jobCreateRateLimit));
   app.use('/api', enginesRouter(deps), profilesRouter(deps), sheetsRouter(deps), calcRouter(deps, calcRateLimit));
   app.use('/api', measurementsRouter(deps), photosRouter(deps), checklistRouter(deps), shopLimitsRouter(deps), fitChecksRouter(deps));
-  app.use('/api', ordersRouter(deps), ownerPageDeskRouter(deps), ownerPageRouter(deps, shareRateLimit), teamRouter(deps));
+  app.use('/api', ordersRouter(deps), ownerPageDeskRouter(deps), ownerPageRouter(deps, shareRateLimit), teamRouter(deps), shopMailRouter(deps));
   if (devTools) app.use('/api', devOutboxRouter(deps));
   app.use('/api', (req, res) => sendError(res, new HttpError(404, 'not_found', `No API route ${req.method} ${req.path}`)));
 

@@ -4,6 +4,7 @@ import { demoSignInText } from '@/db/seed';
 import { createApp } from './app';
 import { loadDotEnv, readConfig } from './config';
 import { createMailer } from './mail';
+import { createMailSender } from './mail/sender';
 import { servicePayments, startLocalPayments } from './payments';
 import { defaultAuthRateLimit } from './security';
 import { demoAccountsWithPublishedPassword, hasDemoAccounts, sweepPartialUploads } from './startup';
@@ -11,7 +12,9 @@ import { demoAccountsWithPublishedPassword, hasDemoAccounts, sweepPartialUploads
 loadDotEnv();
 const config = readConfig();
 const db = openDb(config.databasePath);
-const mailer = createMailer({ db, smtpUrl: config.smtpUrl, from: config.mailFrom });
+const mailer = createMailer({ db, smtpUrl: config.smtpUrl });
+// With SMTP_URL, this process sends the queued mail (retrying with backoff); without it mail is only kept.
+const sender = config.smtpUrl ? createMailSender({ db, smtpUrl: config.smtpUrl, from: config.mailFrom }) : undefined;
 const authRateLimit = config.authRateLimit ? defaultAuthRateLimit : false;
 
 function fail(reason: string): never {
@@ -60,10 +63,12 @@ async function main() {
     );
     if (swept) console.log(`Removed ${swept} unfinished upload file(s) left by an interrupted request`);
     if (config.mode === 'demo' && hasDemoAccounts(db)) console.log(demoSignInText(config.baseURL));
+    sender?.start(mailer);
   });
 
   function shutdown() {
-    server.close(() => {
+    server.close(async () => {
+      await sender?.stop();
       void local?.service.close();
       db.$client.close();
       process.exit(0);

@@ -109,6 +109,17 @@ export type OrderDetail = Order & {
 };
 
 /** A stored e-mail in the local outbox (the default transport). */
+/** A mail about the shop that could not be sent after every try. */
+export type FailedMail = {
+  id: string;
+  to: string;
+  subject: string;
+  attempts: number;
+  /** What the mail server answered last. */
+  lastError: string;
+  createdAt: string;
+};
+
 export type OutboxMessage = {
   id: string;
   to: string;

@@ -1,5 +1,6 @@
 import { StyleSheet, Text, View } from 'react-native';
 
+import { MailFailures } from '@/components/account/mail-failures';
 import { LimitSettings } from '@/components/measure/limit-settings';
 import { ErrorNotice, Pending } from '@/components/ui/query-state';
 import { Screen, Section } from '@/components/ui/screen';
@@ -23,6 +24,11 @@ export function SettingsScreen() {
       {seesTeam ? (
         <Section title="Team">
           <TeamSettings />
+        </Section>
+      ) : null}
+      {seesTeam ? (
+        <Section title="Undelivered mail">
+          <MailFailures />
         </Section>
       ) : null}
       {seesLimits ? (

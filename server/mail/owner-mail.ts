@@ -1,10 +1,10 @@
 import { formatCents } from '@/constants/format';
 
-import type { Reader } from '../store/db';
+import type { Writer } from '../store/db';
 import { jobVehicle } from '../store/jobs';
 import { recipients } from '../store/team';
 import { composeMail } from './compose';
-import { mailEach, type Mailer, type MailMessage } from './index';
+import { queueEach, type Mailer, type MailMessage } from './index';
 
 /** The owner's page, opened from a share link. */
 export function shareUrl(publicUrl: string, token: string) {
@@ -66,10 +66,10 @@ export function ownerEventMail(kind: 'approved' | 'paid', to: Person, f: OwnerEv
   return composeMail({ to, ...content, action: "Open the job's owner page", link: ownerDeskUrl(f.publicUrl, f.jobId), footer: 'Sent by Lobewright for your shop.' });
 }
 
-type BuilderMailDeps = { db: Reader; mailer: Mailer; publicUrl: string };
+type BuilderMailDeps = { mailer: Mailer; publicUrl: string };
 
-/** Mails every builder of the shop about the owner's approval or payment; a failure is logged and never undoes the write. */
-export async function mailBuilders({ db, mailer, publicUrl }: BuilderMailDeps, kind: 'approved' | 'paid', jobId: string, shopId: string, facts: Omit<OwnerEventFacts, 'publicUrl' | 'jobId' | 'vehicle'>) {
-  const vehicle = jobVehicle(db, jobId) ?? 'vehicle';
-  await mailEach(mailer, recipients(db, shopId, 'builder'), (person) => ownerEventMail(kind, person, { ...facts, publicUrl, jobId, vehicle }), `Job ${jobId}, ${kind} mail`);
+/** Queues mail to every builder of the shop about the owner's approval or payment, in the transaction that recorded it. */
+export function queueBuilderMail(tx: Writer, { mailer, publicUrl }: BuilderMailDeps, kind: 'approved' | 'paid', jobId: string, shopId: string, facts: Omit<OwnerEventFacts, 'publicUrl' | 'jobId' | 'vehicle'>) {
+  const vehicle = jobVehicle(tx, jobId) ?? 'vehicle';
+  queueEach(mailer, tx, recipients(tx, shopId, 'builder'), (person) => ownerEventMail(kind, person, { ...facts, publicUrl, jobId, vehicle }), shopId);
 }

@@ -10,7 +10,7 @@ import type { Payment } from '@/shared/owner';
 
 import type { AppDeps } from '../deps';
 import { conflict, HttpError, notFound } from '../http';
-import { mailBuilders } from '../mail/owner-mail';
+import { queueBuilderMail } from '../mail/owner-mail';
 import { loadApproval } from '../store/owner-page';
 import {
   dropReservation,
@@ -22,8 +22,10 @@ import {
   storeSession,
   toPayment,
   type PaymentRow,
+  type SessionFacts,
   type Settled,
 } from '../store/payments';
+import type { Writer } from '../store/db';
 import type { LinkRow } from '../store/share-links';
 import type { Payments } from './index';
 
@@ -69,10 +71,13 @@ async function refundSecond({ db, payments }: Pick<AppDeps, 'db' | 'payments'>, 
   }
 }
 
-async function tellBuildersPaid(deps: DepositDeps, payment: PaymentRow) {
-  const approval = loadApproval(deps.db, payment.jobId);
+/** Inside the settling transaction: a new payment queues the builders' mail, so it commits with the payment. */
+export function queuePaidMail(tx: Writer, deps: Pick<DepositDeps, 'mailer' | 'publicUrl'>, settled: Settled) {
+  if (settled.kind !== 'paid') return;
+  const { payment } = settled;
+  const approval = loadApproval(tx, payment.jobId);
   if (!approval) return;
-  await mailBuilders(deps, 'paid', payment.jobId, payment.shopId, {
+  queueBuilderMail(tx, deps, 'paid', payment.jobId, payment.shopId, {
     optionTitle: approval.optionTitle,
     approverName: approval.approverName,
     checksum: approval.checksum,
@@ -81,10 +86,18 @@ async function tellBuildersPaid(deps: DepositDeps, payment: PaymentRow) {
   });
 }
 
-/** After the settling transaction commits: tell the builders of a new payment, or refund a second one. */
+/** After the settling transaction commits: a second payment is refunded through the payment service. */
 export async function afterSettled(deps: DepositDeps, settled: Settled) {
-  if (settled.kind === 'paid') await tellBuildersPaid(deps, settled.payment);
   if (settled.kind === 'refund') await refundSecond(deps, settled.payment);
+}
+
+/** Settles a paid session the owner came back from, with the builders' mail, in one transaction. */
+function settleReturn(deps: DepositDeps, session: SessionFacts) {
+  return deps.db.transaction((tx) => {
+    const settled = settlePaid(tx, session, 'return');
+    queuePaidMail(tx, deps, settled);
+    return settled;
+  });
 }
 
 /**
@@ -105,7 +118,7 @@ export async function startDeposit(deps: DepositDeps, link: LinkRow, returnUrl: 
     const session = await service.stripe.checkout.sessions.retrieve(step.payment.checkoutSessionId!);
     if (session.status === 'open' && session.url) return { url: session.url, created: false };
     if (session.status === 'complete' && session.payment_status === 'paid') {
-      const settled = db.transaction((tx) => settlePaid(tx, session, 'return'));
+      const settled = settleReturn(deps, session);
       await afterSettled(deps, settled);
       throw conflict('The deposit is already paid');
     }
@@ -124,7 +137,7 @@ export async function confirmDeposit(deps: DepositDeps, link: LinkRow, sessionId
   if (known.state === 'open' || known.state === 'expired') {
     const session = await service.stripe.checkout.sessions.retrieve(sessionId);
     if (session.payment_status === 'paid') {
-      const settled = db.transaction((tx) => settlePaid(tx, session, 'return'));
+      const settled = settleReturn(deps, session);
       if (settled.payment) payment = toPayment(settled.payment);
       await afterSettled(deps, settled);
     }

@@ -5,10 +5,11 @@ import { issueSchema, messageSchema, orderMoveSchema, type Order } from '@/share
 import { actorOf, requireMember, requireShopRole } from '../access';
 import type { AppDeps } from '../deps';
 import { forbidden, parse } from '../http';
-import { mailEach } from '../mail';
+import { queueEach } from '../mail';
 import { orderMail, type OrderMailFacts, type OrderMailKind } from '../mail/order-mail';
 import { pageRequest, toPage } from '../paging';
 import { addOrderMessage, grindingShops, incomingRows, issueSheet, loadDetail, loadMessages, moveOrder, requireOrder, sheetOrders } from '../store/orders';
+import type { Writer } from '../store/db';
 import { recipients } from '../store/team';
 
 /**
@@ -18,9 +19,10 @@ import { recipients } from '../store/team';
 export function ordersRouter({ db, auth, mailer, publicUrl }: AppDeps) {
   const router = Router();
 
-  /** Sends order mail after the write has committed; a mail failure is logged, never undoes the move. */
-  async function mail(kind: OrderMailKind, order: Order, extra: Pick<OrderMailFacts, 'message'> = {}) {
-    const to = kind === 'issued' ? recipients(db, order.grinderShop.id, 'grinder') : recipients(db, order.repairShop.id, 'builder');
+  /** Queues order mail in the transaction of the move it tells of: to the grinders on issue, else to the builders. */
+  function queueOrderMail(tx: Writer, kind: OrderMailKind, order: Order, extra: Pick<OrderMailFacts, 'message'> = {}) {
+    const shop = kind === 'issued' ? order.grinderShop : order.repairShop;
+    const to = recipients(tx, shop.id, kind === 'issued' ? 'grinder' : 'builder');
     const facts: OrderMailFacts = {
       orderId: order.id,
       publicUrl,
@@ -33,7 +35,7 @@ export function ordersRouter({ db, auth, mailer, publicUrl }: AppDeps) {
       shipping: order.shipping,
       ...extra,
     };
-    await mailEach(mailer, to, (person) => orderMail(kind, person, facts), `Order ${order.id}, ${kind} mail`);
+    queueEach(mailer, tx, to, (person) => orderMail(kind, person, facts), shop.id);
   }
 
   router.get('/grinding-shops', async (req, res) => {
@@ -44,8 +46,7 @@ export function ordersRouter({ db, auth, mailer, publicUrl }: AppDeps) {
   router.post('/sheets/:id/issue', async (req, res) => {
     const body = parse(issueSchema, req.body);
     const ctx = await requireShopRole(auth, db, req, { sheet: ['issue'] });
-    const order = issueSheet(db, actorOf(ctx), req.params.id, body);
-    await mail('issued', order, { message: body.note || null });
+    const order = issueSheet(db, actorOf(ctx), req.params.id, body, (tx, issued) => queueOrderMail(tx, 'issued', issued, { message: body.note || null }));
     res.status(201).json({ order });
   });
 
@@ -71,10 +72,10 @@ export function ordersRouter({ db, auth, mailer, publicUrl }: AppDeps) {
   router.post('/orders/:id/move', async (req, res) => {
     const body = parse(orderMoveSchema, req.body);
     const ctx = await requireMember(auth, db, req);
-    const { order, message } = moveOrder(db, ctx, req.params.id, body);
-    if (order.stage === 'quoted' || order.stage === 'changes-asked' || order.stage === 'shipped') {
-      await mail(order.stage, order, { message });
-    }
+    const { order } = moveOrder(db, ctx, req.params.id, body, (tx, moved) => {
+      const { stage } = moved.order;
+      if (stage === 'quoted' || stage === 'changes-asked' || stage === 'shipped') queueOrderMail(tx, stage, moved.order, { message: moved.message });
+    });
     res.json({ order: loadDetail(db, order) });
   });
 

@@ -7,8 +7,8 @@ import { approveSchema, depositConfirmSchema, ownerOptionCreateSchema, ownerOpti
 import { actorOf, requireShopRole } from '../access';
 import type { AppDeps } from '../deps';
 import { notFound, parse } from '../http';
-import { mailEach } from '../mail';
-import { mailBuilders, shareLinkMail, shareUrl } from '../mail/owner-mail';
+import { queueEach } from '../mail';
+import { queueBuilderMail, shareLinkMail, shareUrl } from '../mail/owner-mail';
 import { pageRequest } from '../paging';
 import { confirmDeposit, requirePayments, startDeposit } from '../payments/deposits';
 import { requireJob } from '../store/jobs';
@@ -67,10 +67,13 @@ export function ownerPageDeskRouter({ db, auth, mailer, publicUrl }: AppDeps) {
   router.post('/jobs/:jobId/share-links', async (req, res) => {
     const body = parse(shareLinkCreateSchema, req.body);
     const ctx = await requireShopRole(auth, db, req, { job: ['update'] });
-    const { link, token, expiresAt, vehicle } = createShareLink(db, actorOf(ctx), req.params.jobId, body);
-    const url = shareUrl(publicUrl, token);
     const to = body.email ? [{ email: body.email, name: 'vehicle owner' }] : [];
-    const emailed = (await mailEach(mailer, to, (person) => shareLinkMail(person, { shopName: ctx.shop.name, vehicle, url, expiresAt }), `Share link ${link.id}`)) > 0;
+    // The mail to the owner commits with the link or not at all.
+    const { link, token } = createShareLink(db, actorOf(ctx), req.params.jobId, body, (tx, made) =>
+      queueEach(mailer, tx, to, (person) => shareLinkMail(person, { shopName: ctx.shop.name, vehicle: made.vehicle, url: shareUrl(publicUrl, made.token), expiresAt: made.expiresAt }), ctx.shop.id),
+    );
+    const url = shareUrl(publicUrl, token);
+    const emailed = to.length > 0;
     // The token is shown this once; only its hash is kept.
     res.status(201).json({ link, token, url, emailed });
   });
@@ -160,8 +163,9 @@ function mountOwnerRoutes(router: Router, at: string, resolve: Resolve, deps: Ap
     const body = parse(approveSchema, req.body);
     // Resolve first (it may read the session); the checks and the write then share one transaction.
     const resolved = await resolve(req);
-    const approval = approveOption(db, resolved.link.id, resolved.userId ?? null, deps.currency, body);
-    await mailBuilders(deps, 'approved', approval.jobId, approval.shopId, { optionTitle: approval.optionTitle, approverName: approval.approverName, checksum: approval.checksum });
+    const approval = approveOption(db, resolved.link.id, resolved.userId ?? null, deps.currency, body, (tx, row) =>
+      queueBuilderMail(tx, deps, 'approved', row.jobId, row.shopId, { optionTitle: row.optionTitle, approverName: row.approverName, checksum: row.checksum }),
+    );
     res.status(201).json({ approval: toApproval(approval) });
   });
 

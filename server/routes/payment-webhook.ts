@@ -3,7 +3,7 @@ import { z } from 'zod';
 
 import type { AppDeps } from '../deps';
 import { HttpError, parse } from '../http';
-import { afterSettled } from '../payments/deposits';
+import { afterSettled, queuePaidMail } from '../payments/deposits';
 import { recordPaymentEvent } from '../store/payments';
 
 /**
@@ -62,7 +62,7 @@ export function paymentWebhook(deps: AppDeps) {
       throw new HttpError(400, 'bad_signature', 'The event signature does not match', { 'stripe-signature': 'Signature does not match the body' });
     }
     const event = readEvent(verified);
-    const outcome = recordPaymentEvent(db, event);
+    const outcome = recordPaymentEvent(db, event, (tx, settled) => queuePaidMail(tx, deps, settled));
     if (outcome.duplicate) return void res.json({ received: true, duplicate: true });
     const { settled } = outcome;
     if (settled.kind === 'refused') {

@@ -2,10 +2,10 @@ import { Router, type Request } from 'express';
 import { isAPIError } from 'better-auth/api';
 import { fromNodeHeaders } from 'better-auth/node';
 
-import { isStaffRole, managesTeam, roleLabels, staffRoles, type ShopKind, type ShopRole } from '@/shared/roles';
+import { isStaffRole, roleLabels, staffRoles, type ShopKind, type ShopRole } from '@/shared/roles';
 import { inviteSchema, memberRoleSchema } from '@/shared/team';
 
-import { requireMember, requireSignedIn } from '../access';
+import { requireSignedIn, requireTeamManager } from '../access';
 import type { AppDeps } from '../deps';
 import { forbidden, HttpError, parse } from '../http';
 import { audit } from '../store/audit';
@@ -42,12 +42,7 @@ function requireStaffRole(kind: ShopKind, role: ShopRole) {
 export function teamRouter({ db, auth }: AppDeps) {
   const router = Router();
   const headersOf = (req: Request) => fromNodeHeaders(req.headers);
-  /** A builder of a repair shop or a grinder of a grinding shop: whoever manages the team. */
-  const manager = async (req: Request) => {
-    const ctx = await requireMember(auth, db, req);
-    if (!managesTeam(ctx.shop.kind, ctx.role)) throw forbidden();
-    return ctx;
-  };
+  const manager = (req: Request) => requireTeamManager(auth, db, req);
 
   router.get('/shop/team', async (req, res) => {
     const ctx = await manager(req);

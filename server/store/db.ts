@@ -5,6 +5,12 @@ export type Reader = Pick<Db, 'select'>;
 /** A transaction's (or the handle's) reads and writes. */
 export type Writer = Pick<Db, 'select' | 'insert' | 'update' | 'delete'>;
 
+/**
+ * Runs inside a write's transaction, after the write: what must commit with it or not at all (a route's
+ * mail goes to the outbox this way).
+ */
+export type AfterWrite<T> = (tx: Writer, written: T) => void;
+
 /** Who writes, in which shop: the scope of every shop record and the audit row's who. */
 export type Actor = { shopId: string; userId: string };
 

@@ -21,7 +21,7 @@ import { roleAllows, type ShopKind, type ShopRole } from '@/shared/roles';
 import { conflict, forbidden, HttpError, notFound } from '../http';
 import type { PageRequest } from '../paging';
 import { audit } from './audit';
-import type { Actor, Reader } from './db';
+import type { Actor, AfterWrite, Reader } from './db';
 import { latestRevisionRow, toRevision } from './sheets';
 
 type Side = 'builder' | 'grinder';
@@ -198,7 +198,7 @@ export function incomingRows(db: Reader, grinderShopId: string, page: PageReques
  * Issues the sheet's latest draft revision to a grinding shop: one UPDATE flips it to issued, and
  * the order starts at `sent` with the note as the thread's first message, audited on the sheet and the order.
  */
-export function issueSheet(db: Db, who: Actor, sheetId: string, body: z.output<typeof issueSchema>): Order {
+export function issueSheet(db: Db, who: Actor, sheetId: string, body: z.output<typeof issueSchema>, after?: AfterWrite<Order>): Order {
   return db.transaction((tx) => {
     const sheet = tx
       .select()
@@ -278,12 +278,19 @@ export function issueSheet(db: Db, who: Actor, sheetId: string, body: z.output<t
     });
     const [created] = selectOrders(tx, eq(schema.grindOrders.id, id));
     if (!created) throw new Error(`Order ${id} was not written`);
+    after?.(tx, created);
     return created;
   });
 }
 
 /** Moves an order one stage on `orderMoves`, by the side allowed to, with the move's own field. */
-export function moveOrder(db: Db, who: OrderViewer, id: string, body: z.output<typeof orderMoveSchema>): { order: Order; message: string | null } {
+export function moveOrder(
+  db: Db,
+  who: OrderViewer,
+  id: string,
+  body: z.output<typeof orderMoveSchema>,
+  after?: AfterWrite<{ order: Order; message: string | null }>,
+): { order: Order; message: string | null } {
   return db.transaction((tx) => {
     const { order: current, side: viewSide } = requireOrder(tx, who, id);
     // Reading is wider than moving: a tech sees the order but moves nothing.
@@ -342,7 +349,9 @@ export function moveOrder(db: Db, who: OrderViewer, id: string, body: z.output<t
     });
     const [updated] = selectOrders(tx, eq(schema.grindOrders.id, id));
     if (!updated) throw new Error(`Order ${id} vanished`);
-    return { order: updated, message: body.message ?? null };
+    const answer = { order: updated, message: body.message ?? null };
+    after?.(tx, answer);
+    return answer;
   });
 }
 

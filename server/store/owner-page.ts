@@ -13,7 +13,7 @@ import type { Approval, approveSchema, OwnerDesk, OwnerOption, ownerOptionCreate
 import { conflict, HttpError, notFound } from '../http';
 import { toPage, type PageRequest } from '../paging';
 import { audit } from './audit';
-import type { Actor, Reader } from './db';
+import type { Actor, AfterWrite, Reader } from './db';
 import { requireJob } from './jobs';
 import { jobPayments, paidJobIds, toPayment } from './payments';
 import { shareablePhotos } from './photos';
@@ -302,7 +302,7 @@ export function deleteOption(db: Db, who: Actor, id: string): OwnerDesk {
  * The owner approves one option through an open link: the checksum and offer they read must still be
  * the option's (a 409 if the builder changed it since); one approval per job, with its audit row.
  */
-export function approveOption(db: Db, linkId: string, userId: string | null, currency: string, body: z.output<typeof approveSchema>): ApprovalRow {
+export function approveOption(db: Db, linkId: string, userId: string | null, currency: string, body: z.output<typeof approveSchema>, after?: AfterWrite<ApprovalRow>): ApprovalRow {
   return db.transaction((tx) => {
     const link = linkById(tx, linkId);
     if (!linkOpen(link)) throw linkGone();
@@ -339,6 +339,7 @@ export function approveOption(db: Db, linkId: string, userId: string | null, cur
       .returning()
       .get();
     audit(tx, { shopId: link.shopId, userId, action: 'approve', entity: 'owner-approval', entityId: row.id, detail: { jobId: link.jobId, optionId: option.id, checksum: option.checksum, offer, name: body.name, shareLinkId: link.id } });
+    after?.(tx, row);
     return row;
   });
 }

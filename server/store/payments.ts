@@ -6,7 +6,7 @@ import type { Payment } from '@/shared/owner';
 
 import { conflict } from '../http';
 import { audit } from './audit';
-import type { Reader, Writer } from './db';
+import type { AfterWrite, Reader, Writer } from './db';
 import { loadApproval } from './owner-page';
 import type { LinkRow } from './share-links';
 
@@ -160,13 +160,18 @@ export function markRefunded(db: Db, payment: PaymentRow, refundId: string) {
  * One webhook event in one transaction: its id is recorded first (a replay changes nothing and
  * says so), a paid session is settled, and the event keeps what it did.
  */
-export function recordPaymentEvent(db: Db, event: { id: string; type: string; session?: SessionFacts & { payment_status: string } }): { duplicate: true } | { duplicate: false; settled: Settled } {
+export function recordPaymentEvent(
+  db: Db,
+  event: { id: string; type: string; session?: SessionFacts & { payment_status: string } },
+  after?: AfterWrite<Settled>,
+): { duplicate: true } | { duplicate: false; settled: Settled } {
   return db.transaction((tx) => {
     const fresh = tx.insert(schema.paymentEvents).values({ id: event.id, type: event.type }).onConflictDoNothing().run();
     if (fresh.changes === 0) return { duplicate: true as const };
     const settled: Settled = event.session?.payment_status === 'paid' ? settlePaid(tx, event.session, 'webhook') : { kind: 'unknown' };
     const recorded = event.session?.payment_status === 'paid' ? settled.kind : 'ignored';
     tx.update(schema.paymentEvents).set({ outcome: recorded }).where(eq(schema.paymentEvents.id, event.id)).run();
+    after?.(tx, settled);
     return { duplicate: false as const, settled };
   });
 }

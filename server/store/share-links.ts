@@ -8,7 +8,7 @@ import { shareLinkLimits, type ShareLink } from '@/shared/owner';
 
 import { conflict, notFound } from '../http';
 import { audit } from './audit';
-import type { Actor, Reader } from './db';
+import type { Actor, AfterWrite, Reader } from './db';
 import { jobVehicle, requireJob } from './jobs';
 
 export type LinkRow = typeof schema.shareLinks.$inferSelect;
@@ -101,8 +101,11 @@ function inviteOwner(tx: Pick<Db, 'select' | 'insert'>, shopId: string, inviterI
   tx.insert(schema.invitations).values({ id: crypto.randomUUID(), organizationId: shopId, email, role: 'customer', status: 'pending', expiresAt, inviterId }).run();
 }
 
+/** A new link, with its token (shown this once; only its hash is kept). */
+export type CreatedShareLink = { link: ShareLink; token: string; expiresAt: Date; vehicle: string };
+
 /** A new link to the job's owner page (the job must offer an option), inviting the address it is mailed to. */
-export function createShareLink(db: Db, who: Actor, jobId: string, body: { email?: string | null; expiresInDays: number }) {
+export function createShareLink(db: Db, who: Actor, jobId: string, body: { email?: string | null; expiresInDays: number }, after?: AfterWrite<CreatedShareLink>): CreatedShareLink {
   return db.transaction((tx) => {
     requireJob(tx, who.shopId, jobId);
     const hasOptions = tx.select({ id: schema.ownerOptions.id }).from(schema.ownerOptions).where(eq(schema.ownerOptions.jobId, jobId)).get();
@@ -111,7 +114,9 @@ export function createShareLink(db: Db, who: Actor, jobId: string, body: { email
     const { row } = made;
     audit(tx, { shopId: who.shopId, userId: who.userId, action: 'create', entity: 'share-link', entityId: row.id, detail: { jobId, expiresAt: row.expiresAt.toISOString(), emailed: Boolean(body.email) } });
     if (body.email) inviteOwner(tx, who.shopId, who.userId, body.email, row.expiresAt);
-    return { link: toShareLink(row), token: made.token, expiresAt: row.expiresAt, vehicle: jobVehicle(tx, jobId) ?? '' };
+    const created = { link: toShareLink(row), token: made.token, expiresAt: row.expiresAt, vehicle: jobVehicle(tx, jobId) ?? '' };
+    after?.(tx, created);
+    return created;
   });
 }
 

@@ -204,6 +204,9 @@ export const matrix: Record<string, MatrixRow> = {
   'DELETE /api/shop/invitations/:id': { allow: builderA, params: (w) => ({ id: w.a.pendingInvitationId }) },
   'PATCH /api/shop/members/:id': { allow: builderA, params: (w) => ({ id: w.a.techMemberId }), body: () => ({ role: 'builder' }) },
   'DELETE /api/shop/members/:id': { allow: builderA, params: (w) => ({ id: w.a.techMemberId }) },
+  // Mail about the shop that failed after every try: its team manager sees it and sends it again.
+  'GET /api/shop/mail-failures': { allow: teamManagers },
+  'POST /api/shop/mail-failures/:id/retry': { allow: builderA, params: (w) => ({ id: w.a.failedMailId }) },
   // An invitation, as the person it was sent to opens it.
   'GET /api/invitations/:id': { allow: ['B.tech'], params: bTechInvitation, showsEveryone: invitedSees },
   'POST /api/invitations/:id/accept': { allow: ['B.tech'], params: bTechInvitation, showsEveryone: invitedSees, changesShopA: 'accepting makes B\'s tech a member of A, as A asked' },

@@ -17,6 +17,7 @@ import {
   memberWithRole,
   type TestApp,
 } from '@/tests/fixtures';
+import { markMailFailedTry, queueMail } from '@/server/store/outbox';
 
 /** Everyone the matrix calls as: nobody, each role of the owning repair shop A and of repair shop B, and two grinding shops. */
 export const actors = [
@@ -95,6 +96,8 @@ export type World = {
     pendingInvitationId: string;
     /** An invitation to A sent to B's tech, who opens, accepts or declines it. */
     bTechInvitationId: string;
+    /** A mail about A that failed after every try (what its builder sees and sends again). */
+    failedMailId: string;
   };
   b: { shopId: string };
   g1: { shopId: string };
@@ -231,6 +234,8 @@ export async function buildWorld(): Promise<World> {
   const outbox = await builder.get('/api/dev/outbox');
   expectStatus(outbox, 200, 'outbox');
   const team = await teamOf(builder, bTech);
+  const failedMailId = queueMail(t.db, { to: aCustomer.email, subject: 'Undelivered test mail', text: 'Plain', html: '<p>Marked</p>' }, 'pending', a.shopId);
+  markMailFailedTry(t.db, failedMailId, '550 mailbox unavailable', null);
 
   const ids = {
     shopId: a.shopId,
@@ -253,6 +258,7 @@ export async function buildWorld(): Promise<World> {
     ...owner,
     ...paid,
     ...team,
+    failedMailId,
   };
 
   const markers: Marker[] = [
