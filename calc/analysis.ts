@@ -37,7 +37,7 @@ import {
   createCurveBuffers,
   createLobeTable,
   CYCLE_GRID,
-  lobeLawInto,
+  fillTurnLiftRaw,
   lobeTableRaw,
   LOBE_LAW,
   offsetAtLiftRaw,
@@ -401,6 +401,17 @@ for (let j = 0; j <= HALF_STEPS; j++) {
   COS[j] = Math.cos(j * CURVE_STEP_DEG * RAD_PER_DEG);
 }
 const FULL_TURN = 2 * HALF_STEPS;
+// sin θ·cos θ, sin²θ and cos²θ − sin²θ on the same half turn
+const SIN_COS = new Float64Array(HALF_STEPS + 1);
+const SIN2 = new Float64Array(HALF_STEPS + 1);
+const COS2_SIN2 = new Float64Array(HALF_STEPS + 1);
+for (let j = 0; j <= HALF_STEPS; j++) {
+  const s = SIN[j] ?? 0;
+  const c = COS[j] ?? 0;
+  SIN_COS[j] = s * c;
+  SIN2[j] = s * s;
+  COS2_SIN2[j] = c * c - s * s;
+}
 
 /** Unchecked: exact slider-crank depth, velocity and acceleration on CYCLE_GRID. */
 function samplePistonCycleRaw(stroke: number, rodLength: number, out: PistonCurve): PistonCurve {
@@ -415,14 +426,15 @@ function samplePistonCycleRaw(stroke: number, rodLength: number, out: PistonCurv
   if (step !== CURVE_STEP_DEG || zero !== FULL_TURN || count !== 2 * FULL_TURN + 1) {
     throw new RangeError('samplePistonCycleRaw needs the cycle grid');
   }
+  const r4 = r2 * r2;
   for (let j = 0; j <= HALF_STEPS; j++) {
-    const s = SIN[j] ?? 0;
-    const c = COS[j] ?? 0;
-    const q = Math.sqrt(l2 - r2 * s * s);
+    const sc = SIN_COS[j] ?? 0;
+    const q = Math.sqrt(l2 - r2 * (SIN2[j] ?? 0));
+    const iq = 1 / q;
     const i = zero + j;
-    depth[i] = rodLength + r - r * c - q;
-    velocity[i] = (r * s + (r2 * s * c) / q) * k1;
-    acceleration[i] = (r * c + (r2 * (c * c - s * s)) / q + (r2 * r2 * s * s * c * c) / (q * q * q)) * k2;
+    depth[i] = rodLength + r - r * (COS[j] ?? 0) - q;
+    velocity[i] = (r * (SIN[j] ?? 0) + r2 * sc * iq) * k1;
+    acceleration[i] = (r * (COS[j] ?? 0) + r2 * (COS2_SIN2[j] ?? 0) * iq + r4 * sc * sc * iq * iq * iq) * k2;
   }
   // 180..360°: depth and acceleration are even about 180°, velocity odd.
   for (let m = HALF_STEPS + 1; m <= FULL_TURN && zero + m < count; m++) {
@@ -495,28 +507,6 @@ export const CAM_GRID: CurveGrid = { start: -180, step: 1, count: 360 };
 const CAM_CENTRE = 180;
 /** Crank degrees per cam degree. */
 const CRANK_PER_CAM = 2;
-
-/**
- * Unchecked: tappet lift (inches) of a lobe on CAM_GRID, where index j lies
- * j − 180 + shift cam degrees from the lobe's centre, wrapping round the turn.
- */
-function fillCamLift(shape: LobeShape, shift: number, lift: Float64Array): void {
-  const count = CAM_GRID.count;
-  lift.fill(0);
-  const halfCam = shape.halfEvent / CRANK_PER_CAM;
-  const invPhi = 1 / shape.halfEvent;
-  const L = shape.lobeLift;
-  const k = shape.warpScale;
-  const from = Math.ceil(CAM_CENTRE - shift - halfCam);
-  const to = Math.floor(CAM_CENTRE - shift + halfCam);
-  for (let j = from; j <= to; j++) {
-    const d = j - CAM_CENTRE + shift;
-    const u = d < 0 ? -d : d;
-    if (u >= halfCam) continue;
-    const i = j < 0 ? j + count : j >= count ? j - count : j;
-    lobeLawInto(k, CRANK_PER_CAM * u * invPhi, L, 0, 0, lift, null, null, i);
-  }
-}
 
 /**
  * The candidate lobe's flank as cam geometry reads it: `reach` cam degrees
@@ -786,7 +776,7 @@ function lobeGeometry(
     const coreLift = ws.coreLift[name];
     // index j is j − 180 cam degrees from the candidate's centre, so centreCam − coreCentre + j − 180 from the core's
     const phase = centreCam - coreCentre;
-    fillCamLift(coreLobe, phase, coreLift);
+    fillTurnLiftRaw(coreLobe, CAM_CENTRE - phase, CRANK_PER_CAM * CAM_GRID.step, coreLift);
     const margin = name === 'intake' ? ws.marginIntake : ws.marginExhaust;
     const { lift: tl, count: tn, stride } = flank;
     let minMargin = Infinity;

@@ -147,18 +147,20 @@ export function lobeLawInto(
   acceleration: Float64Array | null,
   j: number,
 ): void {
-  const m = 1 - psi * psi;
+  const p2 = psi * psi;
+  const m = 1 - p2;
   const km1 = k - 1;
   const iD = 1 / (1 + km1 * m);
-  const g = k * m * iD;
+  const q = k * iD;
+  const g = m * q;
   const g2 = g * g;
   lift[j] = liftScale * g2 * g;
   if (velocity === null || acceleration === null) return;
-  const gm = k * iD * iD; // dg/dm
-  const gp = -2 * psi * gm; // dg/dψ
-  const gpp = -8 * k * km1 * psi * psi * iD * iD * iD - 2 * gm; // d²g/dψ²
-  velocity[j] = velocityScale * 3 * g2 * gp;
-  acceleration[j] = accelerationScale * (6 * g * gp * gp + 3 * g2 * gpp);
+  // g′(m) = k/(1 + (k − 1)m)², g″(m) = −2k(k − 1)/(1 + (k − 1)m)³, and with dm/dψ = −2ψ:
+  // dG/dψ = 3g²·g′·(−2ψ),  d²G/dψ² = 6g·g′·(4ψ²·g′ − g·(1 + 4(k − 1)ψ²/(1 + (k − 1)m)))
+  const gm = q * iD;
+  velocity[j] = velocityScale * (-6 * psi * g2 * gm);
+  acceleration[j] = accelerationScale * (6 * g * gm * (4 * p2 * gm - g * (1 + 4 * km1 * p2 * iD)));
 }
 
 // Scratch for scalar evaluations (typed arrays keep doubles unboxed: no allocation in hot loops).
@@ -241,6 +243,21 @@ function lobePeaks(k: number): { accel: number; accelPsi: number; speed: number;
   return { accel, accelPsi, speed: -(K1[0] ?? 0), speedPsi: x };
 }
 
+/** The sheet's numbers in words, for refusals. */
+function sheetWords(spec: LobeSpec): string {
+  return `${spec.advertisedDuration}° at ${spec.advertisedHeight} in beside ${spec.duration050}° at 0.050 in for a ${spec.lobeLift} in lobe`;
+}
+
+/** The refusal when the advertised duration is too long for the difference in height. */
+function rampTooLong(spec: LobeSpec, prefix: string | undefined): CalcInputError {
+  return new CalcInputError(
+    fieldPath(prefix, 'advertisedDuration'),
+    `${sheetWords(spec)}: the advertised duration is too long for the difference in height (the ramp would pass ${RAMP_MAX}°), ` +
+      `so no smooth lobe fits. Check advertisedDuration, duration050 and advertisedHeight`,
+    spec.advertisedDuration,
+  );
+}
+
 /** Unchecked kernel of synthesizeLobe; throws CalcInputError when no smooth lobe fits. */
 export function synthesizeLobeRaw(spec: LobeSpec, prefix?: string): LobeShape {
   const { duration050, advertisedDuration, advertisedHeight, lobeLift } = spec;
@@ -249,23 +266,15 @@ export function synthesizeLobeRaw(spec: LobeSpec, prefix?: string): LobeShape {
   const c1 = 1 - Math.cbrt(advertisedHeight / lobeLift);
   const c2 = 1 - Math.cbrt(CHECKING_HEIGHT_050 / lobeLift);
   const e = Math.exp(logit(c1) - logit(c2));
-  const where = (): string => `${advertisedDuration}° at ${advertisedHeight} in beside ${duration050}° at 0.050 in for a ${lobeLift} in lobe`;
-  const tooLong = (): CalcInputError =>
-    new CalcInputError(
-      fieldPath(prefix, 'advertisedDuration'),
-      `${where()}: the advertised duration is too long for the difference in height (the ramp would pass ${RAMP_MAX}°), ` +
-        `so no smooth lobe fits. Check advertisedDuration, duration050 and advertisedHeight`,
-      advertisedDuration,
-    );
-  if (!(e * b * b > a * a)) throw tooLong();
+  if (!(e * b * b > a * a)) throw rampTooLong(spec, prefix);
   const phi2 = (a * a * b * b * (e - 1)) / (e * b * b - a * a);
   const halfEvent = Math.sqrt(phi2);
-  if (!(halfEvent - a <= RAMP_MAX)) throw tooLong();
+  if (!(halfEvent - a <= RAMP_MAX)) throw rampTooLong(spec, prefix);
   const k = Math.exp(logit((a * a) / phi2) - logit(c1));
   if (!(k <= WARP_MAX)) {
     throw new CalcInputError(
       fieldPath(prefix, 'advertisedDuration'),
-      `${where()}: advertisedDuration and duration050 are too close for the difference in height, ` +
+      `${sheetWords(spec)}: advertisedDuration and duration050 are too close for the difference in height, ` +
         `so the lobe would need its hardest deceleration on the flanks instead of at the nose. Check both durations and advertisedHeight`,
       advertisedDuration,
     );
@@ -278,7 +287,7 @@ export function synthesizeLobeRaw(spec: LobeSpec, prefix?: string): LobeShape {
     const worst = Math.max(peakAcceleration, -peakDeceleration);
     throw new CalcInputError(
       fieldPath(prefix, 'lobeLift'),
-      `${where()}: the lobe would need ${worst.toExponential(2)} in/crank°² of tappet acceleration, past the ` +
+      `${sheetWords(spec)}: the lobe would need ${worst.toExponential(2)} in/crank°² of tappet acceleration, past the ` +
         `${LOBE_ACCELERATION_MAX} in/crank°² a real lobe stays under. Check lobeLift, duration050 and advertisedDuration`,
       lobeLift,
     );
@@ -471,6 +480,29 @@ export function lobeTableRaw(shape: LobeShape, step: number, count: number, tabl
   return fillLobeTableRaw(shape, step, count, table);
 }
 
+/**
+ * Unchecked: tappet lift (inches) of a lobe sampled round one whole turn of
+ * `lift.length` samples, `crankStep` crank degrees apart, with its centre at
+ * (fractional) index `centre`; the event wraps past the ends.
+ */
+export function fillTurnLiftRaw(shape: LobeShape, centre: number, crankStep: number, lift: Float64Array): void {
+  const count = lift.length;
+  lift.fill(0);
+  const half = shape.halfEvent / crankStep; // samples from the centre to the seat
+  const invPhi = 1 / shape.halfEvent;
+  const L = shape.lobeLift;
+  const k = shape.warpScale;
+  const from = Math.ceil(centre - half);
+  const to = Math.floor(centre + half);
+  for (let j = from; j <= to; j++) {
+    const d = j - centre;
+    const u = d < 0 ? -d : d;
+    if (u >= half) continue;
+    const i = j < 0 ? j + count : j >= count ? j - count : j;
+    lobeLawInto(k, crankStep * u * invPhi, L, 0, 0, lift, null, null, i);
+  }
+}
+
 export interface CurveBuffers {
   lift: Float64Array;
   velocity: Float64Array;
@@ -563,8 +595,26 @@ export function sampleValveCurveRaw(
     const tl = table.lift;
     const tv = table.velocity;
     const ta = table.acceleration;
-    for (let d = 0; d <= hi - ic; d++) setValve(lift, velocity, acceleration, ic + d, tl[d] ?? 0, tv[d] ?? 0, ta[d] ?? 0, 1, rockerRatio, lash);
-    for (let d = 1; d <= ic - lo; d++) setValve(lift, velocity, acceleration, ic - d, tl[d] ?? 0, tv[d] ?? 0, ta[d] ?? 0, -1, rockerRatio, lash);
+    const up = hi - ic;
+    const down = ic - lo;
+    const reach = up > down ? up : down;
+    for (let d = 0; d <= reach; d++) {
+      const valve = rockerRatio * (tl[d] ?? 0) - lash;
+      const open = valve > 0;
+      const v = open ? valve : 0;
+      const sv = open ? rockerRatio * (tv[d] ?? 0) : 0;
+      const sa = open ? rockerRatio * (ta[d] ?? 0) : 0;
+      if (d <= up) {
+        lift[ic + d] = v;
+        velocity[ic + d] = sv;
+        acceleration[ic + d] = sa;
+      }
+      if (d <= down) {
+        lift[ic - d] = v;
+        velocity[ic - d] = d === 0 ? sv : -sv;
+        acceleration[ic - d] = sa;
+      }
+    }
   } else {
     const L = shape.lobeLift;
     const invPhi = 1 / shape.halfEvent;
