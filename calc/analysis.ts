@@ -7,9 +7,9 @@
  * lbf and lbf/in throughout.
  */
 import {
-  checkMaximum,
-  checkMinimum,
-  checkRange,
+  checkMaximumRaw,
+  checkMinimumRaw,
+  checkRangeRaw,
   resolveCheckLimits,
   worstStatus,
   type CheckLimitOverrides,
@@ -21,7 +21,7 @@ import {
   type SkippedCheck,
 } from './checks';
 import { CC_PER_CUBIC_INCH, CHECKING_HEIGHT_050, CURVE_STEP_DEG, RAD_PER_DEG } from './constants';
-import { curvatureRaw, pressureAngleRaw, ENVELOPE_CRITERION, type FlankPeak } from './cam-geometry';
+import { ENVELOPE_CRITERION, symmetricCurvatureRaw, symmetricPressureAngleRaw, type FlankPeak, type SymmetricFlank } from './cam-geometry';
 import { CalcInputError, requireInRange, requireInteger, requireNonNegative, requireObject, requirePositive } from './errors';
 import { requireIcl, requireLsa, valveEventsRaw, type ValveEvents } from './events';
 import {
@@ -35,7 +35,10 @@ import {
 } from './geometry';
 import {
   createCurveBuffers,
+  createLobeTable,
   CYCLE_GRID,
+  fillTurnLiftRaw,
+  lobeTableRaw,
   LOBE_LAW,
   offsetAtLiftRaw,
   requireLobeSpec,
@@ -398,6 +401,17 @@ for (let j = 0; j <= HALF_STEPS; j++) {
   COS[j] = Math.cos(j * CURVE_STEP_DEG * RAD_PER_DEG);
 }
 const FULL_TURN = 2 * HALF_STEPS;
+// sin θ·cos θ, sin²θ and cos²θ − sin²θ on the same half turn
+const SIN_COS = new Float64Array(HALF_STEPS + 1);
+const SIN2 = new Float64Array(HALF_STEPS + 1);
+const COS2_SIN2 = new Float64Array(HALF_STEPS + 1);
+for (let j = 0; j <= HALF_STEPS; j++) {
+  const s = SIN[j] ?? 0;
+  const c = COS[j] ?? 0;
+  SIN_COS[j] = s * c;
+  SIN2[j] = s * s;
+  COS2_SIN2[j] = c * c - s * s;
+}
 
 /** Unchecked: exact slider-crank depth, velocity and acceleration on CYCLE_GRID. */
 function samplePistonCycleRaw(stroke: number, rodLength: number, out: PistonCurve): PistonCurve {
@@ -412,14 +426,15 @@ function samplePistonCycleRaw(stroke: number, rodLength: number, out: PistonCurv
   if (step !== CURVE_STEP_DEG || zero !== FULL_TURN || count !== 2 * FULL_TURN + 1) {
     throw new RangeError('samplePistonCycleRaw needs the cycle grid');
   }
+  const r4 = r2 * r2;
   for (let j = 0; j <= HALF_STEPS; j++) {
-    const s = SIN[j] ?? 0;
-    const c = COS[j] ?? 0;
-    const q = Math.sqrt(l2 - r2 * s * s);
+    const sc = SIN_COS[j] ?? 0;
+    const q = Math.sqrt(l2 - r2 * (SIN2[j] ?? 0));
+    const iq = 1 / q;
     const i = zero + j;
-    depth[i] = rodLength + r - r * c - q;
-    velocity[i] = (r * s + (r2 * s * c) / q) * k1;
-    acceleration[i] = (r * c + (r2 * (c * c - s * s)) / q + (r2 * r2 * s * s * c * c) / (q * q * q)) * k2;
+    depth[i] = rodLength + r - r * (COS[j] ?? 0) - q;
+    velocity[i] = (r * (SIN[j] ?? 0) + r2 * sc * iq) * k1;
+    acceleration[i] = (r * (COS[j] ?? 0) + r2 * (COS2_SIN2[j] ?? 0) * iq + r4 * sc * sc * iq * iq * iq) * k2;
   }
   // 180..360°: depth and acceleration are even about 180°, velocity odd.
   for (let m = HALF_STEPS + 1; m <= FULL_TURN && zero + m < count; m++) {
@@ -451,21 +466,16 @@ export function pistonCurve(input: { stroke: number; rodLength: number }): Pisto
 // ---------------------------------------------------------------------------
 // Workspace
 
-/** Tappet lift of one lobe on CAM_GRID: inches, in/cam°, in/cam°². */
-interface CamBuffers {
-  lift: Float64Array;
-  velocity: Float64Array;
-  acceleration: Float64Array;
-}
-
 /** Reusable buffers for analyzeProfile, so a tight loop allocates no curves. */
 export interface AnalysisWorkspace {
+  /** The valve curves; each also keeps its lobe's flank table, which the cam geometry reads. */
   intake: CurveBuffers;
   exhaust: CurveBuffers;
   piston: { depth: Float64Array; velocity: Float64Array; acceleration: Float64Array };
   ptvIntake: Float64Array;
   ptvExhaust: Float64Array;
-  cam: { intake: CamBuffers; exhaust: CamBuffers; coreIntake: CamBuffers; coreExhaust: CamBuffers };
+  /** The core's tappet lift on CAM_GRID, inches, in the candidate's frame. */
+  coreLift: { intake: Float64Array; exhaust: Float64Array };
   marginIntake: Float64Array;
   marginExhaust: Float64Array;
   /** The last core lobes fitted, kept while the core's sheet repeats (one core, several candidates). */
@@ -495,56 +505,34 @@ function coreShape(ws: AnalysisWorkspace, name: 'intake' | 'exhaust', spec: Lobe
  */
 export const CAM_GRID: CurveGrid = { start: -180, step: 1, count: 360 };
 const CAM_CENTRE = 180;
-
-function createCamBuffers(): CamBuffers {
-  const n = CAM_GRID.count;
-  return { lift: new Float64Array(n), velocity: new Float64Array(n), acceleration: new Float64Array(n) };
-}
+/** Crank degrees per cam degree. */
+const CRANK_PER_CAM = 2;
 
 /**
- * Unchecked: tappet lift, velocity (in/cam°) and acceleration (in/cam°²) of a
- * lobe on CAM_GRID, where index j lies j − 180 + shift cam degrees from the
- * lobe's centre, wrapping round the turn. Returns the index range of the
- * event about index 180 − shift (it may wrap past the ends).
+ * The candidate lobe's flank as cam geometry reads it: `reach` cam degrees
+ * from the nose at 1° steps. It is the valve curve's own table (0.5 crank
+ * degree = every fourth entry is a cam degree) when the valve curve sampled
+ * one; otherwise the table is filled at 1 cam degree.
  */
-function fillCamLobe(shape: LobeShape, shift: number, out: CamBuffers, liftOnly = false): { from: number; to: number } {
-  const { lift, velocity, acceleration } = out;
-  const count = CAM_GRID.count;
-  lift.fill(0);
-  if (!liftOnly) {
-    velocity.fill(0);
-    acceleration.fill(0);
-  }
-  const halfCam = shape.halfEvent / 2;
-  const invPhi = 1 / shape.halfEvent;
-  const L = shape.lobeLift;
-  const k = shape.warpScale;
-  const km1 = k - 1;
-  // crank-degree derivatives ×2 and ×4 per cam degree
-  const vScale = 2 * L * invPhi;
-  const aScale = 4 * L * invPhi * invPhi;
-  const from = Math.ceil(CAM_CENTRE - shift - halfCam);
-  const to = Math.floor(CAM_CENTRE - shift + halfCam);
-  for (let j = from; j <= to; j++) {
-    const d = j - CAM_CENTRE + shift;
-    const u = d < 0 ? -d : d;
-    if (u >= halfCam) continue;
-    const i = j < 0 ? j + count : j >= count ? j - count : j;
-    const psi = 2 * u * invPhi;
-    const m = 1 - psi * psi;
-    const iD = 1 / (1 + km1 * m);
-    const g = k * m * iD;
-    const gm = k * iD * iD;
-    const gp = -2 * psi * gm;
-    const gpp = -8 * k * km1 * psi * psi * iD * iD * iD - 2 * gm;
-    const g2 = g * g;
-    lift[i] = L * g2 * g;
-    if (liftOnly) continue;
-    const v = vScale * 3 * g2 * gp; // d lift / d|offset|
-    velocity[i] = d > 0 ? v : -v;
-    acceleration[i] = aScale * (6 * g * gp * gp + 3 * g2 * gpp);
-  }
-  return { from, to };
+function camFlank(shape: LobeShape, reach: number, buffers: CurveBuffers): SymmetricFlank {
+  const valveStep = CYCLE_GRID.step;
+  const last = buffers.table ?? createLobeTable(reach + 1);
+  const stride = CRANK_PER_CAM / valveStep;
+  const table =
+    last.shape === shape && last.step === valveStep
+      ? lobeTableRaw(shape, valveStep, reach * stride + 1, last)
+      : lobeTableRaw(shape, CRANK_PER_CAM, reach + 1, last);
+  buffers.table = table;
+  return {
+    lift: table.lift,
+    speed: table.velocity,
+    acceleration: table.acceleration,
+    count: table.count,
+    stride: table.step === valveStep ? stride : 1,
+    // crank-degree derivatives ×2 and ×4 per cam degree
+    velocityScale: CRANK_PER_CAM,
+    accelerationScale: CRANK_PER_CAM * CRANK_PER_CAM,
+  };
 }
 
 /** The sweep through overlap used by the analysis, crank degrees ATDC. */
@@ -561,7 +549,7 @@ export function createAnalysisWorkspace(): AnalysisWorkspace {
     piston: { depth: new Float64Array(n), velocity: new Float64Array(n), acceleration: new Float64Array(n) },
     ptvIntake: new Float64Array(PTV_I1 - PTV_I0 + 1),
     ptvExhaust: new Float64Array(PTV_I1 - PTV_I0 + 1),
-    cam: { intake: createCamBuffers(), exhaust: createCamBuffers(), coreIntake: createCamBuffers(), coreExhaust: createCamBuffers() },
+    coreLift: { intake: new Float64Array(CAM_GRID.count), exhaust: new Float64Array(CAM_GRID.count) },
     marginIntake: new Float64Array(CAM_GRID.count),
     marginExhaust: new Float64Array(CAM_GRID.count),
     cores: { intake: null, exhaust: null },
@@ -690,6 +678,143 @@ function optionalInRange(field: string, value: unknown, min: number, max: number
   return value === undefined || value === null ? null : requireInRange(field, value, { min, max, minOpen: min === 0, unit: 'in' });
 }
 
+/** What lobeGeometry needs from feasibilityOf, built once per analysis. */
+interface GeometryContext {
+  ws: AnalysisWorkspace;
+  limits: CheckLimits;
+  checks: CheckResult[];
+  skipped: SkippedCheck[];
+  /** Notes about what is missing only once the caller asks about the core or the grinding at all. */
+  asked: boolean;
+  grinding: GrindingInput | undefined;
+  roller: boolean;
+  rollerDiameter: number | null;
+  wheelDiameter: number | null;
+  /** Candidate base-circle diameter, inches. */
+  baseCircle: number | null;
+  /** Base-circle cut on the diameter, inches. */
+  cut: number | null;
+}
+
+function skip(ctx: GeometryContext, entry: SkippedCheck): void {
+  if (ctx.asked) ctx.skipped.push(entry);
+}
+
+/**
+ * Pressure angle, curvature and the envelope of one candidate lobe. Every
+ * sample comes from the lobe's one flank table (the valve curve's), read on
+ * CAM_GRID in cam degrees from the candidate's nose.
+ */
+function lobeGeometry(
+  ctx: GeometryContext,
+  name: 'intake' | 'exhaust',
+  lobe: CheckedLobe,
+  centreCam: number,
+  coreLobe: LobeShape | null,
+  coreCentre: number,
+): LobeGeometry {
+  const { baseCircle, grinding, roller, rollerDiameter, wheelDiameter, cut, limits, checks, ws } = ctx;
+  if (baseCircle === null) {
+    if (name === 'intake') skip(ctx, { id: 'finishingStock', subject: 'core', note: 'not measured: give the regrind base circle' });
+    return NO_GEOMETRY;
+  }
+  if (grinding === undefined && coreLobe === null) return NO_GEOMETRY;
+  const shape = lobe.shape;
+  const { start, step, count } = CAM_GRID;
+  // the event plus one base-circle sample each side (the base circle's curvature counts too)
+  const halfCam = shape.halfEvent / CRANK_PER_CAM;
+  const from = Math.max(0, Math.ceil(CAM_CENTRE - halfCam) - 1);
+  const to = Math.min(count - 1, Math.floor(CAM_CENTRE + halfCam) + 1);
+  // the event is shorter than half a turn, so [from, to] is symmetric about the nose
+  const reach = Math.max(CAM_CENTRE - from, to - CAM_CENTRE);
+  const flank = camFlank(shape, reach, name === 'intake' ? ws.intake : ws.exhaust);
+  const nose = start + CAM_CENTRE * step;
+  const rb = baseCircle / 2;
+  let pressure: LobeGeometry['pressureAngle'] = null;
+  let curvature: LobeGeometry['curvature'] = null;
+  if (grinding === undefined) {
+    // no follower numbers asked for: no geometry
+  } else if (roller && rollerDiameter === null) {
+    skip(ctx, { id: 'pressureAngle', subject: name, note: 'not measured: give the lifter roller diameter' });
+  } else {
+    const rr = roller ? (rollerDiameter ?? 0) / 2 : 0;
+    if (roller) {
+      const p = symmetricPressureAngleRaw(flank, reach, nose, step, rb + rr);
+      pressure = {
+        rise: { value: Math.atan(p.riseTan) * DEG_PER_RAD, at: p.riseAt },
+        fall: { value: Math.atan(p.fallTan) * DEG_PER_RAD, at: p.fallAt },
+      };
+      checks.push(
+        checkMaximumRaw(
+          { id: 'pressureAngle', subject: name, value: Math.max(pressure.rise.value, pressure.fall.value), unit: '°', what: WHAT_GEOMETRY[name].pressureAngle },
+          limits.pressureAngle,
+        ),
+      );
+    }
+    const x = symmetricCurvatureRaw(flank, reach, nose, step, rb, rr);
+    const concave = x.concaveCurvature > 0 ? { value: 1 / x.concaveCurvature, at: x.concaveAt } : null;
+    curvature = {
+      follower: roller ? 'roller' : 'flat',
+      minPitch: roller ? { value: x.minPitch, at: x.minPitchAt } : null,
+      minSurface: { value: x.minSurface, at: x.minSurfaceAt },
+      concave,
+      undercut: x.undercut,
+      wheelTooLarge: wheelDiameter === null ? null : concave !== null && concave.value < wheelDiameter / 2,
+    };
+    checks.push(checkMinimumRaw({ id: 'undercut', subject: name, value: x.minSurface, unit: 'in', what: WHAT_GEOMETRY[name].undercut }, limits.undercut));
+    if (concave !== null && wheelDiameter !== null) {
+      checks.push(
+        checkMinimumRaw(
+          { id: 'grindingWheel', subject: name, value: concave.value, unit: 'in', what: WHAT_GEOMETRY[name].wheel },
+          derivedRule('min', wheelDiameter / 2, WHEEL_SOURCE) as MinimumRule,
+        ),
+      );
+    }
+  }
+  let envelope: LobeGeometry['envelope'] = null;
+  if (coreLobe !== null && cut !== null) {
+    const coreLift = ws.coreLift[name];
+    // index j is j − 180 cam degrees from the candidate's centre, so centreCam − coreCentre + j − 180 from the core's
+    const phase = centreCam - coreCentre;
+    fillTurnLiftRaw(coreLobe, CAM_CENTRE - phase, CRANK_PER_CAM * CAM_GRID.step, coreLift);
+    const margin = name === 'intake' ? ws.marginIntake : ws.marginExhaust;
+    const { lift: tl, count: tn, stride } = flank;
+    let minMargin = Infinity;
+    let minI = 0;
+    const half = cut / 2;
+    for (let i = 0; i < count; i++) {
+      const d = i < CAM_CENTRE ? CAM_CENTRE - i : i - CAM_CENTRE;
+      const j = d * stride;
+      const m = half + (coreLift[i] ?? 0) - (j < tn ? (tl[j] ?? 0) : 0);
+      margin[i] = m;
+      if (m < minMargin) {
+        minMargin = m;
+        minI = i;
+      }
+    }
+    const stock = limits.finishingStock.min;
+    envelope = {
+      start,
+      step,
+      margin,
+      minMargin,
+      minAt: minI - CAM_CENTRE,
+      phase,
+      inside: minMargin >= -1e-12,
+      finishingStock: stock,
+      status: minMargin >= stock - 1e-12 ? 'pass' : 'fail',
+    };
+    checks.push(checkMinimumRaw({ id: 'finishingStock', subject: name, value: minMargin, unit: 'in', what: WHAT_GEOMETRY[name].stock }, limits.finishingStock));
+  } else if (name === 'intake') {
+    skip(ctx, {
+      id: 'finishingStock',
+      subject: 'core',
+      note: 'not measured: give the core\'s stock lobes and base circle, and the regrind base circle',
+    });
+  }
+  return { pressureAngle: pressure, curvature, envelope };
+}
+
 /**
  * The core question of a regrind: does the candidate fit inside the core at
  * this cut, can the lobes be ground and followed, and what does the cut do to
@@ -712,11 +837,7 @@ function feasibilityOf(
   const allowance = g?.cleanupAllowance === undefined ? null : requireInRange('grinding.cleanupAllowance', g.cleanupAllowance, { min: 0, max: 0.25, unit: 'in' });
   const largestCut = g?.largestCut === undefined ? null : requireInRange('grinding.largestCut', g.largestCut, { min: 0, max: 1, unit: 'in' });
   const baseCircle = input.profile.baseCircle ?? null;
-  // Notes about what is missing only once the caller asks about the core or the grinding at all.
   const asked = input.core !== undefined || g !== undefined;
-  const skip = (entry: SkippedCheck): void => {
-    if (asked) skipped.push(entry);
-  };
 
   // the core, when given
   const core = input.core;
@@ -744,111 +865,10 @@ function feasibilityOf(
     cut = Math.max(0, cut);
   }
 
-  const geometry = (name: 'intake' | 'exhaust', lobe: CheckedLobe, centreCam: number, coreShape: LobeShape | null, coreCentre: number): LobeGeometry => {
-    const at = (index: number): number => index - CAM_CENTRE;
-    if (baseCircle === null) {
-      if (name === 'intake') skip({ id: 'finishingStock', subject: 'core', note: 'not measured: give the regrind base circle' });
-      return NO_GEOMETRY;
-    }
-    if (g === undefined && coreShape === null) return NO_GEOMETRY;
-    const cam = ws.cam[name];
-    const event = fillCamLobe(lobe.shape, 0, cam);
-    const { start, step, count } = CAM_GRID;
-    // the event plus one base-circle sample each side (the base circle's curvature counts too)
-    const from = Math.max(0, event.from - 1);
-    const to = Math.min(count - 1, event.to + 1);
-    const rb = baseCircle / 2;
-    let pressure: LobeGeometry['pressureAngle'] = null;
-    let curvature: LobeGeometry['curvature'] = null;
-    if (g === undefined) {
-      // no follower numbers asked for: no geometry
-    } else if (roller && rollerDiameter === null) {
-      skip({ id: 'pressureAngle', subject: name, note: 'not measured: give the lifter roller diameter' });
-    } else {
-      const rr = roller ? (rollerDiameter ?? 0) / 2 : 0;
-      if (roller) {
-        const p = pressureAngleRaw(cam.lift, cam.velocity, from, to, start, step, rb + rr, null);
-        pressure = {
-          rise: { value: Math.atan(p.riseTan) * DEG_PER_RAD, at: p.riseAt },
-          fall: { value: Math.atan(p.fallTan) * DEG_PER_RAD, at: p.fallAt },
-        };
-        checks.push(
-          checkMaximum(
-            { id: 'pressureAngle', subject: name, value: Math.max(pressure.rise.value, pressure.fall.value), unit: '°', what: WHAT_GEOMETRY[name].pressureAngle },
-            limits.pressureAngle,
-          ),
-        );
-      }
-      const x = curvatureRaw(cam.lift, cam.velocity, cam.acceleration, from, to, start, step, rb, rr, null, null);
-      const concave = x.concaveCurvature > 0 ? { value: 1 / x.concaveCurvature, at: x.concaveAt } : null;
-      curvature = {
-        follower: roller ? 'roller' : 'flat',
-        minPitch: roller ? { value: x.minPitch, at: x.minPitchAt } : null,
-        minSurface: { value: x.minSurface, at: x.minSurfaceAt },
-        concave,
-        undercut: x.undercut,
-        wheelTooLarge: wheelDiameter === null ? null : concave !== null && concave.value < wheelDiameter / 2,
-      };
-      checks.push(
-        checkMinimum({ id: 'undercut', subject: name, value: x.minSurface, unit: 'in', what: WHAT_GEOMETRY[name].undercut }, limits.undercut),
-      );
-      if (concave !== null && wheelDiameter !== null) {
-        checks.push(
-          checkMinimum(
-            { id: 'grindingWheel', subject: name, value: concave.value, unit: 'in', what: WHAT_GEOMETRY[name].wheel },
-            derivedRule('min', wheelDiameter / 2, WHEEL_SOURCE) as MinimumRule,
-          ),
-        );
-      }
-    }
-    let envelope: LobeGeometry['envelope'] = null;
-    if (coreShape !== null && cut !== null) {
-      const coreCam = name === 'intake' ? ws.cam.coreIntake : ws.cam.coreExhaust;
-      // index j is j − 180 cam degrees from the candidate's centre, so centreCam − coreCentre + j − 180 from the core's
-      const phase = centreCam - coreCentre;
-      fillCamLobe(coreShape, phase, coreCam, true);
-      const margin = name === 'intake' ? ws.marginIntake : ws.marginExhaust;
-      let minMargin = Infinity;
-      let minI = 0;
-      const half = cut / 2;
-      const cl = coreCam.lift;
-      const nl = cam.lift;
-      for (let i = 0; i < count; i++) {
-        const m = half + (cl[i] ?? 0) - (nl[i] ?? 0);
-        margin[i] = m;
-        if (m < minMargin) {
-          minMargin = m;
-          minI = i;
-        }
-      }
-      const stock = limits.finishingStock.min;
-      envelope = {
-        start,
-        step,
-        margin,
-        minMargin,
-        minAt: at(minI),
-        phase,
-        inside: minMargin >= -1e-12,
-        finishingStock: stock,
-        status: minMargin >= stock - 1e-12 ? 'pass' : 'fail',
-      };
-      checks.push(
-        checkMinimum({ id: 'finishingStock', subject: name, value: minMargin, unit: 'in', what: WHAT_GEOMETRY[name].stock }, limits.finishingStock),
-      );
-    } else if (name === 'intake') {
-      skip({
-        id: 'finishingStock',
-        subject: 'core',
-        note: 'not measured: give the core\'s stock lobes and base circle, and the regrind base circle',
-      });
-    }
-    return { pressureAngle: pressure, curvature, envelope };
-  };
-
+  const ctx: GeometryContext = { ws, limits, checks, skipped, asked, grinding: g, roller, rollerDiameter, wheelDiameter, baseCircle, cut };
   const ecl = 2 * c.lsa - c.icl;
-  const intake = geometry('intake', c.intake, c.icl / 2, coreIntake, coreIcl / 2);
-  const exhaust = geometry('exhaust', c.exhaust, -ecl / 2, coreExhaust, -coreEcl / 2);
+  const intake = lobeGeometry(ctx, 'intake', c.intake, c.icl / 2, coreIntake, coreIcl / 2);
+  const exhaust = lobeGeometry(ctx, 'exhaust', c.exhaust, -ecl / 2, coreExhaust, -coreEcl / 2);
 
   // cleanup of the damage
   let cleanup: CleanupResult | null = null;
@@ -868,23 +888,23 @@ function feasibilityOf(
       'core',
     );
     checks.push(
-      checkMinimum(
+      checkMinimumRaw(
         { id: 'cleanup', subject: cleanup.limitingLobe, value: cut, unit: 'in', what: 'Base-circle cut against the cut that cleans up the damage' },
         derivedRule('min', cleanup.cleanupCut, CLEANUP_SOURCE) as MinimumRule,
       ),
     );
   } else {
-    skip({ id: 'cleanup', subject: 'core', note: 'not measured: give the core\'s damage depth and the cleanup allowance' });
+    skip(ctx, { id: 'cleanup', subject: 'core', note: 'not measured: give the core\'s damage depth and the cleanup allowance' });
   }
   if (largestCut !== null && cut !== null) {
     checks.push(
-      checkMaximum(
+      checkMaximumRaw(
         { id: 'largestCut', subject: 'core', value: cut, unit: 'in', what: 'Base-circle cut against the largest the hardened layer allows' },
         derivedRule('max', largestCut, LARGEST_CUT_SOURCE) as MaximumRule,
       ),
     );
   } else {
-    skip({ id: 'largestCut', subject: 'core', note: 'not entered: the shop or grinder gives the largest cut the hardened layer allows' });
+    skip(ctx, { id: 'largestCut', subject: 'core', note: 'not entered: the shop or grinder gives the largest cut the hardened layer allows' });
   }
 
   // the lifter side
@@ -971,11 +991,11 @@ export function analyzeProfile(input: AnalysisInput, options?: { workspace?: Ana
     ['exhaust', exhaust],
   ] as const) {
     checks.push(
-      checkMinimum(
+      checkMinimumRaw(
         { id: 'coilBind', subject: name, value: lobe.spring.coilBindMargin, unit: 'in', what: WHAT[name].coilBind },
         limits.coilBind,
       ),
-      checkMinimum(
+      checkMinimumRaw(
         {
           id: 'retainerToSeal',
           subject: name,
@@ -1002,7 +1022,7 @@ export function analyzeProfile(input: AnalysisInput, options?: { workspace?: Ana
     const offset = baselineOffsetRaw(e.stroke, e.rodLength, cosAngle, b);
     const r = ptvSweepRaw(lobe.curve.lift, piston.depth, CYCLE_GRID.start, CYCLE_GRID.step, PTV_I0, PTV_I1, cosAngle, offset, out);
     checks.push(
-      checkMinimum(
+      checkMinimumRaw(
         { id, subject: name, value: r.minClearance, unit: 'in', what: WHAT[name].ptv },
         name === 'intake' ? limits.ptvIntake : limits.ptvExhaust,
       ),
@@ -1013,7 +1033,7 @@ export function analyzeProfile(input: AnalysisInput, options?: { workspace?: Ana
 
   // dynamic compression
   checks.push(
-    checkMaximum(
+    checkMaximumRaw(
       { id: 'dynamicCompression', subject: 'engine', value: dyn.ratio, unit: ':1', what: DYNAMIC_CR_WHAT },
       limits.dynamicCompression,
     ),
@@ -1031,9 +1051,19 @@ export function analyzeProfile(input: AnalysisInput, options?: { workspace?: Ana
     });
   } else {
     requireObject('regrind', input.regrind);
-    preload = preloadAfterRegrind({ ...input.regrind, regrindBaseCircle: ip.baseCircle }, 'regrind');
+    const r = input.regrind;
+    preload = preloadAfterRegrind(
+      {
+        originalPreload: r.originalPreload,
+        stockBaseCircle: r.stockBaseCircle,
+        regrindBaseCircle: ip.baseCircle,
+        pushrodLength: r.pushrodLength,
+        plungerTravel: r.plungerTravel,
+      },
+      'regrind',
+    );
     checks.push(
-      checkRange(
+      checkRangeRaw(
         { id: 'hydraulicPreload', subject: 'lifters', value: preload.newPreload, unit: 'in', what: 'Lifter preload with the regrind' },
         limits.hydraulicPreload,
       ),

@@ -1,8 +1,16 @@
 import * as fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { pitchCurvature, pressureAngle, regrindEnvelope, type CamLobeSamples } from './cam-geometry';
+import {
+  pitchCurvature,
+  pressureAngle,
+  regrindEnvelope,
+  symmetricCurvatureRaw,
+  symmetricPressureAngleRaw,
+  type CamLobeSamples,
+  type SymmetricFlank,
+} from './cam-geometry';
 import { CalcInputError } from './errors';
-import { lobeLiftAt, synthesizeLobe, type LobeShape } from './lift-curve';
+import { createLobeTable, fillLobeTableRaw, lobeLiftAt, synthesizeLobe, type LobeShape } from './lift-curve';
 
 const RAD = 180 / Math.PI;
 const TOWING_INTAKE = { duration050: 212, advertisedDuration: 270, advertisedHeight: 0.006, lobeLift: 0.333 };
@@ -216,5 +224,77 @@ describe('regrindEnvelope', () => {
     expect(() => regrindEnvelope({ core, candidate: core, baseCircle: 1.24, cut: -0.01, phase: 0, follower, finishingStock: 0 })).toThrow(/^cut/);
     expect(() => regrindEnvelope({ core: null as never, candidate: core, baseCircle: 1.24, cut: 0, phase: 0, follower, finishingStock: 0 })).toThrow(/^core/);
     expect(() => regrindEnvelope({ core, candidate: core, baseCircle: 1.24, cut: 0, phase: Number.NaN, follower, finishingStock: 0 })).toThrow(/^phase/);
+  });
+});
+
+describe('one-flank kernels of a symmetric lobe', () => {
+  // The analysis samples one flank of each lobe (fillLobeTableRaw, 0.5 crank degree steps) and reads every
+  // fourth entry as a cam degree; its peaks must be the ones the full scan of both flanks finds.
+  const specs = fc.record({
+    duration050: fc.double({ min: 190, max: 240, noNaN: true }),
+    spread: fc.double({ min: 52, max: 64, noNaN: true }),
+    lobeLift: fc.double({ min: 0.28, max: 0.36, noNaN: true }),
+    baseCircle: fc.double({ min: 1, max: 1.3, noNaN: true }),
+    roller: fc.double({ min: 0.6, max: 0.9, noNaN: true }),
+  });
+
+  function window(shape: LobeShape, reach: number): CamLobeSamples {
+    const lift: number[] = [];
+    const velocity: number[] = [];
+    const acceleration: number[] = [];
+    for (let d = -reach; d <= reach; d++) {
+      const p = lobeLiftAt(shape, 2 * d);
+      lift.push(p.lift);
+      velocity.push(2 * p.velocity);
+      acceleration.push(4 * p.acceleration);
+    }
+    return { start: -reach, step: 1, lift, velocity, acceleration };
+  }
+
+  it('property: pressure angle and curvature from one flank equal the full two-flank scan', () => {
+    fc.assert(
+      fc.property(specs, ({ duration050, spread, lobeLift, baseCircle, roller }) => {
+        let shape: LobeShape;
+        try {
+          shape = synthesizeLobe({ duration050, advertisedDuration: duration050 + spread, advertisedHeight: 0.006, lobeLift });
+        } catch {
+          return; // a sheet synthesis refuses is not a lobe
+        }
+        const reach = Math.floor(shape.halfEvent / 2) + 1;
+        const table = fillLobeTableRaw(shape, 0.5, 4 * reach + 1, createLobeTable(0));
+        const flank: SymmetricFlank = {
+          lift: table.lift,
+          speed: table.velocity,
+          acceleration: table.acceleration,
+          count: table.count,
+          stride: 4,
+          velocityScale: 2,
+          accelerationScale: 4,
+        };
+        const full = window(shape, reach);
+        const pa = pressureAngle({ lobe: full, baseCircle, rollerDiameter: roller });
+        const p = symmetricPressureAngleRaw(flank, reach, 0, 1, (baseCircle + roller) / 2);
+        expect(Math.atan(p.riseTan) * RAD).toBeCloseTo(pa.rise.value, 10);
+        expect(Math.atan(p.fallTan) * RAD).toBeCloseTo(pa.fall.value, 10);
+        expect(p.riseAt).toBe(pa.rise.at);
+        expect(p.fallAt).toBe(pa.fall.at);
+        for (const follower of [{ kind: 'roller' as const, rollerDiameter: roller }, { kind: 'flat' as const }]) {
+          const c = pitchCurvature({ lobe: full, baseCircle, follower });
+          const x = symmetricCurvatureRaw(flank, reach, 0, 1, baseCircle / 2, follower.kind === 'roller' ? roller / 2 : 0);
+          expect(x.minSurface).toBeCloseTo(c.minSurface.value, 9);
+          expect(x.minSurfaceAt).toBe(c.minSurface.at);
+          expect(x.undercut).toBe(c.undercut);
+          if (follower.kind === 'roller') {
+            expect(x.minPitch).toBeCloseTo(c.minPitch?.value ?? Number.NaN, 9);
+            expect(x.concaveCurvature > 0).toBe(c.concave !== null);
+            if (c.concave !== null) {
+              expect(1 / x.concaveCurvature).toBeCloseTo(c.concave.value, 6);
+              expect(x.concaveAt).toBe(c.concave.at);
+            }
+          }
+        }
+      }),
+      { numRuns: 60 },
+    );
   });
 });

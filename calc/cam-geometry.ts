@@ -136,6 +136,19 @@ export interface PressureAngleResult {
   fall: FlankPeak;
 }
 
+/** tan of the pressure angle of an in-line roller follower: s′ / (Rp + s), s′ per radian (velocity in/cam°). */
+function pressureTan(lift: number, velocity: number, primeRadius: number): number {
+  return (velocity * RAD) / (primeRadius + lift);
+}
+
+/** Pressure-angle peaks as tangents, and the cam angles where they fall. */
+export interface PressurePeaks {
+  riseTan: number;
+  riseAt: number;
+  fallTan: number;
+  fallAt: number;
+}
+
 /** Unchecked kernel: pressure angles into `out`, peaks returned. Lengths inches, velocity in/cam°. */
 export function pressureAngleRaw(
   lift: ArrayLike<number>,
@@ -146,13 +159,13 @@ export function pressureAngleRaw(
   step: number,
   primeRadius: number,
   out: Float64Array | null,
-): { riseTan: number; riseAt: number; fallTan: number; fallAt: number } {
+): PressurePeaks {
   let riseTan = 0;
   let riseAt = start + from * step;
   let fallTan = 0;
   let fallAt = riseAt;
   for (let i = from; i <= to; i++) {
-    const t = ((velocity[i] ?? 0) * RAD) / (primeRadius + (lift[i] ?? 0));
+    const t = pressureTan(lift[i] ?? 0, velocity[i] ?? 0, primeRadius);
     if (out) out[i] = t;
     if (t > riseTan) {
       riseTan = t;
@@ -223,6 +236,63 @@ function clip(r: number): number {
   return r > RADIUS_CLIP ? RADIUS_CLIP : r < -RADIUS_CLIP ? -RADIUS_CLIP : r;
 }
 
+const RAD2 = RAD * RAD;
+
+/**
+ * Signed curvature of the pitch curve r(θ) = Rp + s(θ), 1/in (+ convex), by the
+ * polar formula κ = (r² + 2r′² − r·r″) / (r² + r′²)^{3/2}; velocity in/cam°, acceleration in/cam°².
+ */
+function pitchKappa(primeRadius: number, lift: number, velocity: number, acceleration: number): number {
+  const r = primeRadius + lift;
+  const r1 = velocity * RAD;
+  const r2 = acceleration * RAD2;
+  const num = r * r + r1 * r1;
+  return (num + r1 * r1 - r * r2) / (num * Math.sqrt(num));
+}
+
+/** A concave pitch (κ < 0) gives a surface radius of magnitude |ρ| + Rr: curvature 1/(1/|κ| + Rr), 1/in. */
+function concaveSurfaceKappa(kappa: number, rollerRadius: number): number {
+  return -kappa / (1 - kappa * rollerRadius);
+}
+
+/** Flat-faced follower: surface radius ρ = Rb + s + s″, inches (acceleration in/cam°²). */
+function flatRadius(baseRadius: number, lift: number, acceleration: number): number {
+  return baseRadius + lift + acceleration * RAD2;
+}
+
+/** The kernels' running extremes as CurvatureExtremes. */
+function curvatureExtremes(
+  rollerRadius: number,
+  maxKappa: number,
+  maxKappaAt: number,
+  concaveKappa: number,
+  concaveAt: number,
+  minFlat: number,
+  minFlatAt: number,
+): CurvatureExtremes {
+  if (rollerRadius > 0) {
+    const minPitch = maxKappa > 0 ? 1 / maxKappa : Infinity;
+    return {
+      minPitch,
+      minPitchAt: maxKappaAt,
+      minSurface: minPitch - rollerRadius,
+      minSurfaceAt: maxKappaAt,
+      concaveCurvature: concaveKappa,
+      concaveAt,
+      undercut: minPitch < rollerRadius,
+    };
+  }
+  return {
+    minPitch: Infinity,
+    minPitchAt: minFlatAt,
+    minSurface: minFlat,
+    minSurfaceAt: minFlatAt,
+    concaveCurvature: 0,
+    concaveAt: minFlatAt,
+    undercut: !(minFlat > 0),
+  };
+}
+
 /**
  * Unchecked kernel. Roller when `rollerRadius > 0`, flat tappet when 0.
  * Velocity in/cam°, acceleration in/cam°². Fills `pitchOut`/`surfaceOut` when given.
@@ -246,23 +316,17 @@ export function curvatureRaw(
   let concaveAt = maxKappaAt;
   let minFlat = Infinity;
   let minFlatAt = maxKappaAt;
-  const rad2 = RAD * RAD;
   const rp = baseRadius + rollerRadius;
   for (let i = from; i <= to; i++) {
     const s = lift[i] ?? 0;
     if (rollerRadius > 0) {
-      const r = rp + s;
-      const r1 = (velocity[i] ?? 0) * RAD;
-      const r2 = (acceleration[i] ?? 0) * rad2;
-      const num = r * r + r1 * r1;
-      const kappa = (num + r1 * r1 - r * r2) / (num * Math.sqrt(num)); // signed pitch curvature, + convex
+      const kappa = pitchKappa(rp, s, velocity[i] ?? 0, acceleration[i] ?? 0);
       if (kappa > maxKappa) {
         maxKappa = kappa;
         maxKappaAt = start + i * step;
       }
-      // concave pitch (κ < 0): surface radius magnitude |ρ| + Rr, curvature 1/(1/|κ| + Rr)
       if (kappa < 0) {
-        const c = -kappa / (1 - kappa * rollerRadius);
+        const c = concaveSurfaceKappa(kappa, rollerRadius);
         if (c > concaveKappa) {
           concaveKappa = c;
           concaveAt = start + i * step;
@@ -274,7 +338,7 @@ export function curvatureRaw(
         if (surfaceOut) surfaceOut[i] = clip(rho - rollerRadius);
       }
     } else {
-      const rho = baseRadius + s + (acceleration[i] ?? 0) * rad2;
+      const rho = flatRadius(baseRadius, s, acceleration[i] ?? 0);
       if (rho < minFlat) {
         minFlat = rho;
         minFlatAt = start + i * step;
@@ -282,27 +346,107 @@ export function curvatureRaw(
       if (surfaceOut) surfaceOut[i] = clip(rho);
     }
   }
-  if (rollerRadius > 0) {
-    const minPitch = maxKappa > 0 ? 1 / maxKappa : Infinity;
-    return {
-      minPitch,
-      minPitchAt: maxKappaAt,
-      minSurface: minPitch - rollerRadius,
-      minSurfaceAt: maxKappaAt,
-      concaveCurvature: concaveKappa,
-      concaveAt,
-      undercut: minPitch < rollerRadius,
-    };
+  return curvatureExtremes(rollerRadius, maxKappa, maxKappaAt, concaveKappa, concaveAt, minFlat, minFlatAt);
+}
+
+/**
+ * One flank of a lobe that is symmetric about its nose, sampled outwards from
+ * the nose: entry j·stride of each array lies j·step cam degrees from the
+ * centre (entries from `count` on are zero: the base circle). Lift in inches;
+ * `speed` is d lift / d|θ| and `acceleration` d² lift / dθ² in any angle unit,
+ * times `velocityScale` and `accelerationScale` to give in/cam° and in/cam°².
+ */
+export interface SymmetricFlank {
+  lift: ArrayLike<number>;
+  speed: ArrayLike<number>;
+  acceleration: ArrayLike<number>;
+  count: number;
+  stride: number;
+  velocityScale: number;
+  accelerationScale: number;
+}
+
+/**
+ * Unchecked: pressureAngleRaw over centre − reach·step … centre + reach·step
+ * of a symmetric lobe, from one flank. The opening flank (before the centre)
+ * rises, the closing flank falls with the same angle negated, so each sample
+ * is computed once; peaks and their angles are the ones the full scan finds
+ * (the first in increasing cam angle among equal values).
+ */
+export function symmetricPressureAngleRaw(flank: SymmetricFlank, reach: number, centre: number, step: number, primeRadius: number): PressurePeaks {
+  const { lift, speed, count, stride, velocityScale } = flank;
+  let riseTan = 0;
+  let riseAt = centre - reach * step;
+  let fallTan = 0;
+  let fallAt = riseAt;
+  for (let d = 0; d <= reach; d++) {
+    const j = d * stride;
+    if (j >= count) break; // the base circle: no pressure angle
+    // the opening flank's angle (the closing flank's is the same, negated)
+    const t = pressureTan(lift[j] ?? 0, -velocityScale * (speed[j] ?? 0), primeRadius);
+    if (t > riseTan || (t === riseTan && t > 0)) {
+      riseTan = t;
+      riseAt = centre - d * step;
+    }
+    if (t > fallTan) {
+      fallTan = t;
+      fallAt = centre + d * step;
+    }
   }
-  return {
-    minPitch: Infinity,
-    minPitchAt: minFlatAt,
-    minSurface: minFlat,
-    minSurfaceAt: minFlatAt,
-    concaveCurvature: 0,
-    concaveAt: minFlatAt,
-    undercut: !(minFlat > 0),
-  };
+  return { riseTan, riseAt, fallTan, fallAt };
+}
+
+/**
+ * Unchecked: curvatureRaw over centre − reach·step … centre + reach·step of a
+ * symmetric lobe, from one flank (curvature is the same on both flanks). The
+ * extremes and their angles are the ones the full scan finds: the first in
+ * increasing cam angle, which is on the opening flank.
+ */
+export function symmetricCurvatureRaw(
+  flank: SymmetricFlank,
+  reach: number,
+  centre: number,
+  step: number,
+  baseRadius: number,
+  rollerRadius: number,
+): CurvatureExtremes {
+  const { lift, speed, acceleration, count, stride, velocityScale, accelerationScale } = flank;
+  let maxKappa = 0;
+  let maxKappaAt = centre - reach * step;
+  let concaveKappa = 0;
+  let concaveAt = maxKappaAt;
+  let minFlat = Infinity;
+  let minFlatAt = maxKappaAt;
+  const rp = baseRadius + rollerRadius;
+  for (let d = 0; d <= reach; d++) {
+    const j = d * stride;
+    const inside = j < count;
+    const s = inside ? (lift[j] ?? 0) : 0;
+    const v = inside ? velocityScale * (speed[j] ?? 0) : 0;
+    const a = inside ? accelerationScale * (acceleration[j] ?? 0) : 0;
+    const at = centre - d * step;
+    if (rollerRadius > 0) {
+      const kappa = pitchKappa(rp, s, v, a);
+      if (kappa > maxKappa || (kappa === maxKappa && kappa > 0)) {
+        maxKappa = kappa;
+        maxKappaAt = at;
+      }
+      if (kappa < 0) {
+        const c = concaveSurfaceKappa(kappa, rollerRadius);
+        if (c >= concaveKappa) {
+          concaveKappa = c;
+          concaveAt = at;
+        }
+      }
+    } else {
+      const rho = flatRadius(baseRadius, s, a);
+      if (rho <= minFlat) {
+        minFlat = rho;
+        minFlatAt = at;
+      }
+    }
+  }
+  return curvatureExtremes(rollerRadius, maxKappa, maxKappaAt, concaveKappa, concaveAt, minFlat, minFlatAt);
 }
 
 /**

@@ -205,25 +205,43 @@ interface CheckBase {
 
 const ruleTextCache = new WeakMap<object, Map<string, string>>();
 
+type RuleKind = 'min' | 'max' | 'range';
+
+/** The rule in words, with its numbers. */
+function ruleWording(kind: RuleKind, rule: MinimumRule | MaximumRule | RangeRule, what: string, unit: string): string {
+  if (kind === 'min') {
+    const r = rule as MinimumRule;
+    return `${what} at least ${fmt(r.min, unit)}; watch under ${fmt(r.min + r.watchBand, unit)}`;
+  }
+  if (kind === 'max') {
+    const r = rule as MaximumRule;
+    return `${what} at most ${fmt(r.max, unit)}; watch over ${fmt(r.max - r.watchBand, unit)}`;
+  }
+  const r = rule as RangeRule;
+  return `${what} between ${fmt(r.min, unit)} and ${fmt(r.max, unit)}; watch within ${fmt(r.watchBand, unit)} of either end`;
+}
+
 /** Rule wording depends only on the rule and what is checked (which fixes the unit): build it once per pair. */
-function ruleText(rule: object, key: string, build: () => string): string {
+function ruleText(kind: RuleKind, rule: MinimumRule | MaximumRule | RangeRule, what: string, unit: string): string {
   let byKey = ruleTextCache.get(rule);
   if (!byKey) {
     byKey = new Map();
     ruleTextCache.set(rule, byKey);
   }
-  let text = byKey.get(key);
+  let text = byKey.get(what);
   if (text === undefined) {
-    text = build();
-    byKey.set(key, text);
+    text = ruleWording(kind, rule, what, unit);
+    byKey.set(what, text);
   }
   return text;
 }
 
+const BASE_TEXT_FIELDS = ['id', 'subject', 'unit', 'what'] as const;
+
 /** Validate what is checked: id, subject, unit and wording as strings, a finite value. */
 function requireBase(base: CheckBase): number {
   requireObject('base', base);
-  for (const f of ['id', 'subject', 'unit', 'what'] as const) {
+  for (const f of BASE_TEXT_FIELDS) {
     if (typeof base[f] !== 'string') throw new CalcInputError(`base.${f}`, 'must be text', base[f]);
   }
   return requireFinite('value', base.value);
@@ -247,68 +265,83 @@ const MIN = ['min'] as const;
 const MAX = ['max'] as const;
 const MIN_MAX = ['min', 'max'] as const;
 
-/** A value that must be at least the rule's minimum. */
-export function checkMinimum(base: CheckBase, rule: MinimumRule): CheckResult {
-  const value = requireBase(base);
-  requireRule(rule, MIN);
+/**
+ * Unchecked kernel of checkMinimum, for callers whose wording and rule are
+ * already sound (the analysis's own checks, rules from resolveCheckLimits).
+ * The value must still be finite.
+ */
+export function checkMinimumRaw(base: CheckBase, rule: MinimumRule): CheckResult {
+  const value = requireFinite('value', base.value);
   const margin = value - rule.min;
-  const status = statusFor(margin, rule.watchBand);
   return {
     id: base.id,
     subject: base.subject,
-    status,
+    status: statusFor(margin, rule.watchBand),
     value,
     margin,
     limit: rule.min,
     unit: base.unit,
-    rule: ruleText(rule, base.what, () => `${base.what} at least ${fmt(rule.min, base.unit)}; watch under ${fmt(rule.min + rule.watchBand, base.unit)}`),
+    rule: ruleText('min', rule, base.what, base.unit),
     source: rule.source,
   };
 }
 
-/** A value that must be at most the rule's maximum. */
-export function checkMaximum(base: CheckBase, rule: MaximumRule): CheckResult {
-  const value = requireBase(base);
-  requireRule(rule, MAX);
+/** Unchecked kernel of checkMaximum (see checkMinimumRaw). */
+export function checkMaximumRaw(base: CheckBase, rule: MaximumRule): CheckResult {
+  const value = requireFinite('value', base.value);
   const margin = rule.max - value;
-  const status = statusFor(margin, rule.watchBand);
   return {
     id: base.id,
     subject: base.subject,
-    status,
+    status: statusFor(margin, rule.watchBand),
     value,
     margin,
     limit: rule.max,
     unit: base.unit,
-    rule: ruleText(rule, base.what, () => `${base.what} at most ${fmt(rule.max, base.unit)}; watch over ${fmt(rule.max - rule.watchBand, base.unit)}`),
+    rule: ruleText('max', rule, base.what, base.unit),
     source: rule.source,
   };
 }
 
-/** A value that must lie inside the rule's range. */
-export function checkRange(base: CheckBase, rule: RangeRule): CheckResult {
-  const value = requireBase(base);
-  requireRule(rule, MIN_MAX);
-  if (!(rule.max > rule.min)) throw new CalcInputError('rule.max', `must be greater than min (${rule.min})`, rule.max);
+/** Unchecked kernel of checkRange (see checkMinimumRaw). */
+export function checkRangeRaw(base: CheckBase, rule: RangeRule): CheckResult {
+  const value = requireFinite('value', base.value);
   const low = value - rule.min;
   const high = rule.max - value;
   const margin = Math.min(low, high);
-  const status = statusFor(margin, rule.watchBand);
   return {
     id: base.id,
     subject: base.subject,
-    status,
+    status: statusFor(margin, rule.watchBand),
     value,
     margin,
     limit: low <= high ? rule.min : rule.max,
     unit: base.unit,
-    rule: ruleText(
-      rule,
-      base.what,
-      () => `${base.what} between ${fmt(rule.min, base.unit)} and ${fmt(rule.max, base.unit)}; watch within ${fmt(rule.watchBand, base.unit)} of either end`,
-    ),
+    rule: ruleText('range', rule, base.what, base.unit),
     source: rule.source,
   };
+}
+
+/** A value that must be at least the rule's minimum. */
+export function checkMinimum(base: CheckBase, rule: MinimumRule): CheckResult {
+  requireBase(base);
+  requireRule(rule, MIN);
+  return checkMinimumRaw(base, rule);
+}
+
+/** A value that must be at most the rule's maximum. */
+export function checkMaximum(base: CheckBase, rule: MaximumRule): CheckResult {
+  requireBase(base);
+  requireRule(rule, MAX);
+  return checkMaximumRaw(base, rule);
+}
+
+/** A value that must lie inside the rule's range. */
+export function checkRange(base: CheckBase, rule: RangeRule): CheckResult {
+  requireBase(base);
+  requireRule(rule, MIN_MAX);
+  if (!(rule.max > rule.min)) throw new CalcInputError('rule.max', `must be greater than min (${rule.min})`, rule.max);
+  return checkRangeRaw(base, rule);
 }
 
 /** The worst status in a list: fail over watch over pass. */

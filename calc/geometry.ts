@@ -3,7 +3,7 @@
  * compression ratios. Lengths in inches, volumes in cc, angles in crank degrees.
  */
 import { CC_PER_CUBIC_INCH, RAD_PER_DEG } from './constants';
-import { CalcInputError, fieldPath, requireFinite, requireInRange, requireInteger, requirePositive, requireThat, requireObject } from './errors';
+import { CalcInputError, fieldPath, requireFinite, requireInRange, requireInteger, requirePositive, requireObject } from './errors';
 
 export interface CrankInput {
   /** Stroke, inches. */
@@ -17,12 +17,9 @@ export function requireCrank(input: CrankInput, prefix?: string): { stroke: numb
   requireObject(prefix ?? 'input', input);
   const stroke = requirePositive(fieldPath(prefix, 'stroke'), input.stroke, 'in');
   const rodLength = requirePositive(fieldPath(prefix, 'rodLength'), input.rodLength, 'in');
-  requireThat(
-    rodLength > stroke / 2,
-    fieldPath(prefix, 'rodLength'),
-    `must be longer than half the stroke (${stroke / 2} in) or the crank cannot turn`,
-    rodLength,
-  );
+  if (!(rodLength > stroke / 2)) {
+    throw new CalcInputError(fieldPath(prefix, 'rodLength'), `must be longer than half the stroke (${stroke / 2} in) or the crank cannot turn`, rodLength);
+  }
   return { stroke, rodLength };
 }
 
@@ -152,7 +149,7 @@ export function checkCompressionInput(input: StaticCompressionInput, prefix?: st
   const stroke = requirePositive(fieldPath(prefix, 'stroke'), input.stroke, 'in');
   const chamberCc = requirePositive(fieldPath(prefix, 'chamberCc'), input.chamberCc, 'cc');
   const gasketBore = requirePositive(fieldPath(prefix, 'gasketBore'), input.gasketBore, 'in');
-  requireThat(gasketBore >= bore, fieldPath(prefix, 'gasketBore'), `must be at least the cylinder bore (${bore} in)`, gasketBore);
+  if (!(gasketBore >= bore)) throw new CalcInputError(fieldPath(prefix, 'gasketBore'), `must be at least the cylinder bore (${bore} in)`, gasketBore);
   const gasketThickness = requireInRange(fieldPath(prefix, 'gasketThickness'), input.gasketThickness, {
     min: 0,
     max: 0.5,

@@ -127,31 +127,51 @@ export function requireLobeSpec(input: LobeSpec, prefix?: string): LobeSpec {
   return { duration050, advertisedDuration, advertisedHeight, lobeLift };
 }
 
-// Scratch for the kernel (a typed array keeps doubles unboxed: no allocation in hot loops).
-const K = new Float64Array(3);
-
 /**
- * Kernel in normalised form: G = g(m)³ and its first two derivatives with
- * respect to ψ, at ψ ∈ [0, 1], left in K[0], K[1], K[2].
+ * The lobe law, the one place it is written: G = g(m)³ at ψ ∈ [0, 1) times
+ * `liftScale` into `lift[j]` and, unless `velocity` is null, dG/dψ times
+ * `velocityScale` into `velocity[j]` and d²G/dψ² times `accelerationScale`
+ * into `acceleration[j]` (G is 1 at the nose, ψ = 1 at the seat; scales of
+ * L, L/Φ and L/Φ² give inches, in/crank° and in/crank°²). Scalar callers pass
+ * one-element arrays. A plain function of numbers and typed arrays, so it
+ * inlines into hot loops.
  */
-function kernel(k: number, psi: number): void {
-  const m = 1 - psi * psi;
+export function lobeLawInto(
+  k: number,
+  psi: number,
+  liftScale: number,
+  velocityScale: number,
+  accelerationScale: number,
+  lift: Float64Array,
+  velocity: Float64Array | null,
+  acceleration: Float64Array | null,
+  j: number,
+): void {
+  const p2 = psi * psi;
+  const m = 1 - p2;
   const km1 = k - 1;
   const iD = 1 / (1 + km1 * m);
-  const g = k * m * iD;
-  const gm = k * iD * iD; // dg/dm
-  const gp = -2 * psi * gm; // dg/dψ
-  const gpp = -8 * k * km1 * psi * psi * iD * iD * iD - 2 * gm; // d²g/dψ²
+  const q = k * iD;
+  const g = m * q;
   const g2 = g * g;
-  K[0] = g2 * g;
-  K[1] = 3 * g2 * gp;
-  K[2] = 6 * g * gp * gp + 3 * g2 * gpp;
+  lift[j] = liftScale * g2 * g;
+  if (velocity === null || acceleration === null) return;
+  // g′(m) = k/(1 + (k − 1)m)², g″(m) = −2k(k − 1)/(1 + (k − 1)m)³, and with dm/dψ = −2ψ:
+  // dG/dψ = 3g²·g′·(−2ψ),  d²G/dψ² = 6g·g′·(4ψ²·g′ − g·(1 + 4(k − 1)ψ²/(1 + (k − 1)m)))
+  const gm = q * iD;
+  velocity[j] = velocityScale * (-6 * psi * g2 * gm);
+  acceleration[j] = accelerationScale * (6 * g * gm * (4 * p2 * gm - g * (1 + 4 * km1 * p2 * iD)));
 }
+
+// Scratch for scalar evaluations (typed arrays keep doubles unboxed: no allocation in hot loops).
+const K0 = new Float64Array(1);
+const K1 = new Float64Array(1);
+const K2 = new Float64Array(1);
 
 /** Normalised acceleration d²G/dψ² at ψ. */
 function accelAt(k: number, psi: number): number {
-  kernel(k, psi);
-  return K[2] ?? 0;
+  lobeLawInto(k, psi, 1, 1, 1, K0, K1, K2, 0);
+  return K2[0] ?? 0;
 }
 
 const GOLDEN = (Math.sqrt(5) - 1) / 2;
@@ -219,8 +239,23 @@ function lobePeaks(k: number): { accel: number; accelPsi: number; speed: number;
       side = 1;
     }
   }
-  kernel(k, x);
-  return { accel, accelPsi, speed: -(K[1] ?? 0), speedPsi: x };
+  lobeLawInto(k, x, 1, 1, 1, K0, K1, K2, 0);
+  return { accel, accelPsi, speed: -(K1[0] ?? 0), speedPsi: x };
+}
+
+/** The sheet's numbers in words, for refusals. */
+function sheetWords(spec: LobeSpec): string {
+  return `${spec.advertisedDuration}° at ${spec.advertisedHeight} in beside ${spec.duration050}° at 0.050 in for a ${spec.lobeLift} in lobe`;
+}
+
+/** The refusal when the advertised duration is too long for the difference in height. */
+function rampTooLong(spec: LobeSpec, prefix: string | undefined): CalcInputError {
+  return new CalcInputError(
+    fieldPath(prefix, 'advertisedDuration'),
+    `${sheetWords(spec)}: the advertised duration is too long for the difference in height (the ramp would pass ${RAMP_MAX}°), ` +
+      `so no smooth lobe fits. Check advertisedDuration, duration050 and advertisedHeight`,
+    spec.advertisedDuration,
+  );
 }
 
 /** Unchecked kernel of synthesizeLobe; throws CalcInputError when no smooth lobe fits. */
@@ -231,23 +266,15 @@ export function synthesizeLobeRaw(spec: LobeSpec, prefix?: string): LobeShape {
   const c1 = 1 - Math.cbrt(advertisedHeight / lobeLift);
   const c2 = 1 - Math.cbrt(CHECKING_HEIGHT_050 / lobeLift);
   const e = Math.exp(logit(c1) - logit(c2));
-  const where = (): string => `${advertisedDuration}° at ${advertisedHeight} in beside ${duration050}° at 0.050 in for a ${lobeLift} in lobe`;
-  const tooLong = (): CalcInputError =>
-    new CalcInputError(
-      fieldPath(prefix, 'advertisedDuration'),
-      `${where()}: the advertised duration is too long for the difference in height (the ramp would pass ${RAMP_MAX}°), ` +
-        `so no smooth lobe fits. Check advertisedDuration, duration050 and advertisedHeight`,
-      advertisedDuration,
-    );
-  if (!(e * b * b > a * a)) throw tooLong();
+  if (!(e * b * b > a * a)) throw rampTooLong(spec, prefix);
   const phi2 = (a * a * b * b * (e - 1)) / (e * b * b - a * a);
   const halfEvent = Math.sqrt(phi2);
-  if (!(halfEvent - a <= RAMP_MAX)) throw tooLong();
+  if (!(halfEvent - a <= RAMP_MAX)) throw rampTooLong(spec, prefix);
   const k = Math.exp(logit((a * a) / phi2) - logit(c1));
   if (!(k <= WARP_MAX)) {
     throw new CalcInputError(
       fieldPath(prefix, 'advertisedDuration'),
-      `${where()}: advertisedDuration and duration050 are too close for the difference in height, ` +
+      `${sheetWords(spec)}: advertisedDuration and duration050 are too close for the difference in height, ` +
         `so the lobe would need its hardest deceleration on the flanks instead of at the nose. Check both durations and advertisedHeight`,
       advertisedDuration,
     );
@@ -260,7 +287,7 @@ export function synthesizeLobeRaw(spec: LobeSpec, prefix?: string): LobeShape {
     const worst = Math.max(peakAcceleration, -peakDeceleration);
     throw new CalcInputError(
       fieldPath(prefix, 'lobeLift'),
-      `${where()}: the lobe would need ${worst.toExponential(2)} in/crank°² of tappet acceleration, past the ` +
+      `${sheetWords(spec)}: the lobe would need ${worst.toExponential(2)} in/crank°² of tappet acceleration, past the ` +
         `${LOBE_ACCELERATION_MAX} in/crank°² a real lobe stays under. Check lobeLift, duration050 and advertisedDuration`,
       lobeLift,
     );
@@ -323,12 +350,12 @@ export function evalLobeInto(shape: LobeShape, offset: number, out: LobePoint): 
     return out;
   }
   const invPhi = 1 / shape.halfEvent;
-  kernel(shape.warpScale, u * invPhi);
   const L = shape.lobeLift;
-  const vel = L * (K[1] ?? 0) * invPhi; // d/d|φ|: negative on the way down from the nose
-  out.lift = L * (K[0] ?? 0);
+  lobeLawInto(shape.warpScale, u * invPhi, L, L * invPhi, L * invPhi * invPhi, K0, K1, K2, 0);
+  const vel = K1[0] ?? 0; // d/d|φ|: negative on the way down from the nose
+  out.lift = K0[0] ?? 0;
   out.velocity = offset > 0 ? vel : offset < 0 ? -vel : 0;
-  out.acceleration = L * (K[2] ?? 0) * invPhi * invPhi;
+  out.acceleration = K2[0] ?? 0;
   return out;
 }
 
@@ -373,6 +400,109 @@ export interface LiftCurve extends CurveGrid {
   peakDeceleration: number;
 }
 
+/**
+ * One flank of a lobe sampled once, from the nose outwards: entry j lies
+ * j × step crank degrees from the lobe centre. Every curve of a lobe (the
+ * valve curve on the cycle grid, the cam-degree samples for pressure angle,
+ * curvature and the envelope) reads these entries instead of evaluating the
+ * law again: the lobe is symmetric, so the other flank is the mirror image.
+ */
+export interface LobeTable {
+  /** The shape last sampled into the table (null before the first fill). */
+  shape: LobeShape | null;
+  /** Crank degrees between entries. */
+  step: number;
+  /** Entries filled. */
+  count: number;
+  /** True when the entries reach the seat: every entry from `count` on is zero. */
+  seated: boolean;
+  /** Tappet lift, inches. */
+  lift: Float64Array;
+  /** d lift / d|φ|, inches per crank degree (0 or negative: the lift falls away from the nose). */
+  velocity: Float64Array;
+  /** d² lift / dφ², inches per crank degree². */
+  acceleration: Float64Array;
+}
+
+/** An empty table with room for `capacity` entries. */
+export function createLobeTable(capacity: number): LobeTable {
+  return {
+    shape: null,
+    step: 0,
+    count: 0,
+    seated: false,
+    lift: new Float64Array(capacity),
+    velocity: new Float64Array(capacity),
+    acceleration: new Float64Array(capacity),
+  };
+}
+
+/**
+ * Unchecked: sample `count` entries of `shape`'s flank, `step` crank degrees
+ * apart, into `table` (grown when too small; the table that holds them is
+ * returned). Entries at or past the seat are zero.
+ */
+export function fillLobeTableRaw(shape: LobeShape, step: number, count: number, table: LobeTable): LobeTable {
+  const out = table.lift.length >= count ? table : createLobeTable(count);
+  const { lift, velocity, acceleration } = out;
+  const invPhi = 1 / shape.halfEvent;
+  const k = shape.warpScale;
+  const L = shape.lobeLift;
+  const vScale = L * invPhi;
+  const aScale = vScale * invPhi;
+  let seated = false;
+  for (let j = 0; j < count; j++) {
+    const psi = j * step * invPhi;
+    if (psi >= 1) {
+      lift[j] = 0;
+      velocity[j] = 0;
+      acceleration[j] = 0;
+      seated = true;
+      continue;
+    }
+    lobeLawInto(k, psi, L, vScale, aScale, lift, velocity, acceleration, j);
+  }
+  out.shape = shape;
+  out.step = step;
+  out.count = count;
+  out.seated = seated;
+  return out;
+}
+
+/**
+ * The table holding at least `count` entries of `shape`'s flank at `step`:
+ * `table` itself when it already does (same shape object, same step), else
+ * refilled. Shapes are never changed once made, so the same object means the
+ * same lobe.
+ */
+export function lobeTableRaw(shape: LobeShape, step: number, count: number, table: LobeTable): LobeTable {
+  if (table.shape === shape && table.step === step && (table.count >= count || table.seated)) return table;
+  return fillLobeTableRaw(shape, step, count, table);
+}
+
+/**
+ * Unchecked: tappet lift (inches) of a lobe sampled round one whole turn of
+ * `lift.length` samples, `crankStep` crank degrees apart, with its centre at
+ * (fractional) index `centre`; the event wraps past the ends.
+ */
+export function fillTurnLiftRaw(shape: LobeShape, centre: number, crankStep: number, lift: Float64Array): void {
+  const count = lift.length;
+  lift.fill(0);
+  const half = shape.halfEvent / crankStep; // samples from the centre to the seat
+  const invPhi = 1 / shape.halfEvent;
+  const L = shape.lobeLift;
+  const k = shape.warpScale;
+  const from = Math.ceil(centre - half);
+  const to = Math.floor(centre + half);
+  for (let j = from; j <= to; j++) {
+    const d = j - centre;
+    const u = d < 0 ? -d : d;
+    if (u >= half) continue;
+    const i = j < 0 ? j + count : j >= count ? j - count : j;
+    lobeLawInto(k, crankStep * u * invPhi, L, 0, 0, lift, null, null, i);
+  }
+}
+
 export interface CurveBuffers {
   lift: Float64Array;
   velocity: Float64Array;
@@ -382,6 +512,8 @@ export interface CurveBuffers {
    * it the buffers are known to be zero. Absent means "anything may be set".
    */
   written?: { lo: number; hi: number };
+  /** The flank the last fill sampled (when the lobe centre sat on a grid point). */
+  table?: LobeTable;
 }
 
 /** Fresh zeroed buffers for one curve. */
@@ -391,6 +523,7 @@ export function createCurveBuffers(count: number): CurveBuffers {
     velocity: new Float64Array(count),
     acceleration: new Float64Array(count),
     written: { lo: 0, hi: -1 },
+    table: createLobeTable(Math.ceil(count / 2) + 1),
   };
 }
 
@@ -403,56 +536,31 @@ function zeroRange(out: CurveBuffers, from: number, to: number): void {
 }
 
 /**
- * Hot loop: valve lift, velocity and acceleration for grid indices i0..i1,
- * where index i sits u = u0 + (i − i0)·du crank degrees from the lobe centre
- * (du > 0 walks down the closing flank, du < 0 down the opening flank).
- * Everything is inlined: this runs ~650 times per analysis.
+ * Valve lift, velocity and acceleration at grid index i from a tappet lift s,
+ * its speed away from the nose sv (d s / d|φ|) and acceleration sa; `flank`
+ * is +1 on the closing flank (after the centre), −1 on the opening flank.
  */
-function fillFlank(
-  L: number,
-  invPhi: number,
-  k: number,
+function setValve(
+  lift: Float64Array,
+  velocity: Float64Array,
+  acceleration: Float64Array,
+  i: number,
+  s: number,
+  sv: number,
+  sa: number,
+  flank: number,
   rockerRatio: number,
   lash: number,
-  i0: number,
-  i1: number,
-  u0: number,
-  du: number,
-  out: CurveBuffers,
 ): void {
-  const { lift, velocity, acceleration } = out;
-  const flank = du < 0 ? -1 : 1; // d|φ|/dφ: +1 on the closing flank
-  const step = du < 0 ? -du : du;
-  const km1 = k - 1;
-  const rl = rockerRatio * L;
-  const vScale = flank * rl * invPhi;
-  const aScale = rl * invPhi * invPhi;
-  for (let i = i0; i <= i1; i++) {
-    const u = u0 + (i - i0) * step;
-    const psi = u * invPhi;
-    if (psi >= 1) {
-      lift[i] = 0;
-      velocity[i] = 0;
-      acceleration[i] = 0;
-      continue;
-    }
-    const m = 1 - psi * psi;
-    const iD = 1 / (1 + km1 * m);
-    const g = k * m * iD;
-    const gm = k * iD * iD;
-    const gp = -2 * psi * gm;
-    const gpp = -8 * k * km1 * psi * psi * iD * iD * iD - 2 * gm;
-    const g2 = g * g;
-    const valve = rl * g2 * g - lash;
-    if (valve > 0) {
-      lift[i] = valve;
-      velocity[i] = vScale * 3 * g2 * gp;
-      acceleration[i] = aScale * (6 * g * gp * gp + 3 * g2 * gpp);
-    } else {
-      lift[i] = 0;
-      velocity[i] = 0;
-      acceleration[i] = 0;
-    }
+  const valve = rockerRatio * s - lash;
+  if (valve > 0) {
+    lift[i] = valve;
+    velocity[i] = flank * rockerRatio * sv;
+    acceleration[i] = rockerRatio * sa;
+  } else {
+    lift[i] = 0;
+    velocity[i] = 0;
+    acceleration[i] = 0;
   }
 }
 
@@ -476,28 +584,51 @@ export function sampleValveCurveRaw(
   const dirty = out.written ?? { lo: 0, hi: count - 1 };
   zeroRange(out, dirty.lo, Math.min(dirty.hi, lo - 1));
   zeroRange(out, Math.max(dirty.lo, hi + 1), dirty.hi);
-  const L = shape.lobeLift;
-  const invPhi = 1 / shape.halfEvent;
-  const k = shape.warpScale;
-  // The lobe is symmetric: when the centre sits on a grid point, evaluate the
-  // closing flank once and mirror it onto the opening flank (velocity flips).
+  // The lobe is symmetric: when the centre sits on a grid point, sample one
+  // flank once and write both from it (velocity flips sign).
   const centreIndex = (centerline - start) / step;
   const ic = Math.round(centreIndex);
-  const mirrored = Math.abs(centreIndex - ic) < 1e-9 && ic >= lo && ic <= hi;
-  if (mirrored) {
-    const top = Math.min(hi, ic + Math.max(ic - lo, hi - ic));
-    fillFlank(L, invPhi, k, rockerRatio, lash, ic, top, 0, step, out);
-    const m0 = Math.min(ic - lo, top - ic);
-    for (let d = 1; d <= m0; d++) {
-      lift[ic - d] = lift[ic + d] ?? 0;
-      velocity[ic - d] = -(velocity[ic + d] ?? 0);
-      acceleration[ic - d] = acceleration[ic + d] ?? 0;
+  if (Math.abs(centreIndex - ic) < 1e-9 && ic >= lo && ic <= hi) {
+    // one entry more than the grid needs, past the seat, so the table is whole for the cam geometry
+    const table = fillLobeTableRaw(shape, step, Math.max(ic - lo, hi - ic) + 2, out.table ?? createLobeTable(0));
+    out.table = table;
+    const tl = table.lift;
+    const tv = table.velocity;
+    const ta = table.acceleration;
+    const up = hi - ic;
+    const down = ic - lo;
+    const reach = up > down ? up : down;
+    for (let d = 0; d <= reach; d++) {
+      const valve = rockerRatio * (tl[d] ?? 0) - lash;
+      const open = valve > 0;
+      const v = open ? valve : 0;
+      const sv = open ? rockerRatio * (tv[d] ?? 0) : 0;
+      const sa = open ? rockerRatio * (ta[d] ?? 0) : 0;
+      if (d <= up) {
+        lift[ic + d] = v;
+        velocity[ic + d] = sv;
+        acceleration[ic + d] = sa;
+      }
+      if (d <= down) {
+        lift[ic - d] = v;
+        velocity[ic - d] = d === 0 ? sv : -sv;
+        acceleration[ic - d] = sa;
+      }
     }
-    for (let i = ic - m0 - 1; i >= lo; i--) fillFlank(L, invPhi, k, rockerRatio, lash, i, i, (ic - i) * step, -step, out);
   } else {
+    const L = shape.lobeLift;
+    const invPhi = 1 / shape.halfEvent;
+    const k = shape.warpScale;
     for (let i = lo; i <= hi; i++) {
       const offset = start + i * step - centerline;
-      fillFlank(L, invPhi, k, rockerRatio, lash, i, i, offset < 0 ? -offset : offset, offset < 0 ? -1 : 1, out);
+      const u = offset < 0 ? -offset : offset;
+      const psi = u * invPhi;
+      if (psi >= 1) {
+        setValve(lift, velocity, acceleration, i, 0, 0, 0, 1, rockerRatio, lash);
+        continue;
+      }
+      lobeLawInto(k, psi, L, L * invPhi, L * invPhi * invPhi, K0, K1, K2, 0);
+      setValve(lift, velocity, acceleration, i, K0[0] ?? 0, K1[0] ?? 0, K2[0] ?? 0, offset < 0 ? -1 : 1, rockerRatio, lash);
     }
   }
   out.written = hi >= lo ? { lo, hi } : { lo: 0, hi: -1 };

@@ -59,16 +59,13 @@ export function preloadAfterRegrind(input: PreloadInput, prefix?: string): Prelo
   requireThat(original >= 0 && original < 0.25, fieldPath(prefix, 'originalPreload'), 'must be between 0 and 0.25 in', original);
   const stock = requirePositive(fieldPath(prefix, 'stockBaseCircle'), input.stockBaseCircle, 'in');
   const regrind = requirePositive(fieldPath(prefix, 'regrindBaseCircle'), input.regrindBaseCircle, 'in');
-  requireThat(
-    regrind <= stock,
-    fieldPath(prefix, 'regrindBaseCircle'),
-    `must not exceed stockBaseCircle (${stock} in): grinding only removes metal`,
-    regrind,
-  );
+  if (!(regrind <= stock)) {
+    throw new CalcInputError(fieldPath(prefix, 'regrindBaseCircle'), `must not exceed stockBaseCircle (${stock} in): grinding only removes metal`, regrind);
+  }
   const pushrod = input.pushrodLength === undefined ? null : requirePositive(fieldPath(prefix, 'pushrodLength'), input.pushrodLength, 'in');
   const travel = input.plungerTravel === undefined ? null : requirePositive(fieldPath(prefix, 'plungerTravel'), input.plungerTravel, 'in');
   if (travel !== null) {
-    requireThat(original <= travel, fieldPath(prefix, 'originalPreload'), `must not exceed plungerTravel (${travel} in)`, original);
+    if (!(original <= travel)) throw new CalcInputError(fieldPath(prefix, 'originalPreload'), `must not exceed plungerTravel (${travel} in)`, original);
   }
   const baseCircleReduction = stock - regrind;
   const lifterDrop = pushrodChangeRaw(baseCircleReduction);

@@ -2,7 +2,7 @@
  * Valve springs: open load and height, coil-bind margin, retainer-to-seal
  * margin, and the helical spring rate from wire size. Inches, lbf, lbf/in.
  */
-import { fieldPath, requireFinite, requireNonNegative, requirePositive, requireThat, requireObject } from './errors';
+import { CalcInputError, fieldPath, requireFinite, requireNonNegative, requirePositive, requireThat, requireObject } from './errors';
 
 export interface SpringCheckInput {
   /** Load at installed height (valve closed), lbf. */
@@ -40,12 +40,9 @@ export function requireSpring(input: SpringSpec, prefix?: string): SpringSpec {
   const rate = requirePositive(fieldPath(prefix, 'rate'), input.rate, 'lbf/in');
   const installedHeight = requirePositive(fieldPath(prefix, 'installedHeight'), input.installedHeight, 'in');
   const coilBindHeight = requirePositive(fieldPath(prefix, 'coilBindHeight'), input.coilBindHeight, 'in');
-  requireThat(
-    coilBindHeight < installedHeight,
-    fieldPath(prefix, 'coilBindHeight'),
-    `must be less than installedHeight (${installedHeight} in)`,
-    coilBindHeight,
-  );
+  if (!(coilBindHeight < installedHeight)) {
+    throw new CalcInputError(fieldPath(prefix, 'coilBindHeight'), `must be less than installedHeight (${installedHeight} in)`, coilBindHeight);
+  }
   return { seatLoad, rate, installedHeight, coilBindHeight };
 }
 
