@@ -151,6 +151,15 @@ function lowerFirst(label: string) {
   return /^[A-Z][a-z]/.test(label) ? label[0]!.toLowerCase() + label.slice(1) : label;
 }
 
+type Bounded = { minValue?: number | null; maxValue?: number | null; unwrap?: () => unknown };
+
+/** A field's range from its zod number schema (through `.default()`, `.nullable()` and `.optional()`), for a NumberSpec. */
+export function rangeOf(schema: Bounded): { min: number; max: number } {
+  let inner: Bounded = schema;
+  while (typeof inner.unwrap === 'function') inner = inner.unwrap() as Bounded;
+  return { min: inner.minValue ?? Number.NEGATIVE_INFINITY, max: inner.maxValue ?? Number.POSITIVE_INFINITY };
+}
+
 type Tree = { [key: string]: unknown };
 
 /** Reads `a.b.c` from nested objects. */

@@ -99,8 +99,8 @@ type Parser<T> = Parameters<typeof resolveDrafts<T>>[3];
  * units change is the one the next submit uses.
  */
 export function draftResolver<TDraft extends FieldValues, TOut>(
-  specs: readonly NumberSpec[],
-  schema: Parser<TOut>,
+  specs: readonly NumberSpec[] | ((values: TDraft) => readonly NumberSpec[]),
+  schema: Parser<TOut> | ((values: TDraft) => Parser<TOut>),
   others: (values: TDraft) => Record<string, unknown>,
   units: ShownUnits | null,
 ): Resolver<TDraft, unknown, TOut> {
@@ -108,7 +108,9 @@ export function draftResolver<TDraft extends FieldValues, TOut>(
     if (!units) {
       return { values: {}, errors: { root: { type: 'units', message: 'Unit conversion is still loading. Try again in a moment.' } } as FieldErrors<TDraft> };
     }
-    const result = resolveDrafts(specs, values, others(values), schema, units);
+    // Forms with rows (readings added and removed) name their fields and schema from the values.
+    const fields = typeof specs === 'function' ? specs(values) : specs;
+    const result = resolveDrafts(fields, values, others(values), typeof schema === 'function' ? schema(values) : schema, units);
     if (result.errors === null) return { values: result.values, errors: {} };
     const errors: Record<string, unknown> = {};
     for (const [path, message] of Object.entries(result.errors)) {
@@ -119,8 +121,8 @@ export function draftResolver<TDraft extends FieldValues, TOut>(
 }
 
 type DraftFormOptions<TDraft extends FieldValues, TOut> = {
-  specs: readonly NumberSpec[];
-  schema: Parser<TOut>;
+  specs: Parameters<typeof draftResolver<TDraft, TOut>>[0];
+  schema: Parameters<typeof draftResolver<TDraft, TOut>>[1];
   /** The form's values that are not number drafts (text, choices), or the saved record the numbers go into. */
   others: (values: TDraft) => Record<string, unknown>;
   defaultValues: DefaultValues<TDraft>;
