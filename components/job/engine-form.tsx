@@ -20,7 +20,7 @@ import { DraftField, useDraftForm } from '@/components/ui/number-field';
 import { DraftFormFrame } from '@/components/ui/draft-form-frame';
 import { outcomeOfError, SaveNotice, type SaveOutcome } from '@/components/ui/save-notice';
 import { Section } from '@/components/ui/screen';
-import { TextField } from '@/components/ui/text-field';
+import { FormField } from '@/components/ui/form-field';
 
 const lifterChoices = lifterTypes.map((value) => ({ value, label: lifterTypeLabels[value] }));
 
@@ -119,22 +119,14 @@ export function EngineForm({ jobId, record, readOnly, onReload }: EngineFormProp
       ) : null}
       {numberFields(group.fields)}
       {group.title === 'Valvetrain' ? (
-        <Controller
+        <FormField
           control={control}
           name="firingOrder"
-          render={({ field, fieldState }) => (
-            <TextField
-              label="Firing order"
-              hint="Optional. Cylinder numbers joined by dashes, e.g. 1-8-4-3-6-5-7-2"
-              value={field.value}
-              onChangeText={field.onChange}
-              onBlur={field.onBlur}
-              error={fieldState.error?.message}
-              editable={editable}
-              autoCorrect={false}
-              testID="engine-firingOrder"
-            />
-          )}
+          label="Firing order"
+          hint="Optional. Cylinder numbers joined by dashes, e.g. 1-8-4-3-6-5-7-2"
+          editable={editable}
+          autoCorrect={false}
+          testID="engine-firingOrder"
         />
       ) : null}
     </Section>

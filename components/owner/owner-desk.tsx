@@ -1,5 +1,5 @@
 import { useState, type ReactNode } from 'react';
-import { Controller, useForm, useWatch, type Control, type FieldPath, type FieldValues } from 'react-hook-form';
+import { Controller, useForm, useWatch } from 'react-hook-form';
 import { StyleSheet, Text, View } from 'react-native';
 
 import { formatCents, formatDateTime } from '@/constants/format';
@@ -18,12 +18,12 @@ import {
 } from '@/hooks/use-owner-page';
 import { useJobSheetsQuery } from '@/hooks/use-sheets';
 import { blankLink, blankOffer, linkDaysSpec, offerFieldPaths, offerNumberList, offerNumberSpecs, type LinkDraft, type OfferDraft } from '@/lib/offer-fields';
-import { placeServerFields } from '@/lib/number-draft';
 import { ownerOptionCreateSchema, shareLinkCreateSchema, type OwnerDesk, type OwnerOptionCreate, type ShareLink, type ShareLinkCreate } from '@/shared/owner';
 import { calcUnits } from '@/state/units';
 
 import { Button } from '@/components/ui/button';
 import { ChoiceGroup } from '@/components/ui/choice-group';
+import { applyServerErrors, FormField } from '@/components/ui/form-field';
 import { DraftField, draftResolver } from '@/components/ui/number-field';
 import { ErrorNotice, Pending } from '@/components/ui/query-state';
 import { Section } from '@/components/ui/screen';
@@ -151,31 +151,6 @@ export function OwnerOptions({ jobId, desk, canEdit }: { jobId: string; desk: Ow
   );
 }
 
-/** A form's text fields on react-hook-form, with the server's message for the field when it refused the save. */
-function FormText<T extends FieldValues, TOut>({
-  control,
-  name,
-  ...props
-}: { control: Control<T, unknown, TOut>; name: FieldPath<T> } & Omit<Parameters<typeof TextField>[0], 'value' | 'onChangeText' | 'error'>) {
-  return (
-    <Controller
-      control={control}
-      name={name}
-      render={({ field, fieldState }) => (
-        <TextField {...props} value={String(field.value ?? '')} onChangeText={field.onChange} onBlur={field.onBlur} error={fieldState.error?.message} />
-      )}
-    />
-  );
-}
-
-/** Puts a refused save's field messages on the form, and returns what it cannot place. */
-function placeRefusal<T extends OfferDraft | LinkDraft>(error: Error, known: readonly string[], setError: (name: FieldPath<T>, e: { type: string; message: string }) => void) {
-  if (!(error instanceof ApiError)) return error.message;
-  const { placed, other } = placeServerFields(error.fields, known);
-  for (const [path, message] of Object.entries(placed)) setError(path as FieldPath<T>, { type: 'server', message });
-  return Object.keys(error.fields).length === 0 ? error.message : other.join('. ') || null;
-}
-
 function AddOption({ jobId }: { jobId: string }) {
   const sheets = useJobSheetsQuery(jobId);
   const add = useAddOwnerOptionMutation(jobId);
@@ -197,7 +172,7 @@ function AddOption({ jobId }: { jobId: string }) {
     setRefused(null);
     add.mutate(option, {
       onSuccess: () => form.reset(blankOffer()),
-      onError: (error) => setRefused(placeRefusal<OfferDraft>(error, offerFieldPaths, form.setError)),
+      onError: (error) => setRefused(applyServerErrors(error, form.setError, offerFieldPaths)),
     });
   });
   const numbers = { control: form.control, units: calcUnits, testPrefix: 'add-option' };
@@ -214,8 +189,8 @@ function AddOption({ jobId }: { jobId: string }) {
           </>
         )}
       />
-      <FormText control={form.control} name="title" label="Name for the owner" placeholder={chosen?.current.label} testID="add-option-title" />
-      <FormText control={form.control} name="ownerNote" label="A line for the owner" multiline testID="add-option-note" />
+      <FormField control={form.control} name="title" label="Name for the owner" placeholder={chosen?.current.label} testID="add-option-title" />
+      <FormField control={form.control} name="ownerNote" label="A line for the owner" multiline testID="add-option-note" />
       <View style={styles.row}>
         <DraftField {...numbers} spec={offerNumberSpecs.price} testID="add-option-price" />
         <DraftField {...numbers} spec={offerNumberSpecs.deposit} testID="add-option-deposit" />
@@ -249,7 +224,7 @@ export function ShareLinks({ jobId, desk, canEdit }: { jobId: string; desk: Owne
         setMade(r);
         setCopied(false);
       },
-      onError: (error) => setRefused(placeRefusal<LinkDraft>(error, ['expiresInDays', 'email'], form.setError)),
+      onError: (error) => setRefused(applyServerErrors(error, form.setError, ['expiresInDays', 'email'])),
     });
   });
   const copy = async (url: string) => {
@@ -274,7 +249,7 @@ export function ShareLinks({ jobId, desk, canEdit }: { jobId: string; desk: Owne
         <View style={styles.form}>
           <View style={styles.row}>
             <DraftField control={form.control} spec={linkDaysSpec} units={calcUnits} testPrefix="share-link" testID="share-link-days" />
-            <FormText
+            <FormField
               control={form.control}
               name="email"
               label="E-mail it to (optional)"

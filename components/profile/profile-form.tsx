@@ -25,7 +25,7 @@ import { DraftField, useDraftForm } from '@/components/ui/number-field';
 import { DraftFormFrame } from '@/components/ui/draft-form-frame';
 import { outcomeOfError, SaveNotice, type SaveOutcome } from '@/components/ui/save-notice';
 import { Section } from '@/components/ui/screen';
-import { TextField } from '@/components/ui/text-field';
+import { FormField } from '@/components/ui/form-field';
 
 type ProfileValues = { label: string; coreNotes: string; spec: ProfileCreate['spec'] };
 
@@ -97,38 +97,22 @@ export function ProfileForm({ profile, readOnly, submitLabel, busy, onSubmit, on
       head={
         <>
           <Section title="Profile">
-            <Controller
+            <FormField
               control={control}
               name="label"
-              render={({ field, fieldState }) => (
-                <TextField
-                  label="Name"
-                  hint="What the shop calls it, e.g. stock-spec regrind or towing"
-                  value={field.value}
-                  onChangeText={field.onChange}
-                  onBlur={field.onBlur}
-                  error={fieldState.error?.message}
-                  editable={editable}
-                  testID="profile-label"
-                />
-              )}
+              label="Name"
+              hint="What the shop calls it, e.g. stock-spec regrind or towing"
+              editable={editable}
+              testID="profile-label"
             />
-            <Controller
+            <FormField
               control={control}
               name="coreNotes"
-              render={({ field, fieldState }) => (
-                <TextField
-                  label="Core notes"
-                  hint="The core it is ground on, its condition, anything the grinder said"
-                  value={field.value}
-                  onChangeText={field.onChange}
-                  onBlur={field.onBlur}
-                  error={fieldState.error?.message}
-                  editable={editable}
-                  multiline
-                  testID="profile-coreNotes"
-                />
-              )}
+              label="Core notes"
+              hint="The core it is ground on, its condition, anything the grinder said"
+              editable={editable}
+              multiline
+              testID="profile-coreNotes"
             />
           </Section>
         </>
