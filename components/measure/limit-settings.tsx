@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
 import { useWatch, type FieldPath } from 'react-hook-form';
 import { StyleSheet, Text, View } from 'react-native';
 
@@ -28,7 +28,7 @@ import { UnitToggle } from '@/components/ui/unit-toggle';
  * The shop's check limits: each rule's default with its source, the shop's
  * own value (blank = use the default), and reset. Builders edit; others read.
  * Built from `limitRules`, one card per rule. Lengths follow the unit toggle
- * and save in inches. Keyed by version by the caller, so a newer save replaces the drafts.
+ * and save in inches. A newer answer (after a save or a reload) replaces the drafts and keeps the notice.
  */
 export function LimitSettings({ answer, canEdit, onReload }: { answer: ShopLimitsAnswer; canEdit: boolean; onReload: () => void }) {
   const save = useSaveShopLimitsMutation();
@@ -39,8 +39,11 @@ export function LimitSettings({ answer, canEdit, onReload }: { answer: ShopLimit
     others: () => ({}),
     defaultValues: limitDraftFrom(answer.limits),
   });
-  const { control, handleSubmit, setError, setValue } = form;
+  const { control, handleSubmit, setError, setValue, reset: resetForm } = form;
   const drafts = useWatch({ control });
+  useEffect(() => {
+    resetForm(limitDraftFrom(answer.limits));
+  }, [answer, resetForm]);
 
   const submit = handleSubmit(
     async (limits) => {
