@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 
-import { centsFromText, formatCents, quoteSentence } from './format';
+import { centsFromText } from '@/lib/number-draft';
+
+import { formatCents, quoteSentence } from './format';
 
 describe('money', () => {
   it('reads what people type as whole cents, and nothing that is not an amount', () => {

@@ -22,13 +22,6 @@ export function formatCents(cents: number, currency = 'usd'): string {
   return format.format(cents / 100);
 }
 
-/** Money typed by a person ("225", "$1,050.50") as whole cents; NaN when it is not an amount of at most two decimals. */
-export function centsFromText(text: string): number {
-  const clean = text.replace(/[$,\s]/g, '');
-  if (!/^\d+(\.\d{1,2})?$/.test(clean)) return Number.NaN;
-  return Math.round(Number(clean) * 100);
-}
-
 /** A grinder's quote in one sentence, the same on the order, the sheet's order list and the mail: "Quote $485.00, ready in 8 days". */
 export function quoteSentence(quote: { priceCents: number; leadTimeDays: number }): string {
   return `Quote ${formatCents(quote.priceCents)}, ready in ${quote.leadTimeDays} ${quote.leadTimeDays === 1 ? 'day' : 'days'}`;

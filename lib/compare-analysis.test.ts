@@ -2,6 +2,10 @@ import { describe, expect, it } from 'vitest';
 
 import { DEMO_ENGINE, DEMO_STOCK_REGRIND, DEMO_TOWING } from '@/calc/demo';
 import { analyzeColumn, chosenProfiles, summarizeColumns, toggleChoice } from '@/lib/compare-analysis';
+import { draftFromText } from '@/lib/number-draft';
+import { profileNumberSpecs } from '@/lib/profile-fields';
+import { tryDraftFrom } from '@/lib/try-values';
+import { unitConverter } from '@/state/units';
 import { engineSchema } from '@/shared/engine';
 import { profileSpecSchema, type Profile } from '@/shared/profile';
 
@@ -20,10 +24,18 @@ const profile = (id: string, label: string, spec: unknown): Profile => ({
 });
 const stock = profile('p-stock', 'Stock regrind', DEMO_STOCK_REGRIND);
 const towing = profile('p-towing', 'Towing grind', DEMO_TOWING);
+const inches = unitConverter(null, 'imperial', 'cc');
+
+/** The try-values form after typing `text` into the intake duration at 0.050 in. */
+function typedDuration(text: string) {
+  const draft = tryDraftFrom(towing.spec);
+  draft.spec.intake.duration050 = draftFromText(profileNumberSpecs.intake.duration050, text, inches);
+  return draft;
+}
 
 describe('compare columns', () => {
   it('analyzes the typed values without changing the saved profile', () => {
-    const column = analyzeColumn(engine, towing, { 'intake.duration050': '216' });
+    const column = analyzeColumn(engine, towing, typedDuration('216'), inches);
     expect(column.error).toBeNull();
     expect(column.fieldErrors).toEqual({});
     expect(column.spec.intake.duration050).toBe(216);
@@ -32,17 +44,17 @@ describe('compare columns', () => {
   });
 
   it('keeps the saved spec and names the field when a typed value is not a number', () => {
-    const column = analyzeColumn(engine, towing, { 'intake.duration050': 'abc' });
+    const column = analyzeColumn(engine, towing, typedDuration('abc'), inches);
     expect(column.spec).toEqual(towing.spec);
-    expect(Object.keys(column.fieldErrors)).toEqual(['intake.duration050']);
+    expect(Object.keys(column.fieldErrors)).toEqual(['spec.intake.duration050']);
   });
 
   it('compares the first two worked-out profiles for the owner', () => {
-    const summary = summarizeColumns([analyzeColumn(engine, stock, undefined), analyzeColumn(engine, towing, undefined)]);
+    const summary = summarizeColumns([analyzeColumn(engine, stock, undefined, inches), analyzeColumn(engine, towing, undefined, inches)]);
     expect(summary.names).toEqual(['Stock regrind', 'Towing grind']);
     expect(summary.analyses).toHaveLength(2);
     expect(summary.owner?.headline).toEqual(expect.any(String));
-    expect(summarizeColumns([analyzeColumn(engine, stock, undefined)]).owner).toBeNull();
+    expect(summarizeColumns([analyzeColumn(engine, stock, undefined, inches)]).owner).toBeNull();
   });
 });
 

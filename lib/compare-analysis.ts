@@ -1,7 +1,8 @@
 import type { ProfileAnalysis } from '@/calc/analysis';
 import { compareProfilesForOwner, type OwnerComparison } from '@/calc/compare';
 import { isCalcInputError } from '@/calc/errors';
-import { applyDraft, type ProfileDraft } from '@/lib/profile-draft';
+import type { ShownUnits } from '@/lib/number-draft';
+import { applyTryValues, type TryDraft } from '@/lib/try-values';
 import { analyzeRecords } from '@/shared/analysis';
 import type { EngineSpec } from '@/shared/engine';
 import type { Profile, ProfileSpec } from '@/shared/profile';
@@ -15,9 +16,12 @@ export type CompareColumn = {
   fieldErrors: Partial<Record<string, string>>;
 };
 
-/** Runs calc's analysis on a profile with its typed-but-unsaved values; a bad value keeps the saved spec and names the field. */
-export function analyzeColumn(engine: EngineSpec, profile: Profile, draft: ProfileDraft | undefined): CompareColumn {
-  const applied = draft ? applyDraft(profile.spec, draft) : ({ ok: true, spec: profile.spec } as const);
+/**
+ * Runs calc's analysis on a profile with its tried-but-unsaved values (in calc units); a bad value keeps the
+ * saved spec and names the field, in the units shown.
+ */
+export function analyzeColumn(engine: EngineSpec, profile: Profile, draft: TryDraft | undefined, units: ShownUnits): CompareColumn {
+  const applied = draft ? applyTryValues(profile.spec, draft, units) : ({ ok: true, spec: profile.spec } as const);
   const spec = applied.ok ? applied.spec : profile.spec;
   const fieldErrors = applied.ok ? {} : applied.errors;
   try {

@@ -1,8 +1,7 @@
 import { engineSchema, springSchema, type EngineSpec, type LifterTypeName } from '@/shared/engine';
-import { draftsFor, type NumberDraft, type NumberSpec } from '@/lib/number-draft';
+import { draftsFor, rangeOf, type NumberDraft, type NumberSpec } from '@/lib/number-draft';
 
-type Bounded = { minValue: number | null; maxValue: number | null };
-const range = (schema: Bounded) => ({ min: schema.minValue ?? Number.NEGATIVE_INFINITY, max: schema.maxValue ?? Number.POSITIVE_INFINITY });
+const range = rangeOf;
 
 const shape = engineSchema.shape;
 const spring = springSchema.shape;

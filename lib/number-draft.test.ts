@@ -1,11 +1,17 @@
+import * as fc from 'fast-check';
+import { unit } from 'mathjs';
 import { describe, expect, it } from 'vitest';
 
 import { DEMO_ENGINE, DEMO_TOWING } from '@/calc/demo';
-import { inchesToMm, mmToInches, ccToCubicInches, cubicInchesToCc, lbfToNewtons, newtonsToLbf, lbfPerInchToNPerMm, nPerMmToLbfPerInch } from '@/calc/units';
+import * as calcUnits from '@/calc/units';
 
 import { engineSchema } from '@/shared/engine';
 import { engineDraftFrom, engineNumberList, engineNumberSpecs } from '@/lib/engine-fields';
+import { offerNumberList, offerNumberSpecs } from '@/lib/offer-fields';
+import { ownerOptionCreateSchema } from '@/shared/owner';
+import { unitConverter } from '@/state/units';
 import {
+  centsFromText,
   checkDraft,
   draftFromText,
   draftFromValue,
@@ -30,13 +36,8 @@ const imperial: ShownUnits = {
   digits: (_q, d) => d,
 };
 
-/** The converter hooks/use-units builds for mm, N, N/mm and cubic inches. */
-const metric: ShownUnits = {
-  toShown: (q, v) => (q === 'length' ? inchesToMm(v) : q === 'force' ? lbfToNewtons(v) : q === 'rate' ? lbfPerInchToNPerMm(v) : ccToCubicInches(v)),
-  fromShown: (q, v) => (q === 'length' ? mmToInches(v) : q === 'force' ? newtonsToLbf(v) : q === 'rate' ? nPerMmToLbfPerInch(v) : cubicInchesToCc(v)),
-  label: (q) => ({ length: 'mm', volume: 'in³', force: 'N', rate: 'N/mm' })[q],
-  digits: (q, d) => (q === 'length' ? Math.max(0, d - 1) : q === 'volume' ? d + 2 : d),
-};
+/** The converter the unit toggle builds (state/units) for mm, N, N/mm and cubic inches. */
+const metric: ShownUnits = unitConverter(calcUnits, 'metric', 'in3');
 
 const bore = engineNumberSpecs.bore;
 const demoEngine = engineSchema.parse({ ...DEMO_ENGINE, firingOrder: '1-8-4-3-6-5-7-2' });
@@ -55,6 +56,67 @@ describe('parseNumberText', () => {
     expect(parseNumberText('4.0x')).toBeNaN();
     expect(parseNumberText('1.2.3')).toBeNaN();
     expect(parseNumberText('abc')).toBeNaN();
+  });
+});
+
+describe('parseNumberText for money', () => {
+  it('reads dollars with a sign and thousands commas, at most two decimals, never negative', () => {
+    expect(parseNumberText('$1,050.50', { money: true })).toBe(1050.5);
+    expect(parseNumberText('225', { money: true })).toBe(225);
+    expect(parseNumberText('', { money: true })).toBeNull();
+    for (const text of ['-5', '4.555', '1e3', '12.', '1,05', 'abc']) expect(parseNumberText(text, { money: true }), text).toBeNaN();
+  });
+  it('turns dollars into whole cents without float noise', () => {
+    // 0.29 × 100 is 28.999999999999996 in binary floating point; the cents must still be 29.
+    expect(centsFromText('0.29')).toBe(29);
+    fc.assert(
+      fc.property(fc.integer({ min: 0, max: 10_000_000 }), (cents) => {
+        const text = `${Math.floor(cents / 100)}.${String(cents % 100).padStart(2, '0')}`;
+        return centsFromText(text) === cents;
+      }),
+    );
+  });
+});
+
+describe('money fields', () => {
+  const price = offerNumberSpecs.price;
+  it('shows saved cents as dollars and saves what is typed as cents', () => {
+    expect(draftFromValue(price, 48_500)).toEqual({ text: '485.00', unit: '$', value: 485 });
+    const drafts = {
+      priceCents: draftFromText(price, '1,050.50', imperial),
+      depositCents: draftFromText(offerNumberSpecs.deposit, '300', imperial),
+      leadTimeDays: draftFromText(offerNumberSpecs.leadTime, '3', imperial),
+    };
+    const result = resolveDrafts(offerNumberList, drafts, { sheetId: 's1', title: 'Quick', ownerNote: '' }, ownerOptionCreateSchema, imperial);
+    expect(result).toEqual({ values: { sheetId: 's1', title: 'Quick', ownerNote: '', priceCents: 105_050, depositCents: 30_000, leadTimeDays: 3 }, errors: null });
+  });
+  it('names an amount that is not dollars and cents, and a deposit above the price', () => {
+    expect(checkDraft(price, draftFromText(price, '4.555', imperial), imperial)).toBe('Price must be an amount in dollars, like 485.00');
+    expect(rangeText(price, imperial)).toBe('$0 to $100000');
+    const drafts = {
+      priceCents: draftFromText(price, '100', imperial),
+      depositCents: draftFromText(offerNumberSpecs.deposit, '200', imperial),
+      leadTimeDays: draftFromText(offerNumberSpecs.leadTime, '3', imperial),
+    };
+    const result = resolveDrafts(offerNumberList, drafts, { sheetId: 's1', title: 'Quick', ownerNote: '' }, ownerOptionCreateSchema, imperial);
+    expect(result.errors).toEqual({ depositCents: 'The deposit cannot be more than the price' });
+  });
+});
+
+describe('units round trip', () => {
+  // 1 in = 25.4 mm exactly (international inch, 1959; NIST SP 811, Appendix B.8), with mathjs units as a second reference.
+  const lengthSpecs = engineNumberList.filter((spec) => spec.quantity === 'length');
+  it('stores a length typed in mm as the same inches as typing the inches', () => {
+    fc.assert(
+      fc.property(fc.constantFrom(...lengthSpecs), fc.double({ min: 0, max: 1, noNaN: true }), (spec, t) => {
+        const inchesTyped = spec.min + t * (Math.min(spec.max, 20) - spec.min);
+        const mmText = String(unit(inchesTyped, 'inch').toNumber('mm'));
+        const fromMm = draftFromText(spec, mmText, metric).value!;
+        const fromInches = draftFromText(spec, String(inchesTyped), imperial).value!;
+        expect(Math.abs(fromMm - fromInches)).toBeLessThan(1e-9);
+        expect(Math.abs(fromMm - Number(mmText) / 25.4)).toBeLessThan(1e-9);
+      }),
+    );
   });
 });
 

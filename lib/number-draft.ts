@@ -37,16 +37,37 @@ export type NumberSpec = {
   optional?: boolean;
   /** A line of guidance shown before the range. */
   hint?: string;
+  /** Money: typed and shown in dollars (unit `$`, 2 digits, min and max in dollars), held in the record as whole cents. */
+  money?: boolean;
 };
 
 const numberPattern = /^[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i;
+/** Dollars and cents: digits with optional thousands commas, at most two decimals, never negative. */
+const moneyPattern = /^(\d{1,3}(,\d{3})+|\d+)(\.\d{1,2})?$|^\.\d{1,2}$/;
 
-/** Reads a typed number: null when blank, NaN when it is not a number. Accepts a decimal comma and a typographic minus. */
-export function parseNumberText(text: string): number | null {
+/**
+ * The one reader of typed numbers: null when blank, NaN when it is not a number.
+ * Accepts a decimal comma and a typographic minus; with `money`, a leading `$`
+ * and thousands commas instead, and at most two decimals ("$1,050.50").
+ */
+export function parseNumberText(text: string, options: { money?: boolean } = {}): number | null {
   const cleaned = text.trim().replace(/\s+/g, '').replace(/^−/, '-');
   if (cleaned === '') return null;
+  if (options.money) {
+    const amount = cleaned.replace(/^\$/, '');
+    return moneyPattern.test(amount) ? Number(amount.replace(/,/g, '')) : Number.NaN;
+  }
   const normalised = cleaned.includes('.') ? cleaned : cleaned.replace(',', '.');
   return numberPattern.test(normalised) ? Number(normalised) : Number.NaN;
+}
+
+/** Dollars as whole cents, rounded away from float noise (0.29 → 29). */
+export const centsFromDollars = (dollars: number) => Math.round(dollars * 100);
+
+/** Money typed by a person ("225", "$1,050.50") as whole cents; NaN when blank or not an amount of at most two decimals. */
+export function centsFromText(text: string): number {
+  const dollars = parseNumberText(text, { money: true });
+  return dollars === null || Number.isNaN(dollars) ? Number.NaN : centsFromDollars(dollars);
 }
 
 /** Fixed decimals, without a negative zero. */
@@ -72,9 +93,10 @@ function shownDigits(spec: NumberSpec, units: ShownUnits): number {
 
 const toShown = (spec: NumberSpec, units: ShownUnits, value: number) => (spec.quantity ? units.toShown(spec.quantity, value) : value);
 
-/** A draft for a saved value, written in calc's unit. Shows more decimals only when the value has them. */
-export function draftFromValue(spec: NumberSpec, value: number | null | undefined): NumberDraft {
-  if (value == null) return { text: '', unit: spec.unit, value: null };
+/** A draft for a saved value, written in calc's unit (money: whole cents, written in dollars). Shows more decimals only when the value has them. */
+export function draftFromValue(spec: NumberSpec, saved: number | null | undefined): NumberDraft {
+  if (saved == null) return { text: '', unit: spec.unit, value: null };
+  const value = spec.money ? saved / 100 : saved;
   const fixed = formatNumber(value, spec.digits);
   const text = Number(fixed) === value ? fixed : String(Number(value.toPrecision(10)));
   return { text, unit: spec.unit, value };
@@ -82,7 +104,7 @@ export function draftFromValue(spec: NumberSpec, value: number | null | undefine
 
 /** A draft for text typed in the unit shown now. Float noise from the conversion is trimmed to 12 significant digits. */
 export function draftFromText(spec: NumberSpec, text: string, units: ShownUnits): NumberDraft {
-  const typed = parseNumberText(text);
+  const typed = parseNumberText(text, { money: spec.money });
   const unit = shownUnit(spec, units);
   if (typed === null || Number.isNaN(typed)) return { text, unit, value: typed };
   const value = spec.quantity ? units.fromShown(spec.quantity, typed) : typed;
@@ -102,22 +124,24 @@ function rangeEnds(spec: NumberSpec, units: ShownUnits) {
   return { low: end(spec.min), high: end(spec.max), unit: shownUnit(spec, units) };
 }
 
-/** "2 to 6 in", in the unit shown now. */
+/** "2 to 6 in" in the unit shown now; money reads "$0 to $5000". */
 export function rangeText(spec: NumberSpec, units: ShownUnits): string {
   const { low, high, unit } = rangeEnds(spec, units);
-  return `${low} to ${high} ${unit}`;
+  return spec.money ? `$${low} to $${high}` : `${low} to ${high} ${unit}`;
 }
 
 /** The message for a value outside the field's range, in the unit shown now. */
 export function rangeMessage(spec: NumberSpec, units: ShownUnits): string {
   const { low, high, unit } = rangeEnds(spec, units);
-  return `${spec.label} must be between ${low} and ${high} ${unit}`;
+  return spec.money ? `${spec.label} must be between $${low} and $${high}` : `${spec.label} must be between ${low} and ${high} ${unit}`;
 }
 
 /** What is wrong with a draft on its own (blank, not a number, out of range), or null. */
 export function checkDraft(spec: NumberSpec, draft: NumberDraft, units: ShownUnits): string | null {
   if (draft.value === null) return spec.optional ? null : `Enter the ${lowerFirst(spec.label)}`;
-  if (Number.isNaN(draft.value)) return `${spec.label} must be a number, in ${shownUnit(spec, units)}`;
+  if (Number.isNaN(draft.value)) {
+    return spec.money ? `${spec.label} must be an amount in dollars, like 485.00` : `${spec.label} must be a number, in ${shownUnit(spec, units)}`;
+  }
   if (spec.integer && !Number.isInteger(draft.value)) return `${spec.label} is a whole number`;
   if (draft.value < spec.min || draft.value > spec.max) return rangeMessage(spec, units);
   return null;
@@ -125,6 +149,15 @@ export function checkDraft(spec: NumberSpec, draft: NumberDraft, units: ShownUni
 
 function lowerFirst(label: string) {
   return /^[A-Z][a-z]/.test(label) ? label[0]!.toLowerCase() + label.slice(1) : label;
+}
+
+type Bounded = { minValue?: number | null; maxValue?: number | null; unwrap?: () => unknown };
+
+/** A field's range from its zod number schema (through `.default()`, `.nullable()` and `.optional()`), for a NumberSpec. */
+export function rangeOf(schema: Bounded): { min: number; max: number } {
+  let inner: Bounded = schema;
+  while (typeof inner.unwrap === 'function') inner = inner.unwrap() as Bounded;
+  return { min: inner.minValue ?? Number.NEGATIVE_INFINITY, max: inner.maxValue ?? Number.POSITIVE_INFINITY };
 }
 
 type Tree = { [key: string]: unknown };
@@ -190,7 +223,8 @@ export function resolveDrafts<T>(
     const problem = checkDraft(spec, checked, units);
     if (problem) errors[spec.path] = problem;
     // A failed field is left undefined, inside its parent object, so the schema still reaches its siblings.
-    setAt(record, spec.path, problem ? undefined : checked.value);
+    const value = problem || checked.value === null || !spec.money ? checked.value : centsFromDollars(checked.value);
+    setAt(record, spec.path, problem ? undefined : value);
   }
   const parsed = schema.safeParse(record);
   if (parsed.success && Object.keys(errors).length === 0) return { values: parsed.data, errors: null };

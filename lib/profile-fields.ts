@@ -1,12 +1,10 @@
-import { draftsFor, type NumberDraft, type NumberSpec } from '@/lib/number-draft';
+import { draftsFor, rangeOf, type NumberDraft, type NumberSpec } from '@/lib/number-draft';
 import { lobeSchema, profileSpecSchema, type ProfileSpec } from '@/shared/profile';
 
-type Bounded = { minValue: number | null; maxValue: number | null };
-const range = (schema: Bounded) => ({ min: schema.minValue ?? Number.NEGATIVE_INFINITY, max: schema.maxValue ?? Number.POSITIVE_INFINITY });
+const range = rangeOf;
 
 const lobe = lobeSchema.shape;
 const spec = profileSpecSchema.shape;
-const baseCircle = spec.baseCircle.unwrap().unwrap();
 
 export const lobeKeys = ['duration050', 'advertisedDuration', 'advertisedHeight', 'lobeLift', 'lash'] as const;
 export type LobeKey = (typeof lobeKeys)[number];
@@ -94,7 +92,7 @@ export const profileNumberSpecs = {
     digits: 3,
     optional: true,
     hint: 'Diameter; leave blank if the grinder has not stated it',
-    ...range(baseCircle),
+    ...range(spec.baseCircle),
   },
 } as const;
 

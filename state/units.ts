@@ -1,6 +1,6 @@
 import { useAtom } from 'jotai';
 import { atomWithStorage } from 'jotai/utils';
-import { useEffect, useState } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 
 /** What the engine and spring fields show: inches, lbf and lbf/in, or millimetres, newtons and N/mm. */
 export type LengthSystem = 'imperial' | 'metric';
@@ -29,7 +29,45 @@ export type UnitConverter = {
 
 const identity: UnitConverter['toShown'] = (_q, v) => v;
 
-/** The chosen units and a converter built on mathjs units; `ready` is false while mathjs loads. */
+/** The converter for a choice of units, on calc/units (mathjs); without the module loaded it shows calc's own units. */
+export function unitConverter(units: Units | null, lengthSystem: LengthSystem, volumeUnit: VolumeUnit): UnitConverter {
+  const metric = lengthSystem === 'metric';
+  const in3 = volumeUnit === 'in3';
+  return {
+    toShown: !units
+      ? identity
+      : (q, v) =>
+          q === 'length' && metric
+            ? units.inchesToMm(v)
+            : q === 'force' && metric
+              ? units.lbfToNewtons(v)
+              : q === 'rate' && metric
+                ? units.lbfPerInchToNPerMm(v)
+                : q === 'volume' && in3
+                  ? units.ccToCubicInches(v)
+                  : v,
+    fromShown: !units
+      ? identity
+      : (q, v) =>
+          q === 'length' && metric
+            ? units.mmToInches(v)
+            : q === 'force' && metric
+              ? units.newtonsToLbf(v)
+              : q === 'rate' && metric
+                ? units.nPerMmToLbfPerInch(v)
+                : q === 'volume' && in3
+                  ? units.cubicInchesToCc(v)
+                  : v,
+    label: (q) =>
+      q === 'length' ? (metric ? 'mm' : 'in') : q === 'force' ? (metric ? 'N' : 'lbf') : q === 'rate' ? (metric ? 'N/mm' : 'lbf/in') : in3 ? 'in³' : 'cc',
+    digits: (q, calcDigits) => (q === 'length' && metric ? Math.max(0, calcDigits - 1) : q === 'volume' && in3 ? calcDigits + 2 : calcDigits),
+  };
+}
+
+/** calc's own units (in, cc, lbf, lbf/in), with no conversion: for forms whose numbers all have a fixed unit, such as money and days. */
+export const calcUnits: UnitConverter = unitConverter(null, 'imperial', 'cc');
+
+/** The chosen units and a converter built on mathjs units; `converter` is null while mathjs loads. */
 export function useUnits() {
   const [lengthSystem, setLengthSystem] = useAtom(lengthSystemAtom);
   const [volumeUnit, setVolumeUnit] = useAtom(volumeUnitAtom);
@@ -49,41 +87,8 @@ export function useUnits() {
     };
   }, [needsMath, units]);
 
-  const metric = lengthSystem === 'metric';
-  const in3 = volumeUnit === 'in3';
-  const converter: UnitConverter | null =
-    needsMath && !units
-      ? null
-      : {
-          toShown: !units
-            ? identity
-            : (q, v) =>
-                q === 'length' && metric
-                  ? units.inchesToMm(v)
-                  : q === 'force' && metric
-                    ? units.lbfToNewtons(v)
-                    : q === 'rate' && metric
-                      ? units.lbfPerInchToNPerMm(v)
-                      : q === 'volume' && in3
-                        ? units.ccToCubicInches(v)
-                        : v,
-          fromShown: !units
-            ? identity
-            : (q, v) =>
-                q === 'length' && metric
-                  ? units.mmToInches(v)
-                  : q === 'force' && metric
-                    ? units.newtonsToLbf(v)
-                    : q === 'rate' && metric
-                      ? units.nPerMmToLbfPerInch(v)
-                      : q === 'volume' && in3
-                        ? units.cubicInchesToCc(v)
-                        : v,
-          label: (q) =>
-            q === 'length' ? (metric ? 'mm' : 'in') : q === 'force' ? (metric ? 'N' : 'lbf') : q === 'rate' ? (metric ? 'N/mm' : 'lbf/in') : in3 ? 'in³' : 'cc',
-          digits: (q, calcDigits) =>
-            q === 'length' && metric ? Math.max(0, calcDigits - 1) : q === 'volume' && in3 ? calcDigits + 2 : calcDigits,
-        };
+  // One converter object per choice of units, so screens can key memos and effects on it.
+  const converter = useMemo(() => (needsMath && !units ? null : unitConverter(units, lengthSystem, volumeUnit)), [needsMath, units, lengthSystem, volumeUnit]);
 
   return { lengthSystem, setLengthSystem, volumeUnit, setVolumeUnit, converter, loadError };
 }

@@ -55,7 +55,7 @@ function CheckLimits({ canEdit }: { canEdit: boolean }) {
           <ErrorNotice error={limits.error} onRetry={() => limits.refetch()} />
         </View>
       ) : (
-        <LimitSettings key={limits.data.version} answer={limits.data} canEdit={canEdit} onReload={() => void limits.refetch()} />
+        <LimitSettings answer={limits.data} canEdit={canEdit} onReload={() => void limits.refetch()} />
       )}
     </>
   );

@@ -129,6 +129,7 @@ function CompareView({
         {editing ? (
           <View style={wide ? styles.half : undefined}>
             <TryValues
+              key={`${editing.id} ${editing.version}`}
               jobId={jobId}
               profile={editing}
               column={columns.find((c) => c.profile.id === editing.id)}

@@ -1,19 +1,24 @@
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
-import { ProfileDraftEditor } from '@/components/compare/profile-draft-editor';
 import { Button } from '@/components/ui/button';
 import { ChoiceGroup } from '@/components/ui/choice-group';
-import { ErrorNotice } from '@/components/ui/query-state';
+import { DraftField, useDraftForm } from '@/components/ui/number-field';
+import { ErrorNotice, Pending } from '@/components/ui/query-state';
 import { Section } from '@/components/ui/screen';
+import { UnitToggle } from '@/components/ui/unit-toggle';
 import { colors, space, type as typeScale } from '@/constants/theme';
 import { useSaveProfileMutation } from '@/hooks/use-profiles';
 import { useCreateSheetMutation, useJobSheetsQuery, useSaveSheetMutation } from '@/hooks/use-sheets';
 import type { CompareColumn } from '@/lib/compare-analysis';
-import { sameSpec, type ProfileDraft } from '@/lib/profile-draft';
-import type { Profile } from '@/shared/profile';
+import { sameSpec, triedRecord, tryDraftFrom, tryValueSpecs, tryValuesSchema, type TryDraft } from '@/lib/try-values';
+import type { Profile, ProfileSpec } from '@/shared/profile';
 
-/** Type values into one chosen profile, see them worked out at once, then save them to the spec sheet or the profile. */
+/**
+ * Type values into one chosen profile, see them worked out at once, then save them to the spec sheet or the profile.
+ * Lengths are typed in the unit on the toggle; what is tried and saved is in inches. Key it by the profile's id and
+ * version, so a newer save starts the form again.
+ */
 export function TryValues({
   jobId,
   profile,
@@ -29,8 +34,8 @@ export function TryValues({
   column: CompareColumn | undefined;
   choices: Profile[];
   onChoose: (id: string) => void;
-  draft: ProfileDraft | undefined;
-  setDraft: (draft: ProfileDraft) => void;
+  draft: TryDraft | undefined;
+  setDraft: (draft: TryDraft | undefined) => void;
   canWrite: boolean;
 }) {
   const sheets = useJobSheetsQuery(jobId);
@@ -41,7 +46,24 @@ export function TryValues({
   const saveProfile = useSaveProfileMutation(profile.id);
   const [saved, setSaved] = useState<string | null>(null);
   const [saveError, setSaveError] = useState<unknown>(null);
-  const dirty = Boolean(draft && Object.keys(draft).length);
+  const { form, units, loadError } = useDraftForm<TryDraft, { spec: ProfileSpec }>({
+    specs: tryValueSpecs,
+    schema: tryValuesSchema,
+    others: () => triedRecord(profile.spec),
+    defaultValues: draft ?? tryDraftFrom(profile.spec),
+    mode: 'onChange',
+  });
+  // Every change goes to the compare state at once, which works the analysis out again on this device.
+  const { watch, reset, handleSubmit, control } = form;
+  useEffect(() => {
+    const watching = watch((values) => setDraft(structuredClone(values) as TryDraft));
+    return () => watching.unsubscribe();
+  }, [watch, setDraft]);
+  const discard = () => {
+    setDraft(undefined);
+    reset(tryDraftFrom(profile.spec));
+  };
+  const dirty = Boolean(draft && column && (Object.keys(column.fieldErrors).length > 0 || !sameSpec(column.spec, profile.spec)));
   const valid = column !== undefined && Object.keys(column.fieldErrors).length === 0 && column.analysis !== null;
   const busy = saveSheet.isPending || createSheet.isPending || saveProfile.isPending;
   const sameAsSheet = Boolean(sheet && column && sheet.current.label === profile.label && sameSpec(sheet.current.spec, column.spec));
@@ -56,25 +78,25 @@ export function TryValues({
     }
   };
 
-  const toSheet = () =>
+  const toSheet = handleSubmit(({ spec }) =>
     run(async () => {
-      if (!column) throw new Error('Nothing to save');
       if (sheet) {
-        const next = await saveSheet.mutateAsync({ version: sheet.version, spec: column.spec, label: profile.label, newRevision: true });
-        setDraft({});
+        const next = await saveSheet.mutateAsync({ version: sheet.version, spec, label: profile.label, newRevision: true });
+        discard();
         return `Saved as revision ${next.current.number} of “${next.title}”.`;
       }
       const created = await createSheet.mutateAsync({ title: `Spec sheet: ${profile.label}`, profileId: profile.id, note: '' });
       return `Started “${created.title}”, revision ${created.current.number}.`;
-    });
+    }),
+  );
 
-  const toProfile = () =>
+  const toProfile = handleSubmit(({ spec }) =>
     run(async () => {
-      if (!column) throw new Error('Nothing to save');
-      await saveProfile.mutateAsync({ version: profile.version, spec: column.spec });
-      setDraft({});
+      await saveProfile.mutateAsync({ version: profile.version, spec });
+      setDraft(undefined);
       return `Saved ${profile.label}.`;
-    });
+    }),
+  );
 
   return (
     <Section title="Try values">
@@ -89,13 +111,20 @@ export function TryValues({
       ) : null}
       <Text style={styles.note}>Changes recompute at once on this device. Nothing is saved until you choose below.</Text>
       {sameAsSheet ? <Text style={styles.note}>These values match the sheet’s current revision.</Text> : null}
-      <ProfileDraftEditor
-        spec={profile.spec}
-        draft={draft ?? {}}
-        errors={column?.fieldErrors ?? {}}
-        onChange={(path, text) => setDraft({ ...draft, [path]: text })}
-        testID="draft"
-      />
+      <UnitToggle volume={false} />
+      {loadError ? (
+        <ErrorNotice error={loadError} />
+      ) : !units ? (
+        <Pending label="Loading unit conversion…" />
+      ) : (
+        <View style={styles.grid} testID="draft">
+          {tryValueSpecs.map((spec) => (
+            <View key={spec.path} style={styles.cell}>
+              <DraftField control={control} spec={spec} units={units} testPrefix="draft" />
+            </View>
+          ))}
+        </View>
+      )}
       {saveError ? <ErrorNotice error={saveError} /> : null}
       {saved ? (
         <Text style={styles.saved} role="status" testID="save-result">
@@ -112,7 +141,7 @@ export function TryValues({
             testID="save-to-sheet"
           />
           <Button label="Save profile" variant="secondary" onPress={toProfile} busy={saveProfile.isPending} disabled={!valid || !dirty || busy} testID="save-profile" />
-          <Button label="Discard changes" variant="quiet" onPress={() => setDraft({})} disabled={!dirty || busy} testID="discard-draft" />
+          <Button label="Discard changes" variant="quiet" onPress={discard} disabled={!dirty || busy} testID="discard-draft" />
         </View>
       ) : (
         <Text style={styles.note}>Only a builder can save profile values.</Text>
@@ -128,4 +157,6 @@ const styles = StyleSheet.create({
   note: { ...typeScale.small, color: colors.inkMuted },
   saved: { ...typeScale.bodyStrong, color: colors.pass },
   actions: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+  grid: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
+  cell: { flexGrow: 1, flexBasis: 160 },
 });

@@ -1,10 +1,9 @@
-import { useEffect, useRef, useState } from 'react';
-import { Controller, useForm, type FieldPath } from 'react-hook-form';
+import { useState } from 'react';
+import { Controller, type FieldPath } from 'react-hook-form';
 import { StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 
 import { breakpoints, colors, space, type as typeScale } from '@/constants/theme';
 import { useSaveEngineMutation } from '@/hooks/use-engine';
-import { useUnits } from '@/state/units';
 import { engineSchema, lifterTypeLabels, lifterTypes, type EngineRecord, type EngineSpec, type LifterTypeName } from '@/shared/engine';
 import {
   engineDraftFrom,
@@ -17,12 +16,11 @@ import {
 
 import { Button } from '@/components/ui/button';
 import { ChoiceGroup } from '@/components/ui/choice-group';
-import { DraftField, draftResolver } from '@/components/ui/number-field';
-import { ErrorNotice, Pending } from '@/components/ui/query-state';
+import { DraftField, useDraftForm } from '@/components/ui/number-field';
+import { DraftFormFrame } from '@/components/ui/draft-form-frame';
 import { outcomeOfError, SaveNotice, type SaveOutcome } from '@/components/ui/save-notice';
 import { Section } from '@/components/ui/screen';
-import { TextField } from '@/components/ui/text-field';
-import { UnitToggle } from '@/components/ui/unit-toggle';
+import { FormField } from '@/components/ui/form-field';
 
 const lifterChoices = lifterTypes.map((value) => ({ value, label: lifterTypeLabels[value] }));
 
@@ -50,34 +48,18 @@ type EngineFormProps = {
  */
 export function EngineForm({ jobId, record, readOnly, onReload }: EngineFormProps) {
   const wide = useWindowDimensions().width >= breakpoints.wide;
-  const { converter, loadError, lengthSystem, volumeUnit } = useUnits();
   const [base, setBase] = useState(record);
   const [outcome, setOutcome] = useState<SaveOutcome | null>(null);
   const [reloading, setReloading] = useState(false);
   const save = useSaveEngineMutation(jobId);
 
-  // Rebuilt each render with the current units; useForm reads its options on every render.
-  const resolver = draftResolver<EngineDraft, EngineSpec>(
-    engineNumberList,
-    engineSchema,
-    (values) => ({ lifterType: values.lifterType, firingOrder: values.firingOrder }),
-    converter,
-  );
-  const { control, handleSubmit, reset, setError, trigger, formState } = useForm<EngineDraft, unknown, EngineSpec>({
-    resolver,
+  const { form, units: converter, loadError } = useDraftForm<EngineDraft, EngineSpec>({
+    specs: engineNumberList,
+    schema: engineSchema,
+    others: (values) => ({ lifterType: values.lifterType, firingOrder: values.firingOrder }),
     defaultValues: engineDraftFrom(record?.engine),
   });
-
-  // Messages name a unit: after a switch, say them again in the new one. Keyed on the choice, not the
-  // converter object (a new one each render), and only on a change, so server messages stay put after a save.
-  const { isSubmitted } = formState;
-  const unitsKey = `${lengthSystem} ${volumeUnit} ${converter !== null}`;
-  const shownIn = useRef(unitsKey);
-  useEffect(() => {
-    if (shownIn.current === unitsKey) return;
-    shownIn.current = unitsKey;
-    if (isSubmitted && converter) void trigger();
-  }, [unitsKey, isSubmitted, converter, trigger]);
+  const { control, handleSubmit, reset, setError, formState } = form;
 
   const submit = handleSubmit(async (engine) => {
     setOutcome(null);
@@ -137,49 +119,29 @@ export function EngineForm({ jobId, record, readOnly, onReload }: EngineFormProp
       ) : null}
       {numberFields(group.fields)}
       {group.title === 'Valvetrain' ? (
-        <Controller
+        <FormField
           control={control}
           name="firingOrder"
-          render={({ field, fieldState }) => (
-            <TextField
-              label="Firing order"
-              hint="Optional. Cylinder numbers joined by dashes, e.g. 1-8-4-3-6-5-7-2"
-              value={field.value}
-              onChangeText={field.onChange}
-              onBlur={field.onBlur}
-              error={fieldState.error?.message}
-              editable={editable}
-              autoCorrect={false}
-              testID="engine-firingOrder"
-            />
-          )}
+          label="Firing order"
+          hint="Optional. Cylinder numbers joined by dashes, e.g. 1-8-4-3-6-5-7-2"
+          editable={editable}
+          autoCorrect={false}
+          testID="engine-firingOrder"
         />
       ) : null}
     </Section>
   ));
 
   return (
-    <View style={styles.form}>
-      <View style={styles.toolbar}>
-        <UnitToggle />
-        <Text style={styles.note}>Saved in inches, cc and pounds whichever units you type in.</Text>
-      </View>
-      {loadError ? (
-        <ErrorNotice error={loadError} />
-      ) : !converter ? (
-        <Pending label="Loading unit conversion…" />
-      ) : (
-        <View style={wide ? styles.columns : styles.stack}>
-          <View style={[styles.stack, wide && styles.column]}>{sections.slice(0, 2)}</View>
-          <View style={[styles.stack, wide && styles.column]}>{sections.slice(2)}</View>
-        </View>
-      )}
-      {formState.errors.root ? <ErrorNotice error={new Error(formState.errors.root.message)} /> : null}
-      <SaveNotice outcome={outcome} onReload={reload} reloading={reloading} testID="engine-notice" />
-      {readOnly ? (
-        <Text style={styles.note}>Your role in this shop can read the engine; a builder saves changes.</Text>
-      ) : (
-        <View style={styles.actions}>
+    <DraftFormFrame
+      unitNote="Saved in inches, cc and pounds whichever units you type in."
+      loadError={loadError}
+      ready={Boolean(converter)}
+      rootError={formState.errors.root?.message}
+      notice={<SaveNotice outcome={outcome} onReload={reload} reloading={reloading} testID="engine-notice" />}
+      readOnlyNote={readOnly ? 'Your role in this shop can read the engine; a builder saves changes.' : null}
+      actions={
+        <>
           <Button label={save.isPending ? 'Saving…' : 'Save engine'} onPress={submit} busy={save.isPending} disabled={!converter} testID="engine-save" />
           {formState.isDirty ? (
             <>
@@ -189,19 +151,21 @@ export function EngineForm({ jobId, record, readOnly, onReload }: EngineFormProp
               </Text>
             </>
           ) : null}
-        </View>
-      )}
-    </View>
+        </>
+      }
+    >
+      <View style={wide ? styles.columns : styles.stack}>
+        <View style={[styles.stack, wide && styles.column]}>{sections.slice(0, 2)}</View>
+        <View style={[styles.stack, wide && styles.column]}>{sections.slice(2)}</View>
+      </View>
+    </DraftFormFrame>
   );
 }
 
 const styles = StyleSheet.create({
-  form: { gap: space.lg },
-  toolbar: { gap: space.sm },
   stack: { gap: space.lg },
   columns: { flexDirection: 'row', gap: space.lg, alignItems: 'flex-start' },
   column: { flex: 1, minWidth: 0 },
-  actions: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', gap: space.md },
   note: { ...typeScale.small, color: colors.inkMuted },
   readOnlyChoice: { gap: space.xs },
   readOnlyLabel: { ...typeScale.label, color: colors.ink },

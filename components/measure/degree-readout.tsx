@@ -3,13 +3,13 @@ import { StyleSheet, Text, View } from 'react-native';
 import { centerlineFromReadings, degreeCam } from '@/calc/degree';
 import { isCalcInputError } from '@/calc/errors';
 import { colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
-import { parseNumberText } from '@/lib/number-draft';
 
+/** The readings as typed so far, crank degrees; null while blank or not a number. */
 type DegreeReadoutProps = {
-  stopBefore: string;
-  stopAfter: string;
-  openingAngle: string;
-  closingAngle: string;
+  stopBefore: number | null;
+  stopAfter: number | null;
+  openingAngle: number | null;
+  closingAngle: number | null;
   /** The chosen sheet's intake centreline, crank degrees ATDC, when a sheet is chosen. */
   sheetIcl: number | null;
   sheetName: string | null;
@@ -17,17 +17,9 @@ type DegreeReadoutProps = {
 
 const deg = (v: number) => `${v.toFixed(1).replace(/^-/, '−')}°`;
 
-function readNumber(text: string): number | null {
-  const n = parseNumberText(text);
-  return n === null || Number.isNaN(n) ? null : n;
-}
-
 /** True TDC from the piston stops and the intake centreline from the flank readings, worked out as the tech types. */
 export function DegreeReadout({ stopBefore, stopAfter, openingAngle, closingAngle, sheetIcl, sheetName }: DegreeReadoutProps) {
-  const before = readNumber(stopBefore);
-  const after = readNumber(stopAfter);
-  const open = readNumber(openingAngle);
-  const close = readNumber(closingAngle);
+  const [before, after, open, close] = [stopBefore, stopAfter, openingAngle, closingAngle];
   const tdcOffset = before !== null && after !== null ? (after - before) / 2 : null;
 
   let icl: number | null = null;

@@ -1,126 +1,100 @@
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
+import { useWatch, type FieldPath } from 'react-hook-form';
 import { StyleSheet, Text, View } from 'react-native';
 
-import type { CheckLimitOverrides, CheckLimits } from '@/calc/checks';
+import type { CheckLimitOverrides } from '@/calc/checks';
 import { colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
-import { ApiError } from '@/lib/api';
 import { useSaveShopLimitsMutation, type ShopLimitsAnswer } from '@/hooks/use-shop-limits';
-import { parseNumberText } from '@/lib/number-draft';
+import { draftFromValue } from '@/lib/number-draft';
+import {
+  limitDraftFrom,
+  limitFieldPaths,
+  limitOverridesSchema,
+  limitRules,
+  limitSpec,
+  limitSpecs,
+  ruleText,
+  type LimitDraft,
+  type LimitRule,
+} from '@/lib/limit-fields';
 
 import { Button } from '@/components/ui/button';
-import { SaveNotice, type SaveOutcome } from '@/components/ui/save-notice';
-import { TextField } from '@/components/ui/text-field';
-
-type RuleKey = keyof CheckLimits;
-type Part = 'min' | 'max' | 'watchBand';
-
-const rules: { key: RuleKey; title: string; unit: string; parts: Part[]; what: string }[] = [
-  { key: 'ptvIntake', title: 'Piston-to-valve, intake', unit: 'in', parts: ['min', 'watchBand'], what: 'least clearance through overlap' },
-  { key: 'ptvExhaust', title: 'Piston-to-valve, exhaust', unit: 'in', parts: ['min', 'watchBand'], what: 'least clearance through overlap' },
-  { key: 'coilBind', title: 'Coil-bind margin', unit: 'in', parts: ['min', 'watchBand'], what: 'spring height above coil bind at max lift' },
-  { key: 'retainerToSeal', title: 'Retainer-to-seal', unit: 'in', parts: ['min', 'watchBand'], what: 'clearance at max lift' },
-  { key: 'hydraulicPreload', title: 'Lifter preload', unit: 'in', parts: ['min', 'max', 'watchBand'], what: 'plunger travel used by preload' },
-  { key: 'degreeing', title: 'Cam degreed in', unit: '°', parts: ['max', 'watchBand'], what: 'measured ICL away from the sheet' },
-  { key: 'wornLobe', title: 'Lobe wear', unit: 'in', parts: ['max', 'watchBand'], what: 'max lift below its siblings' },
-  { key: 'dynamicCompression', title: 'Dynamic compression', unit: ':1', parts: ['max', 'watchBand'], what: 'for pump fuel' },
-];
-
-const partLabel: Record<Part, string> = { min: 'Minimum', max: 'Maximum', watchBand: 'Watch band' };
-
-type Draft = Record<RuleKey, Partial<Record<Part, string>>>;
-
-function ruleNumber(rule: CheckLimits[RuleKey], part: Part): number | undefined {
-  const v = (rule as unknown as Record<string, unknown>)[part];
-  return typeof v === 'number' ? v : undefined;
-}
-
-function draftFrom(answer: ShopLimitsAnswer): Draft {
-  const draft = {} as Draft;
-  for (const r of rules) {
-    const own = (answer.limits[r.key] ?? {}) as Partial<Record<Part, number>>;
-    draft[r.key] = Object.fromEntries(r.parts.map((p) => [p, own[p] === undefined ? '' : String(own[p])]));
-  }
-  return draft;
-}
+import { DraftField, useDraftForm } from '@/components/ui/number-field';
+import { ErrorNotice, Pending } from '@/components/ui/query-state';
+import { outcomeOfError, SaveNotice, type SaveOutcome } from '@/components/ui/save-notice';
+import { UnitToggle } from '@/components/ui/unit-toggle';
 
 /**
  * The shop's check limits: each rule's default with its source, the shop's
  * own value (blank = use the default), and reset. Builders edit; others read.
- * Keyed by version by the caller, so a newer save replaces the drafts.
+ * Built from `limitRules`, one card per rule. Lengths follow the unit toggle
+ * and save in inches. A newer answer (after a save or a reload) replaces the drafts and keeps the notice.
  */
 export function LimitSettings({ answer, canEdit, onReload }: { answer: ShopLimitsAnswer; canEdit: boolean; onReload: () => void }) {
   const save = useSaveShopLimitsMutation();
-  const [draft, setDraft] = useState<Draft>(() => draftFrom(answer));
-  const [errors, setErrors] = useState<Record<string, string>>({});
   const [outcome, setOutcome] = useState<SaveOutcome | null>(null);
+  const { form, units, loadError } = useDraftForm<LimitDraft, CheckLimitOverrides>({
+    specs: limitSpecs,
+    schema: limitOverridesSchema,
+    others: () => ({}),
+    defaultValues: limitDraftFrom(answer.limits),
+  });
+  const { control, handleSubmit, setError, setValue, reset: resetForm } = form;
+  const drafts = useWatch({ control });
+  useEffect(() => {
+    resetForm(limitDraftFrom(answer.limits));
+  }, [answer, resetForm]);
 
-  const set = (key: RuleKey, part: Part, text: string) => setDraft((d) => ({ ...d, [key]: { ...d[key], [part]: text } }));
+  const submit = handleSubmit(
+    async (limits) => {
+      setOutcome(null);
+      try {
+        await save.mutateAsync({ version: answer.version, limits });
+        setOutcome({ kind: 'saved', message: 'Saved. The next fit-check run uses these limits.' });
+      } catch (error) {
+        setOutcome(
+          outcomeOfError(error, limitFieldPaths, 'limits.', (path, message) =>
+            setError(path as FieldPath<LimitDraft>, { type: 'server', message }, { shouldFocus: true }),
+          ),
+        );
+      }
+    },
+    () => setOutcome({ kind: 'error', message: 'Not saved. Fix the fields marked in red, then save again.' }),
+  );
 
-  const submit = async () => {
-    const limits: CheckLimitOverrides = {};
-    const found: Record<string, string> = {};
-    for (const r of rules) {
-      const own: Partial<Record<Part, number>> = {};
-      for (const p of r.parts) {
-        const text = draft[r.key][p] ?? '';
-        const n = parseNumberText(text);
-        if (n === null) continue;
-        if (Number.isNaN(n)) found[`${r.key}.${p}`] = `${partLabel[p]} must be a number (${r.unit})`;
-        else own[p] = n;
-      }
-      if (Object.keys(own).length > 0) (limits as Record<string, unknown>)[r.key] = own;
-    }
-    setErrors(found);
-    if (Object.keys(found).length > 0) {
-      setOutcome({ kind: 'error', message: 'Not saved. Fix the fields marked in red, then save again.' });
-      return;
-    }
-    try {
-      await save.mutateAsync({ version: answer.version, limits });
-      setOutcome({ kind: 'saved', message: 'Saved. The next fit-check run uses these limits.' });
-    } catch (error) {
-      if (error instanceof ApiError && error.status === 409) return setOutcome({ kind: 'conflict', message: error.message });
-      if (error instanceof ApiError && Object.keys(error.fields).length > 0) {
-        setErrors(Object.fromEntries(Object.entries(error.fields).map(([k, v]) => [k.replace(/^limits\./, ''), v])));
-      }
-      setOutcome({ kind: 'error', message: `Not saved. ${error instanceof Error ? error.message : 'Try again.'}` });
+  const reset = (rule: LimitRule) => {
+    for (const part of rule.parts) {
+      const spec = limitSpec(rule, part);
+      setValue(spec.path as FieldPath<LimitDraft>, draftFromValue(spec, null) as never, { shouldDirty: true });
     }
   };
 
+  if (loadError) return <ErrorNotice error={loadError} />;
+  if (!units) return <Pending label="Loading unit conversion…" />;
   return (
     <View style={styles.wrap} testID="limit-settings">
+      <UnitToggle volume={false} />
       <View style={styles.grid}>
-        {rules.map((r) => {
-          const def = answer.defaults[r.key];
-          const now = answer.resolved[r.key];
-          const changed = r.parts.some((p) => (draft[r.key][p] ?? '') !== '');
+        {limitRules.map((rule) => {
+          const def = answer.defaults[rule.key];
+          const now = answer.resolved[rule.key];
+          const changed = rule.parts.some((part) => (drafts[rule.key]?.[part]?.text ?? '') !== '');
           return (
-            <View key={r.key} style={styles.rule} testID={`limit-${r.key}`}>
+            <View key={rule.key} style={styles.rule} testID={`limit-${rule.key}`}>
               <Text role="heading" aria-level={3} style={styles.title}>
-                {r.title}
+                {rule.title}
               </Text>
-              <Text style={styles.what}>{r.what}</Text>
+              <Text style={styles.what}>{rule.what}</Text>
               <Text style={styles.line}>
-                Default:{' '}
-                {r.parts.map((p) => `${partLabel[p].toLowerCase()} ${ruleNumber(def, p)} ${r.unit}`).join(', ')} — {def.source}
+                Default: {ruleText(rule, def, units)} — {def.source}
               </Text>
-              <Text style={styles.line} testID={`limit-${r.key}-applies`}>
-                In use: {r.parts.map((p) => `${partLabel[p].toLowerCase()} ${ruleNumber(now, p)} ${r.unit}`).join(', ')} — {now.source}
+              <Text style={styles.line} testID={`limit-${rule.key}-applies`}>
+                In use: {ruleText(rule, now, units)} — {now.source}
               </Text>
               <View style={styles.fields}>
-                {r.parts.map((p) => (
-                  <View key={p} style={styles.field}>
-                    <TextField
-                      label={`Shop ${partLabel[p].toLowerCase()}`}
-                      unit={r.unit}
-                      value={draft[r.key][p] ?? ''}
-                      onChangeText={(t) => set(r.key, p, t)}
-                      placeholder={`default ${ruleNumber(def, p)}`}
-                      editable={canEdit}
-                      inputMode="decimal"
-                      error={errors[`${r.key}.${p}`]}
-                      testID={`limit-${r.key}-${p}`}
-                    />
+                {rule.parts.map((part) => (
+                  <View key={part} style={styles.field}>
+                    <DraftField control={control} spec={limitSpec(rule, part)} units={units} editable={canEdit} testPrefix="limit" />
                   </View>
                 ))}
               </View>
@@ -128,9 +102,9 @@ export function LimitSettings({ answer, canEdit, onReload }: { answer: ShopLimit
                 <Button
                   label="Reset to default"
                   variant="quiet"
-                  aria-label={`Reset to default: ${r.title.toLowerCase()}`}
-                  onPress={() => setDraft((d) => ({ ...d, [r.key]: Object.fromEntries(r.parts.map((p) => [p, ''])) }))}
-                  testID={`limit-${r.key}-reset`}
+                  aria-label={`Reset to default: ${rule.title.toLowerCase()}`}
+                  onPress={() => reset(rule)}
+                  testID={`limit-${rule.key}-reset`}
                 />
               ) : null}
             </View>

@@ -1,9 +1,26 @@
-import type { MeasureConfig } from '@/components/measure/measure-form';
+import type { MeasureConfig, MeasureNumber } from '@/components/measure/measure-form';
+import { rangeOf, type Quantity } from '@/lib/number-draft';
+import { degreeSchema, ptvBaselineSchema, pushrodSchema, springsSchema } from '@/shared/measurements';
 
+type Bounded = Parameters<typeof rangeOf>[0];
+type Shown = { quantity: Quantity | null; unit: string; digits: number };
+
+/** Lengths follow the unit toggle and save in inches; loads and rates too. Degrees keep their unit. */
+const inches: Shown = { quantity: 'length', unit: 'in', digits: 3 };
+const lbf: Shown = { quantity: 'force', unit: 'lbf', digits: 0 };
+const lbfPerIn: Shown = { quantity: 'rate', unit: 'lbf/in', digits: 0 };
+const degrees = (unit: string): Shown => ({ quantity: null, unit, digits: 0 });
+
+/** A number field with its range from the shared schema, so the form and the server agree. */
+function num(key: string, label: string, schema: Bounded, shown: Shown, more: Partial<MeasureNumber> = {}): MeasureNumber {
+  return { key, label, ...shown, ...rangeOf(schema), ...more };
+}
+
+const ptv = ptvBaselineSchema.shape.intake.element.shape;
 const ptvColumns = [
-  { key: 'crankAngle', label: 'Crank angle', unit: '° ATDC', hint: 'Before TDC is negative, e.g. −10' },
-  { key: 'clearance', label: 'Clearance', unit: 'in' },
-  { key: 'valveLift', label: 'Old cam valve lift there', unit: 'in', hint: 'Leave blank if not measured', blank: 'default' as const },
+  num('crankAngle', 'Crank angle', ptv.crankAngle, degrees('° ATDC'), { hint: 'Before TDC is negative, e.g. −10' }),
+  num('clearance', 'Clearance', ptv.clearance, inches),
+  num('valveLift', 'Old cam valve lift there', ptv.valveLift, inches, { hint: 'Leave blank if not measured', optional: true, blank: 'default' }),
 ];
 
 /** Piston-to-valve clearance with the old cam, per valve, at one or more crank angles. */
@@ -21,15 +38,10 @@ export const ptvConfig: MeasureConfig = {
     { key: 'intake', title: 'Intake valve', rowName: 'Reading', columns: ptvColumns },
     { key: 'exhaust', title: 'Exhaust valve', rowName: 'Reading', columns: ptvColumns },
   ],
-  blank: {
-    choice: 'clay',
-    scalars: {},
-    rows: {
-      intake: [{ crankAngle: '-10', clearance: '', valveLift: '' }],
-      exhaust: [{ crankAngle: '10', clearance: '', valveLift: '' }],
-    },
-  },
+  blank: { method: 'clay', intake: [{ crankAngle: -10 }], exhaust: [{ crankAngle: 10 }] },
 };
+
+const spring = springsSchema.shape.springs.element.shape;
 
 /** Valve springs as installed: per valve, per head, or one set for all. */
 export const springsConfig: MeasureConfig = {
@@ -41,52 +53,44 @@ export const springsConfig: MeasureConfig = {
       rowName: 'Spring',
       columns: [
         { key: 'where', label: 'Which valve or head', text: true, hint: 'e.g. 3E or left head' },
-        { key: 'installedHeight', label: 'Installed height', unit: 'in' },
-        { key: 'seatLoad', label: 'Seat load', unit: 'lbf' },
-        { key: 'rate', label: 'Spring rate', unit: 'lbf/in' },
-        { key: 'coilBindHeight', label: 'Coil-bind height', unit: 'in' },
-        { key: 'retainerToSeal', label: 'Retainer-to-seal at seat', unit: 'in' },
+        num('installedHeight', 'Installed height', spring.installedHeight, inches),
+        num('seatLoad', 'Seat load', spring.seatLoad, lbf),
+        num('rate', 'Spring rate', spring.rate, lbfPerIn),
+        num('coilBindHeight', 'Coil-bind height', spring.coilBindHeight, inches),
+        num('retainerToSeal', 'Retainer-to-seal at seat', spring.retainerToSeal, inches),
       ],
     },
   ],
-  blank: {
-    choice: '',
-    scalars: {},
-    rows: { springs: [{ where: '', installedHeight: '', seatLoad: '', rate: '', coilBindHeight: '', retainerToSeal: '' }] },
-  },
+  blank: { springs: [{ where: '' }] },
 };
+
+const pushrod = pushrodSchema.shape;
 
 /** Checking pushrod, lifter plunger travel and preload. */
 export const pushrodConfig: MeasureConfig = {
   kind: 'pushrod',
   scalars: [
-    { key: 'checkingLength', label: 'Checking pushrod at zero lash', unit: 'in' },
-    { key: 'currentLength', label: 'Pushrod in the engine', unit: 'in', hint: 'Blank if not known', blank: 'null' },
-    { key: 'plungerTravel', label: 'Lifter plunger travel', unit: 'in' },
-    { key: 'targetPreload', label: 'Target preload', unit: 'in' },
-    { key: 'originalPreload', label: 'Preload with the old cam', unit: 'in', hint: 'Blank if not measured', blank: 'null' },
-    { key: 'stockBaseCircle', label: 'Stock base circle', unit: 'in' },
+    num('checkingLength', 'Checking pushrod at zero lash', pushrod.checkingLength, inches),
+    num('currentLength', 'Pushrod in the engine', pushrod.currentLength, inches, { hint: 'Blank if not known', optional: true }),
+    num('plungerTravel', 'Lifter plunger travel', pushrod.plungerTravel, inches),
+    num('targetPreload', 'Target preload', pushrod.targetPreload, inches),
+    num('originalPreload', 'Preload with the old cam', pushrod.originalPreload, inches, { hint: 'Blank if not measured', optional: true }),
+    num('stockBaseCircle', 'Stock base circle', pushrod.stockBaseCircle, inches),
   ],
-  blank: {
-    choice: '',
-    scalars: { checkingLength: '', currentLength: '', plungerTravel: '', targetPreload: '', originalPreload: '', stockBaseCircle: '' },
-    rows: {},
-  },
+  blank: {},
 };
+
+const degree = degreeSchema.shape;
 
 /** Degree-wheel readings at cam install: piston stops and equal lift on both intake flanks. */
 export const degreeConfig: MeasureConfig = {
   kind: 'degree',
   scalars: [
-    { key: 'stopBefore', label: 'Piston stop before TDC', unit: '° BTDC' },
-    { key: 'stopAfter', label: 'Piston stop after TDC', unit: '° ATDC' },
-    { key: 'checkingLift', label: 'Dial reading on both flanks', unit: 'in', hint: 'e.g. 0.050' },
-    { key: 'openingAngle', label: 'Opening-flank angle', unit: '° ATDC' },
-    { key: 'closingAngle', label: 'Closing-flank angle', unit: '° ATDC' },
+    num('stopBefore', 'Piston stop before TDC', degree.stopBefore, degrees('° BTDC')),
+    num('stopAfter', 'Piston stop after TDC', degree.stopAfter, degrees('° ATDC')),
+    num('checkingLift', 'Dial reading on both flanks', degree.checkingLift, inches, { hint: 'e.g. 0.050' }),
+    num('openingAngle', 'Opening-flank angle', degree.openingAngle, degrees('° ATDC')),
+    num('closingAngle', 'Closing-flank angle', degree.closingAngle, degrees('° ATDC')),
   ],
-  blank: {
-    choice: '',
-    scalars: { stopBefore: '', stopAfter: '', checkingLift: '0.050', openingAngle: '', closingAngle: '' },
-    rows: {},
-  },
+  blank: { checkingLift: 0.05 },
 };

@@ -1,31 +1,32 @@
 import { useEffect, useMemo, useState, type ReactNode } from 'react';
-import { Controller, useFieldArray, useForm, useWatch, type Control, type FieldValues } from 'react-hook-form';
+import { Controller, useFieldArray, useFormState, useWatch, type Control, type FieldPath, type FieldValues } from 'react-hook-form';
 import { StyleSheet, Text, View } from 'react-native';
+import { z } from 'zod';
 
 import { formatDateTime } from '@/constants/format';
 import { colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
-import { ApiError } from '@/lib/api';
 import { useCreateMeasurementMutation, useSaveMeasurementMutation } from '@/hooks/use-measurements';
 import type { Measurement, MeasurementCreate, MeasurementKind } from '@/shared/measurements';
 import { measurementDataSchemas } from '@/shared/measurements';
-import { parseNumberText } from '@/lib/number-draft';
+import { draftFromValue, getAt, type NumberDraft, type NumberSpec } from '@/lib/number-draft';
 
 import { Button } from '@/components/ui/button';
 import { ChoiceGroup } from '@/components/ui/choice-group';
-import { SaveNotice, type SaveOutcome } from '@/components/ui/save-notice';
+import { DraftField, useDraftForm } from '@/components/ui/number-field';
+import { ErrorNotice, Pending } from '@/components/ui/query-state';
+import { outcomeOfError, SaveNotice, type SaveOutcome } from '@/components/ui/save-notice';
 import { TextField } from '@/components/ui/text-field';
 
-/** One input: a number in a fixed unit, or a short text. */
-export type MeasureField = {
+/** A number input: a NumberSpec without its path (the form gives it one, per row in a group). */
+export type MeasureNumber = Omit<NumberSpec, 'path'> & {
   key: string;
-  label: string;
-  unit?: string;
-  hint?: string;
-  /** A text field (e.g. which valve) rather than a number. */
-  text?: boolean;
-  /** Blank saves as null (`'null'`) or leaves the schema's default (`'default'`). */
-  blank?: 'null' | 'default';
+  text?: undefined;
+  /** Blank leaves the schema's default in place instead of saving null. */
+  blank?: 'default';
 };
+/** A short text input (e.g. which valve). */
+export type MeasureText = { key: string; label: string; hint?: string; text: true };
+export type MeasureField = MeasureNumber | MeasureText;
 
 /** A list of readings with the same columns, rows added and removed by the tech. */
 export type MeasureGroup = { key: string; title: string; rowName: string; columns: MeasureField[] };
@@ -38,13 +39,69 @@ export type MeasureConfig = {
   choice?: MeasureChoice;
   scalars?: MeasureField[];
   groups?: MeasureGroup[];
-  /** What to start from when nothing is recorded yet. */
-  blank: Draft;
+  /** What to start from when nothing is recorded yet, as a (partial) record; fields not named start blank. */
+  blank: Record<string, unknown>;
 };
 
-type Row = Record<string, string>;
-/** What the form holds: text as typed. */
-export type Draft = { choice: string; scalars: Row; rows: Record<string, Row[]> };
+/** What the form holds: the record's own shape, with a number draft wherever the record has a number. */
+export type MeasureDraft = Record<string, unknown>;
+
+const specOf = (field: MeasureNumber, path: string): NumberSpec => ({ ...field, path });
+
+/** Every field of a record as the form holds it now: scalars, then each row of each group. */
+function fieldsOf(config: MeasureConfig, values: MeasureDraft): { path: string; field: MeasureField }[] {
+  const fields = (config.scalars ?? []).map((field) => ({ path: field.key, field }));
+  for (const g of config.groups ?? []) {
+    const rows = getAt(values, g.key);
+    const count = Array.isArray(rows) ? rows.length : 0;
+    for (let i = 0; i < count; i++) fields.push(...g.columns.map((field) => ({ path: `${g.key}.${i}.${field.key}`, field })));
+  }
+  return fields;
+}
+
+function numberSpecs(config: MeasureConfig, values: MeasureDraft): NumberSpec[] {
+  return fieldsOf(config, values).flatMap(({ path, field }) => (field.text ? [] : [specOf(field, path)]));
+}
+
+function rowDraft(columns: MeasureField[], item: Record<string, unknown>): Record<string, unknown> {
+  return Object.fromEntries(
+    columns.map((c) => {
+      const saved = item[c.key];
+      return [c.key, c.text ? String(saved ?? '') : draftFromValue(specOf(c, c.key), typeof saved === 'number' ? saved : null)];
+    }),
+  );
+}
+
+/** A saved record (or the config's blank) as the form's drafts. */
+export function measureDraftFrom(config: MeasureConfig, data: unknown): MeasureDraft {
+  const record = (typeof data === 'object' && data !== null ? data : config.blank) as Record<string, unknown>;
+  const draft: MeasureDraft = {};
+  if (config.choice) draft[config.choice.key] = String(record[config.choice.key] ?? '');
+  Object.assign(draft, rowDraft(config.scalars ?? [], record));
+  for (const g of config.groups ?? []) {
+    const list = Array.isArray(record[g.key]) ? (record[g.key] as Record<string, unknown>[]) : [];
+    draft[g.key] = list.map((item) => rowDraft(g.columns, item));
+  }
+  return draft;
+}
+
+/** The shared schema for the kind, after blanks that mean "use the default" are left out (never saved as zero or null). */
+function recordSchema(config: MeasureConfig, values: MeasureDraft) {
+  const defaults = fieldsOf(config, values).filter(({ field }) => !field.text && field.blank === 'default');
+  return z.preprocess((record) => {
+    for (const { path } of defaults) {
+      const parent = getAt(record, path.split('.').slice(0, -1).join('.')) as Record<string, unknown> | undefined;
+      const key = path.split('.').pop()!;
+      if (parent && parent[key] === null) delete parent[key];
+    }
+    return record;
+  }, measurementDataSchemas[config.kind]);
+}
+
+/** Every path the form shows, for placing the server's field messages. */
+function knownPaths(config: MeasureConfig, values: MeasureDraft): string[] {
+  return [...(config.choice ? [config.choice.key] : []), ...(config.groups ?? []).map((g) => g.key), ...fieldsOf(config, values).map((f) => f.path)];
+}
 
 type MeasureFormProps = {
   jobId: string;
@@ -53,138 +110,74 @@ type MeasureFormProps = {
   canWrite: boolean;
   testID: string;
   /** Live read-outs computed from what is typed (e.g. true TDC and ICL). */
-  aside?: (draft: Draft) => ReactNode;
+  aside?: (draft: MeasureDraft) => ReactNode;
 };
-
-function toText(value: unknown): string {
-  return value === null || value === undefined ? '' : String(value);
-}
-
-/** A saved record as text for the form. */
-function draftFrom(config: MeasureConfig, data: unknown): Draft {
-  if (typeof data !== 'object' || data === null) return config.blank;
-  const record = data as Record<string, unknown>;
-  const scalars: Row = {};
-  for (const f of config.scalars ?? []) scalars[f.key] = toText(record[f.key]);
-  const rows: Record<string, Row[]> = {};
-  for (const g of config.groups ?? []) {
-    const list = Array.isArray(record[g.key]) ? (record[g.key] as Record<string, unknown>[]) : [];
-    rows[g.key] = list.map((item) => Object.fromEntries(g.columns.map((c) => [c.key, toText(item[c.key])])));
-  }
-  return { choice: config.choice ? toText(record[config.choice.key]) : '', scalars, rows };
-}
-
-function valueOf(field: MeasureField, text: string): unknown {
-  if (field.text) return text;
-  const n = parseNumberText(text ?? '');
-  if (n === null) return field.blank === 'null' ? null : field.blank === 'default' ? undefined : null;
-  return n;
-}
-
-/** The form's text as the record the shared schema takes. */
-export function dataFrom(config: MeasureConfig, draft: Draft): Record<string, unknown> {
-  const data: Record<string, unknown> = {};
-  if (config.choice) data[config.choice.key] = draft.choice;
-  for (const f of config.scalars ?? []) {
-    const v = valueOf(f, draft.scalars[f.key] ?? '');
-    if (v !== undefined) data[f.key] = v;
-  }
-  for (const g of config.groups ?? []) {
-    data[g.key] = (draft.rows[g.key] ?? []).map((row) => {
-      const out: Record<string, unknown> = {};
-      for (const c of g.columns) {
-        const v = valueOf(c, row[c.key] ?? '');
-        if (v !== undefined) out[c.key] = v;
-      }
-      return out;
-    });
-  }
-  if (config.kind === 'degree') data.table ??= [];
-  return data;
-}
-
-/** Maps a schema or server path (`intake.0.clearance`) onto the form's field name. */
-function formPath(config: MeasureConfig, path: string): string {
-  const clean = path.replace(/^data\./, '');
-  const head = clean.split('.')[0] ?? '';
-  if (config.choice?.key === head) return 'choice';
-  if ((config.groups ?? []).some((g) => g.key === head)) return clean.includes('.') ? `rows.${clean}` : `group.${head}`;
-  return `scalars.${clean}`;
-}
 
 /**
  * One kind of measurement as a form: a choice, single values and rows of
- * readings. Checks with the same schema the server uses, then saves (first
- * save creates the record; later saves replace it, guarded by version).
+ * readings, numbers in the units on the toggle. Checks with the same schema
+ * the server uses, then saves in inches (first save creates the record; later
+ * saves replace it, guarded by version). A blank optional reading stays "not measured".
  */
 export function MeasureForm({ jobId, config, current, canWrite, testID, aside }: MeasureFormProps) {
-  const initial = useMemo(() => (current ? draftFrom(config, current.data) : config.blank), [config, current]);
-  const form = useForm<Draft>({ defaultValues: initial });
-  const { control, handleSubmit, reset, setError, clearErrors } = form;
-  const [groupErrors, setGroupErrors] = useState<Record<string, string>>({});
+  const initial = useMemo(() => measureDraftFrom(config, current?.data), [config, current]);
   const [outcome, setOutcome] = useState<SaveOutcome | null>(null);
   const create = useCreateMeasurementMutation(jobId);
   const save = useSaveMeasurementMutation(jobId);
-  const draft = useWatch({ control }) as Draft;
+  // The fields follow the rows: a row added or removed changes which numbers the resolver checks.
+  const { form, units, loadError } = useDraftForm<MeasureDraft, Record<string, unknown>>({
+    specs: (values) => numberSpecs(config, values),
+    schema: (values) => recordSchema(config, values),
+    others: (values) => values,
+    defaultValues: initial,
+  });
+  const { control, handleSubmit, reset, setError } = form;
+  const draft = useWatch({ control }) as MeasureDraft;
 
   // A newer record from the server (after a save or a reload) replaces the form.
   useEffect(() => {
     reset(initial);
   }, [initial, reset]);
 
-  const placeErrors = (errors: Record<string, string>) => {
-    const groups: Record<string, string> = {};
-    const other: string[] = [];
-    for (const [path, message] of Object.entries(errors)) {
-      const target = formPath(config, path);
-      if (target.startsWith('group.')) groups[target.slice(6)] ??= message;
-      else if (target === 'scalars.table') other.push(message);
-      else setError(target as never, { type: 'check', message });
-    }
-    setGroupErrors(groups);
-    return other;
-  };
+  const submit = handleSubmit(
+    async (data) => {
+      setOutcome(null);
+      try {
+        if (current) await save.mutateAsync({ id: current.id, version: current.version, data });
+        else await create.mutateAsync({ kind: config.kind, note: '', data } as MeasurementCreate);
+        setOutcome({ kind: 'saved', message: 'Saved. Run the fit checks to see what it means for the cam.' });
+      } catch (error) {
+        setOutcome(
+          outcomeOfError(error, knownPaths(config, form.getValues()), 'data.', (path, message) =>
+            setError(path as FieldPath<MeasureDraft>, { type: 'server', message }, { shouldFocus: true }),
+          ),
+        );
+      }
+    },
+    () => setOutcome({ kind: 'error', message: 'Not saved. Fix the fields marked in red, then save again.' }),
+  );
 
-  const submit = handleSubmit(async (values) => {
-    clearErrors();
-    setGroupErrors({});
-    const data = dataFrom(config, values);
-    const parsed = measurementDataSchemas[config.kind].safeParse(data);
-    if (!parsed.success) {
-      const errors: Record<string, string> = {};
-      for (const issue of parsed.error.issues) errors[issue.path.map(String).join('.')] ??= issue.message;
-      const other = placeErrors(errors);
-      setOutcome({ kind: 'error', message: `Not saved. ${other.length ? other.join('. ') : 'Fix the fields marked in red, then save again.'}` });
-      return;
-    }
-    try {
-      if (current) await save.mutateAsync({ id: current.id, version: current.version, data: parsed.data });
-      else await create.mutateAsync({ kind: config.kind, note: '', data: parsed.data } as MeasurementCreate);
-      setOutcome({ kind: 'saved', message: 'Saved. Run the fit checks to see what it means for the cam.' });
-    } catch (error) {
-      if (error instanceof ApiError && error.status === 409) {
-        setOutcome({ kind: 'conflict', message: error.message });
-        return;
-      }
-      if (error instanceof ApiError && Object.keys(error.fields).length > 0) {
-        const other = placeErrors(error.fields);
-        setOutcome({ kind: 'error', message: `Not saved. ${other.length ? other.join('. ') : 'Fix the fields marked in red, then save again.'}` });
-        return;
-      }
-      setOutcome({ kind: 'error', message: `Not saved. ${error instanceof Error ? error.message : 'Try again.'}` });
-    }
-  });
+  if (loadError) return <ErrorNotice error={loadError} />;
+  if (!units) return <Pending label="Loading unit conversion…" />;
+  const cell = (path: string, field: MeasureField) =>
+    field.text ? (
+      <TextCell key={field.key} control={control} path={path} field={field} editable={canWrite} testID={`${testID}-${path.replace(/\./g, '-')}`} />
+    ) : (
+      <View key={field.key} style={styles.cell}>
+        <DraftField control={control} spec={specOf(field, path)} units={units} editable={canWrite} testPrefix={testID} />
+      </View>
+    );
 
   return (
     <View style={styles.form} testID={testID}>
       {config.choice ? (
         <Controller
           control={control}
-          name="choice"
+          name={config.choice.key}
           render={({ field }) => (
             <ChoiceGroup
               label={config.choice?.label ?? ''}
-              value={field.value}
+              value={String(field.value ?? '')}
               choices={config.choice?.choices ?? []}
               onChange={canWrite ? field.onChange : () => undefined}
               testID={`${testID}-${config.choice?.key}`}
@@ -192,15 +185,9 @@ export function MeasureForm({ jobId, config, current, canWrite, testID, aside }:
           )}
         />
       ) : null}
-      {config.scalars?.length ? (
-        <View style={styles.cells}>
-          {config.scalars.map((f) => (
-            <Cell key={f.key} control={control} name={`scalars.${f.key}`} field={f} editable={canWrite} testID={`${testID}-${f.key}`} />
-          ))}
-        </View>
-      ) : null}
+      {config.scalars?.length ? <View style={styles.cells}>{config.scalars.map((f) => cell(f.key, f))}</View> : null}
       {(config.groups ?? []).map((g) => (
-        <GroupRows key={g.key} control={control} group={g} editable={canWrite} error={groupErrors[g.key]} testID={`${testID}-${g.key}`} />
+        <GroupRows key={g.key} control={control} group={g} editable={canWrite} cell={cell} testID={`${testID}-${g.key}`} />
       ))}
       {aside ? aside(draft) : null}
       {current ? (
@@ -228,37 +215,26 @@ export function MeasureForm({ jobId, config, current, canWrite, testID, aside }:
   );
 }
 
-function Cell({
-  control,
-  name,
-  field,
-  editable,
-  testID,
-  rowLabel,
-}: {
-  control: Control<Draft>;
-  name: string;
-  field: MeasureField;
-  editable: boolean;
-  testID: string;
-  rowLabel?: string;
-}) {
+/** The number a draft holds, or null when it is blank or not a number (for live read-outs). */
+export function draftNumber(draft: unknown): number | null {
+  const value = (draft as NumberDraft | undefined)?.value;
+  return typeof value === 'number' && Number.isFinite(value) ? value : null;
+}
+
+function TextCell({ control, path, field, editable, testID }: { control: Control<MeasureDraft>; path: string; field: MeasureText; editable: boolean; testID: string }) {
   return (
     <View style={styles.cell}>
       <Controller
         control={control as unknown as Control<FieldValues>}
-        name={name}
+        name={path}
         render={({ field: f, fieldState }) => (
           <TextField
             label={field.label}
-            accessibilityHint={rowLabel}
-            unit={field.unit}
             hint={field.hint}
             value={f.value == null ? '' : String(f.value)}
             onChangeText={f.onChange}
             onBlur={f.onBlur}
             editable={editable}
-            inputMode={field.text ? 'text' : 'decimal'}
             error={fieldState.error?.message}
             testID={testID}
           />
@@ -272,17 +248,20 @@ function GroupRows({
   control,
   group,
   editable,
-  error,
+  cell,
   testID,
 }: {
-  control: Control<Draft>;
+  control: Control<MeasureDraft, unknown, Record<string, unknown>>;
   group: MeasureGroup;
   editable: boolean;
-  error?: string;
+  cell: (path: string, field: MeasureField) => ReactNode;
   testID: string;
 }) {
-  const { fields, append, remove } = useFieldArray({ control: control as unknown as Control<FieldValues>, name: `rows.${group.key}` });
-  const blankRow = Object.fromEntries(group.columns.map((c) => [c.key, '']));
+  const { fields, append, remove } = useFieldArray({ control: control as unknown as Control<FieldValues>, name: group.key });
+  const { errors } = useFormState({ control, name: group.key });
+  // "Add at least one reading" and the like sit on the list itself.
+  const error = errors[group.key] as { message?: unknown; root?: { message?: unknown } } | undefined;
+  const message = typeof error?.message === 'string' ? error.message : typeof error?.root?.message === 'string' ? error.root.message : undefined;
   return (
     <View style={styles.group}>
       <Text role="heading" aria-level={3} style={styles.groupTitle}>
@@ -304,31 +283,19 @@ function GroupRows({
               />
             ) : null}
           </View>
-          <View style={styles.cells}>
-            {group.columns.map((c) => (
-              <Cell
-                key={c.key}
-                control={control}
-                name={`rows.${group.key}.${i}.${c.key}`}
-                field={c}
-                editable={editable}
-                rowLabel={`${group.rowName.toLowerCase()} ${i + 1}`}
-                testID={`${testID}-${i}-${c.key}`}
-              />
-            ))}
-          </View>
+          <View style={styles.cells}>{group.columns.map((c) => cell(`${group.key}.${i}.${c.key}`, c))}</View>
         </View>
       ))}
-      {error ? (
+      {message ? (
         <Text role="alert" style={styles.error} testID={`${testID}-error`}>
-          {error}
+          {message}
         </Text>
       ) : null}
       {editable ? (
         <Button
           label={`Add ${group.rowName.toLowerCase()}`}
           variant="secondary"
-          onPress={() => append(blankRow)}
+          onPress={() => append(rowDraft(group.columns, {}))}
           aria-label={`Add ${group.rowName.toLowerCase()} to ${group.title.toLowerCase()}`}
           testID={`${testID}-add`}
         />

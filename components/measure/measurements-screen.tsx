@@ -6,9 +6,10 @@ import { Button } from '@/components/ui/button';
 import { DegreeReadout } from '@/components/measure/degree-readout';
 import { LobeBench } from '@/components/measure/lobe-bench';
 import { degreeConfig, ptvConfig, pushrodConfig, springsConfig } from '@/components/measure/measure-configs';
-import { MeasureForm } from '@/components/measure/measure-form';
+import { draftNumber, MeasureForm } from '@/components/measure/measure-form';
 import { ErrorNotice, Pending } from '@/components/ui/query-state';
 import { Screen, Section } from '@/components/ui/screen';
+import { UnitToggle } from '@/components/ui/unit-toggle';
 import { SheetChoice } from '@/components/sheet/sheet-choice';
 import { breakpoints, colors, space, type as typeScale } from '@/constants/theme';
 import { useCheckedSheet } from '@/state/fit-check';
@@ -54,7 +55,7 @@ export function MeasurementsScreen({ id }: { id: string }) {
   );
   const springs = (
     <Section title="Valve springs">
-      <Text style={styles.help}>One row per valve (e.g. 3E), per head, or one for all. Heights in inches at the installed position.</Text>
+      <Text style={styles.help}>One row per valve (e.g. 3E), per head, or one for all. Heights at the installed position, in the units chosen above.</Text>
       <MeasureForm jobId={id} config={springsConfig} current={latestOfKind(list, 'springs')} canWrite={canWrite} testID="springs" />
     </Section>
   );
@@ -78,10 +79,10 @@ export function MeasurementsScreen({ id }: { id: string }) {
         testID="degree"
         aside={(draft) => (
           <DegreeReadout
-            stopBefore={draft.scalars?.stopBefore ?? ''}
-            stopAfter={draft.scalars?.stopAfter ?? ''}
-            openingAngle={draft.scalars?.openingAngle ?? ''}
-            closingAngle={draft.scalars?.closingAngle ?? ''}
+            stopBefore={draftNumber(draft.stopBefore)}
+            stopAfter={draftNumber(draft.stopAfter)}
+            openingAngle={draftNumber(draft.openingAngle)}
+            closingAngle={draftNumber(draft.closingAngle)}
             sheetIcl={sheet?.current.spec.icl ?? null}
             sheetName={sheetName}
           />
@@ -112,6 +113,7 @@ export function MeasurementsScreen({ id }: { id: string }) {
     >
       <Stack.Screen options={{ title: `Measurements · ${job.data.vehicle}` }} />
       <SheetChoice sheets={sheetList} value={sheetId} onChange={setSheetId} />
+      <UnitToggle volume={false} />
       {!canWrite ? <Text style={styles.help}>Your role in this shop can read measurements but not record them.</Text> : null}
       {wide ? (
         <View style={styles.columns}>

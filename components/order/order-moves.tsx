@@ -4,9 +4,9 @@ import { useForm } from 'react-hook-form';
 import { StyleSheet, Text, View } from 'react-native';
 import { z } from 'zod';
 
-import { centsFromText } from '@/constants/format';
 import { colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
 import { ApiError } from '@/lib/api';
+import { centsFromText } from '@/lib/number-draft';
 import { useMoveOrderMutation } from '@/hooks/use-orders';
 import { orderMoves, type Order, type OrderMove, type OrderStage } from '@/shared/orders';
 

@@ -1,7 +1,8 @@
 import { useState, type ReactNode } from 'react';
+import { Controller, useForm, useWatch } from 'react-hook-form';
 import { StyleSheet, Text, View } from 'react-native';
 
-import { centsFromText, formatCents, formatDateTime } from '@/constants/format';
+import { formatCents, formatDateTime } from '@/constants/format';
 import { colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
 import { ApiError } from '@/lib/api';
 import { copyText } from '@/lib/clipboard';
@@ -16,10 +17,14 @@ import {
   type NewShareLink,
 } from '@/hooks/use-owner-page';
 import { useJobSheetsQuery } from '@/hooks/use-sheets';
-import type { OwnerDesk, ShareLink } from '@/shared/owner';
+import { blankLink, blankOffer, linkDaysSpec, offerFieldPaths, offerNumberList, offerNumberSpecs, type LinkDraft, type OfferDraft } from '@/lib/offer-fields';
+import { ownerOptionCreateSchema, shareLinkCreateSchema, type OwnerDesk, type OwnerOptionCreate, type ShareLink, type ShareLinkCreate } from '@/shared/owner';
+import { calcUnits } from '@/state/units';
 
 import { Button } from '@/components/ui/button';
 import { ChoiceGroup } from '@/components/ui/choice-group';
+import { applyServerErrors, FormField } from '@/components/ui/form-field';
+import { DraftField, draftResolver } from '@/components/ui/number-field';
 import { ErrorNotice, Pending } from '@/components/ui/query-state';
 import { Section } from '@/components/ui/screen';
 import { TextField } from '@/components/ui/text-field';
@@ -146,39 +151,55 @@ export function OwnerOptions({ jobId, desk, canEdit }: { jobId: string; desk: Ow
   );
 }
 
-const blankOption = { sheetId: '', title: '', note: '', price: '', deposit: '', days: '' };
-
 function AddOption({ jobId }: { jobId: string }) {
   const sheets = useJobSheetsQuery(jobId);
   const add = useAddOwnerOptionMutation(jobId);
-  const [form, setForm] = useState(blankOption);
-  const set = (key: keyof typeof blankOption) => (value: string) => setForm((f) => ({ ...f, [key]: value }));
-  const { sheetId, title, note, price, deposit, days } = form;
-  const fields = add.error instanceof ApiError ? add.error.fields : {};
   const list = sheets.data ?? [];
+  const form = useForm<OfferDraft, unknown, OwnerOptionCreate>({
+    defaultValues: blankOffer(),
+    resolver: draftResolver<OfferDraft, OwnerOptionCreate>(
+      offerNumberList,
+      ownerOptionCreateSchema,
+      (v) => ({ sheetId: v.sheetId, title: v.title.trim() || list.find((s) => s.id === v.sheetId)?.current.label || '', ownerNote: v.ownerNote }),
+      calcUnits,
+    ),
+  });
+  const [refused, setRefused] = useState<string | null>(null);
+  const sheetId = useWatch({ control: form.control, name: 'sheetId' });
   if (!list.length) return <Text style={styles.hint}>Start a spec sheet on this job to offer it.</Text>;
   const chosen = list.find((s) => s.id === sheetId);
-  const submit = () =>
-    add.mutate(
-      { sheetId, title: title.trim() || chosen?.current.label || '', ownerNote: note, priceCents: centsFromText(price), depositCents: centsFromText(deposit), leadTimeDays: Number(days) },
-      { onSuccess: () => setForm(blankOption) },
-    );
+  const submit = form.handleSubmit((option) => {
+    setRefused(null);
+    add.mutate(option, {
+      onSuccess: () => form.reset(blankOffer()),
+      onError: (error) => setRefused(applyServerErrors(error, form.setError, offerFieldPaths)),
+    });
+  });
+  const numbers = { control: form.control, units: calcUnits, testPrefix: 'add-option' };
   return (
     <View style={styles.form} testID="add-owner-option">
       <Text style={styles.optionTitle}>Offer another option</Text>
-      <ChoiceGroup label="Spec sheet" value={sheetId} choices={list.map((s) => ({ value: s.id, label: `${s.title} (rev ${s.current.number})` }))} onChange={set('sheetId')} testID="add-option-sheet" />
-      {fields.sheetId ? <Text style={styles.warn}>{fields.sheetId}</Text> : null}
-      <TextField label="Name for the owner" placeholder={chosen?.current.label} value={title} onChangeText={set('title')} error={fields.title} testID="add-option-title" />
-      <TextField label="A line for the owner" value={note} onChangeText={set('note')} multiline error={fields.ownerNote} testID="add-option-note" />
+      <Controller
+        control={form.control}
+        name="sheetId"
+        render={({ field, fieldState }) => (
+          <>
+            <ChoiceGroup label="Spec sheet" value={field.value} choices={list.map((s) => ({ value: s.id, label: `${s.title} (rev ${s.current.number})` }))} onChange={field.onChange} testID="add-option-sheet" />
+            {fieldState.error ? <Text style={styles.warn}>{fieldState.error.message}</Text> : null}
+          </>
+        )}
+      />
+      <FormField control={form.control} name="title" label="Name for the owner" placeholder={chosen?.current.label} testID="add-option-title" />
+      <FormField control={form.control} name="ownerNote" label="A line for the owner" multiline testID="add-option-note" />
       <View style={styles.row}>
-        <TextField label="Price" unit="$" value={price} onChangeText={set('price')} inputMode="decimal" error={fields.priceCents} testID="add-option-price" />
-        <TextField label="Deposit" unit="$" value={deposit} onChangeText={set('deposit')} inputMode="decimal" error={fields.depositCents} testID="add-option-deposit" />
-        <TextField label="Lead time" unit="days" value={days} onChangeText={set('days')} inputMode="numeric" error={fields.leadTimeDays} testID="add-option-days" />
+        <DraftField {...numbers} spec={offerNumberSpecs.price} testID="add-option-price" />
+        <DraftField {...numbers} spec={offerNumberSpecs.deposit} testID="add-option-deposit" />
+        <DraftField {...numbers} spec={offerNumberSpecs.leadTime} testID="add-option-days" />
       </View>
       <Button label="Offer this option" busy={add.isPending} disabled={!sheetId} onPress={submit} testID="add-option-submit" />
-      {add.error && !Object.keys(fields).length ? (
+      {refused ? (
         <Text role="alert" style={styles.warn}>
-          {add.error.message}
+          {refused}
         </Text>
       ) : null}
     </View>
@@ -189,11 +210,23 @@ function AddOption({ jobId }: { jobId: string }) {
 export function ShareLinks({ jobId, desk, canEdit }: { jobId: string; desk: OwnerDesk; canEdit: boolean }) {
   const create = useCreateShareLinkMutation(jobId);
   const revoke = useRevokeShareLinkMutation(jobId);
-  const [days, setDays] = useState('30');
-  const [email, setEmail] = useState('');
   const [made, setMade] = useState<NewShareLink | null>(null);
   const [copied, setCopied] = useState(false);
-  const fields = create.error instanceof ApiError ? create.error.fields : {};
+  const [refused, setRefused] = useState<string | null>(null);
+  const form = useForm<LinkDraft, unknown, ShareLinkCreate>({
+    defaultValues: blankLink(),
+    resolver: draftResolver<LinkDraft, ShareLinkCreate>([linkDaysSpec], shareLinkCreateSchema, (v) => (v.email.trim() ? { email: v.email.trim() } : {}), calcUnits),
+  });
+  const submit = form.handleSubmit((link) => {
+    setRefused(null);
+    create.mutate(link, {
+      onSuccess: (r) => {
+        setMade(r);
+        setCopied(false);
+      },
+      onError: (error) => setRefused(applyServerErrors(error, form.setError, ['expiresInDays', 'email'])),
+    });
+  });
   const copy = async (url: string) => {
     const done = await copyText(url);
     if (done !== null) setCopied(done);
@@ -215,29 +248,21 @@ export function ShareLinks({ jobId, desk, canEdit }: { jobId: string; desk: Owne
       {canEdit ? (
         <View style={styles.form}>
           <View style={styles.row}>
-            <TextField label="Works for" unit="days" value={days} onChangeText={setDays} inputMode="numeric" error={fields.expiresInDays} testID="share-link-days" />
-            <TextField label="E-mail it to (optional)" hint="The owner also gets a customer account under this address" value={email} onChangeText={setEmail} inputMode="email" autoComplete="email" error={fields.email} testID="share-link-email" />
+            <DraftField control={form.control} spec={linkDaysSpec} units={calcUnits} testPrefix="share-link" testID="share-link-days" />
+            <FormField
+              control={form.control}
+              name="email"
+              label="E-mail it to (optional)"
+              hint="The owner also gets a customer account under this address"
+              inputMode="email"
+              autoComplete="email"
+              testID="share-link-email"
+            />
           </View>
-          <Button
-            label="Make a link"
-            busy={create.isPending}
-            disabled={desk.options.length === 0}
-            onPress={() =>
-              create.mutate(
-                { expiresInDays: Number(days), ...(email.trim() ? { email: email.trim() } : {}) },
-                {
-                  onSuccess: (r) => {
-                    setMade(r);
-                    setCopied(false);
-                  },
-                },
-              )
-            }
-            testID="share-link-create"
-          />
-          {create.error && !Object.keys(fields).length ? (
+          <Button label="Make a link" busy={create.isPending} disabled={desk.options.length === 0} onPress={submit} testID="share-link-create" />
+          {refused ? (
             <Text role="alert" style={styles.warn}>
-              {create.error.message}
+              {refused}
             </Text>
           ) : null}
         </View>

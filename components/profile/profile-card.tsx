@@ -1,11 +1,12 @@
-import { Link } from 'expo-router';
 import { StyleSheet, Text, View } from 'react-native';
 
 import { formatDate } from '@/constants/format';
-import { colors, radius, space, type as typeScale } from '@/constants/theme';
+import { colors, space, type as typeScale } from '@/constants/theme';
 import type { UnitConverter } from '@/state/units';
 import { formatNumber } from '@/lib/number-draft';
 import type { Profile } from '@/shared/profile';
+
+import { LinkCard } from '@/components/ui/link-card';
 
 /** Lobe lift in the chosen length unit, or inches while the converter loads. */
 function lift(value: number, units: UnitConverter | null) {
@@ -24,7 +25,7 @@ export function ProfileCard({ profile, units }: { profile: Profile; units: UnitC
     ['ICL', `${formatNumber(icl, 1).replace(/\.0$/, '')}° ATDC`],
   ];
   return (
-    <Link href={{ pathname: '/profiles/[id]', params: { id: profile.id } }} style={styles.card} testID={`profile-card-${profile.id}`}>
+    <LinkCard href={{ pathname: '/profiles/[id]', params: { id: profile.id } }} edge={colors.intake} testID={`profile-card-${profile.id}`}>
       <View style={styles.inner}>
         <Text style={styles.label} numberOfLines={2}>
           {profile.label}
@@ -42,22 +43,12 @@ export function ProfileCard({ profile, units }: { profile: Profile; units: UnitC
         </View>
         <Text style={styles.meta}>Updated {formatDate(profile.updatedAt)}</Text>
       </View>
-    </Link>
+    </LinkCard>
   );
 }
 
 const styles = StyleSheet.create({
-  card: {
-    display: 'flex',
-    padding: space.lg,
-    backgroundColor: colors.surface,
-    borderRadius: radius.lg,
-    borderWidth: 1,
-    borderColor: colors.line,
-    borderLeftWidth: 5,
-    borderLeftColor: colors.intake,
-  },
-  inner: { gap: space.sm, width: '100%' },
+  inner: { gap: space.sm },
   label: { ...typeScale.heading, color: colors.ink },
   notes: { ...typeScale.body, color: colors.inkMuted },
   numbers: { flexDirection: 'row', flexWrap: 'wrap', columnGap: space.xl, rowGap: space.sm },

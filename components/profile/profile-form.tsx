@@ -1,9 +1,9 @@
-import { useEffect, useRef, useState } from 'react';
-import { Controller, useForm, type Control, type FieldPath } from 'react-hook-form';
-import { StyleSheet, Text, useWindowDimensions, View } from 'react-native';
+import { useState } from 'react';
+import { Controller, type Control, type FieldPath } from 'react-hook-form';
+import { StyleSheet, useWindowDimensions, View } from 'react-native';
 
-import { breakpoints, colors, space, type as typeScale } from '@/constants/theme';
-import { useUnits, type UnitConverter } from '@/state/units';
+import { breakpoints, space } from '@/constants/theme';
+import type { UnitConverter } from '@/state/units';
 import { draftFromValue, formatNumber } from '@/lib/number-draft';
 import { profileCreateSchema, type Profile, type ProfileCreate } from '@/shared/profile';
 import {
@@ -21,12 +21,11 @@ import {
 
 import { Button } from '@/components/ui/button';
 import { ChoiceGroup } from '@/components/ui/choice-group';
-import { DraftField, draftResolver } from '@/components/ui/number-field';
-import { ErrorNotice, Pending } from '@/components/ui/query-state';
+import { DraftField, useDraftForm } from '@/components/ui/number-field';
+import { DraftFormFrame } from '@/components/ui/draft-form-frame';
 import { outcomeOfError, SaveNotice, type SaveOutcome } from '@/components/ui/save-notice';
 import { Section } from '@/components/ui/screen';
-import { TextField } from '@/components/ui/text-field';
-import { UnitToggle } from '@/components/ui/unit-toggle';
+import { FormField } from '@/components/ui/form-field';
 
 type ProfileValues = { label: string; coreNotes: string; spec: ProfileCreate['spec'] };
 
@@ -48,33 +47,17 @@ type ProfileFormProps = {
  */
 export function ProfileForm({ profile, readOnly, submitLabel, busy, onSubmit, onReload }: ProfileFormProps) {
   const wide = useWindowDimensions().width >= breakpoints.wide;
-  const { converter, loadError, lengthSystem } = useUnits();
   const [version, setVersion] = useState(profile?.version ?? 0);
   const [outcome, setOutcome] = useState<SaveOutcome | null>(null);
   const [reloading, setReloading] = useState(false);
 
-  // Rebuilt each render with the current units; useForm reads its options on every render.
-  const resolver = draftResolver<ProfileDraft, ProfileValues>(
-    profileNumberList,
-    profileCreateSchema,
-    (values) => ({ label: values.label, coreNotes: values.coreNotes }),
-    converter,
-  );
-  const { control, handleSubmit, reset, setError, trigger, formState } = useForm<ProfileDraft, unknown, ProfileValues>({
-    resolver,
+  const { form, units: converter, loadError } = useDraftForm<ProfileDraft, ProfileValues>({
+    specs: profileNumberList,
+    schema: profileCreateSchema,
+    others: (values) => ({ label: values.label, coreNotes: values.coreNotes }),
     defaultValues: profileDraftFrom(profile),
   });
-
-  // Messages name a unit: after a switch, say them again in the new one. Keyed on the choice, not the
-  // converter object (a new one each render), and only on a change, so server messages stay put after a save.
-  const { isSubmitted } = formState;
-  const unitsKey = `${lengthSystem} ${converter !== null}`;
-  const shownIn = useRef(unitsKey);
-  useEffect(() => {
-    if (shownIn.current === unitsKey) return;
-    shownIn.current = unitsKey;
-    if (isSubmitted && converter) void trigger();
-  }, [unitsKey, isSubmitted, converter, trigger]);
+  const { control, handleSubmit, reset, setError, formState } = form;
 
   const submit = handleSubmit(async (values) => {
     setOutcome(null);
@@ -110,83 +93,67 @@ export function ProfileForm({ profile, readOnly, submitLabel, busy, onSubmit, on
   const editable = !readOnly;
 
   return (
-    <View style={styles.form}>
-      <Section title="Profile">
-        <Controller
-          control={control}
-          name="label"
-          render={({ field, fieldState }) => (
-            <TextField
+    <DraftFormFrame
+      head={
+        <>
+          <Section title="Profile">
+            <FormField
+              control={control}
+              name="label"
               label="Name"
               hint="What the shop calls it, e.g. stock-spec regrind or towing"
-              value={field.value}
-              onChangeText={field.onChange}
-              onBlur={field.onBlur}
-              error={fieldState.error?.message}
               editable={editable}
               testID="profile-label"
             />
-          )}
-        />
-        <Controller
-          control={control}
-          name="coreNotes"
-          render={({ field, fieldState }) => (
-            <TextField
+            <FormField
+              control={control}
+              name="coreNotes"
               label="Core notes"
               hint="The core it is ground on, its condition, anything the grinder said"
-              value={field.value}
-              onChangeText={field.onChange}
-              onBlur={field.onBlur}
-              error={fieldState.error?.message}
               editable={editable}
               multiline
               testID="profile-coreNotes"
             />
-          )}
-        />
-      </Section>
-      <View style={styles.toolbar}>
-        <UnitToggle volume={false} />
-        <Text style={styles.note}>Durations are crank degrees. Lengths save in inches whichever unit you type in.</Text>
-      </View>
-      {loadError ? (
-        <ErrorNotice error={loadError} />
-      ) : !converter ? (
-        <Pending label="Loading unit conversion…" />
-      ) : (
-        <>
-          <View style={wide ? styles.columns : styles.stack}>
-            {sides.map((side) => (
-              <View key={side} style={wide ? styles.column : undefined}>
-                <LobeSection side={side} control={control} units={converter} editable={editable} />
-              </View>
-            ))}
-          </View>
-          <Section title="Timing and base circle">
-            <View style={wide ? styles.columns : styles.stack}>
-              {[specs.lsa, specs.icl, specs.baseCircle].map((spec) => (
-                <View key={spec.path} style={wide ? styles.column : undefined}>
-                  <DraftField control={control} spec={spec} units={converter} editable={editable} testPrefix="profile" />
-                </View>
-              ))}
-            </View>
           </Section>
         </>
-      )}
-      {formState.errors.root ? <ErrorNotice error={new Error(formState.errors.root.message)} /> : null}
-      <SaveNotice outcome={outcome} onReload={reload} reloading={reloading} testID="profile-notice" />
-      {readOnly ? (
-        <Text style={styles.note}>Your role in this shop can read profiles; a builder writes them.</Text>
-      ) : (
-        <View style={styles.actions}>
+      }
+      unitNote="Durations are crank degrees. Lengths save in inches whichever unit you type in."
+      volume={false}
+      loadError={loadError}
+      ready={Boolean(converter)}
+      rootError={formState.errors.root?.message}
+      notice={<SaveNotice outcome={outcome} onReload={reload} reloading={reloading} testID="profile-notice" />}
+      readOnlyNote={readOnly ? 'Your role in this shop can read profiles; a builder writes them.' : null}
+      actions={
+        <>
           <Button label={busy ? 'Saving…' : submitLabel} onPress={submit} busy={busy} disabled={!converter} testID="profile-save" />
           {formState.isDirty && profile ? (
             <Button label="Discard changes" variant="quiet" onPress={() => reset()} testID="profile-discard" />
           ) : null}
+        </>
+      }
+    >
+      {converter ? (
+        <>
+        <View style={wide ? styles.columns : styles.stack}>
+          {sides.map((side) => (
+            <View key={side} style={wide ? styles.column : undefined}>
+              <LobeSection side={side} control={control} units={converter} editable={editable} />
+            </View>
+          ))}
         </View>
-      )}
-    </View>
+        <Section title="Timing and base circle">
+          <View style={wide ? styles.columns : styles.stack}>
+            {[specs.lsa, specs.icl, specs.baseCircle].map((spec) => (
+              <View key={spec.path} style={wide ? styles.column : undefined}>
+                <DraftField control={control} spec={spec} units={converter} editable={editable} testPrefix="profile" />
+              </View>
+            ))}
+          </View>
+        </Section>
+        </>
+      ) : null}
+    </DraftFormFrame>
   );
 }
 
@@ -224,12 +191,8 @@ function LobeSection({ side, control, units, editable }: LobeSectionProps) {
 }
 
 const styles = StyleSheet.create({
-  form: { gap: space.lg },
-  toolbar: { gap: space.sm },
   stack: { gap: space.lg },
   columns: { flexDirection: 'row', gap: space.lg, alignItems: 'flex-start' },
   column: { flex: 1, minWidth: 0 },
   field: { gap: space.sm },
-  actions: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', gap: space.md },
-  note: { ...typeScale.small, color: colors.inkMuted },
 });

@@ -4,8 +4,8 @@ import { ApiError } from '@/lib/api';
 
 import { TextField } from '@/components/ui/text-field';
 
-type FormFieldProps<T extends FieldValues> = {
-  control: Control<T>;
+type FormFieldProps<T extends FieldValues, TOut> = {
+  control: Control<T, unknown, TOut>;
   name: FieldPath<T>;
   label: string;
   unit?: string;
@@ -16,10 +16,14 @@ type FormFieldProps<T extends FieldValues> = {
   keyboardType?: 'default' | 'email-address' | 'numeric' | 'decimal-pad';
   autoComplete?: 'email' | 'name' | 'current-password' | 'new-password' | 'off';
   onSubmitEditing?: () => void;
+  placeholder?: string;
+  editable?: boolean;
+  autoCorrect?: boolean;
+  inputMode?: 'text' | 'email' | 'numeric' | 'decimal';
 };
 
 /** A TextField bound to a react-hook-form field, showing that field's error. */
-export function FormField<T extends FieldValues>({ control, name, ...rest }: FormFieldProps<T>) {
+export function FormField<T extends FieldValues, TOut = T>({ control, name, ...rest }: FormFieldProps<T, TOut>) {
   return (
     <Controller
       control={control}
@@ -31,7 +35,7 @@ export function FormField<T extends FieldValues>({ control, name, ...rest }: For
           onChangeText={field.onChange}
           onBlur={field.onBlur}
           error={fieldState.error?.message}
-          autoCapitalize={rest.keyboardType === 'email-address' ? 'none' : undefined}
+          autoCapitalize={rest.keyboardType === 'email-address' || rest.inputMode === 'email' ? 'none' : undefined}
         />
       )}
     />

@@ -1,4 +1,5 @@
-import { Controller, type Control, type FieldErrors, type FieldPath, type FieldValues, type Resolver } from 'react-hook-form';
+import { useEffect, useRef } from 'react';
+import { Controller, useForm, type Control, type DefaultValues, type FieldErrors, type FieldPath, type FieldValues, type Resolver } from 'react-hook-form';
 
 import {
   draftFromText,
@@ -11,6 +12,8 @@ import {
   type NumberSpec,
   type ShownUnits,
 } from '@/lib/number-draft';
+
+import { useUnits } from '@/state/units';
 
 import { TextField } from '@/components/ui/text-field';
 
@@ -57,13 +60,15 @@ type DraftFieldProps<T extends FieldValues, TOut> = {
   editable?: boolean;
   /** Test ids are the form's prefix and the field's path with dashes: `engine-spring-seatLoad`. */
   testPrefix: string;
+  /** A test id other than the one made from the path. */
+  testID?: string;
 };
 
 /** The test id for a number field: `engine` + `spring.seatLoad` → `engine-spring-seatLoad`. */
 export const fieldTestId = (prefix: string, path: string) => `${prefix}-${path.replace(/^spec\./, '').replace(/\./g, '-')}`;
 
 /** A NumberField bound to a react-hook-form field named by the spec's path. */
-export function DraftField<T extends FieldValues, TOut>({ control, spec, units, editable, testPrefix }: DraftFieldProps<T, TOut>) {
+export function DraftField<T extends FieldValues, TOut>({ control, spec, units, editable, testPrefix, testID }: DraftFieldProps<T, TOut>) {
   return (
     <Controller
       control={control}
@@ -77,7 +82,7 @@ export function DraftField<T extends FieldValues, TOut>({ control, spec, units, 
           onBlur={field.onBlur}
           error={fieldState.error?.message}
           editable={editable}
-          testID={fieldTestId(testPrefix, spec.path)}
+          testID={testID ?? fieldTestId(testPrefix, spec.path)}
         />
       )}
     />
@@ -94,8 +99,8 @@ type Parser<T> = Parameters<typeof resolveDrafts<T>>[3];
  * units change is the one the next submit uses.
  */
 export function draftResolver<TDraft extends FieldValues, TOut>(
-  specs: readonly NumberSpec[],
-  schema: Parser<TOut>,
+  specs: readonly NumberSpec[] | ((values: TDraft) => readonly NumberSpec[]),
+  schema: Parser<TOut> | ((values: TDraft) => Parser<TOut>),
   others: (values: TDraft) => Record<string, unknown>,
   units: ShownUnits | null,
 ): Resolver<TDraft, unknown, TOut> {
@@ -103,7 +108,9 @@ export function draftResolver<TDraft extends FieldValues, TOut>(
     if (!units) {
       return { values: {}, errors: { root: { type: 'units', message: 'Unit conversion is still loading. Try again in a moment.' } } as FieldErrors<TDraft> };
     }
-    const result = resolveDrafts(specs, values, others(values), schema, units);
+    // Forms with rows (readings added and removed) name their fields and schema from the values.
+    const fields = typeof specs === 'function' ? specs(values) : specs;
+    const result = resolveDrafts(fields, values, others(values), typeof schema === 'function' ? schema(values) : schema, units);
     if (result.errors === null) return { values: result.values, errors: {} };
     const errors: Record<string, unknown> = {};
     for (const [path, message] of Object.entries(result.errors)) {
@@ -111,4 +118,35 @@ export function draftResolver<TDraft extends FieldValues, TOut>(
     }
     return { values: {}, errors: errors as FieldErrors<TDraft> };
   };
+}
+
+type DraftFormOptions<TDraft extends FieldValues, TOut> = {
+  specs: Parameters<typeof draftResolver<TDraft, TOut>>[0];
+  schema: Parameters<typeof draftResolver<TDraft, TOut>>[1];
+  /** The form's values that are not number drafts (text, choices), or the saved record the numbers go into. */
+  others: (values: TDraft) => Record<string, unknown>;
+  defaultValues: DefaultValues<TDraft>;
+  /** 'onChange' checks on every keystroke (the compare screen's try values); otherwise from the first submit. */
+  mode?: 'onSubmit' | 'onChange';
+};
+
+/**
+ * A react-hook-form form of number drafts in the units chosen on the toggle:
+ * the resolver follows the toggle, and once messages show, a switch says them
+ * again in the new unit. `units` is null while unit conversion loads.
+ */
+export function useDraftForm<TDraft extends FieldValues, TOut>({ specs, schema, others, defaultValues, mode = 'onSubmit' }: DraftFormOptions<TDraft, TOut>) {
+  const { converter, loadError } = useUnits();
+  // Rebuilt each render with the current units; useForm reads its options on every render.
+  const form = useForm<TDraft, unknown, TOut>({ resolver: draftResolver(specs, schema, others, converter), defaultValues, mode });
+  const { isSubmitted } = form.formState;
+  const { trigger } = form;
+  // Keyed on the converter, one object per choice of units, so server messages stay put after a save.
+  const shownIn = useRef(converter);
+  useEffect(() => {
+    if (shownIn.current === converter) return;
+    shownIn.current = converter;
+    if ((isSubmitted || mode === 'onChange') && converter) void trigger();
+  }, [converter, isSubmitted, mode, trigger]);
+  return { form, units: converter, loadError };
 }

@@ -24,7 +24,10 @@ import { createApp } from '@/server/app';
 import { analyzeRecords } from '@/shared/analysis';
 import { engineSchema } from '@/shared/engine';
 import { profileSpecSchema } from '@/shared/profile';
-import { applyDraft } from '@/lib/profile-draft';
+import { draftFromText } from '@/lib/number-draft';
+import { profileNumberSpecs } from '@/lib/profile-fields';
+import { applyTryValues, tryDraftFrom } from '@/lib/try-values';
+import { unitConverter } from '@/state/units';
 
 import { ensureWebExport } from './web-export';
 
@@ -37,9 +40,13 @@ const stock = profileSpecSchema.parse(DEMO_STOCK_REGRIND);
 const towing = profileSpecSchema.parse(DEMO_TOWING);
 const frame = { width: 760, height: 300, padding: { top: 16, right: 12, bottom: 36, left: 52 }, from: -270, to: 270 };
 
+const inches = unitConverter(null, 'imperial', 'cc');
+const towingDraft = tryDraftFrom(towing);
+
 function editToPaths(keystroke: number): number {
   const t0 = performance.now();
-  const draft = applyDraft(towing, { 'intake.duration050': String(206 + (keystroke % 20)) });
+  const typed = draftFromText(profileNumberSpecs.intake.duration050, String(206 + (keystroke % 20)), inches);
+  const draft = applyTryValues(towing, { spec: { ...towingDraft.spec, intake: { ...towingDraft.spec.intake, duration050: typed } } }, inches);
   if (!draft.ok) throw new Error('bench draft rejected');
   const analyses = [analyzeRecords(engine, stock), analyzeRecords(engine, draft.spec)];
   const paths = buildPlotPaths(analyses, 'lift', frame);

@@ -37,7 +37,7 @@ describe.each(Object.keys(viewports) as ViewportName[])('compare and revise at %
     // Overlap at 0.050 in = (Di + De)/2 − 2·LSA, IVC = Di/2 + ICL − 180 (common practice, no source), with De 220, LSA 112, ICL 108.
     const overlap = (duration + 220) / 2 - 224;
     const ivc = duration / 2 + 108 - 180;
-    await shown(page, 'draft-intake.duration050').fill(String(duration));
+    await shown(page, 'draft-intake-duration050').fill(String(duration));
     await expect.poll(() => shown(page, 'cell-at050.overlap-1').textContent()).toContain(`−${Math.abs(overlap).toFixed(1)}`);
     expect(await shown(page, 'delta-at050.overlap-1').textContent()).toContain(`+${(overlap + 21).toFixed(1)}`);
     expect(await shown(page, 'cell-at050.ivc-1').textContent()).toContain(ivc.toFixed(1));
@@ -47,6 +47,21 @@ describe.each(Object.keys(viewports) as ViewportName[])('compare and revise at %
     await expect.poll(() => shown(page, 'draft-icl-error').textContent()).toMatch(/between 90 and 135/);
     expect(await shown(page, 'save-to-sheet').isDisabled()).toBe(true);
     await shown(page, 'draft-icl').fill('108');
+
+    // Lengths follow the unit toggle: lobe lift shows in mm, a value typed in mm is worked out in inches (1 in = 25.4 mm),
+    // and switching back shows it in inches. The 0.333 in saved lift is 8.4582 mm, shown to 2 decimals.
+    const lift = shown(page, 'draft-intake-lobeLift');
+    const savedLift = await lift.inputValue();
+    await shown(page, 'unit-length-metric').click();
+    await expect.poll(() => lift.inputValue()).toBe((Number(savedLift) * 25.4).toFixed(2));
+    await lift.fill('9.00');
+    await expect.poll(() => shown(page, 'cell-lobe.i-1').textContent()).toContain((9 / 25.4).toFixed(3));
+    await lift.fill('99');
+    await expect.poll(() => shown(page, 'draft-intake-lobeLift-error').textContent()).toMatch(/between [\d.]+ and [\d.]+ mm/);
+    await lift.fill((Number(savedLift) * 25.4).toFixed(4));
+    await shown(page, 'unit-length-imperial').click();
+    await expect.poll(() => lift.inputValue()).toBe(savedLift);
+    await expect.poll(() => shown(page, 'cell-lobe.i-1').textContent()).toContain(savedLift);
 
     const label = (await shown(page, 'save-to-sheet').textContent()) ?? '';
     const next = Number(/revision (\d+)/.exec(label)?.[1]);

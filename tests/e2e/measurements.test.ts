@@ -104,6 +104,21 @@ describe.each(Object.keys(viewports) as ViewportName[])('the tech on the bench a
     await shown(page, 'ptv-save').click();
     await shown(page, 'ptv-saved').waitFor();
 
+    // Lengths follow the unit toggle: 0.165 in shows as 4.19 mm (1 in = 25.4 mm exactly, NIST SP 811, Appendix B.8),
+    // and 4.826 mm typed saves as 0.190 in.
+    await shown(page, 'unit-length-metric').click();
+    await expect.poll(() => shown(page, 'ptv-intake-0-clearance').inputValue()).toBe('4.19');
+    await fill(page, { 'ptv-exhaust-0-clearance': '4.826' });
+    await shown(page, 'ptv-save').click();
+    await shown(page, 'ptv-saved').waitFor();
+    const stored = await page.request.get(`${baseUrl()}/api/jobs/${jobId}/measurements`);
+    const ptvRecord = ((await stored.json()) as { measurements: { kind: string; updatedAt: string; data: { exhaust: { clearance: number }[] } }[] }).measurements
+      .filter((m) => m.kind === 'ptv-baseline')
+      .sort((a, b) => b.updatedAt.localeCompare(a.updatedAt))[0];
+    expect(ptvRecord?.data.exhaust[0]?.clearance).toBeCloseTo(0.19, 9);
+    await shown(page, 'unit-length-imperial').click();
+    await expect.poll(() => shown(page, 'ptv-exhaust-0-clearance').inputValue()).toBe('0.190');
+
     // A spring out of range is named on its field; then a good one saves.
     await fill(page, {
       'springs-springs-0-where': 'all',
