@@ -12,7 +12,7 @@ import { SaveNotice, type SaveOutcome } from '@/components/ui/save-notice';
 import { TextField } from '@/components/ui/text-field';
 
 type RuleKey = keyof CheckLimits;
-type Part = 'min' | 'max' | 'watchBand';
+type Part = 'min' | 'max' | 'watchBand' | 'value';
 
 const rules: { key: RuleKey; title: string; unit: string; parts: Part[]; what: string }[] = [
   { key: 'ptvIntake', title: 'Piston-to-valve, intake', unit: 'in', parts: ['min', 'watchBand'], what: 'least clearance through overlap' },
@@ -23,15 +23,21 @@ const rules: { key: RuleKey; title: string; unit: string; parts: Part[]; what: s
   { key: 'degreeing', title: 'Cam degreed in', unit: '°', parts: ['max', 'watchBand'], what: 'measured ICL away from the sheet' },
   { key: 'wornLobe', title: 'Lobe wear', unit: 'in', parts: ['max', 'watchBand'], what: 'max lift below its siblings' },
   { key: 'dynamicCompression', title: 'Dynamic compression', unit: ':1', parts: ['max', 'watchBand'], what: 'for pump fuel' },
+  { key: 'finishingStock', title: 'Finishing stock', unit: 'in', parts: ['min', 'watchBand'], what: 'metal left between the old lobe and the new one, on the radius' },
+  { key: 'cleanupAllowance', title: 'Cleanup allowance', unit: 'in', parts: ['value'], what: 'ground off below the deepest damage so the new surface is clean' },
+  { key: 'largestCut', title: 'Largest cut', unit: 'in', parts: ['value'], what: 'base-circle cut on the diameter the hardened layer allows' },
+  { key: 'pressureAngle', title: 'Largest pressure angle', unit: '°', parts: ['max', 'watchBand'], what: 'push of the lobe against the roller, sideways' },
+  { key: 'rollerDiameter', title: 'Lifter roller diameter', unit: 'in', parts: ['value'], what: 'for pressure angle and lobe radius' },
+  { key: 'wheelRadius', title: 'Grinding wheel radius', unit: 'in', parts: ['value'], what: 'a concave flank tighter than the wheel cannot be ground' },
 ];
 
-const partLabel: Record<Part, string> = { min: 'Minimum', max: 'Maximum', watchBand: 'Watch band' };
+const partLabel: Record<Part, string> = { min: 'Minimum', max: 'Maximum', watchBand: 'Watch band', value: 'Value' };
 
 type Draft = Record<RuleKey, Partial<Record<Part, string>>>;
 
-function ruleNumber(rule: CheckLimits[RuleKey], part: Part): number | undefined {
+function ruleNumber(rule: CheckLimits[RuleKey], part: Part): number | string {
   const v = (rule as unknown as Record<string, unknown>)[part];
-  return typeof v === 'number' ? v : undefined;
+  return typeof v === 'number' ? v : 'not set';
 }
 
 function draftFrom(answer: ShopLimitsAnswer): Draft {
