@@ -141,7 +141,7 @@ function CompareView({
       </View>
 
       <Section title="Fits the core?">
-        <Text style={styles.note}>Can each profile be ground from this job's old cam: the cut, the metal left, and what the cut does to the lifters.</Text>
+        <Text style={styles.note}>Can each profile be ground from this job’s old cam: the cut, the metal left, and what the cut does to the lifters.</Text>
         <View style={wide ? styles.columns : styles.stack}>
           {shown.map((c, i) => (
             <View key={c.profile.id} style={wide ? styles.half : undefined}>

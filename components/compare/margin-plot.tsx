@@ -52,7 +52,7 @@ export function MarginPlot({ feasibility, height = 220, testID }: { feasibility:
         <View style={{ height }} />
       )}
       <Text style={styles.legend}>
-        Metal left (in, on the radius) · solid intake · dashed exhaust · dotted: finishing stock · red: the old lobe's surface · circles: tightest points
+        Metal left (in, on the radius) · solid intake · dashed exhaust · dotted: finishing stock · red: the old lobe’s surface · circles: tightest points
       </Text>
     </View>
   );
