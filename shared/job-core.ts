@@ -70,6 +70,18 @@ function kindCore(data: MeasurementData['lobes'], kind: 'intake' | 'exhaust', th
   };
 }
 
+/** Calc's preload input from the pushrod readings; none without the preload measured with the old cam. Inches. */
+export function regrindFromPushrod(pushrod: MeasurementData['pushrod'] | undefined): RegrindInput | undefined {
+  return pushrod && pushrod.originalPreload !== null
+    ? {
+        originalPreload: pushrod.originalPreload,
+        stockBaseCircle: pushrod.stockBaseCircle,
+        plungerTravel: pushrod.plungerTravel,
+        ...(pushrod.currentLength !== null ? { pushrodLength: pushrod.currentLength } : {}),
+      }
+    : undefined;
+}
+
 /**
  * The core and grinding numbers for a job: the core is the job's measured lobe table
  * (the sound lobes give its shape and phasing, the worn-lobe finding gives each kind's
@@ -94,15 +106,7 @@ export function jobCore({
   if (limits.largestCut.value !== null) grinding.largestCut = limits.largestCut.value;
 
   const pushrod = measured.pushrod;
-  const regrind: RegrindInput | undefined =
-    pushrod && pushrod.originalPreload !== null
-      ? {
-          originalPreload: pushrod.originalPreload,
-          stockBaseCircle: pushrod.stockBaseCircle,
-          plungerTravel: pushrod.plungerTravel,
-          ...(pushrod.currentLength !== null ? { pushrodLength: pushrod.currentLength } : {}),
-        }
-      : undefined;
+  const regrind = regrindFromPushrod(pushrod);
 
   const missing: string[] = [];
   const table = measured.lobes;
