@@ -39,6 +39,12 @@ export interface MaximumRule {
   source: string;
 }
 
+/** A number the shop sets for its grinding (not a pass/fail rule); null = not set, so what needs it is NOT RUN. */
+export interface SettingValue {
+  value: number | null;
+  source: string;
+}
+
 /** Value must lie in [min, max]; within `watchBand` of either end is "watch". */
 export interface RangeRule {
   min: number;
@@ -70,10 +76,20 @@ export interface CheckLimits {
   undercut: MinimumRule;
   /** Finishing stock: the smallest material margin between core and candidate, inches on the radius. */
   finishingStock: MinimumRule;
+  /** Metal removed below the deepest damage so the reground surface is clean, inches on the radius. */
+  cleanupAllowance: SettingValue;
+  /** Largest base-circle cut on the diameter the core's hardened layer allows, inches. */
+  largestCut: SettingValue;
+  /** Lifter roller diameter, inches (roller lifters). */
+  rollerDiameter: SettingValue;
+  /** Grinding wheel radius, inches: a concave flank tighter than it cannot be ground. */
+  wheelRadius: SettingValue;
 }
 
 /** A shop's own limits: any subset of any rule. */
-export type CheckLimitOverrides = { [K in keyof CheckLimits]?: Partial<CheckLimits[K]> };
+export type CheckLimitOverrides = {
+  [K in keyof CheckLimits]?: CheckLimits[K] extends SettingValue ? { value?: number; source?: string } : Partial<CheckLimits[K]>;
+};
 
 const COMMON = 'common practice, no source';
 
@@ -110,12 +126,16 @@ export const DEFAULT_CHECK_LIMITS: Readonly<CheckLimits> = Object.freeze({
     source: 'geometry: a convex pitch radius below the roller radius, or a flat-tappet radius at or below 0, cannot be ground (Norton, Design of Machinery, §8.8, from memory)',
   }),
   finishingStock: Object.freeze({ min: 0.005, watchBand: 0.005, source: COMMON }),
+  cleanupAllowance: Object.freeze({ value: 0.005, source: COMMON }),
+  largestCut: Object.freeze({ value: null, source: `not set: the grinder gives the largest cut this core's hardened layer allows (${COMMON})` }),
+  rollerDiameter: Object.freeze({ value: null, source: `not set: measure the lifter's roller or take it from the lifter maker (${COMMON})` }),
+  wheelRadius: Object.freeze({ value: null, source: `not set: the grinder gives the grinding wheel's radius (${COMMON})` }),
 });
 
 /** Where a rule's number came from when a shop changed it. */
 export const SHOP_SOURCE = 'shop setting';
 
-const KIND: Record<keyof CheckLimits, 'min' | 'max' | 'range'> = {
+const KIND: Record<keyof CheckLimits, 'min' | 'max' | 'range' | 'value'> = {
   coilBind: 'min',
   retainerToSeal: 'min',
   ptvIntake: 'min',
@@ -127,6 +147,10 @@ const KIND: Record<keyof CheckLimits, 'min' | 'max' | 'range'> = {
   pressureAngle: 'max',
   undercut: 'min',
   finishingStock: 'min',
+  cleanupAllowance: 'value',
+  largestCut: 'value',
+  rollerDiameter: 'value',
+  wheelRadius: 'value',
 };
 
 /**
@@ -142,15 +166,20 @@ export function resolveCheckLimits(overrides?: CheckLimitOverrides): CheckLimits
     const patch = (overrides as Record<string, unknown>)[key];
     if (patch !== undefined) requireObject(`limits.${key}`, patch);
   }
-  const out = {} as Record<keyof CheckLimits, MinimumRule | MaximumRule | RangeRule>;
+  const out = {} as Record<keyof CheckLimits, MinimumRule | MaximumRule | RangeRule | SettingValue>;
   for (const key of Object.keys(DEFAULT_CHECK_LIMITS) as (keyof CheckLimits)[]) {
     const base = DEFAULT_CHECK_LIMITS[key];
     const patch: Record<string, unknown> = { ...(overrides?.[key] ?? {}) };
-    const changed = ['min', 'max', 'watchBand'].some((f) => f in patch && patch[f] !== undefined);
+    const changed = ['min', 'max', 'watchBand', 'value'].some((f) => f in patch && patch[f] !== undefined);
     const merged: Record<string, unknown> = { ...base };
     for (const [f, v] of Object.entries(patch)) if (v !== undefined) merged[f] = v;
     if (changed && typeof patch.source !== 'string') merged.source = SHOP_SOURCE;
     const field = `limits.${key}`;
+    if (KIND[key] === 'value') {
+      const source = typeof merged.source === 'string' && merged.source.trim() ? merged.source : SHOP_SOURCE;
+      out[key] = { value: merged.value === null ? null : requireNonNegative(`${field}.value`, merged.value), source };
+      continue;
+    }
     const watchBand = requireNonNegative(`${field}.watchBand`, merged.watchBand);
     const source = typeof merged.source === 'string' && merged.source.trim() ? merged.source : SHOP_SOURCE;
     const kind = KIND[key];

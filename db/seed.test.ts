@@ -6,14 +6,17 @@ import { describe, expect, it } from 'vitest';
 import { DEMO_STOCK_REGRIND, DEMO_TOWING } from '@/calc/demo';
 import { createAuth } from '@/server/auth';
 import { createMailer } from '@/server/mail';
-import { analyzeRecords, revisionResults } from '@/shared/analysis';
+import { resolveCheckLimits } from '@/calc/checks';
+import { latestMeasurements } from '@/server/store/measurements';
+import { analyzeForJob, revisionResults } from '@/shared/analysis';
+import { jobCore } from '@/shared/job-core';
 import { engineSchema } from '@/shared/engine';
 import { defaultChecklistLabels } from '@/shared/measurements';
 import { profileSpecSchema } from '@/shared/profile';
 
 import { demoLobeCsv, demoLobeIds, demoLobesFile } from './demo-lobes';
 import { openDb, schema } from './index';
-import { demoAccounts, demoJobId, demoSheetId, demoStockSheetId, seedDemo } from './seed';
+import { demoAccounts, demoJobId, demoShopLimits, demoSheetId, demoStockSheetId, seedDemo } from './seed';
 
 describe('demo seed', () => {
   it('writes both shops, one person per role and the demo job, and adds nothing on a second run', async () => {
@@ -89,18 +92,29 @@ describe('demo comparison data', () => {
     const rev = revisions[0]!;
     expect(rev).toMatchObject({ number: 1, state: 'draft', label: 'Towing regrind (demo)', engine: engine.spec });
     expect(rev.spec).toEqual(library[1]!.spec);
-    expect(rev.results).toEqual(JSON.parse(JSON.stringify(revisionResults(analyzeRecords(engine.spec, rev.spec)))));
+    // Worked out against the job's core (its lobe table and stock base circle) and the shop's settings, as saving does.
+    const job = jobCore({ measured: latestMeasurements(db, 'demo-shop-juniper-flats', demoJobId), limits: resolveCheckLimits(demoShopLimits), lifterType: engine.spec.lifterType });
+    const worked = analyzeForJob(engine.spec, rev.spec, job, demoShopLimits);
+    expect(rev.results).toEqual(JSON.parse(JSON.stringify(revisionResults(worked.analysis, worked.job))));
+    // The damaged cylinder 3 exhaust lobe (0.012 in) sets the cleanup cut; the towing lobes stand outside the old ones at that cut.
+    const f = rev.results.feasibility!;
+    expect(f.coreFrom).toMatch(/3E 0\.012 in/);
+    expect(f.cut).toBeCloseTo(1.25 - 1.2, 9);
+    expect(f.cleanup?.limitingLobe).toBe('exhaust');
+    expect(f.checks.find((c) => c.id === 'finishingStock' && c.subject === 'intake')?.status).toBe('fail');
   });
 });
 
 describe('demo measurements, checklist and lobe table', () => {
-  it('gives the demo job its PTV baseline, springs, pushrod readings and checklist once, and no lobe table', async () => {
+  it('gives the demo job its PTV baseline, springs, pushrod readings, lobe table and checklist once', async () => {
     const db = openDb(':memory:');
     const auth = createAuth({ db, baseURL: 'http://localhost:8080', secret: 'test-secret-test-secret-test-secret', mailer: createMailer({ db }) });
     await seedDemo(db, auth);
     await seedDemo(db, auth);
     const rows = db.select().from(schema.measurements).where(eq(schema.measurements.jobId, demoJobId)).all();
-    expect(rows.map((r) => r.kind).sort()).toEqual(['ptv-baseline', 'pushrod', 'springs']);
+    expect(rows.map((r) => r.kind).sort()).toEqual(['lobes', 'ptv-baseline', 'pushrod', 'springs']);
+    const lobes = rows.find((r) => r.kind === 'lobes')!.data as { lobes: { id: string }[] };
+    expect(lobes.lobes.map((l) => l.id)).toEqual(demoLobeIds);
     for (const r of rows) expect(r.note).toMatch(/^Demo data\./);
     const ptv = rows.find((r) => r.kind === 'ptv-baseline')!.data as { intake: { crankAngle: number }[]; exhaust: { crankAngle: number }[] };
     expect(ptv.intake.map((x) => x.crankAngle)).toEqual([-10, 10]);

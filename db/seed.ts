@@ -1,20 +1,25 @@
 import { and, eq, isNull, like } from 'drizzle-orm';
 
-import { DEMO_ENGINE, DEMO_STOCK_REGRIND, DEMO_TOWING } from '@/calc/demo';
+import { resolveCheckLimits, type CheckLimitOverrides } from '@/calc/checks';
+import { DEMO_ENGINE, DEMO_GRINDING, DEMO_STOCK_REGRIND, DEMO_TOWING } from '@/calc/demo';
 import { createAuth, type Auth } from '@/server/auth';
 import { createMailer } from '@/server/mail';
 import { loadDotEnv, readConfig } from '@/server/config';
 import { shareUrl } from '@/server/mail/owner-mail';
 import { seedChecklist } from '@/server/store/checklist';
+import { latestMeasurements } from '@/server/store/measurements';
+import { parseLobeTable } from '@/server/uploads/lobe-table';
 import { insertShareLink } from '@/server/store/share-links';
-import { analyzeRecords, revisionResults } from '@/shared/analysis';
+import { analyzeForJob, revisionResults } from '@/shared/analysis';
+import { jobCore } from '@/shared/job-core';
 import { revisionChecksum } from '@/shared/checksum';
 import { engineSchema } from '@/shared/engine';
-import { measurementCreateSchema } from '@/shared/measurements';
+import { lobesSchema, measurementCreateSchema } from '@/shared/measurements';
 import { shareLinkLimits } from '@/shared/owner';
 import { profileCreateSchema } from '@/shared/profile';
 import type { ShopKind, ShopRole } from '@/shared/roles';
 
+import { demoLobeCsv } from './demo-lobes';
 import { openDb, schema, type Db } from './index';
 
 // Demo data: an invented scenario. No real shop, person or vehicle.
@@ -156,6 +161,22 @@ export const demoMeasurements = [
   },
 ];
 
+/** The old cam's lobe table as the tech measured it (the shipped demo CSV): cylinder 3's exhaust lobe is the damaged one. */
+export const demoLobeTable = {
+  id: 'demo-measurement-lobes',
+  kind: 'lobes' as const,
+  note: 'Demo data. The old cam on the bench, every lobe read at 2° steps; 3E is galled.',
+  data: lobesSchema.parse(parseLobeTable(demoLobeCsv(), 'lobes-demo.csv')),
+};
+
+/** The demo shop's grinding settings (invented): roller, wheel, cleanup allowance and the largest cut its cores allow. */
+export const demoShopLimits: CheckLimitOverrides = {
+  rollerDiameter: { value: DEMO_GRINDING.rollerDiameter! },
+  wheelRadius: { value: DEMO_GRINDING.wheelDiameter! / 2 },
+  cleanupAllowance: { value: DEMO_GRINDING.cleanupAllowance! },
+  largestCut: { value: DEMO_GRINDING.largestCut! },
+};
+
 /** Writes the demo shops, people and job. Safe to run again: it only adds what is missing. */
 export async function seedDemo(db: Db, auth: Auth) {
   for (const shop of [juniper, kestrel]) {
@@ -208,6 +229,20 @@ export async function seedDemo(db: Db, auth: Auth) {
       .onConflictDoNothing()
       .run();
   }
+  const tech = db.select().from(schema.users).where(eq(schema.users.email, demoAccounts[1]!.email)).get();
+  for (const m of [...demoMeasurements, demoLobeTable]) {
+    db.insert(schema.measurements)
+      .values({ id: m.id, shopId, jobId: demoJobId, kind: m.kind, data: m.data, note: m.note, createdBy: tech?.id ?? null })
+      .onConflictDoNothing()
+      .run();
+  }
+  db.insert(schema.shopSettings).values({ shopId, limits: demoShopLimits, version: 1 }).onConflictDoNothing().run();
+  // Each sheet is worked out against the job's core, as saving it in the app does.
+  const job = jobCore({ measured: latestMeasurements(db, shopId, demoJobId), limits: resolveCheckLimits(demoShopLimits), lifterType: demoEngine.lifterType });
+  const results = (spec: (typeof demoProfiles)[number]['spec']) => {
+    const worked = analyzeForJob(demoEngine, spec, job, demoShopLimits);
+    return revisionResults(worked.analysis, worked.job);
+  };
   const [stock, towing] = [demoProfiles[0]!, demoProfiles[1]!];
   const sheet = (id: string, title: string, profile: (typeof demoProfiles)[number], note: string, at = new Date()) => {
     db.insert(schema.specSheets).values({ id, shopId, jobId: demoJobId, title, createdBy, createdAt: at, updatedAt: at }).onConflictDoNothing().run();
@@ -220,7 +255,7 @@ export async function seedDemo(db: Db, auth: Auth) {
         label: profile.label,
         spec: profile.spec,
         engine: demoEngine,
-        results: revisionResults(analyzeRecords(demoEngine, profile.spec)),
+        results: results(profile.spec),
         note,
         createdBy,
         createdAt: at,
@@ -234,13 +269,6 @@ export async function seedDemo(db: Db, auth: Auth) {
   sheet(demoStockSheetId, 'Stock-spec regrind for the flatbed (demo)', stock, "Demo data. Back to the factory events on the customer's own core.", new Date(Date.now() - 3600_000));
   seedOwnerPage(db, shopId, createdBy);
 
-  const tech = db.select().from(schema.users).where(eq(schema.users.email, demoAccounts[1]!.email)).get();
-  for (const m of demoMeasurements) {
-    db.insert(schema.measurements)
-      .values({ id: m.id, shopId, jobId: demoJobId, kind: m.kind, data: m.data, note: m.note, createdBy: tech?.id ?? null })
-      .onConflictDoNothing()
-      .run();
-  }
   db.transaction((tx) => seedChecklist(tx, shopId, demoJobId, createdBy, (i) => `demo-checklist-${i + 1}`));
 }
 

@@ -1,11 +1,15 @@
 import type { ProfileAnalysis } from '@/calc/analysis';
 import { compareProfilesForOwner, type OwnerComparison } from '@/calc/compare';
 import { isCalcInputError } from '@/calc/errors';
+import type { CheckLimitOverrides } from '@/calc/checks';
 import type { ShownUnits } from '@/lib/number-draft';
 import { applyTryValues, type TryDraft } from '@/lib/try-values';
-import { analyzeRecords } from '@/shared/analysis';
+import { analyzeForJob, analyzeRecords, feasibilityResults } from '@/shared/analysis';
 import type { EngineSpec } from '@/shared/engine';
+import type { JobCore } from '@/shared/job-core';
+import type { Measurement, MeasurementData, MeasurementKind } from '@/shared/measurements';
 import type { Profile, ProfileSpec } from '@/shared/profile';
+import type { FeasibilityResults } from '@/shared/sheets';
 
 /** One profile on the compare screen: the spec with any typed values applied, and its analysis or why there is none. */
 export type CompareColumn = {
@@ -14,17 +18,38 @@ export type CompareColumn = {
   analysis: ProfileAnalysis | null;
   error: string | null;
   fieldErrors: Partial<Record<string, string>>;
+  /** Fits the core? From the same analysis (null without the job's core, or with no analysis). */
+  feasibility?: FeasibilityResults | null;
 };
+
+/** The job's core and the shop's limits the compare screen analyses with, as the server does for sheets. */
+export type CompareCore = { job: JobCore; limits: CheckLimitOverrides };
+
+/** The newest measurement of each kind from a job's list (as the server's latestMeasurements picks them). */
+export function latestMeasured(list: readonly Measurement[]): Partial<MeasurementData> {
+  const out: Partial<Record<MeasurementKind, { at: string; data: unknown }>> = {};
+  for (const m of list) {
+    const seen = out[m.kind];
+    if (!seen || m.createdAt > seen.at) out[m.kind] = { at: m.createdAt, data: m.data };
+  }
+  return Object.fromEntries(Object.entries(out).map(([k, v]) => [k, v.data])) as Partial<MeasurementData>;
+}
 
 /**
  * Runs calc's analysis on a profile with its tried-but-unsaved values (in calc units); a bad value keeps the
  * saved spec and names the field, in the units shown.
  */
-export function analyzeColumn(engine: EngineSpec, profile: Profile, draft: TryDraft | undefined, units: ShownUnits): CompareColumn {
+export function analyzeColumn(engine: EngineSpec, profile: Profile, draft: TryDraft | undefined, units: ShownUnits, core?: CompareCore): CompareColumn {
   const applied = draft ? applyTryValues(profile.spec, draft, units) : ({ ok: true, spec: profile.spec } as const);
   const spec = applied.ok ? applied.spec : profile.spec;
   const fieldErrors = applied.ok ? {} : applied.errors;
   try {
+    if (core) {
+      // The same path the server takes for a sheet: one calc analysis with the job's core.
+      const worked = analyzeForJob(engine, spec, core.job, core.limits);
+      const feasibility = worked.job ? feasibilityResults(worked.analysis, worked.job) : null;
+      return { profile, spec, analysis: worked.analysis, error: null, fieldErrors, feasibility };
+    }
     return { profile, spec, analysis: analyzeRecords(engine, spec), error: null, fieldErrors };
   } catch (error) {
     const message = isCalcInputError(error) ? `${error.field}: ${error.message}` : error instanceof Error ? error.message : String(error);

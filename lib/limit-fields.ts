@@ -5,7 +5,8 @@ import { draftsFor, formatCompact, shownUnit, type NumberDraft, type NumberSpec,
 import { shopLimitsSaveSchema } from '@/shared/measurements';
 
 export type LimitRuleKey = keyof CheckLimitOverrides & keyof z.input<typeof shopLimitsSaveSchema>['limits'];
-export type LimitPart = 'min' | 'max' | 'watchBand';
+/** A check's minimum, maximum and watch band, or a grinding number the shop sets (`value`). */
+export type LimitPart = 'min' | 'max' | 'watchBand' | 'value';
 
 /** One rule on the shop's limits form. A new rule is one more entry in `limitRules`; the form is built from the list. */
 export type LimitRule = {
@@ -35,9 +36,16 @@ export const limitRules: readonly LimitRule[] = [
   { key: 'degreeing', title: 'Cam degreed in', what: 'measured ICL away from the sheet', quantity: null, unit: '°', digits: 1, parts: ['max', 'watchBand'], range: [0, 10], watchMax: 5 },
   { key: 'wornLobe', title: 'Lobe wear', what: 'max lift below its siblings', ...inches, parts: ['max', 'watchBand'], range: [0, 0.1], watchMax: 0.05 },
   { key: 'dynamicCompression', title: 'Dynamic compression', what: 'for pump fuel', quantity: null, unit: ':1', digits: 1, parts: ['max', 'watchBand'], range: [5, 14], watchMax: 2 },
+  // Fits the core: what the grinding needs (calc/checks.ts holds each default and its source).
+  { key: 'finishingStock', title: 'Finishing stock', what: 'metal left between the old lobe and the new one, on the radius', ...inches, parts: ['min', 'watchBand'], range: [0, 0.1], watchMax: 0.05 },
+  { key: 'cleanupAllowance', title: 'Cleanup allowance', what: 'ground off below the deepest damage so the new surface is clean', ...inches, parts: ['value'], range: [0, 0.05], watchMax: 0 },
+  { key: 'largestCut', title: 'Largest cut', what: 'base-circle cut on the diameter the hardened layer allows', ...inches, parts: ['value'], range: [0, 0.3], watchMax: 0 },
+  { key: 'pressureAngle', title: 'Largest pressure angle', what: 'push of the lobe against the roller, sideways', quantity: null, unit: '°', digits: 1, parts: ['max', 'watchBand'], range: [0, 60], watchMax: 10 },
+  { key: 'rollerDiameter', title: 'Lifter roller diameter', what: 'for pressure angle and lobe radius', ...inches, parts: ['value'], range: [0, 1.5], watchMax: 0 },
+  { key: 'wheelRadius', title: 'Grinding wheel radius', what: 'a concave flank tighter than the wheel cannot be ground', ...inches, parts: ['value'], range: [0, 20], watchMax: 0 },
 ];
 
-export const limitPartLabels: Record<LimitPart, string> = { min: 'Minimum', max: 'Maximum', watchBand: 'Watch band' };
+export const limitPartLabels: Record<LimitPart, string> = { min: 'Minimum', max: 'Maximum', watchBand: 'Watch band', value: 'Value' };
 
 /** The number field for one part of a rule. Every part is optional: blank uses Lobewright's default. */
 export function limitSpec(rule: LimitRule, part: LimitPart): NumberSpec {

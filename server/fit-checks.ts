@@ -18,6 +18,7 @@ import { CYCLE_GRID } from '@/calc/lift-curve';
 import { ptvSweep } from '@/calc/ptv';
 import { retainerToSealMargin, springCheck } from '@/calc/springs';
 import { analyzeRecords } from '@/shared/analysis';
+import { regrindFromPushrod } from '@/shared/job-core';
 import type { EngineSpec } from '@/shared/engine';
 import type { FitCheckPtv, FitCheckRun, MeasurementData } from '@/shared/measurements';
 import type { ProfileSpec } from '@/shared/profile';
@@ -44,15 +45,7 @@ export function runFitChecks({ engine, spec, measured, limits: overrides }: FitC
   const skipped: SkippedCheck[] = [];
 
   const pushrod = measured.pushrod;
-  const regrind =
-    pushrod && pushrod.originalPreload !== null
-      ? {
-          originalPreload: pushrod.originalPreload,
-          stockBaseCircle: pushrod.stockBaseCircle,
-          plungerTravel: pushrod.plungerTravel,
-          ...(pushrod.currentLength !== null ? { pushrodLength: pushrod.currentLength } : {}),
-        }
-      : undefined;
+  const regrind = regrindFromPushrod(pushrod);
   const analysis = analyzeRecords(engine, spec, { regrind, limits: overrides });
   const valveLift = { intake: analysis.intake.valveLift, exhaust: analysis.exhaust.valveLift };
 

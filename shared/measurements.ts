@@ -218,6 +218,16 @@ const rangeOverride = z
     message: 'Maximum must be above the minimum',
   });
 
+/** A grinding number the shop sets (inches), within what a cam grinder could use. */
+const settingOverride = (label: string, max: number) =>
+  z.strictObject({
+    value: limitNumber(label)
+      .refine((v) => v >= 0, `${label} cannot be negative`)
+      .refine((v) => v <= max, `${label} is at most ${max} in`)
+      .optional(),
+    source: source.optional(),
+  });
+
 /** `PUT /api/shop/limits`. Rule names are calc's; unknown names or fields are refused. Version 0 creates the shop's first settings. */
 export const shopLimitsSaveSchema = z.strictObject({
   version: versionSchema,
@@ -230,6 +240,12 @@ export const shopLimitsSaveSchema = z.strictObject({
     dynamicCompression: maximumOverride.optional(),
     degreeing: maximumOverride.optional(),
     wornLobe: maximumOverride.optional(),
+    pressureAngle: maximumOverride.optional(),
+    finishingStock: minimumOverride.optional(),
+    cleanupAllowance: settingOverride('Cleanup allowance', 0.05).optional(),
+    largestCut: settingOverride('Largest cut', 0.3).optional(),
+    rollerDiameter: settingOverride('Roller diameter', 1.5).optional(),
+    wheelRadius: settingOverride('Grinding wheel radius', 20).optional(),
   }),
 });
 export type ShopLimitsSave = z.input<typeof shopLimitsSaveSchema>;

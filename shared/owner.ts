@@ -2,6 +2,8 @@ import { z } from 'zod';
 
 import type { OwnerComparison } from '@/calc/compare';
 
+import type { OwnerCoreAnswer } from './fits-core';
+
 import type { CheckStatus } from '@/calc/checks';
 import { emailAddress } from './me';
 import { versionSchema } from './numbers';
@@ -178,6 +180,8 @@ export type OwnerViewOption = {
   comparison: OwnerComparison | null;
   /** The fit sentence for every option, the reference included. */
   fit: string;
+  /** Whether the option can be ground from the owner's old camshaft or needs a new core, in plain words. */
+  core: OwnerCoreAnswer;
   /** Key figures in owner-readable units. */
   figures: { intakeLiftIn: number; exhaustLiftIn: number; intakeDuration050: number; exhaustDuration050: number };
 };

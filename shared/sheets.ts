@@ -1,6 +1,8 @@
 import { z } from 'zod';
 
-import type { CheckResult, CheckStatus, SkippedCheck } from '@/calc/checks';
+import type { CleanupResult, LifterCutResult } from '@/calc/regrind';
+import type { LobeGeometry } from '@/calc/analysis';
+import type { CheckLimits, CheckResult, CheckStatus, SkippedCheck } from '@/calc/checks';
 import type { ValveEvents } from '@/calc/events';
 
 import type { EngineSpec } from './engine';
@@ -34,6 +36,33 @@ export const sheetSaveSchema = z.strictObject({
 });
 export type SheetSave = z.input<typeof sheetSaveSchema>;
 
+/** One lobe's geometry as stored (the margin as a plain array). */
+export type LobeGeometryResults = Omit<LobeGeometry, 'envelope'> & {
+  envelope: (Omit<NonNullable<LobeGeometry['envelope']>, 'margin'> & { margin: number[] }) | null;
+};
+
+/**
+ * Can the core become this cam: calc's feasibility (cut, envelope per lobe, pressure angle,
+ * curvature, cleanup, the lifter side; inches and cam degrees), the checks and NOT RUN notes
+ * that belong to it, the rules they were judged by, and where the core came from.
+ */
+export type FeasibilityResults = {
+  cut: number | null;
+  baseCircle: number | null;
+  intake: LobeGeometryResults;
+  exhaust: LobeGeometryResults;
+  cleanup: CleanupResult | null;
+  lifter: LifterCutResult | null;
+  criterion: string;
+  limits: Pick<CheckLimits, 'finishingStock' | 'pressureAngle' | 'undercut'>;
+  checks: CheckResult[];
+  skipped: SkippedCheck[];
+  /** Where the core's lobes came from, in words, or null when the job has no core yet. */
+  coreFrom: string | null;
+  /** What the job lacks for the core, in words. */
+  coreMissing: string[];
+};
+
 /** The numbers a revision was saved with, so the sheet never depends on re-running calc. */
 export type RevisionResults = {
   /** Worst check status. */
@@ -50,6 +79,8 @@ export type RevisionResults = {
   displacementCubicInches: number;
   checks: CheckResult[];
   skipped: SkippedCheck[];
+  /** Fits the core? Worked out when the revision was saved from the job's core and the shop's settings (absent on older revisions). */
+  feasibility?: FeasibilityResults;
 };
 
 export type Revision = {

@@ -1,7 +1,7 @@
 import { atom, useAtom } from 'jotai';
 import { useMemo } from 'react';
 
-import { analyzeColumn, chosenProfiles, summarizeColumns, toggleChoice } from '@/lib/compare-analysis';
+import { analyzeColumn, chosenProfiles, summarizeColumns, toggleChoice, type CompareCore } from '@/lib/compare-analysis';
 import type { PlotMode } from '@/lib/lift-plot-paths';
 import type { TryDraft } from '@/lib/try-values';
 import type { EngineSpec } from '@/shared/engine';
@@ -18,7 +18,7 @@ export const profileDraftsAtom = atom<Record<string, TryDraft | undefined>>({});
 export const plotModeAtom = atom<PlotMode>('lift');
 
 /** The compare screen's state for one job: the chosen profiles, their typed values and each one's analysis. */
-export function useCompare(jobId: string, engine: EngineSpec, profiles: readonly Profile[]) {
+export function useCompare(jobId: string, engine: EngineSpec, profiles: readonly Profile[], core?: CompareCore) {
   const [selection, setSelection] = useAtom(compareSelectionAtom);
   const [drafts, setDrafts] = useAtom(profileDraftsAtom);
   const [mode, setMode] = useAtom(plotModeAtom);
@@ -26,7 +26,7 @@ export function useCompare(jobId: string, engine: EngineSpec, profiles: readonly
   const { converter } = useUnits();
   const units = useMemo(() => converter ?? unitConverter(null, 'imperial', 'cc'), [converter]);
   const chosen = useMemo(() => chosenProfiles(selection[jobId], profiles), [selection, jobId, profiles]);
-  const columns = useMemo(() => chosen.map((p) => analyzeColumn(engine, p, drafts[p.id], units)), [engine, chosen, drafts, units]);
+  const columns = useMemo(() => chosen.map((p) => analyzeColumn(engine, p, drafts[p.id], units, core)), [engine, chosen, drafts, units, core]);
   const summary = useMemo(() => summarizeColumns(columns), [columns]);
   const chosenIds = chosen.map((p) => p.id);
   const toggle = (id: string) => setSelection((s) => ({ ...s, [jobId]: toggleChoice(s[jobId] ?? chosenIds, id) }));

@@ -1,7 +1,8 @@
-import { useState } from 'react';
+import { useMemo, useState } from 'react';
 import { StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 
 import { Cautions } from '@/components/compare/cautions';
+import { FitsCorePanel } from '@/components/compare/fits-core';
 import { CompareTable } from '@/components/compare/compare-table';
 import { LiftPlot } from '@/components/ui/plots';
 import { ProfilePicker } from '@/components/compare/profile-picker';
@@ -15,7 +16,11 @@ import { breakpoints, colors, space, type as typeScale } from '@/constants/theme
 import { useEngineQuery } from '@/hooks/use-engine';
 import { useJobQuery } from '@/hooks/use-jobs';
 import { useMeQuery } from '@/hooks/use-me';
+import { useJobMeasurementsQuery } from '@/hooks/use-measurements';
 import { useJobProfilesQuery } from '@/hooks/use-profiles';
+import { useShopLimitsQuery } from '@/hooks/use-shop-limits';
+import { latestMeasured, type CompareCore } from '@/lib/compare-analysis';
+import { jobCore } from '@/shared/job-core';
 import { ApiError } from '@/lib/api';
 import { allCautions } from '@/shared/cautions';
 import type { EngineSpec } from '@/shared/engine';
@@ -28,9 +33,18 @@ export function CompareScreen({ id: jobId }: { id: string }) {
   const job = useJobQuery(jobId);
   const engine = useEngineQuery(jobId);
   const profiles = useJobProfilesQuery(jobId);
+  const measurements = useJobMeasurementsQuery(jobId);
+  const limits = useShopLimitsQuery();
+  const lifterType = engine.data?.engine.lifterType;
+  // The job's core and the shop's settings, as the server takes them for a sheet (unreadable ones leave the core out).
+  const core = useMemo<CompareCore | undefined>(() => {
+    if (!lifterType || !measurements.data || !limits.data) return undefined;
+    const job = jobCore({ measured: latestMeasured(measurements.data), limits: limits.data.resolved, lifterType });
+    return { job, limits: limits.data.limits };
+  }, [lifterType, measurements.data, limits.data]);
   const back: BackLink = { href: { pathname: '/jobs/[id]', params: { id: jobId } }, label: 'Back to the job' };
 
-  if (job.isPending || engine.isPending || profiles.isPending) return <Pending label="Loading the engine and profiles…" />;
+  if (job.isPending || engine.isPending || profiles.isPending || measurements.isPending || limits.isPending) return <Pending label="Loading the engine and profiles…" />;
   const failed = job.error ?? engine.error ?? profiles.error;
   if (failed) {
     return (
@@ -49,7 +63,7 @@ export function CompareScreen({ id: jobId }: { id: string }) {
       </Screen>
     );
   }
-  return <CompareView jobId={jobId} vehicle={job.data?.vehicle ?? ''} engine={engine.data.engine} profiles={profiles.data ?? []} back={back} />;
+  return <CompareView jobId={jobId} vehicle={job.data?.vehicle ?? ''} engine={engine.data.engine} profiles={profiles.data ?? []} core={core} back={back} />;
 }
 
 function CompareView({
@@ -57,12 +71,14 @@ function CompareView({
   vehicle,
   engine,
   profiles,
+  core,
   back,
 }: {
   jobId: string;
   vehicle: string;
   engine: EngineSpec;
   profiles: Profile[];
+  core: CompareCore | undefined;
   back: BackLink;
 }) {
   const wide = useWindowDimensions().width >= breakpoints.wide;
@@ -71,6 +87,7 @@ function CompareView({
     jobId,
     engine,
     profiles,
+    core,
   );
   const [editingId, setEditingId] = useState<string | null>(null);
   const editing = chosenProfiles.find((p) => p.id === editingId) ?? chosenProfiles[chosenProfiles.length - 1];
@@ -122,6 +139,17 @@ function CompareView({
         <View style={wide ? styles.plotColumn : undefined}>{plot}</View>
         <View style={wide ? styles.tableColumn : undefined}>{table}</View>
       </View>
+
+      <Section title="Fits the core?">
+        <Text style={styles.note}>Can each profile be ground from this job’s old cam: the cut, the metal left, and what the cut does to the lifters.</Text>
+        <View style={wide ? styles.columns : styles.stack}>
+          {shown.map((c, i) => (
+            <View key={c.profile.id} style={wide ? styles.half : undefined}>
+              <FitsCorePanel feasibility={c.feasibility ?? undefined} missing={core?.job.missing} name={c.profile.label} testID={`fits-core-${i}`} />
+            </View>
+          ))}
+        </View>
+      </Section>
 
       {nearLimit ? <Cautions title="Some checks are close to or past their limits" items={allCautions} testID="compare-cautions" /> : null}
 

@@ -51,6 +51,10 @@ export function OwnerOptionCard({ option, currency, referenceTitle, chosen, onCh
         <Text style={styles.body}>This is the option the others are compared with{referenceTitle === option.title ? '' : ` (${referenceTitle})`}.</Text>
       )}
       <Text style={styles.body}>{option.fit}</Text>
+      <Text style={styles.strong} testID={`owner-option-${option.id}-core`}>
+        {option.core.answer === 'old-cam' ? 'Your old camshaft will do. ' : option.core.answer === 'new-core' ? 'Needs a new core. ' : ''}
+        <Text style={styles.body}>{option.core.text}</Text>
+      </Text>
       <Text style={styles.small}>
         Sheet revision {option.revisionNumber} · checksum <Text style={styles.mono}>{option.checksum}</Text>
       </Text>

@@ -2,6 +2,7 @@ import { StyleSheet, Text, View } from 'react-native';
 
 import { colors, fonts, space, type as typeScale } from '@/constants/theme';
 import { lifterTypeLabels } from '@/shared/engine';
+import { coreView } from '@/shared/fits-core';
 import type { Revision } from '@/shared/sheets';
 
 import { CheckList } from '@/components/sheet/check-list';
@@ -71,7 +72,28 @@ export function RevisionView({ revision }: { revision: Revision }) {
         <Fact label="Firing order" value={engine.firingOrder || 'not stated'} />
         <Fact label="Static / dynamic CR" value={`${f(results.staticCompression, 2)} / ${f(results.dynamicCompression, 2)} :1`} />
       </View>
+      <CoreFacts revision={revision} />
       <CheckList checks={results.checks} skipped={results.skipped} testID="sheet-checks" />
+    </View>
+  );
+}
+
+const coreResult = { pass: 'fits the core', watch: 'fits the core, close to a limit', fail: 'does not fit the core', 'not-run': 'not worked out' } as const;
+
+/** What the grinder needs to confirm the core will do: the cut, the finishing stock and the margin result. */
+function CoreFacts({ revision }: { revision: Revision }) {
+  const feasibility = revision.results.feasibility;
+  const view = coreView(feasibility);
+  return (
+    <View style={styles.facts} role="group" aria-label="The core" testID="sheet-core">
+      <Fact label="Base-circle cut" value={feasibility?.cut == null ? 'not worked out' : `${f(feasibility.cut, 3)} in`} testID="sheet-core-cut" />
+      <Fact label="Finishing stock" value={feasibility ? `${f(feasibility.limits.finishingStock.min, 3)} in` : 'not worked out'} testID="sheet-core-stock" />
+      <Fact
+        label="Tightest margin"
+        value={view.tightest ? `${f(view.tightest.margin, 3)} in, ${view.tightest.lobe}` : 'not worked out'}
+        testID="sheet-core-margin"
+      />
+      <Fact label="Result" value={coreResult[view.verdict]} testID="sheet-core-result" />
     </View>
   );
 }

@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { StyleSheet, Text, TextInput, useWindowDimensions, View } from 'react-native';
 
+import { FitsCorePanel } from '@/components/compare/fits-core';
 import { Button } from '@/components/ui/button';
 import { CheckStatusChip } from '@/components/sheet/check-list';
 import { ChoiceGroup } from '@/components/ui/choice-group';
@@ -61,6 +62,7 @@ function SheetView({ sheet, back }: { sheet: SheetWithHistory; back: BackLink })
             <RevisionView revision={shown} />
             {shown.note ? <Text style={styles.body}>{shown.note}</Text> : null}
           </Section>
+          <FitsCorePanel feasibility={shown.results.feasibility} testID="sheet-fits-core" />
           {canWrite && shown.number === current.number ? <NoteEditor sheet={sheet} /> : null}
         </View>
         <View style={[wide ? styles.side : undefined, styles.stack]}>

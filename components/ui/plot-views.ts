@@ -4,3 +4,4 @@
  */
 export { LiftPlot } from '@/components/compare/lift-plot';
 export { LobeOverlay } from '@/components/measure/lobe-overlay';
+export { MarginPlot } from '@/components/compare/margin-plot';

@@ -12,6 +12,7 @@ import type * as PlotViews from './plot-views';
 const loadPlots = () => import('./plot-views');
 const LazyLiftPlot = lazy(() => loadPlots().then((m) => ({ default: m.LiftPlot })));
 const LazyLobeOverlay = lazy(() => loadPlots().then((m) => ({ default: m.LobeOverlay })));
+const LazyMarginPlot = lazy(() => loadPlots().then((m) => ({ default: m.MarginPlot })));
 
 /** Overlaid intake and exhaust curves against crank angle (components/compare/lift-plot.tsx), loaded on first use. */
 export function LiftPlot(props: ComponentProps<typeof PlotViews.LiftPlot>) {
@@ -27,6 +28,15 @@ export function LobeOverlay(props: ComponentProps<typeof PlotViews.LobeOverlay>)
   return (
     <Suspense fallback={<View style={{ height: props.height ?? 240 }} />}>
       <LazyLobeOverlay {...props} />
+    </Suspense>
+  );
+}
+
+/** Metal between the old lobe and the new one against cam angle (components/compare/margin-plot.tsx), loaded on first use. */
+export function MarginPlot(props: ComponentProps<typeof PlotViews.MarginPlot>) {
+  return (
+    <Suspense fallback={<View style={{ height: props.height ?? 220 }} />}>
+      <LazyMarginPlot {...props} />
     </Suspense>
   );
 }

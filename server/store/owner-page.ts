@@ -6,6 +6,7 @@ import type { ProfileAnalysis } from '@/calc/analysis';
 import type { Db } from '@/db';
 import { schema } from '@/db';
 import { analyzeRecords } from '@/shared/analysis';
+import { ownerCoreText } from '@/shared/fits-core';
 import { offerChecksum, revisionChecksum } from '@/shared/checksum';
 import { productCautions } from '@/shared/cautions';
 import type { Approval, approveSchema, OwnerDesk, OwnerOption, ownerOptionCreateSchema, ownerOptionPatchSchema, OwnerView, OwnerViewOption } from '@/shared/owner';
@@ -164,6 +165,7 @@ export function loadOwnerView(db: Reader, link: Pick<LinkRow, 'shopId' | 'jobId'
           ? null
           : compareProfilesForOwner({ current: analyses[0]!, candidate: a, currentName: reference.option.title, candidateName: r.option.title }),
       fit: ownerFitText(a, r.option.title),
+      core: ownerCoreText(r.revision.results.feasibility, r.option.title),
       figures: figures(a),
     };
   });

@@ -4,7 +4,9 @@ import type { Db } from '@/db';
 import { schema } from '@/db';
 import type { z } from 'zod';
 
-import { analyzeRecords, revisionResults } from '@/shared/analysis';
+import { resolveCheckLimits } from '@/calc/checks';
+import { analyzeForJob, revisionResults } from '@/shared/analysis';
+import { jobCore, type JobCore } from '@/shared/job-core';
 import type { EngineSpec } from '@/shared/engine';
 import type { ProfileSpec } from '@/shared/profile';
 import type { Revision, RevisionResults, Sheet, sheetCreateSchema, sheetSaveSchema, SheetWithHistory } from '@/shared/sheets';
@@ -15,7 +17,9 @@ import type { Actor, Reader } from './db';
 import { requireEngine } from './engines';
 import { requireJob } from './jobs';
 import { prepared } from './prepared';
+import { latestMeasurements } from './measurements';
 import { findJobProfile } from './profiles';
+import { loadShopLimits } from './shop-limits';
 
 type SheetRow = typeof schema.specSheets.$inferSelect;
 type RevisionRow = typeof schema.sheetRevisions.$inferSelect;
@@ -138,8 +142,17 @@ export function jobSheets(db: Reader, shopId: string, jobId: string): Sheet[] {
  * The numbers a revision keeps, computed from its profile values and engine snapshot. Calc may
  * refuse them (a CalcInputError in calc's terms: the route declares the request's names).
  */
-function computeResults(engine: EngineSpec, spec: ProfileSpec): RevisionResults {
-  return revisionResults(analyzeRecords(engine, spec));
+function computeResults(db: Reader, shopId: string, jobId: string, engine: EngineSpec, spec: ProfileSpec): RevisionResults {
+  const { job, limits } = jobCoreOf(db, shopId, jobId, engine);
+  const worked = analyzeForJob(engine, spec, job, limits);
+  return revisionResults(worked.analysis, worked.job);
+}
+
+/** The job's core (its newest lobe table and pushrod readings) and the shop's limits, for "fits the core?". */
+export function jobCoreOf(db: Reader, shopId: string, jobId: string, engine: EngineSpec) {
+  const { limits } = loadShopLimits(db, shopId);
+  const job: JobCore = jobCore({ measured: latestMeasurements(db, shopId, jobId), limits: resolveCheckLimits(limits), lifterType: engine.lifterType });
+  return { job, limits };
 }
 
 /** A new sheet on the job from one of its profiles, with revision 1 as a draft against the job's engine. */
@@ -158,7 +171,7 @@ export function createSheet(
         profileId: "Choose one of this job's profiles",
       });
     }
-    const results = computeResults(engine, profile.spec);
+    const results = computeResults(tx, who.shopId, jobId, engine, profile.spec);
     const created = tx
       .insert(schema.specSheets)
       .values({ id: crypto.randomUUID(), shopId: who.shopId, jobId, title: body.title, createdBy: who.userId })
@@ -215,7 +228,7 @@ export function saveSheet(db: Db, who: Actor, id: string, { version, refreshEngi
     const spec = changes.spec ?? latest.spec;
     const note = changes.note ?? latest.note;
     const engine = refreshEngine ? requireEngine(tx, who.shopId, current.jobId) : latest.engine;
-    const results = computeResults(engine, spec);
+    const results = computeResults(tx, who.shopId, current.jobId, engine, spec);
 
     // An issued revision is the grinder's contract: never touch it, write the next one.
     const startNext = latest.state === 'issued' || newRevision === true;

@@ -1,0 +1,56 @@
+import { describe, expect, it } from 'vitest';
+
+import { DEMO_ENGINE, DEMO_FEASIBILITY_INPUT, DEMO_STOCK_REGRIND, DEMO_TOWING } from '@/calc/demo';
+import { analyzeProfile } from '@/calc/analysis';
+
+import { feasibilityResults } from './analysis';
+import { coreView, flankOf, ownerCoreText } from './fits-core';
+
+const from = { from: 'measured lobe table', missing: [] };
+const towing = feasibilityResults(analyzeProfile(DEMO_FEASIBILITY_INPUT), from);
+// The stock-spec regrind copies the core's lobes onto a 0.040 in smaller base circle: 0.020 in of metal everywhere on the lobe.
+const stock = feasibilityResults(analyzeProfile({ ...DEMO_FEASIBILITY_INPUT, profile: DEMO_STOCK_REGRIND }), from);
+
+describe('the fits-the-core words', () => {
+  it('says the towing profile cannot be ground from the demo core, where it stands outside, and that it needs a new core', () => {
+    const view = coreView(towing);
+    expect(view.verdict).toBe('fail');
+    expect(view.fromOldCam).toBe('no');
+    const worst = [towing.intake.envelope!, towing.exhaust.envelope!].reduce((a, b) => (a.minMargin < b.minMargin ? a : b));
+    expect(view.tightest?.margin).toBe(worst.minMargin);
+    expect(worst.minMargin).toBeLessThan(0);
+    expect(view.headline).toContain(`${(-worst.minMargin).toFixed(3)} in outside the old one`);
+    expect(view.headline).toContain(`${towing.cut!.toFixed(3)} in cut`);
+    expect(view.headline).toMatch(/needs a new core/);
+    expect(view.figures.find((f) => f.key === 'cleanup')?.value).toBe(`${towing.cleanup!.cleanupCut.toFixed(3)} in`);
+    expect(view.figures.find((f) => f.key === 'largestLift')?.value).toBe(`${towing.cleanup!.largestLift.toFixed(3)} in`);
+    expect(view.lifter).toContain(`preload falls to ${towing.lifter!.preloadLeft.toFixed(3)} in`);
+    expect(view.lifter).toContain(`pushrods ${towing.lifter!.restoredPushrodLength!.toFixed(3)} in long`);
+    expect(ownerCoreText(towing, 'Towing').answer).toBe('new-core');
+  });
+
+  it('says the stock-spec regrind fits, with its metal to spare, and tells the owner the old cam will do', () => {
+    const view = coreView(stock);
+    expect(view.verdict).toBe('pass');
+    // Hand-worked: (1.240 − 1.200) / 2 = 0.020 in on the radius, the same lobe on both.
+    expect(view.tightest?.margin).toBeCloseTo(0.02, 4);
+    expect(view.headline).toMatch(/^Can be ground from the old cam at a 0\.040 in cut, with 0\.020 in of metal/);
+    expect(ownerCoreText(stock, 'Stock').answer).toBe('old-cam');
+  });
+
+  it('says NOT RUN and names what is lacking, never a pass, when the core or its damage is not known', () => {
+    const bare = feasibilityResults(analyzeProfile({ engine: DEMO_ENGINE, profile: DEMO_TOWING, grinding: {} }), { from: null, missing: ["upload the core's lobe table (CSV)"] });
+    const view = coreView(bare);
+    expect(view.verdict).toBe('not-run');
+    expect(view.headline).toContain("upload the core's lobe table (CSV)");
+    expect(ownerCoreText(bare, 'Towing').answer).toBe('unknown');
+    expect(coreView(undefined).verdict).toBe('not-run');
+    expect(coreView(undefined, ['record the stock base circle']).headline).toBe('Not worked out: record the stock base circle.');
+  });
+
+  it('names the flank from the cam angle (negative = before the nose)', () => {
+    expect(flankOf(-14)).toBe('14° cam before the nose, opening flank');
+    expect(flankOf(22)).toBe('22° cam after the nose, closing flank');
+    expect(flankOf(1)).toBe('at the nose');
+  });
+});
