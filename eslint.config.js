@@ -2,6 +2,7 @@
 const { defineConfig } = require('eslint/config');
 const expoConfig = require('eslint-config-expo/flat');
 const pluginQuery = require('@tanstack/eslint-plugin-query');
+const prettierConfig = require('eslint-config-prettier/flat');
 
 /** The layering DEVELOPERS.md describes, enforced: which folder may import which. */
 const layers = [
@@ -10,7 +11,10 @@ const layers = [
     files: ['server/routes/**/*.{ts,tsx}'],
     ignores: ['server/routes/**/*.test.ts'],
     patterns: [
-      { group: ['./*', '@/server/routes/*', '../routes/*'], message: 'A route never imports another route: move what both need to server/store/ (data) or a module beside it.' },
+      {
+        group: ['./*', '@/server/routes/*', '../routes/*'],
+        message: 'A route never imports another route: move what both need to server/store/ (data) or a module beside it.',
+      },
     ],
   },
   {
@@ -22,7 +26,10 @@ const layers = [
     // The browser bundle holds no server or database code.
     files: ['app/**/*.{ts,tsx}', 'components/**/*.{ts,tsx}'],
     patterns: [
-      { group: ['@/server', '@/server/*', '@/db', '@/db/*', '**/server/*', '**/db/*', '../server', '../db', '../../server', '../../db'], message: 'app/ and components/ never import server/ or db/: reach the server through the API hooks.' },
+      {
+        group: ['@/server', '@/server/*', '@/db', '@/db/*', '**/server/*', '**/db/*', '../server', '../db', '../../server', '../../db'],
+        message: 'app/ and components/ never import server/ or db/: reach the server through the API hooks.',
+      },
     ],
   },
   {
@@ -35,6 +42,8 @@ const layers = [
 module.exports = defineConfig([
   expoConfig,
   ...pluginQuery.configs['flat/recommended'],
+  // Formatting is Prettier's (`npm run format`; `npm run lint` checks it): no ESLint rule argues with it.
+  prettierConfig,
   {
     ignores: ['dist-server/*', 'dist/**', 'drizzle/**', '.expo/**', 'node_modules/**', 'tests/e2e/artifacts/**', 'data/**'],
   },
