@@ -6,7 +6,16 @@ export default defineConfig({
     alias: { '@': fileURLToPath(new URL('.', import.meta.url)) },
   },
   test: {
-    include: ['calc/**/*.test.ts', 'server/**/*.test.ts', 'shared/**/*.test.ts', 'lib/**/*.test.ts', 'constants/**/*.test.ts', 'db/**/*.test.ts', 'tests/*.test.ts', 'tests/api/**/*.test.ts'],
+    include: [
+      'calc/**/*.test.ts',
+      'server/**/*.test.ts',
+      'shared/**/*.test.ts',
+      'lib/**/*.test.ts',
+      'constants/**/*.test.ts',
+      'db/**/*.test.ts',
+      'tests/*.test.ts',
+      'tests/api/**/*.test.ts',
+    ],
     environment: 'node',
     pool: 'forks',
   },

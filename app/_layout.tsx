@@ -40,9 +40,7 @@ function Navigator() {
 }
 
 export default function RootLayout() {
-  const [queryClient] = useState(
-    () => new QueryClient({ defaultOptions: { queries: { refetchOnWindowFocus: true, retry: 1 } } }),
-  );
+  const [queryClient] = useState(() => new QueryClient({ defaultOptions: { queries: { refetchOnWindowFocus: true, retry: 1 } } }));
   const [fontsLoaded, fontError] = useFonts({
     Barlow_400Regular,
     Barlow_500Medium,

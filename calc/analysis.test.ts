@@ -1,12 +1,6 @@
 import * as fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import {
-  analysisToJson,
-  analyzeProfile,
-  createAnalysisWorkspace,
-  pistonCurve,
-  type AnalysisInput,
-} from './analysis';
+import { analysisToJson, analyzeProfile, createAnalysisWorkspace, pistonCurve, type AnalysisInput } from './analysis';
 import { checkDegreeing, checkWornLobes } from './checks';
 import { degreeCam } from './degree';
 import { regrindEnvelope } from './cam-geometry';
@@ -305,7 +299,16 @@ describe('feasibility of the towing profile on the demo core (demo data, invente
       lift: Array.from({ length: 360 }, (_, i) => lobeLiftAt(shape, 2 * (i - 180)).lift),
     });
     // exhaust centres: towing ECL 2·112 − 108 = 116, core 2·114 − 110 = 118 crank ° BTDC, so the towing lobe sits 1 cam degree later
-    const alone = regrindEnvelope({ core: cam(core), candidate: cam(cand), baseCircle: 1.24, cut: 0.04, phase: 1, follower: { kind: 'roller', rollerDiameter: 0.75 }, finishingStock: 0.005, step: 1 });
+    const alone = regrindEnvelope({
+      core: cam(core),
+      candidate: cam(cand),
+      baseCircle: 1.24,
+      cut: 0.04,
+      phase: 1,
+      follower: { kind: 'roller', rollerDiameter: 0.75 },
+      finishingStock: 0.005,
+      step: 1,
+    });
     expect(f.exhaust.envelope?.phase).toBeCloseTo(1, 12);
     expect(f.exhaust.envelope?.minMargin).toBeCloseTo(alone.minMargin, 9);
   });

@@ -809,7 +809,7 @@ function lobeGeometry(
     skip(ctx, {
       id: 'finishingStock',
       subject: 'core',
-      note: 'not measured: give the core\'s stock lobes and base circle, and the regrind base circle',
+      note: "not measured: give the core's stock lobes and base circle, and the regrind base circle",
     });
   }
   return { pressureAngle: pressure, curvature, envelope };
@@ -834,7 +834,8 @@ function feasibilityOf(
   if (g !== undefined) requireObject('grinding', g);
   const rollerDiameter = optionalInRange('grinding.rollerDiameter', g?.rollerDiameter, 0, 4);
   const wheelDiameter = optionalInRange('grinding.wheelDiameter', g?.wheelDiameter, 0, 60);
-  const allowance = g?.cleanupAllowance === undefined ? null : requireInRange('grinding.cleanupAllowance', g.cleanupAllowance, { min: 0, max: 0.25, unit: 'in' });
+  const allowance =
+    g?.cleanupAllowance === undefined ? null : requireInRange('grinding.cleanupAllowance', g.cleanupAllowance, { min: 0, max: 0.25, unit: 'in' });
   const largestCut = g?.largestCut === undefined ? null : requireInRange('grinding.largestCut', g.largestCut, { min: 0, max: 1, unit: 'in' });
   const baseCircle = input.profile.baseCircle ?? null;
   const asked = input.core !== undefined || g !== undefined;
@@ -894,7 +895,7 @@ function feasibilityOf(
       ),
     );
   } else {
-    skip(ctx, { id: 'cleanup', subject: 'core', note: 'not measured: give the core\'s damage depth and the cleanup allowance' });
+    skip(ctx, { id: 'cleanup', subject: 'core', note: "not measured: give the core's damage depth and the cleanup allowance" });
   }
   if (largestCut !== null && cut !== null) {
     checks.push(
@@ -912,7 +913,13 @@ function feasibilityOf(
   const r = input.regrind;
   if (cut !== null && r !== undefined && isHydraulic(e.lifterType)) {
     lifter = lifterSideOfCut(
-      { cut, originalPreload: r.originalPreload, minimumPreload: Math.max(0, limits.hydraulicPreload.min), pushrodLength: r.pushrodLength, plungerTravel: r.plungerTravel },
+      {
+        cut,
+        originalPreload: r.originalPreload,
+        minimumPreload: Math.max(0, limits.hydraulicPreload.min),
+        pushrodLength: r.pushrodLength,
+        plungerTravel: r.plungerTravel,
+      },
       'regrind',
     );
   }
@@ -935,11 +942,7 @@ export function analyzeProfile(input: AnalysisInput, options?: { workspace?: Ana
   const e = c.engine;
   const ip = input.profile;
 
-  const at050 = withHeights(
-    valveEventsRaw(c.intake.shape.duration050, c.exhaust.shape.duration050, c.lsa, c.icl),
-    CHECKING_HEIGHT_050,
-    CHECKING_HEIGHT_050,
-  );
+  const at050 = withHeights(valveEventsRaw(c.intake.shape.duration050, c.exhaust.shape.duration050, c.lsa, c.icl), CHECKING_HEIGHT_050, CHECKING_HEIGHT_050);
   const advertised = withHeights(
     valveEventsRaw(c.intake.shape.advertisedDuration, c.exhaust.shape.advertisedDuration, c.lsa, c.icl),
     c.intake.shape.advertisedHeight,
@@ -969,7 +972,11 @@ export function analyzeProfile(input: AnalysisInput, options?: { workspace?: Ana
   // Dynamic compression: intake closing at one reference valve lift for every sheet.
   const refTappet = (DYNAMIC_CR_REFERENCE.valveLift + c.intake.lash) / c.intake.rockerRatio;
   if (!(refTappet < c.intake.shape.lobeLift)) {
-    throw new CalcInputError('profile.intake.lobeLift', `never opens the valve past the ${DYNAMIC_CR_REFERENCE.valveLift} in reference lift`, c.intake.shape.lobeLift);
+    throw new CalcInputError(
+      'profile.intake.lobeLift',
+      `never opens the valve past the ${DYNAMIC_CR_REFERENCE.valveLift} in reference lift`,
+      c.intake.shape.lobeLift,
+    );
   }
   const ivc = c.icl + offsetAtLiftRaw(c.intake.shape, refTappet) - 180;
   const ivc050 = at050.ivcAbdc + 15;
@@ -991,10 +998,7 @@ export function analyzeProfile(input: AnalysisInput, options?: { workspace?: Ana
     ['exhaust', exhaust],
   ] as const) {
     checks.push(
-      checkMinimumRaw(
-        { id: 'coilBind', subject: name, value: lobe.spring.coilBindMargin, unit: 'in', what: WHAT[name].coilBind },
-        limits.coilBind,
-      ),
+      checkMinimumRaw({ id: 'coilBind', subject: name, value: lobe.spring.coilBindMargin, unit: 'in', what: WHAT[name].coilBind }, limits.coilBind),
       checkMinimumRaw(
         {
           id: 'retainerToSeal',
@@ -1022,22 +1026,14 @@ export function analyzeProfile(input: AnalysisInput, options?: { workspace?: Ana
     const offset = baselineOffsetRaw(e.stroke, e.rodLength, cosAngle, b);
     const r = ptvSweepRaw(lobe.curve.lift, piston.depth, CYCLE_GRID.start, CYCLE_GRID.step, PTV_I0, PTV_I1, cosAngle, offset, out);
     checks.push(
-      checkMinimumRaw(
-        { id, subject: name, value: r.minClearance, unit: 'in', what: WHAT[name].ptv },
-        name === 'intake' ? limits.ptvIntake : limits.ptvExhaust,
-      ),
+      checkMinimumRaw({ id, subject: name, value: r.minClearance, unit: 'in', what: WHAT[name].ptv }, name === 'intake' ? limits.ptvIntake : limits.ptvExhaust),
     );
     return r;
   };
   const ptv = { intake: sweep('intake', intake, ws.ptvIntake), exhaust: sweep('exhaust', exhaust, ws.ptvExhaust) };
 
   // dynamic compression
-  checks.push(
-    checkMaximumRaw(
-      { id: 'dynamicCompression', subject: 'engine', value: dyn.ratio, unit: ':1', what: DYNAMIC_CR_WHAT },
-      limits.dynamicCompression,
-    ),
-  );
+  checks.push(checkMaximumRaw({ id: 'dynamicCompression', subject: 'engine', value: dyn.ratio, unit: ':1', what: DYNAMIC_CR_WHAT }, limits.dynamicCompression));
 
   // regrind preload
   let preload: PreloadResult | null = null;
@@ -1114,13 +1110,7 @@ export function analyzeProfile(input: AnalysisInput, options?: { workspace?: Ana
 // ---------------------------------------------------------------------------
 // JSON
 
-type Jsonify<T> = T extends Float64Array
-  ? number[]
-  : T extends (infer U)[]
-    ? Jsonify<U>[]
-    : T extends object
-      ? { [K in keyof T]: Jsonify<T[K]> }
-      : T;
+type Jsonify<T> = T extends Float64Array ? number[] : T extends (infer U)[] ? Jsonify<U>[] : T extends object ? { [K in keyof T]: Jsonify<T[K]> } : T;
 
 /** ProfileAnalysis with every curve as a plain number array. */
 export type ProfileAnalysisJson = Jsonify<ProfileAnalysis>;

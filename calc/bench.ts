@@ -32,7 +32,7 @@ function variants(count: number): AnalysisInput[] {
       engine: {
         ...base.engine,
         stroke: 3.4 + 0.4 * f,
-        rodLength: 5.7 + 0.6 * ((i * 7) % count) / count,
+        rodLength: 5.7 + (0.6 * ((i * 7) % count)) / count,
         chamberCc: 62 + (i % 9),
         rockerRatioIntake: 1.5 + 0.1 * (i % 3),
       },

@@ -108,9 +108,7 @@ describe('pressureAngle', () => {
   it('refuses missing, non-object and oversized arguments naming the field', () => {
     expect(() => pressureAngle(undefined as never)).toThrow(CalcInputError);
     expect(() => pressureAngle({ lobe: 'x' as never, baseCircle: 1.2, rollerDiameter: 0.75 })).toThrow(/^lobe/);
-    expect(() => pressureAngle({ lobe: { start: 0, step: 0.01, lift: new Array(20000).fill(0) }, baseCircle: 1.2, rollerDiameter: 0.75 })).toThrow(
-      /lobe.lift/,
-    );
+    expect(() => pressureAngle({ lobe: { start: 0, step: 0.01, lift: new Array(20000).fill(0) }, baseCircle: 1.2, rollerDiameter: 0.75 })).toThrow(/lobe.lift/);
     expect(() => pressureAngle({ lobe: eccentric(0.8, 0.15, 0.375), baseCircle: Number.NaN, rollerDiameter: 0.75 })).toThrow(/baseCircle/);
   });
 });
@@ -198,7 +196,15 @@ describe('regrindEnvelope', () => {
   });
 
   it('gives half the cut everywhere for the same lobe on a smaller base circle (hand-worked)', () => {
-    const r = regrindEnvelope({ core, candidate: core, baseCircle: 1.24, cut: 0.04, phase: 0, follower: { kind: 'roller', rollerDiameter: 0.75 }, finishingStock: 0.005 });
+    const r = regrindEnvelope({
+      core,
+      candidate: core,
+      baseCircle: 1.24,
+      cut: 0.04,
+      phase: 0,
+      follower: { kind: 'roller', rollerDiameter: 0.75 },
+      finishingStock: 0.005,
+    });
     expect(r.minMargin).toBeCloseTo(0.02, 14);
     expect(Math.max(...r.margin)).toBeCloseTo(0.02, 14);
     expect(r.status).toBe('pass');

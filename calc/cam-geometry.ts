@@ -455,12 +455,7 @@ export function symmetricCurvatureRaw(
  * diameters in inches. Returns signed radii (inches, + convex) at each sample,
  * the smallest with its cam angle, and the undercut and grinding-wheel flags.
  */
-export function pitchCurvature(input: {
-  lobe: CamLobeSamples;
-  baseCircle: number;
-  follower: CamFollower;
-  wheelDiameter?: number;
-}): CurvatureResult {
+export function pitchCurvature(input: { lobe: CamLobeSamples; baseCircle: number; follower: CamFollower; wheelDiameter?: number }): CurvatureResult {
   requireObject('input', input);
   const lobe = requireCamLobe(input.lobe, 'lobe');
   const baseCircle = requireInRange('baseCircle', input.baseCircle, { min: 0, max: 6, minOpen: true, unit: 'in' });
@@ -543,7 +538,7 @@ function wrap(angle: number, centre: number): number {
 
 export const ENVELOPE_CRITERION =
   'For convex cams without undercut, one cam fits inside the other exactly when its pitch curve (roller: the cam ' +
-  'dilated by the roller, a monotone operation) or its support function (flat tappet) lies inside the other\'s; ' +
+  "dilated by the roller, a monotone operation) or its support function (flat tappet) lies inside the other's; " +
   'for an in-line follower both are lift plus base-circle radius at each cam angle, so the margin is ' +
   '(Rb + s_core(θ)) − (Rb − cut/2 + s_candidate(θ − phase)).';
 
@@ -608,14 +603,7 @@ export function regrindEnvelope(input: {
 }
 
 /** Shape an envelope result. */
-export function envelopeResult(
-  start: number,
-  step: number,
-  margin: Float64Array,
-  minMargin: number,
-  minAt: number,
-  finishingStock: number,
-): EnvelopeResult {
+export function envelopeResult(start: number, step: number, margin: Float64Array, minMargin: number, minAt: number, finishingStock: number): EnvelopeResult {
   return {
     start,
     step,

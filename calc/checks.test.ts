@@ -62,11 +62,18 @@ describe('checkMinimum', () => {
 
 describe('checkMaximum and checkRange', () => {
   it('measures margins in the safe direction', () => {
-    const dyn = checkMaximum({ id: 'dynamicCompression', subject: 'engine', unit: ':1', what: 'Dynamic compression', value: 8.0 }, DEFAULT_CHECK_LIMITS.dynamicCompression);
+    const dyn = checkMaximum(
+      { id: 'dynamicCompression', subject: 'engine', unit: ':1', what: 'Dynamic compression', value: 8.0 },
+      DEFAULT_CHECK_LIMITS.dynamicCompression,
+    );
     expect(dyn.status).toBe('pass');
     expect(dyn.margin).toBeCloseTo(0.5, 12);
-    expect(checkMaximum({ id: 'dynamicCompression', subject: 'engine', unit: ':1', what: 'x', value: 8.4 }, DEFAULT_CHECK_LIMITS.dynamicCompression).status).toBe('watch');
-    expect(checkMaximum({ id: 'dynamicCompression', subject: 'engine', unit: ':1', what: 'x', value: 8.9 }, DEFAULT_CHECK_LIMITS.dynamicCompression).status).toBe('fail');
+    expect(
+      checkMaximum({ id: 'dynamicCompression', subject: 'engine', unit: ':1', what: 'x', value: 8.4 }, DEFAULT_CHECK_LIMITS.dynamicCompression).status,
+    ).toBe('watch');
+    expect(
+      checkMaximum({ id: 'dynamicCompression', subject: 'engine', unit: ':1', what: 'x', value: 8.9 }, DEFAULT_CHECK_LIMITS.dynamicCompression).status,
+    ).toBe('fail');
     const pre = { id: 'hydraulicPreload' as const, subject: 'intake', unit: 'in', what: 'Lifter preload' };
     const mid = checkRange({ ...pre, value: 0.04 }, DEFAULT_CHECK_LIMITS.hydraulicPreload);
     expect(mid.status).toBe('pass');

@@ -123,7 +123,8 @@ export const DEFAULT_CHECK_LIMITS: Readonly<CheckLimits> = Object.freeze({
   undercut: Object.freeze({
     min: 0,
     watchBand: 0.05,
-    source: 'geometry: a convex pitch radius below the roller radius, or a flat-tappet radius at or below 0, cannot be ground (Norton, Design of Machinery, §8.8, from memory)',
+    source:
+      'geometry: a convex pitch radius below the roller radius, or a flat-tappet radius at or below 0, cannot be ground (Norton, Design of Machinery, §8.8, from memory)',
   }),
   finishingStock: Object.freeze({ min: 0.005, watchBand: 0.005, source: COMMON }),
   cleanupAllowance: Object.freeze({ value: 0.005, source: COMMON }),
@@ -413,8 +414,6 @@ export function checkWornLobes(
   const limits = resolveCheckLimits(overrides);
   const { unjudged, ...result } = findWornLobesByKind({ lobes, threshold: limits.wornLobe.max, stockLobeLift });
   const what = stockLobeLift === undefined ? 'Max lift below the median of its siblings' : 'Max lift below its siblings or the stock lobe lift';
-  const checks = result.lobes.map((row) =>
-    checkMaximum({ id: 'wornLobe', subject: row.id, value: row.damageDepth, unit: 'in', what }, limits.wornLobe),
-  );
+  const checks = result.lobes.map((row) => checkMaximum({ id: 'wornLobe', subject: row.id, value: row.damageDepth, unit: 'in', what }, limits.wornLobe));
   return { result, checks, unjudged };
 }

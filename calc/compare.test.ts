@@ -53,7 +53,9 @@ describe('compareProfilesForOwner (demo data, invented)', () => {
   it('mentions checks still to be measured', () => {
     const noBaseline = analyzeProfile({ ...DEMO_ANALYSIS_INPUT, ptvBaseline: undefined });
     const r = compareProfilesForOwner({ current: stock, candidate: noBaseline });
-    expect(r.points.find((p) => p.topic === 'fit')?.text).toMatch(/Still to be measured on the engine: intake valve clearance to the piston and exhaust valve clearance to the piston/);
+    expect(r.points.find((p) => p.topic === 'fit')?.text).toMatch(
+      /Still to be measured on the engine: intake valve clearance to the piston and exhaust valve clearance to the piston/,
+    );
   });
 
   it('property: the direction words follow the sign of the duration change', () => {

@@ -106,7 +106,8 @@ function listWords(items: string[]): string {
 
 function checkWords(checks: readonly CheckResult[], status: 'watch' | 'fail'): string[] {
   const seen = new Set<string>();
-  for (const c of checks) if (c.status === status) seen.add(`${CHECK_WORDS[c.id]}${c.subject === 'intake' || c.subject === 'exhaust' ? ` (${c.subject})` : ''}`);
+  for (const c of checks)
+    if (c.status === status) seen.add(`${CHECK_WORDS[c.id]}${c.subject === 'intake' || c.subject === 'exhaust' ? ` (${c.subject})` : ''}`);
   return [...seen];
 }
 
@@ -120,7 +121,8 @@ export function ownerFitText(analysis: ProfileAnalysis, name: string): string {
   const notMeasured = analysis.skipped.filter((s) => s.note.startsWith('not measured')).map((s) => CHECK_WORDS[s.id]);
   let fit: string;
   if (fails.length) fit = `The shop's fit checks flag ${listWords(fails)} on the ${name} cam; the shop will change parts or the profile before fitting it.`;
-  else if (watches.length) fit = `The ${name} cam passes the shop's fit checks, with ${listWords(watches)} close to the limit, so the shop will check those on the engine.`;
+  else if (watches.length)
+    fit = `The ${name} cam passes the shop's fit checks, with ${listWords(watches)} close to the limit, so the shop will check those on the engine.`;
   else fit = `The ${name} cam passes all of the shop's fit checks that could be worked out from the numbers.`;
   if (notMeasured.length) fit += ` Still to be measured on the engine: ${listWords([...new Set(notMeasured)])}.`;
   return fit;
@@ -174,9 +176,7 @@ export function compareProfilesForOwner(input: OwnerComparisonInput): OwnerCompa
   }
   points.push({
     topic: 'lift',
-    text: liftParts.length
-      ? `It opens ${listWords(liftParts)}.`
-      : `It opens the valves about as far as the ${cur} cam.`,
+    text: liftParts.length ? `It opens ${listWords(liftParts)}.` : `It opens the valves about as far as the ${cur} cam.`,
   });
 
   // overlap
@@ -207,9 +207,7 @@ export function compareProfilesForOwner(input: OwnerComparisonInput): OwnerCompa
       Math.abs(d.dynamicCompression) < 0.05
         ? `The effective compression while running stays about the same (${toCr} to 1).`
         : `The effective compression while running goes from about ${fromCr} to ${toCr} to 1. ${
-            d.dynamicCompression < 0
-              ? 'Lower tends to be more tolerant of ordinary fuel.'
-              : 'Higher can call for the fuel grade your shop recommends.'
+            d.dynamicCompression < 0 ? 'Lower tends to be more tolerant of ordinary fuel.' : 'Higher can call for the fuel grade your shop recommends.'
           }`,
   });
 
@@ -217,13 +215,14 @@ export function compareProfilesForOwner(input: OwnerComparisonInput): OwnerCompa
 
   const bigger = avgDuration >= 1 || d.intakeValveLift >= 0.005 || d.exhaustValveLift >= 0.005;
   const smaller = avgDuration <= -1 || d.intakeValveLift <= -0.005 || d.exhaustValveLift <= -0.005;
-  const headline = bigger && !smaller
-    ? `The ${cand} cam is a little larger than the ${cur} one: it opens the valves longer or further.`
-    : smaller && !bigger
-      ? `The ${cand} cam is a little milder than the ${cur} one: it opens the valves for less time or less far.`
-      : bigger && smaller
-        ? `The ${cand} cam trades some timing for lift compared with the ${cur} one.`
-        : `The ${cand} cam is very close to the ${cur} one.`;
+  const headline =
+    bigger && !smaller
+      ? `The ${cand} cam is a little larger than the ${cur} one: it opens the valves longer or further.`
+      : smaller && !bigger
+        ? `The ${cand} cam is a little milder than the ${cur} one: it opens the valves for less time or less far.`
+        : bigger && smaller
+          ? `The ${cand} cam trades some timing for lift compared with the ${cur} one.`
+          : `The ${cand} cam is very close to the ${cur} one.`;
 
   return { headline, points, cautions: [...OWNER_CAUTIONS], differences: d };
 }

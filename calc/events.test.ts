@@ -111,12 +111,9 @@ describe('valveEvents', () => {
 
   it('property: rejects any non-finite or out-of-range duration', () => {
     fc.assert(
-      fc.property(
-        fc.oneof(fc.constantFrom(Number.NaN, Infinity, -Infinity, 0), fc.double({ min: 360, max: 1e6 }), fc.double({ min: -1e6, max: 0 })),
-        (d) => {
-          expect(() => valveEvents({ intakeDuration: d, exhaustDuration: 220, lsa: 110, icl: 106 })).toThrow(CalcInputError);
-        },
-      ),
+      fc.property(fc.oneof(fc.constantFrom(Number.NaN, Infinity, -Infinity, 0), fc.double({ min: 360, max: 1e6 }), fc.double({ min: -1e6, max: 0 })), (d) => {
+        expect(() => valveEvents({ intakeDuration: d, exhaustDuration: 220, lsa: 110, icl: 106 })).toThrow(CalcInputError);
+      }),
     );
   });
 });

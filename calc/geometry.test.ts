@@ -1,14 +1,7 @@
 import * as fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { CalcInputError } from './errors';
-import {
-  displacement,
-  dynamicCompression,
-  pistonDepth,
-  pistonMotion,
-  staticCompression,
-  sweptVolume,
-} from './geometry';
+import { displacement, dynamicCompression, pistonDepth, pistonMotion, staticCompression, sweptVolume } from './geometry';
 
 const demoEngine = {
   // Demo data (invented): the 5.9 L V8 of the product's demo scenario.

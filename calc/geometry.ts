@@ -213,13 +213,7 @@ export interface DynamicCompression {
 }
 
 /** Unchecked kernel of dynamicCompression. */
-export function dynamicCompressionRaw(
-  bore: number,
-  stroke: number,
-  rodLength: number,
-  clearanceCc: number,
-  ivcAbdc: number,
-): DynamicCompression {
+export function dynamicCompressionRaw(bore: number, stroke: number, rodLength: number, clearanceCc: number, ivcAbdc: number): DynamicCompression {
   const effectiveStroke = pistonDepthRaw(stroke, rodLength, 180 + ivcAbdc);
   const trappedSweptCc = circleArea(bore) * effectiveStroke * CC_PER_CUBIC_INCH;
   return { ratio: (trappedSweptCc + clearanceCc) / clearanceCc, effectiveStroke, trappedSweptCc };

@@ -32,14 +32,12 @@ const midHeightSpec = fc.record({
   advertisedHeight: fc.double({ min: 0.018, max: 0.022, noNaN: true }),
   lobeLift: fc.double({ min: 0.33, max: 0.5, noNaN: true }),
 });
-const typicalSpec = fc.oneof(lowHeightSpec, midHeightSpec).map(
-  (r): LobeSpec => ({
-    duration050: r.duration050,
-    advertisedDuration: r.duration050 + r.extra,
-    advertisedHeight: r.advertisedHeight,
-    lobeLift: r.lobeLift,
-  }),
-);
+const typicalSpec = fc.oneof(lowHeightSpec, midHeightSpec).map((r): LobeSpec => ({
+  duration050: r.duration050,
+  advertisedDuration: r.duration050 + r.extra,
+  advertisedHeight: r.advertisedHeight,
+  lobeLift: r.lobeLift,
+}));
 
 /** Central differences (common practice, no source): f′ ≈ (f(x+h) − f(x−h)) / 2h. */
 function centralDiff(f: (x: number) => number, x: number, h: number): number {
@@ -178,8 +176,14 @@ describe('synthesizeLobe', () => {
         const phi = f * shape.halfEvent;
         const h = 1e-3;
         const p = lobeLiftAt(shape, phi);
-        expect(p.velocity).toBeCloseTo(centralDiff((x) => lobeLiftAt(shape, x).lift, phi, h), 8);
-        expect(p.acceleration).toBeCloseTo(centralDiff((x) => lobeLiftAt(shape, x).velocity, phi, h), 8);
+        expect(p.velocity).toBeCloseTo(
+          centralDiff((x) => lobeLiftAt(shape, x).lift, phi, h),
+          8,
+        );
+        expect(p.acceleration).toBeCloseTo(
+          centralDiff((x) => lobeLiftAt(shape, x).velocity, phi, h),
+          8,
+        );
       }),
     );
   });
@@ -307,15 +311,13 @@ describe('synthesizeLiftCurve', () => {
     expect(() => synthesizeLiftCurve({ ...spec, centerline: Number.NaN, rockerRatio: 1.5, lash: 0 })).toThrow(/centerline/);
     expect(() => synthesizeLiftCurve({ ...spec, centerline: 106, rockerRatio: -1, lash: 0 })).toThrow(/rockerRatio/);
     expect(() => synthesizeLiftCurve({ ...spec, centerline: 106, rockerRatio: 1.5, lash: 1 })).toThrow(/lash/);
-    expect(() =>
-      synthesizeLiftCurve({ ...spec, centerline: 106, rockerRatio: 1.5, lash: 0, grid: { start: 0, step: 0, count: 10 } }),
-    ).toThrow(/grid.step/);
+    expect(() => synthesizeLiftCurve({ ...spec, centerline: 106, rockerRatio: 1.5, lash: 0, grid: { start: 0, step: 0, count: 10 } })).toThrow(/grid.step/);
   });
 
   it('finding 5 (regression): refuses a grid past GRID_MAX samples', () => {
     // The old check had no upper bound, so a caller could ask for any allocation.
-    expect(() =>
-      synthesizeLiftCurve({ ...spec, centerline: 106, rockerRatio: 1.5, lash: 0, grid: { start: 0, step: 0.01, count: GRID_MAX + 1 } }),
-    ).toThrow(/grid.count/);
+    expect(() => synthesizeLiftCurve({ ...spec, centerline: 106, rockerRatio: 1.5, lash: 0, grid: { start: 0, step: 0.01, count: GRID_MAX + 1 } })).toThrow(
+      /grid.count/,
+    );
   });
 });

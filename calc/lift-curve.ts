@@ -568,14 +568,7 @@ function setValve(
  * Unchecked: sample valve lift = max(0, rocker × tappet lift − lash) for a
  * lobe centred at `centerline` on a grid, writing into `out`.
  */
-export function sampleValveCurveRaw(
-  shape: LobeShape,
-  centerline: number,
-  rockerRatio: number,
-  lash: number,
-  grid: CurveGrid,
-  out: CurveBuffers,
-): LiftCurve {
+export function sampleValveCurveRaw(shape: LobeShape, centerline: number, rockerRatio: number, lash: number, grid: CurveGrid, out: CurveBuffers): LiftCurve {
   const { start, step, count } = grid;
   const { lift, velocity, acceleration } = out;
   const lo = Math.max(0, Math.ceil((centerline - shape.halfEvent - start) / step));

@@ -42,7 +42,12 @@ describe('durationAtHeight', () => {
     const t = tent(0.4, 108, 150);
     expect(() => durationAtHeight(t, 0.5)).toThrow(/height/);
     expect(() => durationAtHeight(t, -0.05)).toThrow(/height/);
-    expect(() => durationAtHeight(t.filter((p) => p.angle > 50), 0.05)).toThrow(/before the peak/);
+    expect(() =>
+      durationAtHeight(
+        t.filter((p) => p.angle > 50),
+        0.05,
+      ),
+    ).toThrow(/before the peak/);
     expect(() => durationAtHeight([{ angle: 0, lift: 0 }], 0.05)).toThrow(CalcInputError);
     expect(() => durationAtHeight([...t, { angle: 500, lift: Number.NaN }], 0.05)).toThrow(/lift/);
     expect(() => durationAtHeight([...t, { angle: 108, lift: 0.3 }], 0.05)).toThrow(/two readings/);
@@ -122,10 +127,24 @@ describe('findWornLobes', () => {
 
   it('rejects a single lobe, bad lifts and a bad threshold', () => {
     expect(() => findWornLobes({ lobes: [{ id: 'a', maxLift: 0.3 }], threshold: 0.005 })).toThrow(/lobes/);
-    expect(() => findWornLobes({ lobes: [{ id: 'a', maxLift: 0.3 }, { id: 'b', maxLift: Number.NaN }], threshold: 0.005 })).toThrow(
-      /lobes\[1\]\.maxLift/,
-    );
-    expect(() => findWornLobes({ lobes: [{ id: 'a', maxLift: 0.3 }, { id: 'b', maxLift: 0.3 }], threshold: 0 })).toThrow(/threshold/);
+    expect(() =>
+      findWornLobes({
+        lobes: [
+          { id: 'a', maxLift: 0.3 },
+          { id: 'b', maxLift: Number.NaN },
+        ],
+        threshold: 0.005,
+      }),
+    ).toThrow(/lobes\[1\]\.maxLift/);
+    expect(() =>
+      findWornLobes({
+        lobes: [
+          { id: 'a', maxLift: 0.3 },
+          { id: 'b', maxLift: 0.3 },
+        ],
+        threshold: 0,
+      }),
+    ).toThrow(/threshold/);
   });
 });
 

@@ -265,10 +265,7 @@ export const WORN_LOBES_MAX = 64;
  * `{ lobes: { id, maxLift }[], threshold, stockLobeLift? }`, inches of tappet lift.
  * With a stock lift one lobe is enough; without it at least two are needed.
  */
-export function findWornLobes(
-  input: { lobes: readonly LobeMaxLift[]; threshold: number; stockLobeLift?: number },
-  prefix?: string,
-): WornLobeResult {
+export function findWornLobes(input: { lobes: readonly LobeMaxLift[]; threshold: number; stockLobeLift?: number }, prefix?: string): WornLobeResult {
   requireObject(prefix ?? 'input', input);
   const threshold = requirePositive(fieldPath(prefix, 'threshold'), input.threshold, 'in');
   const stock =

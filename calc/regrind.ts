@@ -172,8 +172,7 @@ export function regrindCleanup(input: CleanupInput, prefix?: string): CleanupRes
       largestLiftLobe = l.id;
     }
   }
-  const largestCut =
-    input.largestCut === undefined ? null : requireInRange(fieldPath(prefix, 'largestCut'), input.largestCut, { min: 0, max: 1, unit: 'in' });
+  const largestCut = input.largestCut === undefined ? null : requireInRange(fieldPath(prefix, 'largestCut'), input.largestCut, { min: 0, max: 1, unit: 'in' });
   return {
     cleanupCut,
     limitingLobe,

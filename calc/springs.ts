@@ -65,12 +65,7 @@ export function springCheck(input: SpringCheckInput, prefix?: string): SpringChe
   requireObject(prefix ?? 'input', input);
   const spring = requireSpring(input, prefix);
   const lift = requirePositive(fieldPath(prefix, 'valveLift'), input.valveLift, 'in');
-  requireThat(
-    lift < spring.installedHeight,
-    fieldPath(prefix, 'valveLift'),
-    `must be less than installedHeight (${spring.installedHeight} in)`,
-    lift,
-  );
+  requireThat(lift < spring.installedHeight, fieldPath(prefix, 'valveLift'), `must be less than installedHeight (${spring.installedHeight} in)`, lift);
   return springCheckRaw(spring, lift);
 }
 

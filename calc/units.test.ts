@@ -1,16 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { CC_PER_CUBIC_INCH } from './constants';
 import { CalcInputError } from './errors';
-import {
-  ccToCubicInches,
-  cubicInchesToCc,
-  inchesToMm,
-  lbfPerInchToNPerMm,
-  lbfToNewtons,
-  mmToInches,
-  newtonsToLbf,
-  nPerMmToLbfPerInch,
-} from './units';
+import { ccToCubicInches, cubicInchesToCc, inchesToMm, lbfPerInchToNPerMm, lbfToNewtons, mmToInches, newtonsToLbf, nPerMmToLbfPerInch } from './units';
 
 describe('unit conversion at the edge', () => {
   it('converts length with the exact inch', () => {

@@ -78,9 +78,11 @@ describe('every public function rejects bad numbers', () => {
   });
 
   it('property: NaN or ±Infinity in any field throws a CalcInputError naming that field', () => {
-    const pick = fc.constantFrom(...cases).chain(([name, fn, ok]) =>
-      fc.tuple(fc.constant(name), fc.constant(fn), fc.constant(ok), fc.constantFrom(...Object.keys(ok)), fc.constantFrom(Number.NaN, Infinity, -Infinity)),
-    );
+    const pick = fc
+      .constantFrom(...cases)
+      .chain(([name, fn, ok]) =>
+        fc.tuple(fc.constant(name), fc.constant(fn), fc.constant(ok), fc.constantFrom(...Object.keys(ok)), fc.constantFrom(Number.NaN, Infinity, -Infinity)),
+      );
     fc.assert(
       fc.property(pick, ([name, fn, ok, field, bad]) => {
         let thrown: unknown = null;

@@ -15,7 +15,13 @@ import { defaultBackupFile } from './backup';
 const run = promisify(execFile);
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'lobewright-backup-'));
 const databasePath = path.join(dir, 'lobewright.sqlite');
-const env = { DATABASE_PATH: databasePath, WEB_DIR: path.join(dir, 'no-web-export'), NODE_ENV: 'test' as const, AUTH_RATE_LIMIT: 'off', JOBS_PER_MINUTE: '100000' };
+const env = {
+  DATABASE_PATH: databasePath,
+  WEB_DIR: path.join(dir, 'no-web-export'),
+  NODE_ENV: 'test' as const,
+  AUTH_RATE_LIMIT: 'off',
+  JOBS_PER_MINUTE: '100000',
+};
 let server: ServerProcess | undefined;
 
 afterAll(async () => {
@@ -79,7 +85,11 @@ it('backs up the live database while the server writes, and restores it only onc
   await server.stop('SIGTERM');
   const restored = await script('db/restore.ts', backupFile);
   expect(restored.code, restored.output).toBe(0);
-  expect(savedJobs(databasePath).map((j) => j.id).sort()).toEqual(inBackup.map((j) => j.id).sort());
+  expect(
+    savedJobs(databasePath)
+      .map((j) => j.id)
+      .sort(),
+  ).toEqual(inBackup.map((j) => j.id).sort());
   const kept = fs.readdirSync(dir).filter((f) => f.startsWith('lobewright.sqlite.replaced-'));
   expect(kept).toHaveLength(1);
   expect(savedJobs(path.join(dir, kept[0]!)).length).toBeGreaterThan(inBackup.length);

@@ -31,7 +31,7 @@ export function demoLobeCsv(): string {
   const from = 2 * Math.floor((exhaustCentre - exhaust.halfEvent) / 2) - 2;
   const to = 2 * Math.ceil((icl + intake.halfEvent) / 2) + 2;
   const lines = [
-    '# Lobewright demo data (invented): cam lift in inches of a 5.9 L V8 regrind core; crank degrees from each cylinder\'s overlap TDC',
+    "# Lobewright demo data (invented): cam lift in inches of a 5.9 L V8 regrind core; crank degrees from each cylinder's overlap TDC",
     ['angle', ...demoLobeIds].join(','),
   ];
   for (let angle = from; angle <= to; angle += 2) {

@@ -10,8 +10,12 @@ describe('sheet revision triggers', () => {
     db.insert(schema.jobs).values({ id: 'j', shopId: 's', vehicle: 'v', customerName: 'c' }).run();
     db.insert(schema.specSheets).values({ id: 'sh', shopId: 's', jobId: 'j', title: 't' }).run();
     const base = { sheetId: 'sh', label: 'x', spec: {} as never, engine: {} as never, results: {} as never };
-    db.insert(schema.sheetRevisions).values({ ...base, id: 'r1', number: 1, state: 'issued' }).run();
-    db.insert(schema.sheetRevisions).values({ ...base, id: 'r2', number: 2, state: 'draft' }).run();
+    db.insert(schema.sheetRevisions)
+      .values({ ...base, id: 'r1', number: 1, state: 'issued' })
+      .run();
+    db.insert(schema.sheetRevisions)
+      .values({ ...base, id: 'r2', number: 2, state: 'draft' })
+      .run();
 
     expect(() => db.update(schema.sheetRevisions).set({ note: 'changed' }).where(eq(schema.sheetRevisions.id, 'r1')).run()).toThrow(
       /issued revisions are immutable/,

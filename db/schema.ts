@@ -366,10 +366,7 @@ export const grindOrders = sqliteTable(
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
-  (t) => [
-    index('grind_orders_grinder_created_id_idx').on(t.grinderShopId, t.createdAt, t.id),
-    index('grind_orders_sheet_idx').on(t.sheetId, t.createdAt),
-  ],
+  (t) => [index('grind_orders_grinder_created_id_idx').on(t.grinderShopId, t.createdAt, t.id), index('grind_orders_sheet_idx').on(t.sheetId, t.createdAt)],
 );
 
 /** One message in an order's thread between the repair shop and the grinding shop. */
@@ -539,7 +536,9 @@ export const payments = sqliteTable(
   },
   (t) => [
     index('payments_job_idx').on(t.jobId, t.createdAt),
-    uniqueIndex('payments_one_open_per_approval_idx').on(t.approvalId).where(sql`state = 'open'`),
+    uniqueIndex('payments_one_open_per_approval_idx')
+      .on(t.approvalId)
+      .where(sql`state = 'open'`),
   ],
 );
 

@@ -26,7 +26,11 @@ describe('demo seed', () => {
     await seedDemo(db, auth);
     expect(db.select({ n: count() }).from(schema.shops).get()?.n).toBe(2);
     expect(db.select({ n: count() }).from(schema.users).get()?.n).toBe(demoAccounts.length);
-    const roles = db.select({ role: schema.memberships.role }).from(schema.memberships).all().map((r) => r.role);
+    const roles = db
+      .select({ role: schema.memberships.role })
+      .from(schema.memberships)
+      .all()
+      .map((r) => r.role);
     expect(roles.sort()).toEqual(['builder', 'customer', 'grinder', 'tech']);
     const job = db.select().from(schema.jobs).where(eq(schema.jobs.id, demoJobId)).get();
     expect(job?.mileage).toBe(161000);
@@ -49,25 +53,12 @@ describe('demo comparison data', () => {
     expect(engine.spec).toMatchObject({ bore: 4.03, stroke: 3.6, rodLength: 6, chamberCc: 68, cylinders: 8 });
     expect(engine.spec.firingOrder).toMatch(/^\d(-\d)+$/);
 
-    const library = db
-      .select()
-      .from(schema.camProfiles)
-      .where(isNull(schema.camProfiles.jobId))
-      .orderBy(asc(schema.camProfiles.label))
-      .all();
+    const library = db.select().from(schema.camProfiles).where(isNull(schema.camProfiles.jobId)).orderBy(asc(schema.camProfiles.label)).all();
     expect(library.map((p) => p.label)).toEqual(['Stock-spec regrind (demo)', 'Towing regrind (demo)']);
-    expect(library.map((p) => p.spec)).toEqual([
-      profileSpecSchema.parse(DEMO_STOCK_REGRIND),
-      profileSpecSchema.parse(DEMO_TOWING),
-    ]);
+    expect(library.map((p) => p.spec)).toEqual([profileSpecSchema.parse(DEMO_STOCK_REGRIND), profileSpecSchema.parse(DEMO_TOWING)]);
     for (const p of library) expect(p.coreNotes).toMatch(/^Demo data\./);
 
-    const onJob = db
-      .select()
-      .from(schema.camProfiles)
-      .where(eq(schema.camProfiles.jobId, demoJobId))
-      .orderBy(asc(schema.camProfiles.label))
-      .all();
+    const onJob = db.select().from(schema.camProfiles).where(eq(schema.camProfiles.jobId, demoJobId)).orderBy(asc(schema.camProfiles.label)).all();
     expect(onJob).toHaveLength(2);
     onJob.forEach((copy, i) => {
       expect(copy.sourceProfileId).toBe(library[i]!.id);
@@ -83,17 +74,17 @@ describe('demo comparison data', () => {
       [demoStockSheetId, demoJobId],
       [demoSheetId, demoJobId],
     ]);
-    const revisions = db
-      .select()
-      .from(schema.sheetRevisions)
-      .where(eq(schema.sheetRevisions.sheetId, demoSheetId))
-      .all();
+    const revisions = db.select().from(schema.sheetRevisions).where(eq(schema.sheetRevisions.sheetId, demoSheetId)).all();
     expect(revisions).toHaveLength(1);
     const rev = revisions[0]!;
     expect(rev).toMatchObject({ number: 1, state: 'draft', label: 'Towing regrind (demo)', engine: engine.spec });
     expect(rev.spec).toEqual(library[1]!.spec);
     // Worked out against the job's core (its lobe table and stock base circle) and the shop's settings, as saving does.
-    const job = jobCore({ measured: latestMeasurements(db, 'demo-shop-juniper-flats', demoJobId), limits: resolveCheckLimits(demoShopLimits), lifterType: engine.spec.lifterType });
+    const job = jobCore({
+      measured: latestMeasurements(db, 'demo-shop-juniper-flats', demoJobId),
+      limits: resolveCheckLimits(demoShopLimits),
+      lifterType: engine.spec.lifterType,
+    });
     const worked = analyzeForJob(engine.spec, rev.spec, job, demoShopLimits);
     expect(rev.results).toEqual(JSON.parse(JSON.stringify(revisionResults(worked.analysis, worked.job))));
     // The damaged cylinder 3 exhaust lobe (0.012 in) sets the cleanup cut; the towing lobes stand outside the old ones at that cut.

@@ -206,8 +206,7 @@ export async function seedDemo(db: Db, auth: Auth) {
       shopId: juniper.id,
       vehicle: 'One-ton flatbed, 5.9 L pushrod V8 (demo)',
       customerName: 'Delia Carrow (demo)',
-      complaint:
-        'Ticking from the passenger bank at idle that grew over two weeks; misfire and loss of pull when towing the livestock trailer uphill.',
+      complaint: 'Ticking from the passenger bank at idle that grew over two weeks; misfire and loss of pull when towing the livestock trailer uphill.',
       findings:
         'Cylinder 3 exhaust roller lifter seized: needle bearings broken up, roller flat-spotted. The cylinder 3 exhaust lobe is galled and about 0.012 in below its neighbours. Bearing debris in the oil pan.',
       mileage: 161000,
@@ -264,9 +263,20 @@ export async function seedDemo(db: Db, auth: Auth) {
       .onConflictDoNothing()
       .run();
   };
-  sheet(demoSheetId, 'Replacement cam for the flatbed (demo)', towing, 'Demo data. Draft: measure the PTV baseline with the old cam before this goes to the grinder.');
+  sheet(
+    demoSheetId,
+    'Replacement cam for the flatbed (demo)',
+    towing,
+    'Demo data. Draft: measure the PTV baseline with the old cam before this goes to the grinder.',
+  );
   // The stock-spec sheet an hour older, so the towing sheet stays the most recent one.
-  sheet(demoStockSheetId, 'Stock-spec regrind for the flatbed (demo)', stock, "Demo data. Back to the factory events on the customer's own core.", new Date(Date.now() - 3600_000));
+  sheet(
+    demoStockSheetId,
+    'Stock-spec regrind for the flatbed (demo)',
+    stock,
+    "Demo data. Back to the factory events on the customer's own core.",
+    new Date(Date.now() - 3600_000),
+  );
   seedOwnerPage(db, shopId, createdBy);
 
   db.transaction((tx) => seedChecklist(tx, shopId, demoJobId, createdBy, (i) => `demo-checklist-${i + 1}`));
@@ -276,7 +286,11 @@ export async function seedDemo(db: Db, auth: Auth) {
 function seedOwnerPage(db: Db, shopId: string, createdBy: string | null) {
   db.insert(schema.ownerPages).values({ jobId: demoJobId, shopId, whatFailed: demoOwnerPage.whatFailed }).onConflictDoNothing().run();
   demoOwnerPage.options.forEach((option, i) => {
-    const revision = db.select().from(schema.sheetRevisions).where(eq(schema.sheetRevisions.id, `${option.sheetId}-rev-1`)).get();
+    const revision = db
+      .select()
+      .from(schema.sheetRevisions)
+      .where(eq(schema.sheetRevisions.id, `${option.sheetId}-rev-1`))
+      .get();
     if (!revision) return;
     db.insert(schema.ownerOptions)
       .values({ ...option, shopId, jobId: demoJobId, revisionId: revision.id, checksum: revisionChecksum(revision), position: i + 1, createdBy })

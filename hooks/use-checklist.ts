@@ -18,8 +18,7 @@ export function useChecklistQuery(jobId: string) {
 }
 
 /** Refetch a job's checklist. */
-export const invalidateChecklist = (queryClient: QueryClient, jobId: string) =>
-  queryClient.invalidateQueries({ queryKey: checklistKeys.job(jobId) });
+export const invalidateChecklist = (queryClient: QueryClient, jobId: string) => queryClient.invalidateQueries({ queryKey: checklistKeys.job(jobId) });
 
 function useSettle(jobId: string) {
   const queryClient = useQueryClient();

@@ -11,8 +11,7 @@ export const fitCheckKeys = {
 
 /** Earlier runs on a sheet, newest first. */
 /** Refetch a sheet's fit-check runs. */
-export const invalidateFitChecks = (queryClient: QueryClient, sheetId: string) =>
-  queryClient.invalidateQueries({ queryKey: fitCheckKeys.sheet(sheetId) });
+export const invalidateFitChecks = (queryClient: QueryClient, sheetId: string) => queryClient.invalidateQueries({ queryKey: fitCheckKeys.sheet(sheetId) });
 
 export function useFitCheckRunsQuery(sheetId: string | null) {
   return useQuery({

@@ -49,8 +49,7 @@ export function useCreateJobMutation() {
 export function useSaveJobMutation(id: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: async (body: JobPatch) =>
-      (await api<{ job: Job }>(`/api/jobs/${encodeURIComponent(id)}`, { method: 'PATCH', body })).job,
+    mutationFn: async (body: JobPatch) => (await api<{ job: Job }>(`/api/jobs/${encodeURIComponent(id)}`, { method: 'PATCH', body })).job,
     onSuccess: (job) => {
       queryClient.setQueryData(jobKeys.detail(job.id), job);
       return invalidateJobList(queryClient);

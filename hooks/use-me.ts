@@ -38,8 +38,7 @@ function useResetAll() {
 export function useSignInMutation() {
   const reset = useResetAll();
   return useMutation({
-    mutationFn: (body: { email: string; password: string }) =>
-      api('/api/auth/sign-in/email', { method: 'POST', body }),
+    mutationFn: (body: { email: string; password: string }) => api('/api/auth/sign-in/email', { method: 'POST', body }),
     onSuccess: reset,
   });
 }
@@ -89,16 +88,14 @@ export function useSwitchShopMutation() {
 /** Mails the signed-in person a new verification link. */
 export function useResendVerificationMutation() {
   return useMutation({
-    mutationFn: (email: string) =>
-      api('/api/auth/send-verification-email', { method: 'POST', body: { email, callbackURL: '/verified' } }),
+    mutationFn: (email: string) => api('/api/auth/send-verification-email', { method: 'POST', body: { email, callbackURL: '/verified' } }),
   });
 }
 
 /** Mails a set-new-password link to the address, if it has an account (the answer is the same either way). */
 export function useRequestPasswordResetMutation() {
   return useMutation({
-    mutationFn: (email: string) =>
-      api('/api/auth/request-password-reset', { method: 'POST', body: { email, redirectTo: '/reset-password' } }),
+    mutationFn: (email: string) => api('/api/auth/request-password-reset', { method: 'POST', body: { email, redirectTo: '/reset-password' } }),
   });
 }
 

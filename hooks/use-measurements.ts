@@ -16,8 +16,7 @@ export function useJobMeasurementsQuery(jobId: string) {
   return useQuery({
     queryKey: measurementKeys.job(jobId),
     staleTime: staleTimes.list,
-    queryFn: async () =>
-      (await api<{ measurements: Measurement[] }>(`/api/jobs/${encodeURIComponent(jobId)}/measurements`)).measurements,
+    queryFn: async () => (await api<{ measurements: Measurement[] }>(`/api/jobs/${encodeURIComponent(jobId)}/measurements`)).measurements,
   });
 }
 
@@ -29,8 +28,7 @@ export function latestOfKind<K extends MeasurementKind>(list: readonly Measureme
 }
 
 /** Refetch a job's measurements. */
-export const invalidateMeasurements = (queryClient: QueryClient, jobId: string) =>
-  queryClient.invalidateQueries({ queryKey: measurementKeys.job(jobId) });
+export const invalidateMeasurements = (queryClient: QueryClient, jobId: string) => queryClient.invalidateQueries({ queryKey: measurementKeys.job(jobId) });
 
 function useSettle(jobId: string) {
   const queryClient = useQueryClient();
@@ -41,8 +39,7 @@ export function useCreateMeasurementMutation(jobId: string) {
   const settle = useSettle(jobId);
   return useMutation({
     mutationFn: async (body: MeasurementCreate) =>
-      (await api<{ measurement: Measurement }>(`/api/jobs/${encodeURIComponent(jobId)}/measurements`, { method: 'POST', body }))
-        .measurement,
+      (await api<{ measurement: Measurement }>(`/api/jobs/${encodeURIComponent(jobId)}/measurements`, { method: 'POST', body })).measurement,
     onSuccess: settle,
   });
 }
@@ -72,8 +69,7 @@ export function useUploadLobesMutation(jobId: string) {
     mutationFn: async (file: PickedFile) => {
       const form = new FormData();
       appendPickedFile(form, 'file', file);
-      return (await upload<{ measurement: Measurement<'lobes'> }>(`/api/jobs/${encodeURIComponent(jobId)}/measurements/lobes`, form))
-        .measurement;
+      return (await upload<{ measurement: Measurement<'lobes'> }>(`/api/jobs/${encodeURIComponent(jobId)}/measurements/lobes`, form)).measurement;
     },
     onSuccess: settle,
   });

@@ -113,9 +113,7 @@ export function useOrderMessagesQuery(id: string) {
 export function useSendMessageMutation(id: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: async (body: { body: string }) =>
-      (await api<{ message: OrderMessage }>(`/api/orders/${enc(id)}/messages`, { method: 'POST', body })).message,
-    onSuccess: () =>
-      invalidateOrder(queryClient, id),
+    mutationFn: async (body: { body: string }) => (await api<{ message: OrderMessage }>(`/api/orders/${enc(id)}/messages`, { method: 'POST', body })).message,
+    onSuccess: () => invalidateOrder(queryClient, id),
   });
 }

@@ -1,6 +1,16 @@
 import { useInfiniteQuery, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 
-import type { Approval, ApproveBody, OwnerDesk, OwnerOptionCreate, OwnerOptionPatch, OwnerPageSave, OwnerView, ShareLink, ShareLinkCreate } from '@/shared/owner';
+import type {
+  Approval,
+  ApproveBody,
+  OwnerDesk,
+  OwnerOptionCreate,
+  OwnerOptionPatch,
+  OwnerPageSave,
+  OwnerView,
+  ShareLink,
+  ShareLinkCreate,
+} from '@/shared/owner';
 import type { Page } from '@/shared/paging';
 
 import { api, pagePath, staleTimes } from '@/lib/api';

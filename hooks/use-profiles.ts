@@ -67,8 +67,7 @@ export function useCreateProfileMutation(jobId?: string) {
 export function useSaveProfileMutation(id: string) {
   const settle = useSettle();
   return useMutation({
-    mutationFn: async (body: ProfilePatch) =>
-      (await api<{ profile: Profile }>(`/api/profiles/${encodeURIComponent(id)}`, { method: 'PATCH', body })).profile,
+    mutationFn: async (body: ProfilePatch) => (await api<{ profile: Profile }>(`/api/profiles/${encodeURIComponent(id)}`, { method: 'PATCH', body })).profile,
     onSuccess: settle,
   });
 }

@@ -54,8 +54,7 @@ export function useCreateSheetMutation(jobId: string) {
 export function useSaveSheetMutation(id: string) {
   const settle = useSettle();
   return useMutation({
-    mutationFn: async (body: SheetSave) =>
-      (await api<{ sheet: SheetWithHistory }>(`/api/sheets/${encodeURIComponent(id)}`, { method: 'PATCH', body })).sheet,
+    mutationFn: async (body: SheetSave) => (await api<{ sheet: SheetWithHistory }>(`/api/sheets/${encodeURIComponent(id)}`, { method: 'PATCH', body })).sheet,
     onSuccess: settle,
   });
 }

@@ -51,7 +51,10 @@ async function readAnswer<T>(res: Response): Promise<T> {
     }
     // better-auth answers { message, code }, and our password check adds { fields }.
     const { message, fields } = (data ?? {}) as { message?: unknown; fields?: unknown };
-    const named = typeof fields === 'object' && fields !== null ? Object.fromEntries(Object.entries(fields).filter((e): e is [string, string] => typeof e[1] === 'string')) : {};
+    const named =
+      typeof fields === 'object' && fields !== null
+        ? Object.fromEntries(Object.entries(fields).filter((e): e is [string, string] => typeof e[1] === 'string'))
+        : {};
     throw new ApiError(res.status, 'error', typeof message === 'string' ? message : `The server answered ${res.status}`, named);
   }
   return data as T;

@@ -42,8 +42,22 @@ export const compareRows: readonly CompareRow[] = [
   { key: 'open.e', group: 'Springs at max lift', label: 'Exhaust open load', unit: 'lbf', digits: 0, value: (a) => a.exhaust.spring.openLoad },
   { key: 'bind.i', group: 'Springs at max lift', label: 'Intake coil-bind margin', unit: 'in', digits: 3, value: (a) => a.intake.spring.coilBindMargin },
   { key: 'bind.e', group: 'Springs at max lift', label: 'Exhaust coil-bind margin', unit: 'in', digits: 3, value: (a) => a.exhaust.spring.coilBindMargin },
-  { key: 'seal.i', group: 'Springs at max lift', label: 'Intake retainer-to-seal', unit: 'in', digits: 3, value: (a) => a.intake.spring.retainerToSealClearance },
-  { key: 'seal.e', group: 'Springs at max lift', label: 'Exhaust retainer-to-seal', unit: 'in', digits: 3, value: (a) => a.exhaust.spring.retainerToSealClearance },
+  {
+    key: 'seal.i',
+    group: 'Springs at max lift',
+    label: 'Intake retainer-to-seal',
+    unit: 'in',
+    digits: 3,
+    value: (a) => a.intake.spring.retainerToSealClearance,
+  },
+  {
+    key: 'seal.e',
+    group: 'Springs at max lift',
+    label: 'Exhaust retainer-to-seal',
+    unit: 'in',
+    digits: 3,
+    value: (a) => a.exhaust.spring.retainerToSealClearance,
+  },
 ];
 
 /** A value as the table prints it: fixed decimals, a true minus sign. */

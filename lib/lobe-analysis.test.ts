@@ -13,7 +13,19 @@ const lobe = (id: string, top: number) => ({
 
 describe('analyzeLobes', () => {
   it('judges wear exactly as the fit checks do, a lobe whose table cannot be analysed included', () => {
-    const lobes = [lobe('1I', 0.3), lobe('2I', 0.302), lobe('3I', 0.27), { id: '4I', points: [{ angle: 100, lift: 0.299 }, { angle: 110, lift: 0.299 }] }, lobe('1E', 0.29)];
+    const lobes = [
+      lobe('1I', 0.3),
+      lobe('2I', 0.302),
+      lobe('3I', 0.27),
+      {
+        id: '4I',
+        points: [
+          { angle: 100, lift: 0.299 },
+          { angle: 110, lift: 0.299 },
+        ],
+      },
+      lobe('1E', 0.29),
+    ];
     const rows = analyzeLobes({ lobes } as never, 0.01);
     const fitChecks = checkWornLobes(tableMaxLifts(lobes), { wornLobe: { max: 0.01 } });
     for (const row of rows) {

@@ -88,7 +88,10 @@ describe('money fields', () => {
       leadTimeDays: draftFromText(offerNumberSpecs.leadTime, '3', imperial),
     };
     const result = resolveDrafts(offerNumberList, drafts, { sheetId: 's1', title: 'Quick', ownerNote: '' }, ownerOptionCreateSchema, imperial);
-    expect(result).toEqual({ values: { sheetId: 's1', title: 'Quick', ownerNote: '', priceCents: 105_050, depositCents: 30_000, leadTimeDays: 3 }, errors: null });
+    expect(result).toEqual({
+      values: { sheetId: 's1', title: 'Quick', ownerNote: '', priceCents: 105_050, depositCents: 30_000, leadTimeDays: 3 },
+      errors: null,
+    });
   });
   it('names an amount that is not dollars and cents, and a deposit above the price', () => {
     expect(checkDraft(price, draftFromText(price, '4.555', imperial), imperial)).toBe('Price must be an amount in dollars, like 485.00');

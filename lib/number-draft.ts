@@ -195,9 +195,9 @@ export function draftsFor(specs: readonly NumberSpec[], record: unknown): Tree {
 }
 
 type SafeParser<T> = {
-  safeParse: (value: unknown) =>
-    | { success: true; data: T }
-    | { success: false; error: { issues: readonly { path: readonly PropertyKey[]; code: string; message: string }[] } };
+  safeParse: (
+    value: unknown,
+  ) => { success: true; data: T } | { success: false; error: { issues: readonly { path: readonly PropertyKey[]; code: string; message: string }[] } };
 };
 
 export type DraftResult<T> = { values: T; errors: null } | { values: null; errors: Record<string, string> };
@@ -208,13 +208,7 @@ export type DraftResult<T> = { values: T; errors: null } | { values: null; error
  * rest (text fields, and cross-field rules such as coil bind below installed
  * height), and every field keeps its first message.
  */
-export function resolveDrafts<T>(
-  specs: readonly NumberSpec[],
-  drafts: unknown,
-  others: Tree,
-  schema: SafeParser<T>,
-  units: ShownUnits,
-): DraftResult<T> {
+export function resolveDrafts<T>(specs: readonly NumberSpec[], drafts: unknown, others: Tree, schema: SafeParser<T>, units: ShownUnits): DraftResult<T> {
   const errors: Record<string, string> = {};
   const record: Tree = structuredClone(others);
   for (const spec of specs) {
@@ -244,11 +238,7 @@ export function resolveDrafts<T>(
  * with prefix `engine.` lands on `spring.rate`. Anything the form does not
  * show comes back as text for a notice.
  */
-export function placeServerFields(
-  fields: Record<string, string>,
-  known: readonly string[],
-  prefix = '',
-): { placed: Record<string, string>; other: string[] } {
+export function placeServerFields(fields: Record<string, string>, known: readonly string[], prefix = ''): { placed: Record<string, string>; other: string[] } {
   const placed: Record<string, string> = {};
   const other: string[] = [];
   for (const [field, message] of Object.entries(fields)) {

@@ -33,7 +33,11 @@ describe('revision diff', () => {
   });
 
   it('lists each changed value with its label, old and new text', () => {
-    const b = revision({ spec: { ...spec, lsa: 110, intake: { ...spec.intake, duration050: 216 } }, note: 'More intake', engine: { ...engine, chamberCc: 70 } });
+    const b = revision({
+      spec: { ...spec, lsa: 110, intake: { ...spec.intake, duration050: 216 } },
+      note: 'More intake',
+      engine: { ...engine, chamberCc: 70 },
+    });
     expect(diffRevisions(revision({}), b)).toEqual([
       { path: 'note', label: 'Note', from: '', to: 'More intake' },
       { path: 'spec.intake.duration050', label: 'Intake duration at 0.050 in (°)', from: '212', to: '216' },

@@ -58,7 +58,5 @@ export function diffRevisions(a: Revision, b: Revision): RevisionChange[] {
     flatten({ label: r.label, note: r.note, spec: r.spec, engine: r.engine }, '', map);
   }
   const paths = [...new Set([...left.keys(), ...right.keys()])];
-  return paths
-    .filter((p) => left.get(p) !== right.get(p))
-    .map((p) => ({ path: p, label: labels[p] ?? p, from: left.get(p) ?? '—', to: right.get(p) ?? '—' }));
+  return paths.filter((p) => left.get(p) !== right.get(p)).map((p) => ({ path: p, label: labels[p] ?? p, from: left.get(p) ?? '—', to: right.get(p) ?? '—' }));
 }

@@ -61,16 +61,15 @@ export async function requireSignedIn(auth: Auth, db: Db, req: Request): Promise
   const known = await verifiedSession(auth, req);
   const live = known ? liveSession(db, known.sessionId) : undefined;
   if (!known || !live || live.expiresAt.getTime() <= Date.now()) throw new HttpError(401, 'unauthenticated', 'Sign in to continue');
-  return { user: { id: known.user.id, name: live.name, email: live.email, emailVerified: live.emailVerified }, sessionId: known.sessionId, activeShopId: live.activeShopId ?? null };
+  return {
+    user: { id: known.user.id, name: live.name, email: live.email, emailVerified: live.emailVerified },
+    sessionId: known.sessionId,
+    activeShopId: live.activeShopId ?? null,
+  };
 }
 
 /** The person's membership in their active shop, checked against `permission` (403 when the role lacks it). */
-export async function requireShopRole(
-  auth: Auth,
-  db: Db,
-  req: Request,
-  permission: Permission,
-): Promise<InShop> {
+export async function requireShopRole(auth: Auth, db: Db, req: Request, permission: Permission): Promise<InShop> {
   const ctx = await requireMember(auth, db, req);
   if (!roleAllows(ctx.role, permission)) throw forbidden();
   return ctx;

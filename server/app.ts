@@ -32,7 +32,16 @@ import { shopMailRouter } from './routes/shop-mail';
 import { teamRouter } from './routes/team';
 import { shopLimitsRouter } from './routes/shop-limits';
 import { pingDatabase } from './store/db';
-import { authBodyParser, defaultAuthRateLimit, jsonBodyLimit, requireSameOrigin, securityHeaders, setClientAddress, withRateLimitAnswers, type AuthRateLimit } from './security';
+import {
+  authBodyParser,
+  defaultAuthRateLimit,
+  jsonBodyLimit,
+  requireSameOrigin,
+  securityHeaders,
+  setClientAddress,
+  withRateLimitAnswers,
+  type AuthRateLimit,
+} from './security';
 
 export type CreateAppOptions = {
   db: Db;
@@ -71,7 +80,24 @@ export type CreateAppOptions = {
 const dev = process.env.NODE_ENV !== 'production';
 
 /** Builds the whole app without listening, so tests can drive it on an in-memory database. */
-export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLimit, jobCreateRateLimit, uploadsDir, mailer, devTools = dev, payments, currency = 'usd', shareRateLimit, authRateLimit, mode = dev ? 'demo' : 'production', trustProxy = false }: CreateAppOptions) {
+export function createApp({
+  db,
+  baseURL,
+  secret,
+  webDir,
+  devWebProxy,
+  calcRateLimit,
+  jobCreateRateLimit,
+  uploadsDir,
+  mailer,
+  devTools = dev,
+  payments,
+  currency = 'usd',
+  shareRateLimit,
+  authRateLimit,
+  mode = dev ? 'demo' : 'production',
+  trustProxy = false,
+}: CreateAppOptions) {
   const mail = mailer ?? createMailer({ db });
   const auth = createAuth({ db, baseURL, secret, rateLimit: authRateLimit ?? (dev ? false : defaultAuthRateLimit), mailer: mail });
   const deps: AppDeps = {
@@ -100,7 +126,11 @@ export function createApp({ db, baseURL, secret, webDir, devWebProxy, calcRateLi
     res.json({ ok: true });
   });
   // What kind of server this is, for the app's demo banner: no secrets, no account needed.
-  const instance: Instance = { mode, fakes: [...(payments?.kind === 'local-fake' ? (['payments'] as const) : []), ...(devTools ? (['mailbox'] as const) : [])], depositsOn: payments !== undefined };
+  const instance: Instance = {
+    mode,
+    fakes: [...(payments?.kind === 'local-fake' ? (['payments'] as const) : []), ...(devTools ? (['mailbox'] as const) : [])],
+    depositsOn: payments !== undefined,
+  };
   app.get('/api/instance', (_req, res) => void res.json({ instance }));
   app.use('/api', meRouter(deps));
   app.use('/api/jobs', jobsRouter(deps, jobCreateRateLimit));

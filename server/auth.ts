@@ -26,17 +26,59 @@ export const invitationDays = 7;
 
 /** Organization endpoints of better-auth we do not use: shops, members and invitations go through our own routes. */
 export const disabledOrganizationPaths = [
-  'accept-invitation', 'add-team-member', 'cancel-invitation', 'check-slug', 'create', 'create-role', 'create-team', 'delete',
-  'delete-role', 'get-active-member', 'get-active-member-role', 'get-full-organization', 'get-invitation', 'get-organization',
-  'get-role', 'has-permission', 'invite-member', 'leave', 'list', 'list-invitations', 'list-members', 'list-roles',
-  'list-team-members', 'list-teams', 'list-user-invitations', 'list-user-teams', 'reject-invitation', 'remove-member',
-  'remove-team', 'remove-team-member', 'set-active', 'set-active-team', 'update', 'update-member-role', 'update-role', 'update-team',
+  'accept-invitation',
+  'add-team-member',
+  'cancel-invitation',
+  'check-slug',
+  'create',
+  'create-role',
+  'create-team',
+  'delete',
+  'delete-role',
+  'get-active-member',
+  'get-active-member-role',
+  'get-full-organization',
+  'get-invitation',
+  'get-organization',
+  'get-role',
+  'has-permission',
+  'invite-member',
+  'leave',
+  'list',
+  'list-invitations',
+  'list-members',
+  'list-roles',
+  'list-team-members',
+  'list-teams',
+  'list-user-invitations',
+  'list-user-teams',
+  'reject-invitation',
+  'remove-member',
+  'remove-team',
+  'remove-team-member',
+  'set-active',
+  'set-active-team',
+  'update',
+  'update-member-role',
+  'update-role',
+  'update-team',
 ].map((name) => `/organization/${name}`);
 
 /** better-auth's own account endpoints we do not offer (no social sign-in, no e-mail change or account deletion yet). */
 export const disabledAccountPaths = [
-  '/account-info', '/change-email', '/delete-user', '/delete-user/callback', '/get-access-token', '/link-social', '/list-accounts',
-  '/refresh-token', '/sign-in/social', '/unlink-account', '/update-session', '/update-user', '/verify-password',
+  '/account-info',
+  '/change-email',
+  '/delete-user',
+  '/delete-user/callback',
+  '/get-access-token',
+  '/link-social',
+  '/list-accounts',
+  '/refresh-token',
+  '/sign-in/social',
+  '/unlink-account',
+  '/update-session',
+  '/update-user',
+  '/verify-password',
 ];
 
 /** Where each auth route that sets a password carries it. */
@@ -64,8 +106,12 @@ export type AuthOptions = {
 export function createAuth({ db, baseURL, secret, rateLimit = false, mailer }: AuthOptions) {
   const https = baseURL.startsWith('https://');
   /** A mail with one link from the sign-in library, which lands on our page at `landing` once the library has checked it. */
-  const sendLinkMail = (user: { email: string; name: string }, url: string, landing: string, words: Pick<MailContent, 'subject' | 'lines' | 'action' | 'footer'>) =>
-    mailer.send(composeMail({ to: { email: user.email, name: user.name }, ...words, link: withCallback(url, new URL(landing, baseURL).toString()) }));
+  const sendLinkMail = (
+    user: { email: string; name: string },
+    url: string,
+    landing: string,
+    words: Pick<MailContent, 'subject' | 'lines' | 'action' | 'footer'>,
+  ) => mailer.send(composeMail({ to: { email: user.email, name: user.name }, ...words, link: withCallback(url, new URL(landing, baseURL).toString()) }));
   return betterAuth({
     baseURL,
     secret,

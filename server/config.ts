@@ -61,7 +61,8 @@ export type Config = ReturnType<typeof readConfig>;
 function readTrustProxy(value: string | undefined): boolean | number | string {
   if (value === undefined || value === '' || value === 'false') return false;
   if (/^\d+$/.test(value)) return Number(value);
-  if (value === 'true') throw new Error('TRUST_PROXY=true would trust any client to name its own address; name the proxy (loopback, a subnet) or the number of hops');
+  if (value === 'true')
+    throw new Error('TRUST_PROXY=true would trust any client to name its own address; name the proxy (loopback, a subnet) or the number of hops');
   return value;
 }
 
@@ -78,11 +79,13 @@ function readPaymentConfig(env: NodeJS.ProcessEnv, mode: Mode) {
   const kind = env.PAYMENTS || (env.STRIPE_SECRET_KEY ? 'service' : mode === 'demo' ? 'local-fake' : 'off');
   if (kind === 'off') return { kind: 'off' as const, currency };
   if (kind === 'service') {
-    if (!env.STRIPE_SECRET_KEY || !env.STRIPE_WEBHOOK_SECRET) throw new Error('PAYMENTS=service needs STRIPE_SECRET_KEY and STRIPE_WEBHOOK_SECRET (the webhook signing secret)');
+    if (!env.STRIPE_SECRET_KEY || !env.STRIPE_WEBHOOK_SECRET)
+      throw new Error('PAYMENTS=service needs STRIPE_SECRET_KEY and STRIPE_WEBHOOK_SECRET (the webhook signing secret)');
     return { kind: 'service' as const, secretKey: env.STRIPE_SECRET_KEY, webhookSecret: env.STRIPE_WEBHOOK_SECRET, currency };
   }
   if (kind !== 'local-fake') throw new Error(`PAYMENTS must be service, local-fake or off, got ${kind}`);
   const fakePort = Number(env.PAYMENTS_FAKE_PORT ?? 0);
-  if (!Number.isInteger(fakePort) || fakePort < 0 || fakePort > 65535) throw new Error(`PAYMENTS_FAKE_PORT must be a port number, got ${env.PAYMENTS_FAKE_PORT}`);
+  if (!Number.isInteger(fakePort) || fakePort < 0 || fakePort > 65535)
+    throw new Error(`PAYMENTS_FAKE_PORT must be a port number, got ${env.PAYMENTS_FAKE_PORT}`);
   return { kind: 'local-fake' as const, fakePort, currency };
 }

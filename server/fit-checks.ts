@@ -109,10 +109,7 @@ export function runFitChecks({ engine, spec, measured, limits: overrides }: FitC
       });
       checks.push(
         checkMinimum({ id: 'coilBind', subject: s.where, value: sc.coilBindMargin, unit: 'in', what: 'Coil-bind margin at max lift' }, limits.coilBind),
-        checkMinimum(
-          { id: 'retainerToSeal', subject: s.where, value: r2s, unit: 'in', what: 'Retainer-to-seal clearance at max lift' },
-          limits.retainerToSeal,
-        ),
+        checkMinimum({ id: 'retainerToSeal', subject: s.where, value: r2s, unit: 'in', what: 'Retainer-to-seal clearance at max lift' }, limits.retainerToSeal),
       );
     });
   }

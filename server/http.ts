@@ -19,13 +19,13 @@ export class HttpError extends Error {
 }
 
 export const notFound = (what = 'Record') => new HttpError(404, 'not_found', `${what} not found`);
-export const forbidden = (message = 'Your role in this shop cannot do that') =>
-  new HttpError(403, 'forbidden', message);
+export const forbidden = (message = 'Your role in this shop cannot do that') => new HttpError(403, 'forbidden', message);
 export const conflict = (message: string) => new HttpError(409, 'conflict', message);
 
 /** A field's dotted path; an empty key shows as `""` so the name is never blank. */
 /** A key that is empty or only spaces is named in JSON quotes (`""`, `" "`), so no field name is blank. */
-const fieldPath = (path: PropertyKey[]) => (path.length ? path.map((p) => (typeof p === 'string' && p.trim() === '' ? JSON.stringify(p) : String(p))).join('.') : '(body)');
+const fieldPath = (path: PropertyKey[]) =>
+  path.length ? path.map((p) => (typeof p === 'string' && p.trim() === '' ? JSON.stringify(p) : String(p))).join('.') : '(body)';
 
 /** Turns zod issues into `{ "a.b": "message" }`, keeping the first message per field. */
 export function fieldsFromZod(error: z.ZodError): Record<string, string> {

@@ -25,7 +25,8 @@ function fail(reason: string): never {
 async function main() {
   if (config.mode === 'production') {
     const open = await demoAccountsWithPublishedPassword(db);
-    if (open.length) fail(`demo accounts still have the published demo password (${open.join(', ')}). Delete them or change their passwords before serving in production.`);
+    if (open.length)
+      fail(`demo accounts still have the published demo password (${open.join(', ')}). Delete them or change their passwords before serving in production.`);
   }
   // `npm run dev` sets DEV_WEB_PROXY so one origin serves the API and the Expo dev server's live bundle (a dev dependency, loaded only then).
   const devWebProxy = process.env.DEV_WEB_PROXY
@@ -59,7 +60,11 @@ async function main() {
     console.log(`Lobewright is serving ${config.baseURL} in ${config.mode} mode (database ${config.databasePath})`);
     console.log(fakes.length ? `Local fakes running: ${fakes.join('; ')}` : 'Local fakes running: none');
     console.log(
-      pay.kind === 'service' ? 'Deposits go to the payment service (STRIPE_SECRET_KEY)' : pay.kind === 'off' ? 'Card deposits are off (PAYMENTS=off): the owner\'s page says the shop takes them in person' : 'Deposits go to the local test payment service',
+      pay.kind === 'service'
+        ? 'Deposits go to the payment service (STRIPE_SECRET_KEY)'
+        : pay.kind === 'off'
+          ? "Card deposits are off (PAYMENTS=off): the owner's page says the shop takes them in person"
+          : 'Deposits go to the local test payment service',
     );
     if (swept) console.log(`Removed ${swept} unfinished upload file(s) left by an interrupted request`);
     if (config.mode === 'demo' && hasDemoAccounts(db)) console.log(demoSignInText(config.baseURL));

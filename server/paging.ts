@@ -17,7 +17,10 @@ export function encodeCursor(after: PageAfter): string {
 }
 
 export function decodeCursor(cursor: string): PageAfter {
-  const bad = () => new HttpError(400, 'invalid', 'cursor: This cursor is not one the server gave out; start again from the first page', { cursor: 'This cursor is not one the server gave out' });
+  const bad = () =>
+    new HttpError(400, 'invalid', 'cursor: This cursor is not one the server gave out; start again from the first page', {
+      cursor: 'This cursor is not one the server gave out',
+    });
   if (!/^[A-Za-z0-9_-]+$/.test(cursor)) throw bad();
   let value: unknown;
   try {

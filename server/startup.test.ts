@@ -25,7 +25,12 @@ afterAll(() => dirs.forEach((d) => fs.rmSync(d, { recursive: true, force: true }
 
 /** Runs the server from source until it exits, with `env` added; returns its exit code and output. */
 function runServer(env: Record<string, string>) {
-  const result = spawnSync(path.join(root, 'node_modules', '.bin', 'tsx'), ['server/index.ts'], { cwd: root, env: { ...process.env, ...env }, encoding: 'utf8', timeout: 60_000 });
+  const result = spawnSync(path.join(root, 'node_modules', '.bin', 'tsx'), ['server/index.ts'], {
+    cwd: root,
+    env: { ...process.env, ...env },
+    encoding: 'utf8',
+    timeout: 60_000,
+  });
   return { status: result.status, output: `${result.stdout}${result.stderr}` };
 }
 
@@ -50,7 +55,9 @@ describe('demo and production modes', () => {
     await seedDemo(db, auth);
     expect((await demoAccountsWithPublishedPassword(db)).sort()).toEqual(demoAccounts.map((a) => a.email).sort());
     const { hashPassword } = await import('better-auth/crypto');
-    db.update(schema.accounts).set({ password: await hashPassword('a-new-long-private-passphrase') }).run();
+    db.update(schema.accounts)
+      .set({ password: await hashPassword('a-new-long-private-passphrase') })
+      .run();
     expect(await demoAccountsWithPublishedPassword(db)).toEqual([]);
     db.$client.close();
   });
@@ -61,7 +68,13 @@ describe('demo and production modes', () => {
     const db = openDb(file);
     await seedDemo(db, createAuth({ db, baseURL: 'http://localhost:8080', secret: 'test-secret-test-secret-test-secret', mailer: createMailer({ db }) }));
     db.$client.close();
-    const run = runServer({ NODE_ENV: 'production', BETTER_AUTH_SECRET: 'p'.repeat(40), DATABASE_PATH: file, PORT: String(await freePort()), ENV_FILE: path.join(dir, 'none.env') });
+    const run = runServer({
+      NODE_ENV: 'production',
+      BETTER_AUTH_SECRET: 'p'.repeat(40),
+      DATABASE_PATH: file,
+      PORT: String(await freePort()),
+      ENV_FILE: path.join(dir, 'none.env'),
+    });
     expect(run.status).toBe(1);
     expect(run.output).toMatch(/did not start: demo accounts still have the published demo password/);
   }, 90_000);
@@ -77,7 +90,11 @@ describe('demo and production modes', () => {
     } finally {
       await demo.stop();
     }
-    const production = await startServer(await freePort(), { NODE_ENV: 'production', BETTER_AUTH_SECRET: 'p'.repeat(40), DATABASE_PATH: path.join(dir, 'fresh.sqlite'), ENV_FILE: path.join(dir, 'none.env') }, { timeoutMs: 60_000 });
+    const production = await startServer(
+      await freePort(),
+      { NODE_ENV: 'production', BETTER_AUTH_SECRET: 'p'.repeat(40), DATABASE_PATH: path.join(dir, 'fresh.sqlite'), ENV_FILE: path.join(dir, 'none.env') },
+      { timeoutMs: 60_000 },
+    );
     try {
       expect(production.output()).toMatch(/in production mode/);
       expect(production.output()).toMatch(/Card deposits are off/);
@@ -110,7 +127,13 @@ describe('unfinished uploads', () => {
     fs.mkdirSync(path.join(dir, 'shop-b'));
     for (const f of ['shop-a/1.part', 'shop-b/2.part', 'shop-a/kept.png', 'shop-b/kept.jpg']) fs.writeFileSync(path.join(dir, f), 'x');
     expect(sweepPartialUploads(dir)).toBe(2);
-    expect(fs.readdirSync(dir, { recursive: true }).map(String).filter((f) => f.includes('.')).sort()).toEqual([path.join('shop-a', 'kept.png'), path.join('shop-b', 'kept.jpg')]);
+    expect(
+      fs
+        .readdirSync(dir, { recursive: true })
+        .map(String)
+        .filter((f) => f.includes('.'))
+        .sort(),
+    ).toEqual([path.join('shop-a', 'kept.png'), path.join('shop-b', 'kept.jpg')]);
     expect(sweepPartialUploads(path.join(dir, 'missing'))).toBe(0);
   });
 });

@@ -13,7 +13,10 @@ import { anyUserWithEmail, passwordHashesOf } from './store/sessions';
  * server must not start while any does: anyone who read the README could sign in.
  */
 export async function demoAccountsWithPublishedPassword(db: Db): Promise<string[]> {
-  const rows = passwordHashesOf(db, demoAccounts.map((a) => a.email));
+  const rows = passwordHashesOf(
+    db,
+    demoAccounts.map((a) => a.email),
+  );
   const open: string[] = [];
   for (const row of rows) if (row.hash && (await verifyPassword({ hash: row.hash, password: demoPassword }))) open.push(row.email);
   return open;
@@ -21,7 +24,10 @@ export async function demoAccountsWithPublishedPassword(db: Db): Promise<string[
 
 /** Whether any demo account exists (the sign-ins are printed only then, and only in demo mode). */
 export function hasDemoAccounts(db: Db): boolean {
-  return anyUserWithEmail(db, demoAccounts.map((a) => a.email));
+  return anyUserWithEmail(
+    db,
+    demoAccounts.map((a) => a.email),
+  );
 }
 
 /** Removes the `.part` files an upload leaves when the server is killed mid-request; returns how many. */

@@ -21,12 +21,7 @@ export function toAnalysisInput(engine: EngineSpec, spec: ProfileSpec, extras: A
   };
 }
 
-export function analyzeRecords(
-  engine: EngineSpec,
-  spec: ProfileSpec,
-  extras?: AnalysisExtras,
-  workspace?: AnalysisWorkspace,
-): ProfileAnalysis {
+export function analyzeRecords(engine: EngineSpec, spec: ProfileSpec, extras?: AnalysisExtras, workspace?: AnalysisWorkspace): ProfileAnalysis {
   return analyzeProfile(toAnalysisInput(engine, spec, extras), { workspace });
 }
 
@@ -75,7 +70,15 @@ const geometryJson = (g: LobeGeometry): FeasibilityResults['intake'] => ({
 });
 
 /** Checks that belong to "fits the core?" (the lifter side's preload among them). */
-export const FEASIBILITY_CHECKS: ReadonlySet<string> = new Set(['pressureAngle', 'undercut', 'grindingWheel', 'finishingStock', 'cleanup', 'largestCut', 'hydraulicPreload']);
+export const FEASIBILITY_CHECKS: ReadonlySet<string> = new Set([
+  'pressureAngle',
+  'undercut',
+  'grindingWheel',
+  'finishingStock',
+  'cleanup',
+  'largestCut',
+  'hydraulicPreload',
+]);
 
 /** Calc's feasibility as JSON (margins as plain arrays), with where the core came from and what it lacks. */
 export function feasibilityResults(a: ProfileAnalysis, job: Pick<JobCore, 'from' | 'missing'>): FeasibilityResults {

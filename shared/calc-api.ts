@@ -96,10 +96,7 @@ export const checkLimitsSchema = z.strictObject({
 /** Body of `POST /api/calc/analyze`: one engine, one to three profiles on it. */
 export const calcAnalyzeSchema = z.strictObject({
   engine: engineSchema,
-  profiles: z
-    .array(profileSpecSchema, { error: 'Send a list of 1 to 3 profiles' })
-    .min(1, 'Send at least one profile')
-    .max(3, 'Send at most three profiles'),
+  profiles: z.array(profileSpecSchema, { error: 'Send a list of 1 to 3 profiles' }).min(1, 'Send at least one profile').max(3, 'Send at most three profiles'),
   ptvBaseline: ptvBaselineSchema.optional(),
   regrind: regrindSchema.optional(),
   core: coreSchema.optional(),

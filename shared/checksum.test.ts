@@ -103,14 +103,29 @@ describe('checksums already stored', () => {
     expect(revisionChecksum({ number: 1, label: 'Test towing regrind', spec, engine, note: '' })).toBe('c348f1743bf3');
     expect(revisionChecksum({ number: 2, label: 'Test towing regrind', spec, engine, note: 'Grind on the customer core' })).toBe('9c1f6d260bae');
     expect(
-      revisionChecksum({ number: 3, label: 'Prüfstand — 0.5° retard ³ ✓ 🔧', spec: { ...spec, icl: 106.5 }, engine, note: 'Line one\nline two\ttabbed "quoted"' }),
+      revisionChecksum({
+        number: 3,
+        label: 'Prüfstand — 0.5° retard ³ ✓ 🔧',
+        spec: { ...spec, icl: 106.5 },
+        engine,
+        note: 'Line one\nline two\ttabbed "quoted"',
+      }),
     ).toBe('91e268ec17d0');
   });
 
   it('keeps every offer checksum', () => {
-    expect(offerChecksum({ checksum: '0123456789ab', title: 'Stock regrind', priceCents: 50_000, depositCents: 10_000, currency: 'usd', leadTimeDays: 7 })).toBe('b8b33b246d2a');
     expect(
-      offerChecksum({ checksum: 'fedcba987654', title: 'Régrind für den Anhänger 🚚', priceCents: 76_000, depositCents: 22_500, currency: 'eur', leadTimeDays: 8 }),
+      offerChecksum({ checksum: '0123456789ab', title: 'Stock regrind', priceCents: 50_000, depositCents: 10_000, currency: 'usd', leadTimeDays: 7 }),
+    ).toBe('b8b33b246d2a');
+    expect(
+      offerChecksum({
+        checksum: 'fedcba987654',
+        title: 'Régrind für den Anhänger 🚚',
+        priceCents: 76_000,
+        depositCents: 22_500,
+        currency: 'eur',
+        leadTimeDays: 8,
+      }),
     ).toBe('12e2a13d19ce');
   });
 

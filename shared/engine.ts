@@ -29,7 +29,11 @@ export const springSchema = z
 /** An engine's geometry, as calc takes it. Inches, cc, degrees. */
 export const engineSchema = z
   .strictObject({
-    cylinders: z.number({ error: 'Cylinders must be a whole number' }).int('Cylinders is a whole number').min(1, 'At least 1 cylinder').max(16, 'At most 16 cylinders'),
+    cylinders: z
+      .number({ error: 'Cylinders must be a whole number' })
+      .int('Cylinders is a whole number')
+      .min(1, 'At least 1 cylinder')
+      .max(16, 'At most 16 cylinders'),
     bore: measure('Bore', 'in', 2, 6),
     stroke: measure('Stroke', 'in', 1.5, 6),
     rodLength: measure('Rod length', 'in', 3, 10),

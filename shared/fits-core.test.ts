@@ -39,7 +39,10 @@ describe('the fits-the-core words', () => {
   });
 
   it('says NOT RUN and names what is lacking, never a pass, when the core or its damage is not known', () => {
-    const bare = feasibilityResults(analyzeProfile({ engine: DEMO_ENGINE, profile: DEMO_TOWING, grinding: {} }), { from: null, missing: ["upload the core's lobe table (CSV)"] });
+    const bare = feasibilityResults(analyzeProfile({ engine: DEMO_ENGINE, profile: DEMO_TOWING, grinding: {} }), {
+      from: null,
+      missing: ["upload the core's lobe table (CSV)"],
+    });
     const view = coreView(bare);
     expect(view.verdict).toBe('not-run');
     expect(view.headline).toContain("upload the core's lobe table (CSV)");

@@ -96,9 +96,15 @@ export function coreView(f: FeasibilityResults | undefined, jobMissing?: readonl
   figures.push({ key: 'finishingStock', label: 'Finishing stock wanted', value: inches(f.limits.finishingStock.min) });
   for (const lobe of ['intake', 'exhaust'] as const) {
     const p = f[lobe].pressureAngle;
-    if (p) figures.push({ key: `pressureAngle-${lobe}`, label: `Largest pressure angle, ${lobe}`, value: `${Math.max(p.rise.value, p.fall.value).toFixed(1)}° (limit ${f.limits.pressureAngle.max}°)` });
+    if (p)
+      figures.push({
+        key: `pressureAngle-${lobe}`,
+        label: `Largest pressure angle, ${lobe}`,
+        value: `${Math.max(p.rise.value, p.fall.value).toFixed(1)}° (limit ${f.limits.pressureAngle.max}°)`,
+      });
     const c = f[lobe].curvature;
-    if (c) figures.push({ key: `radius-${lobe}`, label: `Smallest lobe radius, ${lobe}`, value: `${inches(c.minSurface.value)}${c.undercut ? ' (undercut)' : ''}` });
+    if (c)
+      figures.push({ key: `radius-${lobe}`, label: `Smallest lobe radius, ${lobe}`, value: `${inches(c.minSurface.value)}${c.undercut ? ' (undercut)' : ''}` });
   }
 
   const l = f.lifter;

@@ -46,7 +46,9 @@ describe('the job core', () => {
       core: null,
       missing: ["upload the core's lobe table (CSV)", 'record the stock base circle (pushrod and preload)'],
     });
-    expect(jobCore({ measured: { lobes }, limits: settings, lifterType: 'hydraulic-roller' }).missing).toEqual(['record the stock base circle (pushrod and preload)']);
+    expect(jobCore({ measured: { lobes }, limits: settings, lifterType: 'hydraulic-roller' }).missing).toEqual([
+      'record the stock base circle (pushrod and preload)',
+    ]);
   });
 
   it('passes the preload with the old cam on for the lifter side, and leaves it out when it was not measured', () => {

@@ -89,15 +89,7 @@ export function regrindFromPushrod(pushrod: MeasurementData['pushrod'] | undefin
  * numbers are the shop's settings. A blank setting stays out (calc then says NOT RUN and
  * names it), never zero. Inches and crank degrees; the table's angles are from overlap TDC.
  */
-export function jobCore({
-  measured,
-  limits,
-  lifterType,
-}: {
-  measured: Partial<MeasurementData>;
-  limits: CheckLimits;
-  lifterType: LifterTypeName;
-}): JobCore {
+export function jobCore({ measured, limits, lifterType }: { measured: Partial<MeasurementData>; limits: CheckLimits; lifterType: LifterTypeName }): JobCore {
   const roller = lifterType === 'hydraulic-roller' || lifterType === 'solid-roller';
   const grinding: GrindingInput = {};
   if (roller && limits.rollerDiameter.value !== null) grinding.rollerDiameter = limits.rollerDiameter.value;

@@ -11,10 +11,8 @@ export const jobStatusLabels: Record<JobStatus, string> = {
   delivered: 'Back with owner',
 };
 
-const text = (max: number, missing: string) =>
-  z.string({ error: missing }).trim().min(1, missing).max(max, `Keep it under ${max} characters`);
-const longText = (max: number) =>
-  z.string({ error: 'Must be text' }).trim().max(max, `Keep it under ${max} characters`);
+const text = (max: number, missing: string) => z.string({ error: missing }).trim().min(1, missing).max(max, `Keep it under ${max} characters`);
+const longText = (max: number) => z.string({ error: 'Must be text' }).trim().max(max, `Keep it under ${max} characters`);
 
 export const mileageSchema = z
   .number({ error: 'Mileage must be a number' })

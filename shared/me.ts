@@ -21,11 +21,7 @@ export const activeShopSchema = z.strictObject({
 });
 
 export const shopCreateSchema = z.strictObject({
-  name: z
-    .string({ error: 'Name the shop' })
-    .trim()
-    .min(2, 'Name the shop')
-    .max(120, 'Keep the shop name under 120 characters'),
+  name: z.string({ error: 'Name the shop' }).trim().min(2, 'Name the shop').max(120, 'Keep the shop name under 120 characters'),
   kind: z.enum(shopKinds, { error: 'A shop is a repair shop or a grinding shop' }),
 });
 export type ShopCreate = z.input<typeof shopCreateSchema>;

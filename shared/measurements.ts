@@ -80,7 +80,11 @@ const lobeReadings = z
   .superRefine((points, ctx) => {
     const back = points.findIndex((p, i) => i > 0 && !(p.angle > points[i - 1]!.angle));
     if (back > 0) {
-      ctx.addIssue({ code: 'custom', path: [back, 'angle'], message: `Angles must increase: ${points[back]!.angle} does not come after ${points[back - 1]!.angle}` });
+      ctx.addIssue({
+        code: 'custom',
+        path: [back, 'angle'],
+        message: `Angles must increase: ${points[back]!.angle} does not come after ${points[back - 1]!.angle}`,
+      });
     }
   });
 
@@ -169,7 +173,6 @@ export const photoPatchSchema = z.strictObject({
   shareable: z.boolean().optional(),
 });
 
-
 /** The job checklist. */
 export const checklistAddSchema = z.strictObject({ label: z.string().trim().min(1, 'Write the item').max(200, 'Keep it under 200 characters') });
 export const checklistPatchSchema = z.strictObject({ done: z.boolean({ error: 'Say whether it is done' }) });
@@ -183,7 +186,7 @@ export const defaultChecklistLabels = [
   'Cam degreed in and the installed ICL recorded',
   'Piston-to-valve clearance checked with checking springs or clay',
   'Spring installed height and coil bind checked',
-  "Break-in done as the cam and lifter maker says, with the oil additive they call for",
+  'Break-in done as the cam and lifter maker says, with the oil additive they call for',
 ] as const;
 
 export type ChecklistItem = {
@@ -200,8 +203,7 @@ export type ShopLimits = { limits: CheckLimitOverrides; version: number };
 /** `GET /api/shop/limits`: the overrides, plus every rule as it applies (with its source) and calc's defaults. */
 export type ShopLimitsResponse = ShopLimits & { resolved: CheckLimits; defaults: CheckLimits };
 
-const limitNumber = (label: string) =>
-  z.number({ error: `${label} must be a number` }).refine(Number.isFinite, `${label} must be a finite number`);
+const limitNumber = (label: string) => z.number({ error: `${label} must be a number` }).refine(Number.isFinite, `${label} must be a finite number`);
 const watchBand = limitNumber('Watch band').refine((v) => v >= 0, 'Watch band cannot be negative');
 const source = z.string().trim().min(1, 'Name the source or leave it out').max(200, 'Keep the source under 200 characters');
 const minimumOverride = z.strictObject({ min: limitNumber('Minimum').optional(), watchBand: watchBand.optional(), source: source.optional() });

@@ -51,7 +51,9 @@ function depositWithinPrice(value: { priceCents?: number; depositCents?: number 
 }
 
 /** Offer one of the job's spec sheets to the owner; it is bound to the sheet's latest revision. */
-export const ownerOptionCreateSchema = z.strictObject({ sheetId: z.string({ error: 'Choose the spec sheet' }).min(1, 'Choose the spec sheet'), ...optionFields }).superRefine(depositWithinPrice);
+export const ownerOptionCreateSchema = z
+  .strictObject({ sheetId: z.string({ error: 'Choose the spec sheet' }).min(1, 'Choose the spec sheet'), ...optionFields })
+  .superRefine(depositWithinPrice);
 export type OwnerOptionCreate = z.input<typeof ownerOptionCreateSchema>;
 
 export const ownerOptionPatchSchema = z

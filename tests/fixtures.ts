@@ -16,7 +16,9 @@ import type { ShopKind, ShopRole } from '@/shared/roles';
 export type TestApp = { app: App; db: Db; url: string; uploadsDir: string; payments: Payments; paymentService: FakePaymentService; close: () => Promise<void> };
 
 /** A real app on an in-memory database, listening on a free loopback port. */
-export async function createTestApp(options: Pick<CreateAppOptions, 'calcRateLimit' | 'jobCreateRateLimit' | 'devTools' | 'shareRateLimit' | 'authRateLimit'> = {}): Promise<TestApp> {
+export async function createTestApp(
+  options: Pick<CreateAppOptions, 'calcRateLimit' | 'jobCreateRateLimit' | 'devTools' | 'shareRateLimit' | 'authRateLimit'> = {},
+): Promise<TestApp> {
   const db = openDb(':memory:');
   const uploadsDir = fs.mkdtempSync(path.join(os.tmpdir(), 'lobewright-test-uploads-'));
   // The origin is only known after listening; sign-in checks it against the request's Origin header.
@@ -31,7 +33,15 @@ export async function createTestApp(options: Pick<CreateAppOptions, 'calcRateLim
   const url = `http://127.0.0.1:${port}`;
   // Deposits go to the local fake payment service, as they do when the app runs without STRIPE_SECRET_KEY.
   const { payments, service: paymentService } = await startLocalPayments({ publicUrl: url });
-  const app = createApp({ db, baseURL: url, secret: 'test-secret-test-secret-test-secret', uploadsDir, payments, jobCreateRateLimit: { limit: 10_000, windowMs: 60_000 }, ...options });
+  const app = createApp({
+    db,
+    baseURL: url,
+    secret: 'test-secret-test-secret-test-secret',
+    uploadsDir,
+    payments,
+    jobCreateRateLimit: { limit: 10_000, windowMs: 60_000 },
+    ...options,
+  });
   await new Promise<void>((resolve) => {
     server = app.listen(port, '127.0.0.1', () => resolve());
   });
@@ -172,10 +182,7 @@ export async function makeShop(t: TestApp, kind: ShopKind = 'repair', name = 'Te
 /** Adds a new person to a shop with the given role and signs them in (so their session opens in that shop). */
 export async function memberWithRole(t: TestApp, shopId: string, role: ShopRole) {
   const person = await signUp(t, `A ${role}`);
-  t.db
-    .insert(schema.memberships)
-    .values({ id: crypto.randomUUID(), organizationId: shopId, userId: person.userId, role })
-    .run();
+  t.db.insert(schema.memberships).values({ id: crypto.randomUUID(), organizationId: shopId, userId: person.userId, role }).run();
   const res = await person.post('/api/me/active-shop', { shopId });
   if (res.status !== 200) throw new Error(`active shop failed: ${res.status} ${JSON.stringify(res.body)}`);
   return person;

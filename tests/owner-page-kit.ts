@@ -22,7 +22,8 @@ export function ownerPageKit(app: () => TestApp) {
     const builder = s.founder;
     const job = (await builder.get(`/api/jobs/${s.jobId}`)).body.job;
     expect((await builder.patch(`/api/jobs/${s.jobId}`, { version: job.version, findings: INTERNAL_FINDINGS })).status).toBe(200);
-    const sheet = (await builder.post(`/api/jobs/${s.jobId}/sheets`, { title: 'Towing regrind', profileId: s.profileId, note: INTERNAL_SHEET_NOTE })).body.sheet;
+    const sheet = (await builder.post(`/api/jobs/${s.jobId}/sheets`, { title: 'Towing regrind', profileId: s.profileId, note: INTERNAL_SHEET_NOTE })).body
+      .sheet;
     const page = await builder.put(`/api/jobs/${s.jobId}/owner`, { version: 0, whatFailed: 'A lifter stopped rolling and wore the cam lobe.' });
     expect(page.status).toBe(200);
     const option = await builder.post(`/api/jobs/${s.jobId}/owner/options`, {
@@ -51,7 +52,11 @@ export function ownerPageKit(app: () => TestApp) {
   }
 
   async function postWebhook(payload: string, signature: string) {
-    const res = await fetch(`${tOf().url}/api/payments/webhook`, { method: 'POST', headers: { 'content-type': 'application/json', 'stripe-signature': signature }, body: payload });
+    const res = await fetch(`${tOf().url}/api/payments/webhook`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json', 'stripe-signature': signature },
+      body: payload,
+    });
     return { status: res.status, body: (await res.json()) as Record<string, any> };
   }
 

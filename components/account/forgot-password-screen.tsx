@@ -37,7 +37,15 @@ export function ForgotPasswordScreen() {
         </Text>
       ) : (
         <>
-          <FormField control={control} name="email" label="E-mail" keyboardType="email-address" autoComplete="email" onSubmitEditing={submit} testID="reset-email" />
+          <FormField
+            control={control}
+            name="email"
+            label="E-mail"
+            keyboardType="email-address"
+            autoComplete="email"
+            onSubmitEditing={submit}
+            testID="reset-email"
+          />
           {formError ? <ErrorNotice error={new Error(formError)} /> : null}
           <Button label="Mail me a link" onPress={submit} busy={request.isPending} testID="reset-request" />
         </>

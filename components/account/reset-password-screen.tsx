@@ -58,7 +58,15 @@ export function ResetPasswordScreen({ token, error }: { token?: string; error?: 
   return (
     <AuthCard title="Set a new password" intro={`At least ${minPasswordLength} characters, and not a commonly used password.`}>
       <FormField control={control} name="newPassword" label="New password" secureTextEntry autoComplete="new-password" testID="reset-new-password" />
-      <FormField control={control} name="repeat" label="New password again" secureTextEntry autoComplete="new-password" onSubmitEditing={submit} testID="reset-repeat" />
+      <FormField
+        control={control}
+        name="repeat"
+        label="New password again"
+        secureTextEntry
+        autoComplete="new-password"
+        onSubmitEditing={submit}
+        testID="reset-repeat"
+      />
       {formError ? <ErrorNotice error={new Error(formError)} /> : null}
       <Button label="Set password" onPress={submit} busy={reset.isPending} testID="reset-submit" />
     </AuthCard>

@@ -45,8 +45,8 @@ function CheckLimits({ canEdit }: { canEdit: boolean }) {
   return (
     <>
       <Text style={styles.help}>
-        Leave a field blank to use Lobewright&apos;s default. A result inside the watch band of a limit shows as watch rather than pass. A value you
-        change is labelled &quot;shop setting&quot; in every result that uses it.
+        Leave a field blank to use Lobewright&apos;s default. A result inside the watch band of a limit shows as watch rather than pass. A value you change is
+        labelled &quot;shop setting&quot; in every result that uses it.
       </Text>
       {limits.isPending ? (
         <Pending label="Loading the shop's limits…" />

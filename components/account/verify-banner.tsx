@@ -10,9 +10,7 @@ export function VerifyBanner({ email }: { email: string }) {
   return (
     <View style={styles.banner} role="alert" testID="verify-banner">
       <Text style={styles.title}>Verify your e-mail</Text>
-      <Text style={styles.body}>
-        We sent a link to {email}. Open it to confirm the address; shops that invited you open once it is verified.
-      </Text>
+      <Text style={styles.body}>We sent a link to {email}. Open it to confirm the address; shops that invited you open once it is verified.</Text>
       {resend.isSuccess ? <Text style={styles.body}>A new link is on its way.</Text> : null}
       {resend.isError ? <Text style={styles.body}>The link could not be sent. Try again in a minute.</Text> : null}
       <View style={styles.actions}>

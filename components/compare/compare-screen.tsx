@@ -44,7 +44,8 @@ export function CompareScreen({ id: jobId }: { id: string }) {
   }, [lifterType, measurements.data, limits.data]);
   const back: BackLink = { href: { pathname: '/jobs/[id]', params: { id: jobId } }, label: 'Back to the job' };
 
-  if (job.isPending || engine.isPending || profiles.isPending || measurements.isPending || limits.isPending) return <Pending label="Loading the engine and profiles…" />;
+  if (job.isPending || engine.isPending || profiles.isPending || measurements.isPending || limits.isPending)
+    return <Pending label="Loading the engine and profiles…" />;
   const failed = job.error ?? engine.error ?? profiles.error;
   if (failed) {
     return (
@@ -83,12 +84,21 @@ function CompareView({
 }) {
   const wide = useWindowDimensions().width >= breakpoints.wide;
   const canWrite = roleAllows(useMeQuery().data?.activeShop?.role, { sheet: ['write'] });
-  const { chosen: chosenProfiles, chosenIds: chosen, columns, shown, analyses, names, nearLimit, owner, toggle, drafts, setDraft, mode, setMode } = useCompare(
-    jobId,
-    engine,
-    profiles,
-    core,
-  );
+  const {
+    chosen: chosenProfiles,
+    chosenIds: chosen,
+    columns,
+    shown,
+    analyses,
+    names,
+    nearLimit,
+    owner,
+    toggle,
+    drafts,
+    setDraft,
+    mode,
+    setMode,
+  } = useCompare(jobId, engine, profiles, core);
   const [editingId, setEditingId] = useState<string | null>(null);
   const editing = chosenProfiles.find((p) => p.id === editingId) ?? chosenProfiles[chosenProfiles.length - 1];
 
@@ -130,9 +140,7 @@ function CompareView({
     <Screen title="Compare profiles" subtitle={vehicle} back={back} testID="compare-screen">
       <Section title="Profiles">
         <ProfilePicker profiles={profiles} chosen={chosen} onToggle={toggle} />
-        {columns.map((c) =>
-          c.error ? <ErrorNotice key={c.profile.id} error={new Error(`${c.profile.label} cannot be worked out: ${c.error}`)} /> : null,
-        )}
+        {columns.map((c) => (c.error ? <ErrorNotice key={c.profile.id} error={new Error(`${c.profile.label} cannot be worked out: ${c.error}`)} /> : null))}
       </Section>
 
       <View style={wide ? styles.columns : styles.stack}>

@@ -12,13 +12,7 @@ export function CompareTable({ analyses, names }: { analyses: readonly ProfileAn
   const base = analyses[0];
   let lastGroup = '';
   return (
-    <ScrollView
-      horizontal
-      contentContainerStyle={styles.scroller}
-      tabIndex={0}
-      aria-label="Differences table, scrolls sideways"
-      testID="compare-table"
-    >
+    <ScrollView horizontal contentContainerStyle={styles.scroller} tabIndex={0} aria-label="Differences table, scrolls sideways" testID="compare-table">
       <View role="table" aria-label="Differences between profiles" style={styles.table}>
         <View role="row" style={[styles.row, styles.head]}>
           <Text role="columnheader" style={[styles.labelCell, styles.headText]}>

@@ -68,7 +68,9 @@ export function FitsCorePanel({
         <CheckList checks={view.checks} skipped={feasibility?.skipped ?? []} testID={`${testID}-checks`} />
       ) : null}
       {feasibility ? <Text style={styles.small}>How it is judged: {feasibility.criterion}</Text> : null}
-      {view.verdict !== 'not-run' ? <Cautions title="Before grinding" items={[grindCaution, productCautions.manual, productCautions.practice]} testID={`${testID}-cautions`} /> : null}
+      {view.verdict !== 'not-run' ? (
+        <Cautions title="Before grinding" items={[grindCaution, productCautions.manual, productCautions.practice]} testID={`${testID}-cautions`} />
+      ) : null}
     </View>
   );
 }

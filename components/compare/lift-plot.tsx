@@ -35,10 +35,7 @@ function yLabel(value: number, mode: PlotMode) {
 export function LiftPlot({ analyses, names, mode, height = 300, testID }: LiftPlotProps) {
   const [width, setWidth] = useState(0);
   const onLayout = (e: LayoutChangeEvent) => setWidth(Math.round(e.nativeEvent.layout.width));
-  const paths = useMemo(
-    () => (width > 0 ? buildPlotPaths(analyses, mode, { width, height, padding, ...crankWindow }) : null),
-    [analyses, mode, width, height],
-  );
+  const paths = useMemo(() => (width > 0 ? buildPlotPaths(analyses, mode, { width, height, padding, ...crankWindow }) : null), [analyses, mode, width, height]);
   const description = `${yTitle[mode]} against crank angle for ${names.join(', ')}. Intake solid, exhaust dashed. TDC is overlap top dead centre.`;
 
   return (

@@ -31,21 +31,44 @@ export function MarginPlot({ feasibility, height = 220, testID }: { feasibility:
           ))}
           {xTicks.map((deg) => (
             <G key={`x${deg}`}>
-              <Line x1={paths.x(deg)} x2={paths.x(deg)} y1={padding.top} y2={height - padding.bottom} stroke={deg === 0 ? colors.lineStrong : colors.grid} strokeWidth={1} />
+              <Line
+                x1={paths.x(deg)}
+                x2={paths.x(deg)}
+                y1={padding.top}
+                y2={height - padding.bottom}
+                stroke={deg === 0 ? colors.lineStrong : colors.grid}
+                strokeWidth={1}
+              />
               <SvgText x={paths.x(deg)} y={height - padding.bottom + 15} fontSize={11} fontFamily={fonts.medium} fill={colors.ink} textAnchor="middle">
                 {deg === 0 ? 'nose' : `${deg}°`}
               </SvgText>
             </G>
           ))}
           <Line x1={padding.left} x2={width - padding.right} y1={paths.y(0)} y2={paths.y(0)} stroke={colors.fail} strokeWidth={1.5} />
-          <Line x1={padding.left} x2={width - padding.right} y1={paths.y(stock)} y2={paths.y(stock)} stroke={colors.watch} strokeWidth={1.5} strokeDasharray="2 3" />
+          <Line
+            x1={padding.left}
+            x2={width - padding.right}
+            y1={paths.y(stock)}
+            y2={paths.y(stock)}
+            stroke={colors.watch}
+            strokeWidth={1.5}
+            strokeDasharray="2 3"
+          />
           <SvgText x={padding.left} y={height - 3} fontSize={11} fontFamily={fonts.regular} fill={colors.inkMuted}>
             ← opening flank · cam degrees · closing flank →
           </SvgText>
           {paths.exhaust ? <Path d={paths.exhaust} stroke={colors.exhaust} strokeWidth={2} strokeDasharray="6 4" fill="none" /> : null}
           {paths.intake ? <Path d={paths.intake} stroke={colors.intake} strokeWidth={2.25} fill="none" /> : null}
           {paths.marks.map((m) => (
-            <Circle key={m.lobe} cx={m.px} cy={m.py} r={5} fill={colors.surface} stroke={m.lobe === 'intake' ? colors.intake : colors.exhaust} strokeWidth={2.5} />
+            <Circle
+              key={m.lobe}
+              cx={m.px}
+              cy={m.py}
+              r={5}
+              fill={colors.surface}
+              stroke={m.lobe === 'intake' ? colors.intake : colors.exhaust}
+              strokeWidth={2.5}
+            />
           ))}
         </Svg>
       ) : (

@@ -140,15 +140,20 @@ export function TryValues({
             disabled={!valid || busy || (!sheet && dirty) || sameAsSheet}
             testID="save-to-sheet"
           />
-          <Button label="Save profile" variant="secondary" onPress={toProfile} busy={saveProfile.isPending} disabled={!valid || !dirty || busy} testID="save-profile" />
+          <Button
+            label="Save profile"
+            variant="secondary"
+            onPress={toProfile}
+            busy={saveProfile.isPending}
+            disabled={!valid || !dirty || busy}
+            testID="save-profile"
+          />
           <Button label="Discard changes" variant="quiet" onPress={discard} disabled={!dirty || busy} testID="discard-draft" />
         </View>
       ) : (
         <Text style={styles.note}>Only a builder can save profile values.</Text>
       )}
-      {sheet ? (
-        <Button label={`Open “${sheet.title}”`} variant="quiet" href={`/jobs/${jobId}/sheets/${sheet.id}`} testID="open-sheet" />
-      ) : null}
+      {sheet ? <Button label={`Open “${sheet.title}”`} variant="quiet" href={`/jobs/${jobId}/sheets/${sheet.id}`} testID="open-sheet" /> : null}
     </Section>
   );
 }

@@ -5,14 +5,7 @@ import { StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 import { breakpoints, colors, space, type as typeScale } from '@/constants/theme';
 import { useSaveEngineMutation } from '@/hooks/use-engine';
 import { engineSchema, lifterTypeLabels, lifterTypes, type EngineRecord, type EngineSpec, type LifterTypeName } from '@/shared/engine';
-import {
-  engineDraftFrom,
-  engineFieldPaths,
-  engineNumberList,
-  engineNumberSpecs as specs,
-  type EngineDraft,
-  type EngineNumberKey,
-} from '@/lib/engine-fields';
+import { engineDraftFrom, engineFieldPaths, engineNumberList, engineNumberSpecs as specs, type EngineDraft, type EngineNumberKey } from '@/lib/engine-fields';
 
 import { Button } from '@/components/ui/button';
 import { ChoiceGroup } from '@/components/ui/choice-group';
@@ -53,7 +46,11 @@ export function EngineForm({ jobId, record, readOnly, onReload }: EngineFormProp
   const [reloading, setReloading] = useState(false);
   const save = useSaveEngineMutation(jobId);
 
-  const { form, units: converter, loadError } = useDraftForm<EngineDraft, EngineSpec>({
+  const {
+    form,
+    units: converter,
+    loadError,
+  } = useDraftForm<EngineDraft, EngineSpec>({
     specs: engineNumberList,
     schema: engineSchema,
     others: (values) => ({ lifterType: values.lifterType, firingOrder: values.firingOrder }),
@@ -112,7 +109,13 @@ export function EngineForm({ jobId, record, readOnly, onReload }: EngineFormProp
                 </Text>
               </View>
             ) : (
-              <ChoiceGroup<LifterTypeName> label="Lifter type" value={field.value} choices={lifterChoices} onChange={field.onChange} testID="engine-lifterType" />
+              <ChoiceGroup<LifterTypeName>
+                label="Lifter type"
+                value={field.value}
+                choices={lifterChoices}
+                onChange={field.onChange}
+                testID="engine-lifterType"
+              />
             )
           }
         />

@@ -116,7 +116,15 @@ function ChecklistRow({ jobId, item, index, canWrite }: { jobId: string; item: C
 
 const styles = StyleSheet.create({
   list: { gap: space.xs },
-  item: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', gap: space.sm, borderBottomWidth: 1, borderBottomColor: colors.grid, paddingVertical: space.xs },
+  item: {
+    flexDirection: 'row',
+    flexWrap: 'wrap',
+    alignItems: 'center',
+    gap: space.sm,
+    borderBottomWidth: 1,
+    borderBottomColor: colors.grid,
+    paddingVertical: space.xs,
+  },
   tick: { flexDirection: 'row', alignItems: 'flex-start', gap: space.md, flex: 1, minWidth: 200, minHeight: touchTarget, paddingVertical: space.xs },
   box: {
     width: 26,

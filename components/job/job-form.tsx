@@ -69,7 +69,14 @@ export function JobForm({ job, submitLabel, busy, onSubmit, onCancel }: JobFormP
       <FormField control={control} name="complaint" label="Complaint" hint="What the owner reports, in their words." multiline testID="job-complaint" />
       {job ? (
         <>
-          <FormField control={control} name="findings" label="Findings" hint="What teardown showed: failed parts, wear, debris." multiline testID="job-findings" />
+          <FormField
+            control={control}
+            name="findings"
+            label="Findings"
+            hint="What teardown showed: failed parts, wear, debris."
+            multiline
+            testID="job-findings"
+          />
           <Controller
             control={control}
             name="status"

@@ -48,8 +48,8 @@ export function JobPhotos({ jobId, canWrite }: { jobId: string; canWrite: boolea
   return (
     <Section title="Photos of the failed parts">
       <Text style={styles.help}>
-        JPEG, PNG or WebP, up to {photoLimits.maxFiles} at a time, {megabytes} MB each. Only people in this shop can open them unless you mark a
-        photo for the owner.
+        JPEG, PNG or WebP, up to {photoLimits.maxFiles} at a time, {megabytes} MB each. Only people in this shop can open them unless you mark a photo for the
+        owner.
       </Text>
       {canWrite ? (
         <Button
@@ -110,14 +110,7 @@ function PhotoCard({ jobId, photo, canWrite }: { jobId: string; photo: Photo; ca
       </Text>
       {canWrite ? (
         <>
-          <TextField
-            label="Caption"
-            value={caption}
-            onChangeText={setCaption}
-            maxLength={200}
-            error={save.error?.message}
-            testID="photo-caption"
-          />
+          <TextField label="Caption" value={caption} onChangeText={setCaption} maxLength={200} error={save.error?.message} testID="photo-caption" />
           {changed ? (
             <Button
               label="Save caption"
@@ -142,13 +135,7 @@ function PhotoCard({ jobId, photo, canWrite }: { jobId: string; photo: Photo; ca
           </Pressable>
           {confirming ? (
             <View style={styles.row}>
-              <Button
-                label="Delete for good"
-                variant="danger"
-                busy={remove.isPending}
-                onPress={() => remove.mutate(photo.id)}
-                testID="photo-delete-confirm"
-              />
+              <Button label="Delete for good" variant="danger" busy={remove.isPending} onPress={() => remove.mutate(photo.id)} testID="photo-delete-confirm" />
               <Button label="Keep" variant="quiet" onPress={() => setConfirming(false)} testID="photo-delete-cancel" />
             </View>
           ) : (

@@ -94,12 +94,7 @@ function JobDetail({ job }: { job: Job }) {
               <Text style={styles.meta}>Measurements from the engine, the fit checks against a spec sheet, and the job checklist.</Text>
               <View style={styles.links}>
                 <Button label="Measurements" href={{ pathname: '/jobs/[id]/measurements', params: { id: job.id } }} testID="open-measurements" />
-                <Button
-                  label="Fit checks"
-                  variant="secondary"
-                  href={{ pathname: '/jobs/[id]/fit-checks', params: { id: job.id } }}
-                  testID="open-fit-checks"
-                />
+                <Button label="Fit checks" variant="secondary" href={{ pathname: '/jobs/[id]/fit-checks', params: { id: job.id } }} testID="open-fit-checks" />
               </View>
             </Section>
             <EngineSummary jobId={job.id} canWrite={canWrite} />

@@ -96,15 +96,16 @@ export function JobProfiles({ jobId, canWrite }: { jobId: string; canWrite: bool
         </View>
       )}
       <View style={styles.actions}>
-        {(profiles.data?.length ?? 0) > 0 ? (
-          <Button label="Compare profiles" href={`/jobs/${jobId}/compare`} testID="open-compare" />
-        ) : null}
+        {(profiles.data?.length ?? 0) > 0 ? <Button label="Compare profiles" href={`/jobs/${jobId}/compare`} testID="open-compare" /> : null}
         {canWrite ? (
-          <Button label={copying ? 'Close the library' : 'Copy from the library'} variant="secondary" onPress={() => setCopying((c) => !c)} testID="copy-from-library" />
+          <Button
+            label={copying ? 'Close the library' : 'Copy from the library'}
+            variant="secondary"
+            onPress={() => setCopying((c) => !c)}
+            testID="copy-from-library"
+          />
         ) : null}
-        {canWrite ? (
-          <Button label="Write a new profile" variant="quiet" href={`/profiles/new?job=${jobId}`} testID="new-job-profile" />
-        ) : null}
+        {canWrite ? <Button label="Write a new profile" variant="quiet" href={`/profiles/new?job=${jobId}`} testID="new-job-profile" /> : null}
       </View>
       {copying ? (
         library.isPending ? (
@@ -154,7 +155,8 @@ export function JobSheets({ jobId }: { jobId: string }) {
               <View style={styles.grow}>
                 <Text style={styles.itemTitle}>{s.title}</Text>
                 <Text style={styles.itemMeta}>
-                  Revision {s.current.number} · {s.current.state === 'draft' ? 'draft' : 'issued'} · {s.current.label} · saved {formatDateTime(s.current.updatedAt)}
+                  Revision {s.current.number} · {s.current.state === 'draft' ? 'draft' : 'issued'} · {s.current.label} · saved{' '}
+                  {formatDateTime(s.current.updatedAt)}
                 </Text>
               </View>
               <CheckStatusChip status={s.current.results.status} />

@@ -47,9 +47,7 @@ export function JobsScreen() {
     <Screen
       title="Jobs"
       subtitle={me?.activeShop?.name}
-      actions={
-        canCreate && !creating ? <Button label="New job" onPress={() => setCreating(true)} testID="new-job" /> : null
-      }
+      actions={canCreate && !creating ? <Button label="New job" onPress={() => setCreating(true)} testID="new-job" /> : null}
       testID="jobs-screen"
     >
       <View style={wide ? styles.columns : styles.stack}>
@@ -60,9 +58,7 @@ export function JobsScreen() {
             <ErrorNotice error={jobs.error} onRetry={() => jobs.refetch()} />
           ) : jobs.data.length === 0 ? (
             <EmptyState title="No jobs yet">
-              {canCreate ? (
-                <Button label="Check in the first vehicle" variant="secondary" onPress={() => setCreating(true)} testID="empty-new-job" />
-              ) : null}
+              {canCreate ? <Button label="Check in the first vehicle" variant="secondary" onPress={() => setCreating(true)} testID="empty-new-job" /> : null}
             </EmptyState>
           ) : (
             <>

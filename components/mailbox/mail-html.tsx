@@ -12,5 +12,13 @@ export function MailHtml({ html, title }: { html: string; title: string }) {
 }
 
 const styles = StyleSheet.create({
-  source: { fontFamily: fonts.mono, fontSize: 12, lineHeight: 17, color: colors.ink, backgroundColor: colors.sunken, padding: space.md, borderRadius: radius.md },
+  source: {
+    fontFamily: fonts.mono,
+    fontSize: 12,
+    lineHeight: 17,
+    color: colors.ink,
+    backgroundColor: colors.sunken,
+    padding: space.md,
+    borderRadius: radius.md,
+  },
 });

@@ -6,7 +6,13 @@ import { colors, radius } from '@/constants/theme';
 export function MailHtml({ html, title }: { html: string; title: string }) {
   return (
     <View style={styles.frame}>
-      <iframe title={title} sandbox="" srcDoc={html} style={{ border: 0, width: '100%', height: 420, backgroundColor: colors.surface }} data-testid="mail-html" />
+      <iframe
+        title={title}
+        sandbox=""
+        srcDoc={html}
+        style={{ border: 0, width: '100%', height: 420, backgroundColor: colors.surface }}
+        data-testid="mail-html"
+      />
     </View>
   );
 }

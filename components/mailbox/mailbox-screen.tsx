@@ -24,7 +24,10 @@ export function MailboxScreen() {
       {outbox.data === null ? <EmptyState title="This server keeps no outbox: mail goes out for real." /> : null}
       {outbox.data && messages.length === 0 ? (
         <EmptyState title="No mail yet">
-          <Text style={styles.body}>Mail addressed to you lands here: an issued sheet for a grinder; a quote, a change request or a shipment for a builder; a verification or reset link.</Text>
+          <Text style={styles.body}>
+            Mail addressed to you lands here: an issued sheet for a grinder; a quote, a change request or a shipment for a builder; a verification or reset
+            link.
+          </Text>
         </EmptyState>
       ) : null}
       {messages.length > 0 ? (
@@ -62,12 +65,7 @@ export function MailboxScreen() {
 function MailRow({ message, active, onOpen }: { message: OutboxMessage; active: boolean; onOpen: () => void }) {
   return (
     <View role="listitem">
-      <Pressable
-        role="button"
-        onPress={onOpen}
-        style={[styles.row, active && styles.rowActive]}
-        testID={`outbox-${message.id}`}
-      >
+      <Pressable role="button" onPress={onOpen} style={[styles.row, active && styles.rowActive]} testID={`outbox-${message.id}`}>
         <Text style={styles.subject}>{message.subject}</Text>
         <Text style={styles.meta}>
           To {message.to} · {formatDateTime(message.createdAt)}

@@ -36,7 +36,9 @@ export function DegreeReadout({ stopBefore, stopAfter, openingAngle, closingAngl
             : `${deg(Math.abs(d.difference))} ${d.difference > 0 ? 'later' : 'earlier'} than ${sheetName ?? 'the sheet'} (${deg(d.sheetIcl)}): ${d.correction} the cam ${deg(d.correctionDegrees)}.`;
       }
     } catch (error) {
-      iclProblem = isCalcInputError(error) ? `The closing-flank angle ${error.message.replace(/^closingAngle:?\s*/, '').replace('openingAngle', 'the opening-flank angle')}` : 'Check the flank angles.';
+      iclProblem = isCalcInputError(error)
+        ? `The closing-flank angle ${error.message.replace(/^closingAngle:?\s*/, '').replace('openingAngle', 'the opening-flank angle')}`
+        : 'Check the flank angles.';
     }
   }
 

@@ -36,8 +36,8 @@ export function FitCheckResults({ run }: { run: FitCheckRun }) {
           const s = r.ptv[valve];
           return s ? (
             <Text key={valve} style={styles.detail}>
-              {valve === 'intake' ? 'Intake' : 'Exhaust'}: least {inch(s.minClearance)} at {deg(s.atAngle)} ATDC (valve lift {inch(s.liftAtMin)}),
-              from the {inch(s.baseline.clearance)} reading at {deg(s.baseline.crankAngle)}
+              {valve === 'intake' ? 'Intake' : 'Exhaust'}: least {inch(s.minClearance)} at {deg(s.atAngle)} ATDC (valve lift {inch(s.liftAtMin)}), from the{' '}
+              {inch(s.baseline.clearance)} reading at {deg(s.baseline.crankAngle)}
             </Text>
           ) : null;
         })}

@@ -21,7 +21,10 @@ export function FitChecksScreen({ id }: { id: string }) {
   const job = useJobQuery(id);
   const sheets = useJobSheetsQuery(id);
   const sheetList = sheets.data ?? [];
-  const [sheetId, setSheetId] = useCheckedSheet(id, sheetList.map((s) => s.id));
+  const [sheetId, setSheetId] = useCheckedSheet(
+    id,
+    sheetList.map((s) => s.id),
+  );
 
   if (job.isPending || sheets.isPending) return <Pending label="Loading the job's spec sheets…" />;
   if (job.isError || sheets.isError) {
@@ -86,18 +89,18 @@ function SheetRuns({ sheetId }: { sheetId: string }) {
             const active = shown?.id === r.id;
             return (
               <View key={r.id} role="listitem">
-              <Pressable
-                role="button"
-                aria-pressed={active}
-                onPress={() => setShownId(r.id)}
-                style={[styles.historyItem, active && styles.historyActive]}
-                testID={`fit-run-${r.id}`}
-              >
-                <CheckStatusChip status={r.results.status} />
-                <Text style={styles.historyText}>
-                  Revision {r.revisionNumber} · {formatDateTime(r.createdAt)}
-                </Text>
-              </Pressable>
+                <Pressable
+                  role="button"
+                  aria-pressed={active}
+                  onPress={() => setShownId(r.id)}
+                  style={[styles.historyItem, active && styles.historyActive]}
+                  testID={`fit-run-${r.id}`}
+                >
+                  <CheckStatusChip status={r.results.status} />
+                  <Text style={styles.historyText}>
+                    Revision {r.revisionNumber} · {formatDateTime(r.createdAt)}
+                  </Text>
+                </Pressable>
               </View>
             );
           })}

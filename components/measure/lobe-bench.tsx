@@ -52,9 +52,9 @@ export function LobeBench({ jobId, current, canWrite, threshold, spec, specName 
   return (
     <View style={styles.bench} testID="lobe-bench">
       <Text style={styles.help}>
-        A CSV with a header row: <Text style={styles.code}>angle</Text> (crank degrees) or <Text style={styles.code}>cam_angle</Text>, then one
-        column per lobe named by cylinder and valve (<Text style={styles.code}>1I, 1E, … 8E</Text>), lift in inches. A file with a bad cell is
-        refused whole, naming the row and column.
+        A CSV with a header row: <Text style={styles.code}>angle</Text> (crank degrees) or <Text style={styles.code}>cam_angle</Text>, then one column per lobe
+        named by cylinder and valve (<Text style={styles.code}>1I, 1E, … 8E</Text>), lift in inches. A file with a bad cell is refused whole, naming the row and
+        column.
       </Text>
       {canWrite ? (
         <Button

@@ -55,7 +55,15 @@ export function LobeOverlay({ lobeId, points, centerline, spec, specName, height
               </SvgText>
             </G>
           ))}
-          <Line x1={paths.x(centerline)} x2={paths.x(centerline)} y1={padding.top} y2={height - padding.bottom} stroke={colors.lineStrong} strokeWidth={1} strokeDasharray="2 3" />
+          <Line
+            x1={paths.x(centerline)}
+            x2={paths.x(centerline)}
+            y1={padding.top}
+            y2={height - padding.bottom}
+            stroke={colors.lineStrong}
+            strokeWidth={1}
+            strokeDasharray="2 3"
+          />
           {paths.spec ? <Path d={paths.spec} stroke={colors.inkMuted} strokeWidth={2} strokeDasharray="6 4" fill="none" /> : null}
           <Path d={paths.measured} stroke={lobeId.endsWith('I') ? colors.intake : colors.exhaust} strokeWidth={2.5} fill="none" />
         </Svg>

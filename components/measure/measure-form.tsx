@@ -221,7 +221,19 @@ export function draftNumber(draft: unknown): number | null {
   return typeof value === 'number' && Number.isFinite(value) ? value : null;
 }
 
-function TextCell({ control, path, field, editable, testID }: { control: Control<MeasureDraft>; path: string; field: MeasureText; editable: boolean; testID: string }) {
+function TextCell({
+  control,
+  path,
+  field,
+  editable,
+  testID,
+}: {
+  control: Control<MeasureDraft>;
+  path: string;
+  field: MeasureText;
+  editable: boolean;
+  testID: string;
+}) {
   return (
     <View style={styles.cell}>
       <Controller

@@ -29,7 +29,10 @@ export function MeasurementsScreen({ id }: { id: string }) {
   const role = useMeQuery().data?.activeShop?.role;
   const canWrite = roleAllows(role, { measurement: ['write'] });
   const sheetList = sheets.data ?? [];
-  const [sheetId, setSheetId] = useCheckedSheet(id, sheetList.map((s) => s.id));
+  const [sheetId, setSheetId] = useCheckedSheet(
+    id,
+    sheetList.map((s) => s.id),
+  );
   const sheet = sheetList.find((s) => s.id === sheetId) ?? null;
   const sheetName = sheet ? `${sheet.title} rev ${sheet.current.number}` : null;
 
@@ -47,8 +50,8 @@ export function MeasurementsScreen({ id }: { id: string }) {
   const ptv = (
     <Section title="Piston-to-valve baseline">
       <Text style={styles.help}>
-        Clearance measured with the old cam, intake and exhaust, at one or more crank angles around overlap TDC. The fit checks add the change in
-        lift from the new profile.
+        Clearance measured with the old cam, intake and exhaust, at one or more crank angles around overlap TDC. The fit checks add the change in lift from the
+        new profile.
       </Text>
       <MeasureForm jobId={id} config={ptvConfig} current={latestOfKind(list, 'ptv-baseline')} canWrite={canWrite} testID="ptv" />
     </Section>
@@ -68,8 +71,7 @@ export function MeasurementsScreen({ id }: { id: string }) {
   const degree = (
     <Section title="Degree wheel">
       <Text style={styles.help}>
-        Piston stops either side of TDC, then the crank angles where the dial shows the same lift on the opening and closing flanks of the
-        number 1 intake lobe.
+        Piston stops either side of TDC, then the crank angles where the dial shows the same lift on the opening and closing flanks of the number 1 intake lobe.
       </Text>
       <MeasureForm
         jobId={id}

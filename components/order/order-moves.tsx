@@ -44,23 +44,21 @@ const formField: Record<string, keyof MoveForm> = {
 
 /** What a move's form must hold before it is sent, field by field (the server checks the same again). */
 function moveFormSchema(to: OrderStage | null) {
-  return z
-    .object({ price: z.string(), leadTime: z.string(), message: z.string(), carrier: z.string(), tracking: z.string() })
-    .superRefine((v, ctx) => {
-      const need = (ok: boolean, path: keyof MoveForm, message: string) => {
-        if (!ok) ctx.addIssue({ code: 'custom', path: [path], message });
-      };
-      if (to === 'quoted') {
-        const days = Number(v.leadTime);
-        need(Number.isFinite(centsFromText(v.price)), 'price', 'Enter the price in dollars, like 485.00');
-        need(v.leadTime.trim() !== '' && Number.isInteger(days) && days >= 0 && days <= 365, 'leadTime', 'Enter the lead time as whole days, 0 to 365');
-      }
-      if (to === 'changes-asked') need(v.message.trim() !== '', 'message', 'Say what should change on the sheet');
-      if (to === 'shipped') {
-        need(v.carrier.trim() !== '', 'carrier', 'Name the carrier');
-        need(v.tracking.trim() !== '', 'tracking', 'Enter the tracking text');
-      }
-    });
+  return z.object({ price: z.string(), leadTime: z.string(), message: z.string(), carrier: z.string(), tracking: z.string() }).superRefine((v, ctx) => {
+    const need = (ok: boolean, path: keyof MoveForm, message: string) => {
+      if (!ok) ctx.addIssue({ code: 'custom', path: [path], message });
+    };
+    if (to === 'quoted') {
+      const days = Number(v.leadTime);
+      need(Number.isFinite(centsFromText(v.price)), 'price', 'Enter the price in dollars, like 485.00');
+      need(v.leadTime.trim() !== '' && Number.isInteger(days) && days >= 0 && days <= 365, 'leadTime', 'Enter the lead time as whole days, 0 to 365');
+    }
+    if (to === 'changes-asked') need(v.message.trim() !== '', 'message', 'Say what should change on the sheet');
+    if (to === 'shipped') {
+      need(v.carrier.trim() !== '', 'carrier', 'Name the carrier');
+      need(v.tracking.trim() !== '', 'tracking', 'Enter the tracking text');
+    }
+  });
 }
 
 /** The request body of a move from its checked form. */

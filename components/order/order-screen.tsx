@@ -26,7 +26,10 @@ export function OrderScreen({ id }: { id: string }) {
     const gone = order.error instanceof ApiError && order.error.status === 404;
     return (
       <Screen title="Grind order" back={back}>
-        <ErrorNotice error={gone ? new Error('This grind order was not sent to or from your shop.') : order.error} onRetry={gone ? undefined : () => order.refetch()} />
+        <ErrorNotice
+          error={gone ? new Error('This grind order was not sent to or from your shop.') : order.error}
+          onRetry={gone ? undefined : () => order.refetch()}
+        />
       </Screen>
     );
   }
@@ -75,7 +78,11 @@ function OrderView({ order, side, back }: { order: OrderDetail; side: OrderSide 
         </Text>
       ) : null}
       {side ? <OrderMoves order={order} side={side} /> : null}
-      {waitingOn ? <Text style={styles.meta}>Next from {waitingOn.by === 'grinder' ? order.grinderShop.name : order.repairShop.name}: {orderStageLabels[waitingOn.to].toLowerCase()}.</Text> : null}
+      {waitingOn ? (
+        <Text style={styles.meta}>
+          Next from {waitingOn.by === 'grinder' ? order.grinderShop.name : order.repairShop.name}: {orderStageLabels[waitingOn.to].toLowerCase()}.
+        </Text>
+      ) : null}
       {order.stage === 'changes-asked' && side === 'builder' ? (
         <Text style={styles.body}>The grinder asked for changes. Save the sheet with the changes, then issue the new revision.</Text>
       ) : null}

@@ -81,7 +81,8 @@ function PrintSheet({ order }: { order: OrderDetail }) {
         <Text style={styles.body}>{r.note || 'No notes on this revision.'}</Text>
       </View>
       <Text style={styles.small}>
-        Both shops confirm they hold the same revision when their checksums match. A revision never changes once issued; changes come as a new revision with a new checksum.
+        Both shops confirm they hold the same revision when their checksums match. A revision never changes once issued; changes come as a new revision with a
+        new checksum.
       </Text>
     </View>
   );

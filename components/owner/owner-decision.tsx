@@ -57,9 +57,7 @@ export function OwnerDecision({ base, view, chosen }: { base: string; view: Owne
           </Text>
         ) : depositCents > 0 ? (
           <>
-            <Text style={styles.body}>
-              To start the work, pay the deposit of {money(depositCents)}. The rest is due when the engine is back together.
-            </Text>
+            <Text style={styles.body}>To start the work, pay the deposit of {money(depositCents)}. The rest is due when the engine is back together.</Text>
             <Button
               label={`Pay the ${money(depositCents)} deposit`}
               busy={deposit.isPending}
@@ -139,7 +137,16 @@ const styles = StyleSheet.create({
   changed: { gap: space.md, padding: space.md, borderRadius: radius.md, borderWidth: 2, borderColor: colors.fail, backgroundColor: colors.failSoft },
   changedText: { ...ownerType.body, color: colors.ink },
   agree: { flexDirection: 'row', alignItems: 'center', gap: space.md, minHeight: 56 },
-  tick: { width: 30, height: 30, borderRadius: radius.sm, borderWidth: 3, borderColor: colors.ink, alignItems: 'center', justifyContent: 'center', backgroundColor: colors.surface },
+  tick: {
+    width: 30,
+    height: 30,
+    borderRadius: radius.sm,
+    borderWidth: 3,
+    borderColor: colors.ink,
+    alignItems: 'center',
+    justifyContent: 'center',
+    backgroundColor: colors.surface,
+  },
   tickOn: { backgroundColor: colors.accent, borderColor: colors.accent },
   tickMark: { color: colors.accentInk, fontFamily: fonts.bold, fontSize: 20, lineHeight: 22 },
   agreeText: { ...ownerType.body, color: colors.ink, flexShrink: 1 },

@@ -42,7 +42,17 @@ export function OwnerSection({ jobId }: { jobId: string }) {
 }
 
 /** Where the owner stands: approved what, and paid what, when. */
-export function OwnerStatus({ desk, error, title = "Owner's decision", children }: { desk: OwnerDesk | undefined; error?: Error | null; title?: string; children?: ReactNode }) {
+export function OwnerStatus({
+  desk,
+  error,
+  title = "Owner's decision",
+  children,
+}: {
+  desk: OwnerDesk | undefined;
+  error?: Error | null;
+  title?: string;
+  children?: ReactNode;
+}) {
   if (!desk) {
     return <Section title={title}>{error ? <ErrorNotice error={error} /> : <Pending label="Loading the owner's decision…" />}</Section>;
   }
@@ -98,7 +108,9 @@ export function OwnerWords({ jobId, desk, findings, canEdit }: { jobId: string; 
             onPress={() => save.mutate({ version: desk.version, whatFailed: text })}
             testID="owner-words-save"
           />
-          {!text.trim() && findings ? <Button label="Start from the findings" variant="quiet" onPress={() => setText(findings)} testID="owner-words-from-findings" /> : null}
+          {!text.trim() && findings ? (
+            <Button label="Start from the findings" variant="quiet" onPress={() => setText(findings)} testID="owner-words-from-findings" />
+          ) : null}
         </View>
       ) : null}
       {save.isSuccess && text.trim() === desk.whatFailed ? (
@@ -138,7 +150,13 @@ export function OwnerOptions({ jobId, desk, canEdit }: { jobId: string; desk: Ow
           {canEdit && !locked ? (
             <View style={styles.row}>
               {o.stale ? (
-                <Button label="Offer the newest revision" variant="secondary" busy={refresh.isPending} onPress={() => refresh.mutate({ id: o.id, version: o.version, refreshRevision: true })} testID={`desk-option-refresh-${i}`} />
+                <Button
+                  label="Offer the newest revision"
+                  variant="secondary"
+                  busy={refresh.isPending}
+                  onPress={() => refresh.mutate({ id: o.id, version: o.version, refreshRevision: true })}
+                  testID={`desk-option-refresh-${i}`}
+                />
               ) : null}
               <Button label="Remove" variant="danger" busy={remove.isPending} onPress={() => remove.mutate(o.id)} testID={`desk-option-remove-${i}`} />
             </View>
@@ -184,7 +202,13 @@ function AddOption({ jobId }: { jobId: string }) {
         name="sheetId"
         render={({ field, fieldState }) => (
           <>
-            <ChoiceGroup label="Spec sheet" value={field.value} choices={list.map((s) => ({ value: s.id, label: `${s.title} (rev ${s.current.number})` }))} onChange={field.onChange} testID="add-option-sheet" />
+            <ChoiceGroup
+              label="Spec sheet"
+              value={field.value}
+              choices={list.map((s) => ({ value: s.id, label: `${s.title} (rev ${s.current.number})` }))}
+              onChange={field.onChange}
+              testID="add-option-sheet"
+            />
             {fieldState.error ? <Text style={styles.warn}>{fieldState.error.message}</Text> : null}
           </>
         )}
@@ -215,7 +239,12 @@ export function ShareLinks({ jobId, desk, canEdit }: { jobId: string; desk: Owne
   const [refused, setRefused] = useState<string | null>(null);
   const form = useForm<LinkDraft, unknown, ShareLinkCreate>({
     defaultValues: blankLink(),
-    resolver: draftResolver<LinkDraft, ShareLinkCreate>([linkDaysSpec], shareLinkCreateSchema, (v) => (v.email.trim() ? { email: v.email.trim() } : {}), calcUnits),
+    resolver: draftResolver<LinkDraft, ShareLinkCreate>(
+      [linkDaysSpec],
+      shareLinkCreateSchema,
+      (v) => (v.email.trim() ? { email: v.email.trim() } : {}),
+      calcUnits,
+    ),
   });
   const submit = form.handleSubmit((link) => {
     setRefused(null);
@@ -236,7 +265,9 @@ export function ShareLinks({ jobId, desk, canEdit }: { jobId: string; desk: Owne
       <Text style={styles.hint}>Anyone with a link can read the owner’s page, approve and pay, without an account. Send it only to the owner.</Text>
       {made ? (
         <View style={styles.made} testID="share-link-made">
-          <Text style={styles.body}>{made.emailed ? `Sent to ${made.link.email}. ` : ''}Copy it now: Lobewright keeps only a fingerprint of it and cannot show it again.</Text>
+          <Text style={styles.body}>
+            {made.emailed ? `Sent to ${made.link.email}. ` : ''}Copy it now: Lobewright keeps only a fingerprint of it and cannot show it again.
+          </Text>
           <Text selectable style={styles.url} testID="share-link-url">
             {made.url}
           </Text>
@@ -274,7 +305,9 @@ export function ShareLinks({ jobId, desk, canEdit }: { jobId: string; desk: Owne
             {l.email ? ` · sent to ${l.email}` : ''}
             {l.lastOpenedAt ? ` · last opened ${formatDateTime(l.lastOpenedAt)}` : ' · not opened yet'}
           </Text>
-          {canEdit && l.state === 'active' ? <Button label="Withdraw" variant="danger" busy={revoke.isPending} onPress={() => revoke.mutate(l.id)} testID="share-link-revoke" /> : null}
+          {canEdit && l.state === 'active' ? (
+            <Button label="Withdraw" variant="danger" busy={revoke.isPending} onPress={() => revoke.mutate(l.id)} testID="share-link-revoke" />
+          ) : null}
         </View>
       ))}
     </Section>

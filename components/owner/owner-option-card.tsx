@@ -28,9 +28,7 @@ export function OwnerOptionCard({ option, currency, referenceTitle, chosen, onCh
         <Text role="heading" aria-level={3} style={styles.title}>
           {option.title}
         </Text>
-        {approved ? (
-          <Chip label="Approved" tone="confirmed" look="large" testID="owner-option-approved" />
-        ) : null}
+        {approved ? <Chip label="Approved" tone="confirmed" look="large" testID="owner-option-approved" /> : null}
       </View>
       <View style={styles.prices}>
         <Figure label="Price" value={formatCents(option.priceCents, currency)} />

@@ -54,7 +54,9 @@ export function OwnerSummary({ base }: { base: string }) {
           <Text role="heading" aria-level={1} style={styles.title}>
             Your {v.vehicle}
           </Text>
-          <Text style={styles.small}>Prepared for {v.customerName}. This page works until {new Date(v.expiresAt).toLocaleDateString('en-US', { dateStyle: 'long' })}.</Text>
+          <Text style={styles.small}>
+            Prepared for {v.customerName}. This page works until {new Date(v.expiresAt).toLocaleDateString('en-US', { dateStyle: 'long' })}.
+          </Text>
         </View>
         {confirm.isPending ? <Pending label="Checking your payment…" /> : null}
         {v.approval ? (

@@ -51,7 +51,11 @@ export function ProfileForm({ profile, readOnly, submitLabel, busy, onSubmit, on
   const [outcome, setOutcome] = useState<SaveOutcome | null>(null);
   const [reloading, setReloading] = useState(false);
 
-  const { form, units: converter, loadError } = useDraftForm<ProfileDraft, ProfileValues>({
+  const {
+    form,
+    units: converter,
+    loadError,
+  } = useDraftForm<ProfileDraft, ProfileValues>({
     specs: profileNumberList,
     schema: profileCreateSchema,
     others: (values) => ({ label: values.label, coreNotes: values.coreNotes }),
@@ -127,30 +131,28 @@ export function ProfileForm({ profile, readOnly, submitLabel, busy, onSubmit, on
       actions={
         <>
           <Button label={busy ? 'Saving…' : submitLabel} onPress={submit} busy={busy} disabled={!converter} testID="profile-save" />
-          {formState.isDirty && profile ? (
-            <Button label="Discard changes" variant="quiet" onPress={() => reset()} testID="profile-discard" />
-          ) : null}
+          {formState.isDirty && profile ? <Button label="Discard changes" variant="quiet" onPress={() => reset()} testID="profile-discard" /> : null}
         </>
       }
     >
       {converter ? (
         <>
-        <View style={wide ? styles.columns : styles.stack}>
-          {sides.map((side) => (
-            <View key={side} style={wide ? styles.column : undefined}>
-              <LobeSection side={side} control={control} units={converter} editable={editable} />
-            </View>
-          ))}
-        </View>
-        <Section title="Timing and base circle">
           <View style={wide ? styles.columns : styles.stack}>
-            {[specs.lsa, specs.icl, specs.baseCircle].map((spec) => (
-              <View key={spec.path} style={wide ? styles.column : undefined}>
-                <DraftField control={control} spec={spec} units={converter} editable={editable} testPrefix="profile" />
+            {sides.map((side) => (
+              <View key={side} style={wide ? styles.column : undefined}>
+                <LobeSection side={side} control={control} units={converter} editable={editable} />
               </View>
             ))}
           </View>
-        </Section>
+          <Section title="Timing and base circle">
+            <View style={wide ? styles.columns : styles.stack}>
+              {[specs.lsa, specs.icl, specs.baseCircle].map((spec) => (
+                <View key={spec.path} style={wide ? styles.column : undefined}>
+                  <DraftField control={control} spec={spec} units={converter} editable={editable} testPrefix="profile" />
+                </View>
+              ))}
+            </View>
+          </Section>
         </>
       ) : null}
     </DraftFormFrame>

@@ -180,10 +180,7 @@ function CopyRow({ job, profileId }: { job: Job; profileId: string }) {
         busy={copy.isPending}
         accessibilityLabel={`Copy into ${job.vehicle}`}
         onPress={() =>
-          copy.mutate(
-            { fromProfileId: profileId },
-            { onSuccess: (created) => router.push({ pathname: '/profiles/[id]', params: { id: created.id } }) },
-          )
+          copy.mutate({ fromProfileId: profileId }, { onSuccess: (created) => router.push({ pathname: '/profiles/[id]', params: { id: created.id } }) })
         }
         testID={`profile-copy-${job.id}`}
       />

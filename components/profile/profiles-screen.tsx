@@ -33,9 +33,7 @@ export function ProfilesScreen() {
         <ErrorNotice error={profiles.error} onRetry={() => profiles.refetch()} />
       ) : profiles.data.length === 0 ? (
         <EmptyState title="No profiles in the library yet">
-          {canWrite ? (
-            <Button label="Write the first profile" variant="secondary" onPress={startNew} testID="empty-new-profile" />
-          ) : null}
+          {canWrite ? <Button label="Write the first profile" variant="secondary" onPress={startNew} testID="empty-new-profile" /> : null}
         </EmptyState>
       ) : (
         <View style={[styles.list, wide && styles.grid]} role="list" aria-label="Profiles">

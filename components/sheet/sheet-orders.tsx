@@ -29,7 +29,8 @@ export function IssuePanel({ sheet }: { sheet: SheetWithHistory }) {
     return (
       <Section title="Issue to a grinder">
         <Text style={styles.body} testID="issue-frozen">
-          Revision {current.number} is issued and frozen. To send changes, save a new note or values: that starts revision {current.number + 1} as a draft you can issue.
+          Revision {current.number} is issued and frozen. To send changes, save a new note or values: that starts revision {current.number + 1} as a draft you
+          can issue.
         </Text>
       </Section>
     );
@@ -37,9 +38,7 @@ export function IssuePanel({ sheet }: { sheet: SheetWithHistory }) {
   const chosen = shops.data?.find((s) => s.id === shopId);
   return (
     <Section title="Issue to a grinder">
-      <Text style={styles.meta}>
-        Issuing freezes revision {current.number} for good. The grinder sees this revision only, never a draft.
-      </Text>
+      <Text style={styles.meta}>Issuing freezes revision {current.number} for good. The grinder sees this revision only, never a draft.</Text>
       {shops.isPending ? <Pending label="Loading grinding shops…" /> : null}
       {shops.isError ? <ErrorNotice error={shops.error} onRetry={() => shops.refetch()} /> : null}
       {shops.data && shops.data.length === 0 ? <EmptyState title="No grinding shops on Lobewright yet" /> : null}
@@ -163,7 +162,17 @@ const styles = StyleSheet.create({
   label: { ...typeScale.label, color: colors.ink },
   mono: { fontFamily: fonts.mono, color: colors.ink },
   row: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
-  note: { ...typeScale.body, minHeight: 80, padding: space.sm, borderWidth: 1.5, borderColor: colors.lineStrong, borderRadius: radius.md, backgroundColor: colors.surface, color: colors.ink, textAlignVertical: 'top' },
+  note: {
+    ...typeScale.body,
+    minHeight: 80,
+    padding: space.sm,
+    borderWidth: 1.5,
+    borderColor: colors.lineStrong,
+    borderRadius: radius.md,
+    backgroundColor: colors.surface,
+    color: colors.ink,
+    textAlignVertical: 'top',
+  },
   confirm: { gap: space.md, padding: space.md, borderRadius: radius.md, borderWidth: 1, borderColor: colors.accent, backgroundColor: colors.accentSoft },
   list: { gap: space.md },
   item: { gap: space.sm, padding: space.md, borderRadius: radius.md, borderWidth: 1, borderColor: colors.line },

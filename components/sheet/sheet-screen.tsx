@@ -103,14 +103,7 @@ function NoteEditor({ sheet }: { sheet: SheetWithHistory }) {
       <Text style={styles.meta}>
         {issued ? 'This revision is issued and will not change: saving starts the next revision.' : 'The draft can change until it is issued.'}
       </Text>
-      <TextInput
-        accessibilityLabel="Note for this revision"
-        value={note}
-        onChangeText={setNote}
-        multiline
-        style={styles.note}
-        testID="sheet-note"
-      />
+      <TextInput accessibilityLabel="Note for this revision" value={note} onChangeText={setNote} multiline style={styles.note} testID="sheet-note" />
       {save.isError ? <ErrorNotice error={save.error} /> : null}
       <Button
         label={issued ? `Save as revision ${sheet.current.number + 1}` : 'Save note'}
@@ -136,7 +129,9 @@ function RevisionDiff({ revisions }: { revisions: Revision[] }) {
       <ChoiceGroup label="From" value={String(a)} choices={choices} onChange={(v) => setA(Number(v))} testID="diff-from" />
       <ChoiceGroup label="To" value={String(b)} choices={choices} onChange={(v) => setB(Number(v))} testID="diff-to" />
       {changes.length === 0 ? (
-        <Text style={styles.body}>Revisions {a} and {b} hold the same values.</Text>
+        <Text style={styles.body}>
+          Revisions {a} and {b} hold the same values.
+        </Text>
       ) : (
         <View role="table" aria-label={`Changes from revision ${a} to ${b}`} testID="revision-diff">
           {changes.map((c) => (
@@ -161,17 +156,44 @@ const styles = StyleSheet.create({
   main: { flex: 3, minWidth: 0 },
   side: { flex: 2, minWidth: 0 },
   badges: { flexDirection: 'row', alignItems: 'center', gap: space.sm, flexWrap: 'wrap' },
-  state: { fontFamily: fonts.bold, fontSize: 12, textTransform: 'uppercase', letterSpacing: 0.5, paddingHorizontal: space.sm, paddingVertical: 2, borderRadius: radius.sm, overflow: 'hidden' },
+  state: {
+    fontFamily: fonts.bold,
+    fontSize: 12,
+    textTransform: 'uppercase',
+    letterSpacing: 0.5,
+    paddingHorizontal: space.sm,
+    paddingVertical: 2,
+    borderRadius: radius.sm,
+    overflow: 'hidden',
+  },
   draft: { color: colors.ink, backgroundColor: colors.sunken },
   issued: { color: colors.accentInk, backgroundColor: colors.accent },
   meta: { ...typeScale.small, color: colors.inkMuted },
   body: { ...typeScale.body, color: colors.ink },
   history: { gap: space.xs },
-  historyItem: { flexDirection: 'row', alignItems: 'center', gap: space.sm, padding: space.sm, borderRadius: radius.md, borderWidth: 1, borderColor: colors.line },
+  historyItem: {
+    flexDirection: 'row',
+    alignItems: 'center',
+    gap: space.sm,
+    padding: space.sm,
+    borderRadius: radius.md,
+    borderWidth: 1,
+    borderColor: colors.line,
+  },
   historyActive: { borderColor: colors.accent, backgroundColor: colors.accentSoft },
   historyTitle: { fontFamily: fonts.semibold, fontSize: 15, color: colors.ink },
   grow: { flex: 1, gap: 2 },
-  note: { ...typeScale.body, minHeight: 80, padding: space.sm, borderWidth: 1.5, borderColor: colors.lineStrong, borderRadius: radius.md, backgroundColor: colors.surface, color: colors.ink, textAlignVertical: 'top' },
+  note: {
+    ...typeScale.body,
+    minHeight: 80,
+    padding: space.sm,
+    borderWidth: 1.5,
+    borderColor: colors.lineStrong,
+    borderRadius: radius.md,
+    backgroundColor: colors.surface,
+    color: colors.ink,
+    textAlignVertical: 'top',
+  },
   diffRow: { paddingVertical: space.xs, borderBottomWidth: 1, borderBottomColor: colors.grid, gap: 2 },
   diffLabel: { ...typeScale.small, color: colors.inkMuted },
   diffValue: { ...typeScale.number, fontSize: 14, color: colors.ink },

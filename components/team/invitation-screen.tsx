@@ -32,8 +32,15 @@ export function InvitationScreen({ id }: { id: string }) {
   if (invitation.isError) {
     const missing = invitation.error instanceof ApiError && invitation.error.status === 404;
     return (
-      <AuthCard title={missing ? 'No invitation for you here' : 'The invitation did not open'} intro={missing ? `This invitation was not sent to ${me.data!.user.email}.` : ''}>
-        {missing ? <Text style={styles.body}>Sign in with the address the mail went to.</Text> : <ErrorNotice error={invitation.error} onRetry={() => invitation.refetch()} />}
+      <AuthCard
+        title={missing ? 'No invitation for you here' : 'The invitation did not open'}
+        intro={missing ? `This invitation was not sent to ${me.data!.user.email}.` : ''}
+      >
+        {missing ? (
+          <Text style={styles.body}>Sign in with the address the mail went to.</Text>
+        ) : (
+          <ErrorNotice error={invitation.error} onRetry={() => invitation.refetch()} />
+        )}
         <Button label="Go to Lobewright" href="/" variant="secondary" testID="invitation-home" />
       </AuthCard>
     );
@@ -51,12 +58,25 @@ export function InvitationScreen({ id }: { id: string }) {
   return (
     <AuthCard title={title} intro={intro}>
       <Text style={styles.status} testID="invitation-status">
-        {view.status === 'pending' && !view.verified ? 'Verify your e-mail address first: open the link in the mail we sent you. The shop opens as soon as you do.' : intro}
+        {view.status === 'pending' && !view.verified
+          ? 'Verify your e-mail address first: open the link in the mail we sent you. The shop opens as soon as you do.'
+          : intro}
       </Text>
       {view.status === 'pending' && view.verified ? (
         <View style={styles.buttons}>
-          <Button label={`Join ${view.shopName}`} busy={answer.isPending && answer.variables === 'accept'} onPress={() => answer.mutate('accept')} testID="invitation-accept" />
-          <Button label="Decline" variant="secondary" busy={answer.isPending && answer.variables === 'decline'} onPress={() => answer.mutate('decline')} testID="invitation-decline" />
+          <Button
+            label={`Join ${view.shopName}`}
+            busy={answer.isPending && answer.variables === 'accept'}
+            onPress={() => answer.mutate('accept')}
+            testID="invitation-accept"
+          />
+          <Button
+            label="Decline"
+            variant="secondary"
+            busy={answer.isPending && answer.variables === 'decline'}
+            onPress={() => answer.mutate('decline')}
+            testID="invitation-decline"
+          />
         </View>
       ) : (
         <Button label="Go to Lobewright" href="/" testID="invitation-home" />

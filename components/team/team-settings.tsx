@@ -4,13 +4,7 @@ import { Controller, useForm } from 'react-hook-form';
 import { StyleSheet, Text, View } from 'react-native';
 
 import { colors, radius, space, type as typeScale } from '@/constants/theme';
-import {
-  useChangeRoleMutation,
-  useInviteMutation,
-  useRemoveMemberMutation,
-  useTeamQuery,
-  useWithdrawInvitationMutation,
-} from '@/hooks/use-team';
+import { useChangeRoleMutation, useInviteMutation, useRemoveMemberMutation, useTeamQuery, useWithdrawInvitationMutation } from '@/hooks/use-team';
 import { roleLabels, type ShopRole } from '@/shared/roles';
 import { inviteSchema, type InviteInput, type Team, type TeamInvitation, type TeamMember } from '@/shared/team';
 
@@ -151,7 +145,9 @@ function InviteForm({ team }: { team: Team }) {
         <Controller
           control={control}
           name="role"
-          render={({ field }) => <ChoiceGroup label="Role" value={field.value} choices={roleChoices(team.roles)} onChange={field.onChange} testID="invite-role" />}
+          render={({ field }) => (
+            <ChoiceGroup label="Role" value={field.value} choices={roleChoices(team.roles)} onChange={field.onChange} testID="invite-role" />
+          )}
         />
       ) : null}
       {formError ? <ErrorNotice error={new Error(formError)} /> : null}

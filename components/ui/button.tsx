@@ -24,12 +24,7 @@ export function Button({ label, variant = 'primary', busy = false, disabled, hre
       onPress={href ? () => router.push(href) : onPress}
       accessibilityState={{ disabled: off, busy }}
       disabled={off}
-      style={({ pressed }) => [
-        styles.base,
-        styles[variant],
-        pressed && !off && pressedStyles[variant],
-        off && styles.off,
-      ]}
+      style={({ pressed }) => [styles.base, styles[variant], pressed && !off && pressedStyles[variant], off && styles.off]}
       {...rest}
     >
       {busy ? <ActivityIndicator size="small" color={textColor[variant]} /> : null}

@@ -43,11 +43,7 @@ export function FormField<T extends FieldValues, TOut = T>({ control, name, ...r
 }
 
 /** Puts the server's per-field messages on the form; returns the message for anything not tied to a field. */
-export function applyServerErrors<T extends FieldValues>(
-  error: unknown,
-  setError: UseFormSetError<T>,
-  known: readonly string[],
-): string | null {
+export function applyServerErrors<T extends FieldValues>(error: unknown, setError: UseFormSetError<T>, known: readonly string[]): string | null {
   if (!(error instanceof ApiError)) return error instanceof Error ? error.message : 'Something went wrong.';
   let unplaced: string | null = null;
   for (const [field, message] of Object.entries(error.fields)) {

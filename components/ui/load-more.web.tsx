@@ -11,9 +11,12 @@ export function LoadMore(props: LoadMoreProps) {
     // react-native-web renders a View as a DOM element.
     const node = anchor.current as unknown as Element | null;
     if (!node || !hasMore || loading || typeof IntersectionObserver === 'undefined') return;
-    const observer = new IntersectionObserver((entries) => {
-      if (entries.some((e) => e.isIntersecting)) onLoadMore();
-    }, { rootMargin: '0px 0px 600px 0px' });
+    const observer = new IntersectionObserver(
+      (entries) => {
+        if (entries.some((e) => e.isIntersecting)) onLoadMore();
+      },
+      { rootMargin: '0px 0px 600px 0px' },
+    );
     observer.observe(node);
     return () => observer.disconnect();
   }, [hasMore, loading, onLoadMore]);

@@ -1,17 +1,7 @@
 import { useEffect, useRef } from 'react';
 import { Controller, useForm, type Control, type DefaultValues, type FieldErrors, type FieldPath, type FieldValues, type Resolver } from 'react-hook-form';
 
-import {
-  draftFromText,
-  rangeText,
-  resolveDrafts,
-  setAt,
-  shownText,
-  shownUnit,
-  type NumberDraft,
-  type NumberSpec,
-  type ShownUnits,
-} from '@/lib/number-draft';
+import { draftFromText, rangeText, resolveDrafts, setAt, shownText, shownUnit, type NumberDraft, type NumberSpec, type ShownUnits } from '@/lib/number-draft';
 
 import { useUnits } from '@/state/units';
 

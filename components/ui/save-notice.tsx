@@ -13,12 +13,7 @@ export type SaveOutcome = { kind: 'saved'; message: string } | { kind: 'conflict
  * Sorts a failed save into a notice, putting a 400's field messages on the
  * fields the form shows (`place`) and naming the rest in the notice.
  */
-export function outcomeOfError(
-  error: unknown,
-  known: readonly string[],
-  prefix: string,
-  place: (path: string, message: string) => void,
-): SaveOutcome {
+export function outcomeOfError(error: unknown, known: readonly string[], prefix: string, place: (path: string, message: string) => void): SaveOutcome {
   if (error instanceof ApiError && error.status === 409) return { kind: 'conflict', message: error.message };
   if (error instanceof ApiError && Object.keys(error.fields).length > 0) {
     const { placed, other } = placeServerFields(error.fields, known, prefix);

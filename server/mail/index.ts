@@ -45,7 +45,13 @@ export function createMailer({ db, smtpUrl }: CreateMailerOptions): Mailer {
 }
 
 /** Queues one message to each person in the caller's transaction; returns how many were queued. */
-export function queueEach<P extends { email: string }>(mailer: Mailer, tx: Writer, people: readonly P[], build: (person: P) => MailMessage, shopId: string | null): number {
+export function queueEach<P extends { email: string }>(
+  mailer: Mailer,
+  tx: Writer,
+  people: readonly P[],
+  build: (person: P) => MailMessage,
+  shopId: string | null,
+): number {
   for (const person of people) mailer.queue(tx, build(person), shopId);
   return people.length;
 }

@@ -138,7 +138,11 @@ describe('mail sender (SMTP_URL set)', () => {
     const smtp = await smtpReceiver((subject, seen) => (subject === 'Mail 2' || seen === 1 ? 451 : 'accept'));
     cleanups.push(smtp.close);
     const db = openDb(':memory:');
-    const shop = db.insert(schema.shops).values({ id: 'shop-1', name: 'Mail test shop', slug: 'mail-test', kind: 'repair', createdAt: new Date() }).returning().get();
+    const shop = db
+      .insert(schema.shops)
+      .values({ id: 'shop-1', name: 'Mail test shop', slug: 'mail-test', kind: 'repair', createdAt: new Date() })
+      .returning()
+      .get();
     const sender = createMailSender({ db, smtpUrl: smtp.url, maxAttempts: 3, backoffMs: () => 60_000 });
     cleanups.push(() => sender.stop());
     db.transaction((tx) => [1, 2].forEach((n) => queueMail(tx, message(n), 'pending', shop.id)));
@@ -158,7 +162,11 @@ describe('mail sender (SMTP_URL set)', () => {
     expect(await sender.runDue()).toBe(0);
     expect(outbox(db).every((m) => m.attempts === 1)).toBe(true);
 
-    const makeDue = () => db.update(schema.outbox).set({ nextAttemptAt: new Date(0) }).run();
+    const makeDue = () =>
+      db
+        .update(schema.outbox)
+        .set({ nextAttemptAt: new Date(0) })
+        .run();
     makeDue();
     expect(await sender.runDue()).toBe(1);
     makeDue();
@@ -166,7 +174,9 @@ describe('mail sender (SMTP_URL set)', () => {
     const byId = Object.fromEntries(outbox(db).map((m) => [m.subject, m]));
     expect(byId['Mail 1']).toMatchObject({ status: 'sent', attempts: 2 });
     expect(byId['Mail 2']).toMatchObject({ status: 'failed', attempts: 3 });
-    expect(failedMail(db, shop.id)).toEqual([expect.objectContaining({ subject: 'Mail 2', to: 'person2@example.test', attempts: 3, lastError: expect.stringMatching(/451/) })]);
+    expect(failedMail(db, shop.id)).toEqual([
+      expect.objectContaining({ subject: 'Mail 2', to: 'person2@example.test', attempts: 3, lastError: expect.stringMatching(/451/) }),
+    ]);
     expect(failedMail(db, 'another-shop')).toEqual([]);
     expect(smtp.received.map((r) => r.subject)).toEqual(['Mail 1']);
   });

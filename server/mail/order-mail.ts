@@ -76,5 +76,12 @@ function content(kind: OrderMailKind, f: OrderMailFacts): { subject: string; lin
 /** One order e-mail to one person, with a plain-text and an HTML part that both link to the order. */
 export function orderMail(kind: OrderMailKind, to: { email: string; name: string }, facts: OrderMailFacts): MailMessage {
   const { subject, lines, action } = content(kind, facts);
-  return composeMail({ to, subject, lines, action, link: orderLink(facts.publicUrl, facts.orderId), footer: 'Sent by Lobewright for the shops on this order.' });
+  return composeMail({
+    to,
+    subject,
+    lines,
+    action,
+    link: orderLink(facts.publicUrl, facts.orderId),
+    footer: 'Sent by Lobewright for the shops on this order.',
+  });
 }

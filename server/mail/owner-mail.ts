@@ -63,13 +63,26 @@ export function ownerEventMail(kind: 'approved' | 'paid', to: Person, f: OwnerEv
           subject: `Deposit paid: ${amount} for the ${f.vehicle}`,
           lines: [`The deposit of ${amount} for "${f.optionTitle}" on the ${f.vehicle} is paid.`, `Approved revision checksum: ${f.checksum}.`],
         };
-  return composeMail({ to, ...content, action: "Open the job's owner page", link: ownerDeskUrl(f.publicUrl, f.jobId), footer: 'Sent by Lobewright for your shop.' });
+  return composeMail({
+    to,
+    ...content,
+    action: "Open the job's owner page",
+    link: ownerDeskUrl(f.publicUrl, f.jobId),
+    footer: 'Sent by Lobewright for your shop.',
+  });
 }
 
 type BuilderMailDeps = { mailer: Mailer; publicUrl: string };
 
 /** Queues mail to every builder of the shop about the owner's approval or payment, in the transaction that recorded it. */
-export function queueBuilderMail(tx: Writer, { mailer, publicUrl }: BuilderMailDeps, kind: 'approved' | 'paid', jobId: string, shopId: string, facts: Omit<OwnerEventFacts, 'publicUrl' | 'jobId' | 'vehicle'>) {
+export function queueBuilderMail(
+  tx: Writer,
+  { mailer, publicUrl }: BuilderMailDeps,
+  kind: 'approved' | 'paid',
+  jobId: string,
+  shopId: string,
+  facts: Omit<OwnerEventFacts, 'publicUrl' | 'jobId' | 'vehicle'>,
+) {
   const vehicle = jobVehicle(tx, jobId) ?? 'vehicle';
   queueEach(mailer, tx, recipients(tx, shopId, 'builder'), (person) => ownerEventMail(kind, person, { ...facts, publicUrl, jobId, vehicle }), shopId);
 }

@@ -41,7 +41,15 @@ export const messageIdOf = (row: Pick<OutboxRow, 'id'>) => `<${row.id}@${os.host
  * after the last try the mail is marked failed and shown to its shop. A mail is only marked sent after
  * the server accepted it, so a sender killed midway leaves it to be sent by the next one, not lost.
  */
-export function createMailSender({ db, smtpUrl, from = defaultMailFrom, maxAttempts = 6, backoffMs = defaultBackoffMs, leaseMs = 120_000, pollMs = 5_000 }: MailSenderOptions): MailSender {
+export function createMailSender({
+  db,
+  smtpUrl,
+  from = defaultMailFrom,
+  maxAttempts = 6,
+  backoffMs = defaultBackoffMs,
+  leaseMs = 120_000,
+  pollMs = 5_000,
+}: MailSenderOptions): MailSender {
   const transport = nodemailer.createTransport(smtpUrl);
   let running: Promise<number> | null = null;
   let again = false;

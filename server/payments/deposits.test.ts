@@ -20,7 +20,10 @@ describe('deposit payment', () => {
     const s = await sharedJob(name);
     const o = owner();
     const option = ((await o.get(`/api/share/${s.token}`)).body.view as OwnerView).options[0]!;
-    expect((await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, offer: option.offer, name: 'Test Owner', agree: true })).status).toBe(201);
+    expect(
+      (await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, offer: option.offer, name: 'Test Owner', agree: true }))
+        .status,
+    ).toBe(201);
     return { ...s, o };
   }
 
@@ -49,7 +52,13 @@ describe('deposit payment', () => {
     expect(confirm.body.payment.state).toBe('paid');
     const desk = (await s.builder.get(`/api/jobs/${s.jobId}/owner`)).body.desk;
     expect(desk.payments[0]).toMatchObject({ state: 'paid', amountCents: 22_500 });
-    expect(t.db.select().from(schema.outbox).all().some((m) => m.to === s.builder.email && m.subject.startsWith('Deposit paid: $225.00'))).toBe(true);
+    expect(
+      t.db
+        .select()
+        .from(schema.outbox)
+        .all()
+        .some((m) => m.to === s.builder.email && m.subject.startsWith('Deposit paid: $225.00')),
+    ).toBe(true);
     expect((await s.o.post(`/api/share/${s.token}/deposit`)).status).toBe(409);
   });
 
@@ -76,7 +85,10 @@ describe('deposits that cannot be forged or paid twice (findings 2 and 3)', () =
     const s = await sharedJob(name);
     const o = owner();
     const option = ((await o.get(`/api/share/${s.token}`)).body.view as OwnerView).options[0]!;
-    expect((await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, offer: option.offer, name: 'Test Owner', agree: true })).status).toBe(201);
+    expect(
+      (await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, offer: option.offer, name: 'Test Owner', agree: true }))
+        .status,
+    ).toBe(201);
     const rows = () => t.db.select().from(schema.payments).where(eq(schema.payments.jobId, s.jobId)).all();
     return { ...s, o, rows };
   }
@@ -115,7 +127,12 @@ describe('deposits that cannot be forged or paid twice (findings 2 and 3)', () =
     expect(Object.keys(res.body.error.fields).sort()).toEqual(['data.object.amount_total', 'data.object.currency']);
     expect(s.rows()).toMatchObject([{ state: 'open', amountCents: 22_500, currency: 'usd', paidAt: null }]);
     expect(t.db.select().from(schema.paymentEvents).where(eq(schema.paymentEvents.id, 'evt_test_one_unit_elsewhere')).get()?.outcome).toBe('refused');
-    const refusal = t.db.select().from(schema.auditLog).where(eq(schema.auditLog.entityId, s.rows()[0]!.id)).all().find((a) => a.action === 'refuse');
+    const refusal = t.db
+      .select()
+      .from(schema.auditLog)
+      .where(eq(schema.auditLog.entityId, s.rows()[0]!.id))
+      .all()
+      .find((a) => a.action === 'refuse');
     expect(refusal?.detail).toMatchObject({ expected: { amountCents: 22_500, currency: 'usd' }, reported: { amountCents: 1, currency: 'jpy' } });
     expect(((await s.o.get(`/api/share/${s.token}`)).body.view as OwnerView).payment?.state).toBe('open');
   });
@@ -146,7 +163,12 @@ describe('deposits that cannot be forged or paid twice (findings 2 and 3)', () =
     const second = await s.o.post(`/api/share/${s.token}/deposit`);
     expect(second.status).toBe(201);
     expect(second.body.url).not.toBe(first);
-    expect(s.rows().map((p) => p.state).sort()).toEqual(['expired', 'open']);
+    expect(
+      s
+        .rows()
+        .map((p) => p.state)
+        .sort(),
+    ).toEqual(['expired', 'open']);
   });
 
   it('refunds a second paid session through the payment service and counts the deposit once', async () => {
@@ -159,7 +181,19 @@ describe('deposits that cannot be forged or paid twice (findings 2 and 3)', () =
       success_url: `${t.url}/share/back`,
       line_items: [{ quantity: 1, price_data: { currency: 'usd', unit_amount: 22_500, product_data: { name: 'Deposit' } } }],
     });
-    t.db.insert(schema.payments).values({ id: crypto.randomUUID(), shopId: s.shopId, jobId: s.jobId, approvalId: approval.id, checkoutSessionId: late.id, amountCents: 22_500, currency: 'usd', state: 'expired' }).run();
+    t.db
+      .insert(schema.payments)
+      .values({
+        id: crypto.randomUUID(),
+        shopId: s.shopId,
+        jobId: s.jobId,
+        approvalId: approval.id,
+        checkoutSessionId: late.id,
+        amountCents: 22_500,
+        currency: 'usd',
+        state: 'expired',
+      })
+      .run();
     await t.paymentService.pay(sessionOf(firstUrl));
     await t.paymentService.pay(late.id);
     const rows = s.rows();
@@ -172,6 +206,12 @@ describe('deposits that cannot be forged or paid twice (findings 2 and 3)', () =
     const desk = (await s.builder.get(`/api/jobs/${s.jobId}/owner`)).body.desk;
     expect(desk.payments.map((p: { state: string }) => p.state).sort()).toEqual(['paid', 'refunded']);
     // One "paid" mail to the builder, not two.
-    expect(t.db.select().from(schema.outbox).all().filter((m) => m.to === s.builder.email && m.subject.startsWith('Deposit paid'))).toHaveLength(1);
+    expect(
+      t.db
+        .select()
+        .from(schema.outbox)
+        .all()
+        .filter((m) => m.to === s.builder.email && m.subject.startsWith('Deposit paid')),
+    ).toHaveLength(1);
   });
 });

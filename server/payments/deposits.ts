@@ -47,7 +47,9 @@ async function openSession(db: Db, service: Payments, payment: PaymentRow, optio
         metadata: { paymentId: payment.id, jobId: payment.jobId },
         success_url: `${back}?deposit={CHECKOUT_SESSION_ID}`,
         cancel_url: back,
-        line_items: [{ quantity: 1, price_data: { currency: payment.currency, unit_amount: payment.amountCents, product_data: { name: `Deposit: ${optionTitle}` } } }],
+        line_items: [
+          { quantity: 1, price_data: { currency: payment.currency, unit_amount: payment.amountCents, product_data: { name: `Deposit: ${optionTitle}` } } },
+        ],
       },
       { idempotencyKey: `deposit-${payment.id}` },
     );

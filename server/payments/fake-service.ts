@@ -168,7 +168,15 @@ export function createFakePaymentService({ webhookUrl, webhookSecret, apiKey }: 
     const session = [...sessions.values()].find((s) => s.payment_intent === intent && intent !== '');
     if (!session) return apiError(res, 404, `No such payment_intent: '${intent}'`, 'payment_intent');
     if ([...refunds.values()].some((r) => r.payment_intent === intent)) return apiError(res, 400, 'This payment has already been refunded', 'payment_intent');
-    const refund: Refund = { id: randomId('re'), object: 'refund', amount: session.amount_total, currency: session.currency, payment_intent: intent, status: 'succeeded', created: Math.floor(Date.now() / 1000) };
+    const refund: Refund = {
+      id: randomId('re'),
+      object: 'refund',
+      amount: session.amount_total,
+      currency: session.currency,
+      payment_intent: intent,
+      status: 'succeeded',
+      created: Math.floor(Date.now() / 1000),
+    };
     refunds.set(refund.id, refund);
     res.json(refund);
   });

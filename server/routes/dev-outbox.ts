@@ -8,7 +8,12 @@ import { outboxMessage, outboxRows, toOutboxMessage, type OutboxRow } from '../s
 
 /** A page of the mailbox: newest first; the cursor is the last message's time and id. */
 const pageQuery = z.strictObject({
-  limit: z.coerce.number({ error: 'limit must be a number' }).int('limit is a whole number').min(1, 'limit is at least 1').max(200, 'limit is at most 200').default(50),
+  limit: z.coerce
+    .number({ error: 'limit must be a number' })
+    .int('limit is a whole number')
+    .min(1, 'limit is at least 1')
+    .max(200, 'limit is at most 200')
+    .default(50),
   cursor: z.string().max(200).optional(),
 });
 

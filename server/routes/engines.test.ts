@@ -2,14 +2,7 @@ import { and, eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { schema } from '@/db';
-import {
-  createTestApp,
-  makeEngineSpec,
-  makeJobBody,
-  makeShop,
-  memberWithRole,
-  type TestApp,
-} from '@/tests/fixtures';
+import { createTestApp, makeEngineSpec, makeJobBody, makeShop, memberWithRole, type TestApp } from '@/tests/fixtures';
 
 let t: TestApp;
 beforeAll(async () => {

@@ -141,7 +141,13 @@ describe('fit checks', () => {
     const engine = makeEngineSpec();
     const predictions = intake.map((baseline) => {
       const offsetOf = (b: typeof baseline) =>
-        ptvSweep({ stroke: engine.stroke, rodLength: engine.rodLength, valveAngle: engine.valveAngle, baseline: b, curve: { start: -90, step: 0.5, lift: new Float64Array(361) } });
+        ptvSweep({
+          stroke: engine.stroke,
+          rodLength: engine.rodLength,
+          valveAngle: engine.valveAngle,
+          baseline: b,
+          curve: { start: -90, step: 0.5, lift: new Float64Array(361) },
+        });
       return offsetOf(baseline).clearance[0]!;
     });
     const governing = predictions[0]! < predictions[1]! ? intake[0] : intake[1];

@@ -146,7 +146,10 @@ describe('lobe table upload', () => {
     const { shopId, jobId } = await shopWithJob();
     const tech = await memberWithRole(t, shopId, 'tech');
     const text = fs.readFileSync(demoLobesFile, 'utf8');
-    const res = await tech.upload(`/api/jobs/${jobId}/measurements/lobes`, formWith([['file', 'lobes-demo.csv', text, 'text/csv']], { note: 'Old cam on V-blocks' }));
+    const res = await tech.upload(
+      `/api/jobs/${jobId}/measurements/lobes`,
+      formWith([['file', 'lobes-demo.csv', text, 'text/csv']], { note: 'Old cam on V-blocks' }),
+    );
     expect(res.status).toBe(201);
     const m = res.body.measurement;
     expect(m).toMatchObject({ kind: 'lobes', note: 'Old cam on V-blocks', data: { basis: 'crank', fileName: 'lobes-demo.csv' } });

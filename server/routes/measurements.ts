@@ -80,11 +80,17 @@ export function measurementsRouter({ db, auth }: AppDeps) {
     const sentNote = typeof body === 'object' && body !== null && 'note' in body ? body.note : undefined;
     const note = parse(measurementPatchSchema.pick({ note: true }), { note: sentNote }).note ?? '';
     const data = parse(lobesSchema, parseLobeTable(text, file.originalname));
-    const measurement = createMeasurement(db, actorOf(ctx), jobId, { kind: 'lobes', data, note }, {
-      fileName: data.fileName,
-      lobes: data.lobes.length,
-      rows: data.lobes[0]?.points.length ?? 0,
-    });
+    const measurement = createMeasurement(
+      db,
+      actorOf(ctx),
+      jobId,
+      { kind: 'lobes', data, note },
+      {
+        fileName: data.fileName,
+        lobes: data.lobes.length,
+        rows: data.lobes[0]?.points.length ?? 0,
+      },
+    );
     res.status(201).json({ measurement });
   });
 

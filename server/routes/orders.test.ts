@@ -4,16 +4,7 @@ import { schema } from '@/db';
 import { demoAccounts, demoJobId, demoPassword, demoSheetId, seedDemo } from '@/db/seed';
 import { revisionChecksum } from '@/shared/checksum';
 import { orderMoves, orderStages, type OrderStage } from '@/shared/orders';
-import {
-  Client,
-  createTestApp,
-  makeJobWithEngine,
-  makeProfileSpec,
-  makeShop,
-  memberWithRole,
-  signUp,
-  type TestApp,
-} from '@/tests/fixtures';
+import { Client, createTestApp, makeJobWithEngine, makeProfileSpec, makeShop, memberWithRole, signUp, type TestApp } from '@/tests/fixtures';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -23,7 +14,11 @@ afterAll(() => t.close());
 
 /** Order mail to the address (the sign-up's verification mail left out). */
 function outboxTo(email: string) {
-  return t.db.select().from(schema.outbox).all().filter((m) => m.to === email && !/verify your e-mail/i.test(m.subject));
+  return t.db
+    .select()
+    .from(schema.outbox)
+    .all()
+    .filter((m) => m.to === email && !/verify your e-mail/i.test(m.subject));
 }
 
 /** A repair shop with a draft sheet, and a grinding shop with a grinder (the founder is the grinder too). */
@@ -234,7 +229,12 @@ describe('moving an order', { timeout: 30_000 }, () => {
     const noMessage = await s.grinder.post(`/api/orders/${s.order.id}/move`, { version: 1, to: 'changes-asked' });
     expect(noMessage.status).toBe(400);
     expect(noMessage.body.error.fields).toHaveProperty('message');
-    const wrongField = await s.grinder.post(`/api/orders/${s.order.id}/move`, { version: 1, to: 'quoted', ...extras('quoted'), shipping: extras('shipped').shipping });
+    const wrongField = await s.grinder.post(`/api/orders/${s.order.id}/move`, {
+      version: 1,
+      to: 'quoted',
+      ...extras('quoted'),
+      shipping: extras('shipped').shipping,
+    });
     expect(wrongField.status).toBe(400);
     expect(wrongField.body.error.fields).toHaveProperty('shipping');
     await s.grinder.post(`/api/orders/${s.order.id}/move`, { version: 1, to: 'quoted', ...extras('quoted') });
@@ -267,7 +267,9 @@ async function setupOrderAt(stage: OrderStage) {
   const s = await issued(`At ${stage}`);
   let order = s.order;
   for (const to of pathTo[stage]) {
-    const by = Object.values(orderMoves).flat().find((m) => m.to === to)!.by;
+    const by = Object.values(orderMoves)
+      .flat()
+      .find((m) => m.to === to)!.by;
     const res = await (by === 'grinder' ? s.grinder : s.builder).post(`/api/orders/${order.id}/move`, { version: order.version, to, ...extras(to) });
     expect(res.status).toBe(200);
     order = res.body.order;
@@ -280,7 +282,11 @@ describe('order messages', { timeout: 30_000 }, () => {
     const s = await issued('Thread');
     const fromGrinder = await s.grinder.post(`/api/orders/${s.order.id}/messages`, { body: 'What core do you send?' });
     expect(fromGrinder.status).toBe(201);
-    expect(fromGrinder.body.message).toMatchObject({ body: 'What core do you send?', orderId: s.order.id, author: { side: 'grinder', shopName: 'Thread grinding' } });
+    expect(fromGrinder.body.message).toMatchObject({
+      body: 'What core do you send?',
+      orderId: s.order.id,
+      author: { side: 'grinder', shopName: 'Thread grinding' },
+    });
     const fromBuilder = await s.builder.post(`/api/orders/${s.order.id}/messages`, { body: 'Our own, shipping today' });
     expect(fromBuilder.status).toBe(201);
     const thread = await s.grinder.get(`/api/orders/${s.order.id}/messages`);
@@ -432,11 +438,21 @@ describe('demo data', { timeout: 60_000 }, () => {
       const incoming = (await grinder.get('/api/incoming')).body.orders;
       expect(incoming.map((o: { id: string }) => o.id)).toEqual([res.body.order.id]);
       const detail = (await grinder.get(`/api/orders/${res.body.order.id}`)).body.order;
-      const job = demo.db.select().from(schema.jobs).all().find((j) => j.id === demoJobId)!;
+      const job = demo.db
+        .select()
+        .from(schema.jobs)
+        .all()
+        .find((j) => j.id === demoJobId)!;
       expect(detail.vehicle).toBe(job.vehicle);
       expect(JSON.stringify(detail)).not.toContain(job.customerName);
       const grinderEmail = demoAccounts.find((a) => a.role === 'grinder')!.email;
-      expect(demo.db.select().from(schema.outbox).all().map((m) => m.to)).toEqual([grinderEmail]);
+      expect(
+        demo.db
+          .select()
+          .from(schema.outbox)
+          .all()
+          .map((m) => m.to),
+      ).toEqual([grinderEmail]);
       const quoted = await grinder.post(`/api/orders/${detail.id}/move`, { version: 1, to: 'quoted', ...extras('quoted') });
       expect(quoted.status).toBe(200);
     } finally {

@@ -33,7 +33,15 @@ describe('share links', () => {
     const s = await sharedJob('Guess shop');
     const o = owner();
     const flipped = (s.token[0] === 'A' ? 'B' : 'A') + s.token.slice(1);
-    const guesses = [flipped, s.token.slice(0, -1), `${s.token}A`, '', 'null', '../../etc/passwd', ...Array.from({ length: 20 }, () => randomBytes(32).toString('base64url'))];
+    const guesses = [
+      flipped,
+      s.token.slice(0, -1),
+      `${s.token}A`,
+      '',
+      'null',
+      '../../etc/passwd',
+      ...Array.from({ length: 20 }, () => randomBytes(32).toString('base64url')),
+    ];
     for (const guess of guesses) {
       const res = await o.get(`/api/share/${encodeURIComponent(guess)}`);
       expect([404], `token ${guess}`).toContain(res.status);
@@ -51,7 +59,11 @@ describe('share links', () => {
 
     const next = await s.builder.post(`/api/jobs/${s.jobId}/share-links`, { expiresInDays: 1 });
     expect((await o.get(`/api/share/${next.body.token}`)).status).toBe(200);
-    t.db.update(schema.shareLinks).set({ expiresAt: new Date(Date.now() - 1000) }).where(eq(schema.shareLinks.id, next.body.link.id)).run();
+    t.db
+      .update(schema.shareLinks)
+      .set({ expiresAt: new Date(Date.now() - 1000) })
+      .where(eq(schema.shareLinks.id, next.body.link.id))
+      .run();
     expect((await o.get(`/api/share/${next.body.token}`)).status).toBe(404);
     const desk = (await s.builder.get(`/api/jobs/${s.jobId}/owner`)).body.desk;
     expect(desk.links.map((l: { state: string }) => l.state).sort()).toEqual(['expired', 'revoked']);
@@ -73,7 +85,11 @@ describe('share links', () => {
     const s = await sharedJob('Mail link shop');
     const res = await s.builder.post(`/api/jobs/${s.jobId}/share-links`, { email: 'owner-mail-link@example.test' });
     expect(res.body.emailed).toBe(true);
-    const mail = t.db.select().from(schema.outbox).all().find((m) => m.to === 'owner-mail-link@example.test')!;
+    const mail = t.db
+      .select()
+      .from(schema.outbox)
+      .all()
+      .find((m) => m.to === 'owner-mail-link@example.test')!;
     expect(mail.text).toContain(res.body.url);
     expect(mail.text).not.toContain(INTERNAL_FINDINGS);
   });
@@ -83,7 +99,19 @@ describe('the owner view', () => {
   it('shows the owner words, options, comparison and cautions, and leaks nothing internal', async () => {
     const s = await sharedJob('Leak shop');
     // A photo the builder did not mark shareable stays out.
-    t.db.insert(schema.photos).values({ id: 'private-photo', shopId: s.shopId, jobId: s.jobId, storedName: 'private-photo.jpg', originalName: 'secret.jpg', mimeType: 'image/jpeg', size: 10, caption: 'INTERNAL caption' }).run();
+    t.db
+      .insert(schema.photos)
+      .values({
+        id: 'private-photo',
+        shopId: s.shopId,
+        jobId: s.jobId,
+        storedName: 'private-photo.jpg',
+        originalName: 'secret.jpg',
+        mimeType: 'image/jpeg',
+        size: 10,
+        caption: 'INTERNAL caption',
+      })
+      .run();
     const res = await owner().get(`/api/share/${s.token}`);
     expect(res.status).toBe(200);
     const view = res.body.view as OwnerView;
@@ -94,7 +122,8 @@ describe('the owner view', () => {
     expect(view.cautions.join(' ')).toMatch(/measures piston-to-valve clearance/i);
     expect(view.photos).toEqual([]);
     const text = JSON.stringify(res.body);
-    for (const secret of [INTERNAL_FINDINGS, INTERNAL_SHEET_NOTE, 'Test core', 'INTERNAL caption', 'secret.jpg', s.shopId, s.sheet.id]) expect(text).not.toContain(secret);
+    for (const secret of [INTERNAL_FINDINGS, INTERNAL_SHEET_NOTE, 'Test core', 'INTERNAL caption', 'secret.jpg', s.shopId, s.sheet.id])
+      expect(text).not.toContain(secret);
     expect(res.body.view).not.toHaveProperty('findings');
     expect(res.body.view.options[0]).not.toHaveProperty('revisionId');
   });
@@ -107,7 +136,13 @@ describe('the owner view', () => {
       spec: { ...s.sheet.current.spec, intake: { ...s.sheet.current.spec.intake, duration050: s.sheet.current.spec.intake.duration050 - 8 } },
     });
     const stockSheet = (await s.builder.post(`/api/jobs/${s.jobId}/sheets`, { title: 'Stock', profileId: stock.body.profile.id })).body.sheet;
-    await s.builder.post(`/api/jobs/${s.jobId}/owner/options`, { sheetId: stockSheet.id, title: 'Stock-spec', priceCents: 60_000, depositCents: 20_000, leadTimeDays: 5 });
+    await s.builder.post(`/api/jobs/${s.jobId}/owner/options`, {
+      sheetId: stockSheet.id,
+      title: 'Stock-spec',
+      priceCents: 60_000,
+      depositCents: 20_000,
+      leadTimeDays: 5,
+    });
     const view = (await owner().get(`/api/share/${s.token}`)).body.view as OwnerView;
     expect(view.options.map((o) => o.title)).toEqual(['Towing regrind', 'Stock-spec']);
     expect(view.options[0]!.comparison).toBeNull();
@@ -129,15 +164,34 @@ describe('approval', () => {
     const missing = await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, offer: option.offer, name: '' });
     expect(missing.status).toBe(400);
     expect(Object.keys(missing.body.error.fields).sort()).toEqual(['agree', 'name']);
-    const wrong = await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: '0123456789ab', offer: option.offer, name: 'Test Owner', agree: true });
+    const wrong = await o.post(`/api/share/${s.token}/approve`, {
+      optionId: option.id,
+      checksum: '0123456789ab',
+      offer: option.offer,
+      name: 'Test Owner',
+      agree: true,
+    });
     expect(wrong.status).toBe(409);
 
-    const ok = await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, offer: option.offer, name: 'Test Owner', agree: true });
+    const ok = await o.post(`/api/share/${s.token}/approve`, {
+      optionId: option.id,
+      checksum: option.checksum,
+      offer: option.offer,
+      name: 'Test Owner',
+      agree: true,
+    });
     expect(ok.status).toBe(201);
     expect(ok.body.approval).toMatchObject({ optionId: option.id, checksum: revisionChecksum(revision), revisionId: revision.id, name: 'Test Owner' });
-    expect((await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, offer: option.offer, name: 'Again', agree: true })).status).toBe(409);
+    expect(
+      (await o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, offer: option.offer, name: 'Again', agree: true }))
+        .status,
+    ).toBe(409);
 
-    const mail = t.db.select().from(schema.outbox).all().find((m) => m.to === s.builder.email && m.subject.startsWith('Approved: Towing regrind'));
+    const mail = t.db
+      .select()
+      .from(schema.outbox)
+      .all()
+      .find((m) => m.to === s.builder.email && m.subject.startsWith('Approved: Towing regrind'));
     expect(mail?.text).toContain(revisionChecksum(revision));
     // Options are locked once approved.
     const desk = (await s.builder.get(`/api/jobs/${s.jobId}/owner`)).body.desk;
@@ -156,7 +210,13 @@ describe('approval', () => {
     expect(desk.options[0].stale).toBe(true);
     const refreshed = await s.builder.patch(`/api/owner-options/${before.id}`, { version: desk.options[0].version, refreshRevision: true });
     expect(refreshed.body.desk.options[0].stale).toBe(false);
-    const res = await o.post(`/api/share/${s.token}/approve`, { optionId: before.id, checksum: before.checksum, offer: before.offer, name: 'Test Owner', agree: true });
+    const res = await o.post(`/api/share/${s.token}/approve`, {
+      optionId: before.id,
+      checksum: before.checksum,
+      offer: before.offer,
+      name: 'Test Owner',
+      agree: true,
+    });
     expect(res.status).toBe(409);
   });
 });
@@ -174,7 +234,13 @@ describe('an owner with an account', () => {
     const view = (await customer.get(`/api/my/jobs/${s.jobId}`)).body.view as OwnerView;
     expect(JSON.stringify(view)).not.toContain(INTERNAL_FINDINGS);
     const option = view.options[0]!;
-    const approved = await customer.post(`/api/my/jobs/${s.jobId}/approve`, { optionId: option.id, checksum: option.checksum, offer: option.offer, name: 'Signed Owner', agree: true });
+    const approved = await customer.post(`/api/my/jobs/${s.jobId}/approve`, {
+      optionId: option.id,
+      checksum: option.checksum,
+      offer: option.offer,
+      name: 'Signed Owner',
+      agree: true,
+    });
     expect(approved.status).toBe(201);
     const audit = t.db.select().from(schema.auditLog).where(eq(schema.auditLog.entityId, approved.body.approval.id)).get()!;
     expect(audit.userId).toBe(customer.userId);
@@ -259,7 +325,14 @@ describe('the approval binds the whole offer (finding 4)', () => {
     }
     const ok = await o.post(`/api/share/${s.token}/approve`, approval(read));
     expect(ok.status).toBe(201);
-    expect(ok.body.approval).toMatchObject({ priceCents: 9_999_999, depositCents: 100, leadTimeDays: 60, currency: 'usd', offer: read.offer, optionTitle: 'Towing regrind, premium' });
+    expect(ok.body.approval).toMatchObject({
+      priceCents: 9_999_999,
+      depositCents: 100,
+      leadTimeDays: 60,
+      currency: 'usd',
+      offer: read.offer,
+      optionTitle: 'Towing regrind, premium',
+    });
     // The approved option cannot change any more.
     const desk = (await s.builder.get(`/api/jobs/${s.jobId}/owner`)).body.desk;
     expect((await s.builder.patch(`/api/owner-options/${option.id}`, { version: desk.options[0].version, priceCents: 50_000 })).status).toBe(409);
@@ -270,7 +343,14 @@ describe('the approval binds the whole offer (finding 4)', () => {
     const terms = { checksum: '0123456789ab', title: 'Stock regrind', priceCents: 50_000, depositCents: 10_000, currency: 'usd', leadTimeDays: 7 };
     const json = '{"checksum":"0123456789ab","currency":"usd","depositCents":10000,"leadTimeDays":7,"priceCents":50000,"title":"Stock regrind"}';
     expect(offerChecksum(terms)).toBe(createHash('sha256').update(json).digest('hex').slice(0, 12));
-    for (const change of [{ priceCents: 50_001 }, { depositCents: 0 }, { currency: 'cad' }, { leadTimeDays: 8 }, { title: 'Stock regrind ' }, { checksum: '0123456789ac' }]) {
+    for (const change of [
+      { priceCents: 50_001 },
+      { depositCents: 0 },
+      { currency: 'cad' },
+      { leadTimeDays: 8 },
+      { title: 'Stock regrind ' },
+      { checksum: '0123456789ac' },
+    ]) {
       expect(offerChecksum({ ...terms, ...change })).not.toBe(offerChecksum(terms));
     }
   });

@@ -70,7 +70,13 @@ export function ownerPageDeskRouter({ db, auth, mailer, publicUrl }: AppDeps) {
     const to = body.email ? [{ email: body.email, name: 'vehicle owner' }] : [];
     // The mail to the owner commits with the link or not at all.
     const { link, token } = createShareLink(db, actorOf(ctx), req.params.jobId, body, (tx, made) =>
-      queueEach(mailer, tx, to, (person) => shareLinkMail(person, { shopName: ctx.shop.name, vehicle: made.vehicle, url: shareUrl(publicUrl, made.token), expiresAt: made.expiresAt }), ctx.shop.id),
+      queueEach(
+        mailer,
+        tx,
+        to,
+        (person) => shareLinkMail(person, { shopName: ctx.shop.name, vehicle: made.vehicle, url: shareUrl(publicUrl, made.token), expiresAt: made.expiresAt }),
+        ctx.shop.id,
+      ),
     );
     const url = shareUrl(publicUrl, token);
     const emailed = to.length > 0;
@@ -113,7 +119,15 @@ export function ownerPageRouter(deps: AppDeps, limit: ShareRateLimit = { windowM
   const origin = publicUrl.replace(/\/+$/, '');
   const router = Router();
   // Slows anyone trying tokens: a real owner opens a handful of pages a minute.
-  router.use('/share', rateLimit({ ...limit, standardHeaders: 'draft-8', legacyHeaders: false, handler: (_req, res) => res.status(429).json({ error: { code: 'rate_limited', message: 'Too many requests: wait a minute and try again' } }) }));
+  router.use(
+    '/share',
+    rateLimit({
+      ...limit,
+      standardHeaders: 'draft-8',
+      legacyHeaders: false,
+      handler: (_req, res) => res.status(429).json({ error: { code: 'rate_limited', message: 'Too many requests: wait a minute and try again' } }),
+    }),
+  );
 
   const byToken: Resolve = (req) => {
     const token = String(req.params.token);

@@ -16,7 +16,9 @@ function seedJobs(shopId: string, n: number, label: string) {
   t.db.transaction((tx) => {
     for (let i = 0; i < n; i += 1) {
       const at = new Date(base + Math.floor(i / 2) * 1000);
-      tx.insert(schema.jobs).values({ id: crypto.randomUUID(), shopId, vehicle: `${label} van ${i}`, customerName: 'Paging Owner', createdAt: at, updatedAt: at }).run();
+      tx.insert(schema.jobs)
+        .values({ id: crypto.randomUUID(), shopId, vehicle: `${label} van ${i}`, customerName: 'Paging Owner', createdAt: at, updatedAt: at })
+        .run();
     }
   });
 }
@@ -78,7 +80,12 @@ describe('GET /api/jobs pages', { timeout: 60_000 }, () => {
     const other = await makeShop(t, 'repair', 'Other walk shop');
     seedJobs(mine.shopId, 137, 'Walk');
     seedJobs(other.shopId, 40, 'Other');
-    const before = t.db.select({ id: schema.jobs.id }).from(schema.jobs).where(eq(schema.jobs.shopId, mine.shopId)).all().map((j) => j.id);
+    const before = t.db
+      .select({ id: schema.jobs.id })
+      .from(schema.jobs)
+      .where(eq(schema.jobs.shopId, mine.shopId))
+      .all()
+      .map((j) => j.id);
     const added: string[] = [];
     const seen = await walk(mine.founder, '/api/jobs', 'jobs', 20, async () => {
       const res = await mine.founder.post('/api/jobs', makeJobBody({ vehicle: `Arrived mid-walk ${added.length}` }));
@@ -180,7 +187,10 @@ describe('POST /api/jobs cap', { timeout: 30_000 }, () => {
       const a = await makeShop(plain, 'repair', 'Default cap shop');
       const at = new Date(Date.now() - 5_000);
       plain.db.transaction((tx) => {
-        for (let i = 0; i < 29; i += 1) tx.insert(schema.jobs).values({ id: crypto.randomUUID(), shopId: a.shopId, vehicle: `Recent ${i}`, customerName: 'Cap Owner', createdAt: at, updatedAt: at }).run();
+        for (let i = 0; i < 29; i += 1)
+          tx.insert(schema.jobs)
+            .values({ id: crypto.randomUUID(), shopId: a.shopId, vehicle: `Recent ${i}`, customerName: 'Cap Owner', createdAt: at, updatedAt: at })
+            .run();
       });
       expect((await a.founder.post('/api/jobs', makeJobBody())).status).toBe(201);
       expect((await a.founder.post('/api/jobs', makeJobBody())).status).toBe(429);
@@ -203,10 +213,14 @@ describe('GET /api/incoming pages', { timeout: 60_000 }, () => {
     t.db.transaction((tx) => {
       for (let i = 0; i < 11; i += 1) {
         const revisionId = crypto.randomUUID();
-        tx.insert(schema.sheetRevisions).values({ ...revision, id: revisionId, number: revision.number + i + 1 }).run();
+        tx.insert(schema.sheetRevisions)
+          .values({ ...revision, id: revisionId, number: revision.number + i + 1 })
+          .run();
         // Pairs share a creation time, so the id breaks ties.
         const at = new Date(first.createdAt.getTime() - 1000 * (1 + Math.floor(i / 2)));
-        tx.insert(schema.grindOrders).values({ ...first, id: crypto.randomUUID(), revisionId, createdAt: at, updatedAt: at }).run();
+        tx.insert(schema.grindOrders)
+          .values({ ...first, id: crypto.randomUUID(), revisionId, createdAt: at, updatedAt: at })
+          .run();
       }
     });
     const seen = await walk(grinder, '/api/incoming', 'orders', 5);
@@ -232,11 +246,21 @@ describe('GET /api/my/jobs pages', { timeout: 60_000 }, () => {
       for (let i = 0; i < 7; i += 1) {
         const id = crypto.randomUUID();
         jobIds.push(id);
-        tx.insert(schema.jobs).values({ id, shopId, vehicle: `Owner car ${i}`, customerName: 'Paging Owner' }).run();
+        tx.insert(schema.jobs)
+          .values({ id, shopId, vehicle: `Owner car ${i}`, customerName: 'Paging Owner' })
+          .run();
         // Two links per job: only the newer one orders it.
         for (const k of [0, 1]) {
           tx.insert(schema.shareLinks)
-            .values({ id: crypto.randomUUID(), shopId, jobId: id, tokenHash: crypto.randomUUID(), email: customer.email.toLowerCase(), expiresAt: new Date(Date.now() + 86_400_000), createdAt: new Date(base + i * 1000 + k) })
+            .values({
+              id: crypto.randomUUID(),
+              shopId,
+              jobId: id,
+              tokenHash: crypto.randomUUID(),
+              email: customer.email.toLowerCase(),
+              expiresAt: new Date(Date.now() + 86_400_000),
+              createdAt: new Date(base + i * 1000 + k),
+            })
             .run();
         }
       }

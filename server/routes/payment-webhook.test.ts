@@ -50,7 +50,13 @@ describe('payment webhook', () => {
     const missing = await fetch(`${t.url}/api/payments/webhook`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: payload });
     expect(missing.status).toBe(400);
     expect(payment().state).toBe('open');
-    expect(t.db.select().from(schema.paymentEvents).all().some((e) => payload.includes(e.id))).toBe(false);
+    expect(
+      t.db
+        .select()
+        .from(schema.paymentEvents)
+        .all()
+        .some((e) => payload.includes(e.id)),
+    ).toBe(false);
   });
 
   it('answers a signed event it cannot read with 400 naming the field, never a server error, and writes nothing', async () => {
@@ -76,7 +82,13 @@ describe('payment webhook', () => {
       expect(Object.keys(res.body.error.fields), payload).toContain(field);
     }
     expect(payment().state).toBe('open');
-    expect(t.db.select().from(schema.paymentEvents).all().some((e) => e.id === 'evt_test_odd_shape')).toBe(false);
+    expect(
+      t.db
+        .select()
+        .from(schema.paymentEvents)
+        .all()
+        .some((e) => e.id === 'evt_test_odd_shape'),
+    ).toBe(false);
   });
 
   it('ignores a replayed event', async () => {

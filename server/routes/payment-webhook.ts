@@ -21,7 +21,12 @@ const completedSessionSchema = z.object({
   id: z.string({ error: 'Missing session id' }).min(1, 'Missing session id').max(255),
   payment_status: z.string({ error: 'Missing payment status' }),
   payment_intent: z.string({ error: 'Payment must be an id' }).max(255).nullish(),
-  amount_total: z.number({ error: 'Amount must be a number of cents' }).int('Amount is in whole cents').min(0, 'Amount cannot be negative').max(10_000_000).nullish(),
+  amount_total: z
+    .number({ error: 'Amount must be a number of cents' })
+    .int('Amount is in whole cents')
+    .min(0, 'Amount cannot be negative')
+    .max(10_000_000)
+    .nullish(),
   currency: z
     .string({ error: 'Currency must be a code' })
     .regex(/^[a-z]{3}$/, 'Currency is a three-letter code')
@@ -66,7 +71,12 @@ export function paymentWebhook(deps: AppDeps) {
     if (outcome.duplicate) return void res.json({ received: true, duplicate: true });
     const { settled } = outcome;
     if (settled.kind === 'refused') {
-      throw new HttpError(400, 'amount_mismatch', 'The event does not pay this deposit: its amount or currency differs, so nothing was marked paid', settled.fields);
+      throw new HttpError(
+        400,
+        'amount_mismatch',
+        'The event does not pay this deposit: its amount or currency differs, so nothing was marked paid',
+        settled.fields,
+      );
     }
     await afterSettled(deps, settled);
     res.json({ received: true, duplicate: false });

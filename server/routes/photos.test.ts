@@ -107,7 +107,10 @@ describe('job photos', () => {
     const tooBig = await founder.upload(`/api/jobs/${jobId}/photos`, formWith([['photos', 'huge.jpg', big, 'image/jpeg']]));
     expect(tooBig.status).toBe(413);
     expect(tooBig.body.error.message).toMatch(/10 MB or less/);
-    const seven = Array.from({ length: photoLimits.maxFiles + 1 }, (_, i) => ['photos', `p${i}.jpg`, JPEG, 'image/jpeg'] as [string, string, Uint8Array<ArrayBuffer>, string]);
+    const seven = Array.from(
+      { length: photoLimits.maxFiles + 1 },
+      (_, i) => ['photos', `p${i}.jpg`, JPEG, 'image/jpeg'] as [string, string, Uint8Array<ArrayBuffer>, string],
+    );
     const tooMany = await founder.upload(`/api/jobs/${jobId}/photos`, formWith(seven));
     expect(tooMany.status).toBe(400);
     expect(tooMany.body.error.message).toBe('Send at most 6 photos at a time');

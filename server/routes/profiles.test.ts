@@ -2,15 +2,7 @@ import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { schema } from '@/db';
-import {
-  createTestApp,
-  makeJobBody,
-  makeProfileBody,
-  makeProfileSpec,
-  makeShop,
-  memberWithRole,
-  type TestApp,
-} from '@/tests/fixtures';
+import { createTestApp, makeJobBody, makeProfileBody, makeProfileSpec, makeShop, memberWithRole, type TestApp } from '@/tests/fixtures';
 
 let t: TestApp;
 beforeAll(async () => {

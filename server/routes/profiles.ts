@@ -19,9 +19,7 @@ import {
 /** A job-profile body either copies a library profile or writes a new one. */
 function parseJobProfileBody(body: unknown): JobProfileSource {
   const copy = typeof body === 'object' && body !== null && 'fromProfileId' in body;
-  return copy
-    ? { kind: 'copy' as const, ...parse(profileCopySchema, body) }
-    : { kind: 'new' as const, ...parse(profileCreateSchema, body) };
+  return copy ? { kind: 'copy' as const, ...parse(profileCopySchema, body) } : { kind: 'new' as const, ...parse(profileCreateSchema, body) };
 }
 
 /**

@@ -34,9 +34,7 @@ function expectedResults(engine: unknown, spec: unknown) {
 
 /** Marks a revision issued straight in the database (issuing to a grinder comes with its own screens). */
 function issue(revisionId: string) {
-  t.db.$client
-    .prepare(`update sheet_revisions set state = 'issued', issued_at = ? where id = ?`)
-    .run(Date.now(), revisionId);
+  t.db.$client.prepare(`update sheet_revisions set state = 'issued', issued_at = ? where id = ?`).run(Date.now(), revisionId);
 }
 
 function rawRevision(id: string) {

@@ -29,14 +29,18 @@ describe("the shop's undelivered mail", () => {
 
     const list = await founder.get('/api/shop/mail-failures');
     expect(list.status).toBe(200);
-    expect(list.body.failures).toEqual([{ id, to: 'owner@example.test', subject: 'Your owner page', attempts: 6, lastError: '550 mailbox unavailable', createdAt: expect.any(String) }]);
+    expect(list.body.failures).toEqual([
+      { id, to: 'owner@example.test', subject: 'Your owner page', attempts: 6, lastError: '550 mailbox unavailable', createdAt: expect.any(String) },
+    ]);
 
     expect((await founder.post(`/api/shop/mail-failures/${theirs}/retry`)).status).toBe(404);
     const retried = await founder.post(`/api/shop/mail-failures/${id}/retry`);
     expect(retried.status).toBe(200);
     expect(retried.body.failures).toEqual([]);
     expect(t.db.select().from(schema.outbox).where(eq(schema.outbox.id, id)).get()).toMatchObject({ status: 'pending', attempts: 0 });
-    expect(t.db.select().from(schema.auditLog).where(eq(schema.auditLog.entityId, id)).all()).toEqual([expect.objectContaining({ action: 'retry', entity: 'mail', shopId })]);
+    expect(t.db.select().from(schema.auditLog).where(eq(schema.auditLog.entityId, id)).all()).toEqual([
+      expect.objectContaining({ action: 'retry', entity: 'mail', shopId }),
+    ]);
     // Sent again already: a second retry finds nothing failed.
     expect((await founder.post(`/api/shop/mail-failures/${id}/retry`)).status).toBe(404);
   });

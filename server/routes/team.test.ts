@@ -22,7 +22,11 @@ async function signUpAt(email: string, name = 'Invited Person') {
 }
 
 const auditRows = (shopId: string, action: string) =>
-  t.db.select().from(schema.auditLog).where(and(eq(schema.auditLog.shopId, shopId), eq(schema.auditLog.action, action))).all();
+  t.db
+    .select()
+    .from(schema.auditLog)
+    .where(and(eq(schema.auditLog.shopId, shopId), eq(schema.auditLog.action, action)))
+    .all();
 
 describe('inviting staff', () => {
   it('mails an invitation, lists it as pending, and lets the invited tech join once verified, then work', async () => {
@@ -38,7 +42,12 @@ describe('inviting staff', () => {
 
     const tech = await signUpAt(email);
     // Before verification: signed in, the invitation is shown but cannot be taken up, and the shop stays closed.
-    expect((await tech.get(`/api/invitations/${invitationId}`)).body).toMatchObject({ shopName: 'Invite shop', role: 'tech', status: 'pending', verified: false });
+    expect((await tech.get(`/api/invitations/${invitationId}`)).body).toMatchObject({
+      shopName: 'Invite shop',
+      role: 'tech',
+      status: 'pending',
+      verified: false,
+    });
     expect((await tech.post(`/api/invitations/${invitationId}/accept`)).status).toBe(403);
     expect((await tech.get('/api/jobs')).status).toBe(403);
 

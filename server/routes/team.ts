@@ -56,7 +56,14 @@ export function teamRouter({ db, auth }: AppDeps) {
     const invitation = await library(() =>
       auth.api.createInvitation({ headers: headersOf(req), body: { email: body.email, role: body.role, organizationId: ctx.shop.id } }),
     );
-    audit(db, { shopId: ctx.shop.id, userId: ctx.user.id, action: 'invite', entity: 'invitation', entityId: invitation.id, detail: { email: body.email, role: body.role } });
+    audit(db, {
+      shopId: ctx.shop.id,
+      userId: ctx.user.id,
+      action: 'invite',
+      entity: 'invitation',
+      entityId: invitation.id,
+      detail: { email: body.email, role: body.role },
+    });
     res.status(201).json(loadTeam(db, ctx));
   });
 
@@ -76,7 +83,14 @@ export function teamRouter({ db, auth }: AppDeps) {
     requireStaffRole(ctx.shop.kind, role);
     if (member.role !== role) {
       await library(() => auth.api.updateMemberRole({ headers: headersOf(req), body: { memberId: member.id, role, organizationId: ctx.shop.id } }));
-      audit(db, { shopId: ctx.shop.id, userId: ctx.user.id, action: 'change-role', entity: 'member', entityId: member.id, detail: { from: member.role, to: role } });
+      audit(db, {
+        shopId: ctx.shop.id,
+        userId: ctx.user.id,
+        action: 'change-role',
+        entity: 'member',
+        entityId: member.id,
+        detail: { from: member.role, to: role },
+      });
     }
     res.json(loadTeam(db, ctx));
   });
@@ -85,7 +99,14 @@ export function teamRouter({ db, auth }: AppDeps) {
     const ctx = await manager(req);
     const member = requireStaffMember(db, ctx, req.params.id);
     await library(() => auth.api.removeMember({ headers: headersOf(req), body: { memberIdOrEmail: member.id, organizationId: ctx.shop.id } }));
-    audit(db, { shopId: ctx.shop.id, userId: ctx.user.id, action: 'remove', entity: 'member', entityId: member.id, detail: { userId: member.userId, role: member.role } });
+    audit(db, {
+      shopId: ctx.shop.id,
+      userId: ctx.user.id,
+      action: 'remove',
+      entity: 'member',
+      entityId: member.id,
+      detail: { userId: member.userId, role: member.role },
+    });
     res.json(loadTeam(db, ctx));
   });
 

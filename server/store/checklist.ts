@@ -49,13 +49,7 @@ export function loadItem(db: Reader, shopId: string, id: string) {
  * Writes the default items on a job the first time its checklist is read,
  * and marks the job so items the shop removes stay removed.
  */
-export function seedChecklist(
-  tx: Tx,
-  shopId: string,
-  jobId: string,
-  userId: string | null,
-  idFor: (index: number) => string = () => crypto.randomUUID(),
-) {
+export function seedChecklist(tx: Tx, shopId: string, jobId: string, userId: string | null, idFor: (index: number) => string = () => crypto.randomUUID()) {
   const job = tx
     .select({ seededAt: schema.jobs.checklistSeededAt })
     .from(schema.jobs)

@@ -131,7 +131,11 @@ export function updateMeasurement(
 
 export function deleteMeasurement(db: Db, who: Actor, id: string) {
   db.transaction((tx) => {
-    const current = tx.select({ kind: schema.measurements.kind, jobId: schema.measurements.jobId }).from(schema.measurements).where(inShop(who.shopId, id)).get();
+    const current = tx
+      .select({ kind: schema.measurements.kind, jobId: schema.measurements.jobId })
+      .from(schema.measurements)
+      .where(inShop(who.shopId, id))
+      .get();
     if (!current) throw notFound('Measurement');
     tx.delete(schema.measurements).where(inShop(who.shopId, id)).run();
     audit(tx, { shopId: who.shopId, userId: who.userId, action: 'delete', entity: 'measurement', entityId: id, detail: current });

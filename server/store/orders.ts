@@ -44,7 +44,9 @@ export function selectOrders(db: Reader, where: SQL | undefined): Order[] {
 export function selectOrderRows(db: Reader, where: SQL | undefined, page?: PageRequest): { order: Order; createdAt: number }[] {
   const { grindOrders } = schema;
   const after = page?.after;
-  const from = after ? or(lt(grindOrders.createdAt, new Date(after.at)), and(eq(grindOrders.createdAt, new Date(after.at)), lt(grindOrders.id, after.id))) : undefined;
+  const from = after
+    ? or(lt(grindOrders.createdAt, new Date(after.at)), and(eq(grindOrders.createdAt, new Date(after.at)), lt(grindOrders.id, after.id)))
+    : undefined;
   const rows = db
     .select({
       order: schema.grindOrders,
@@ -60,7 +62,9 @@ export function selectOrderRows(db: Reader, where: SQL | undefined, page?: PageR
     .innerJoin(repairShops, eq(repairShops.id, schema.grindOrders.repairShopId))
     .innerJoin(grinderShops, eq(grinderShops.id, schema.grindOrders.grinderShopId))
     .where(and(where, from))
-    .orderBy(...(page ? [desc(grindOrders.createdAt), desc(grindOrders.id)] : [desc(grindOrders.createdAt), desc(schema.sheetRevisions.number), asc(grindOrders.id)]))
+    .orderBy(
+      ...(page ? [desc(grindOrders.createdAt), desc(grindOrders.id)] : [desc(grindOrders.createdAt), desc(schema.sheetRevisions.number), asc(grindOrders.id)]),
+    )
     .limit(page ? page.limit + 1 : -1)
     .all();
   return rows.map(({ order, ...r }) => ({
@@ -360,9 +364,7 @@ export function addOrderMessage(db: Db, who: OrderViewer, orderId: string, body:
   return db.transaction((tx) => {
     const { order } = requireOrder(tx, who, orderId);
     const id = crypto.randomUUID();
-    tx.insert(schema.orderMessages)
-      .values({ id, orderId: order.id, authorUserId: who.user.id, authorShopId: who.shop.id, body: body.body })
-      .run();
+    tx.insert(schema.orderMessages).values({ id, orderId: order.id, authorUserId: who.user.id, authorShopId: who.shop.id, body: body.body }).run();
     audit(tx, { shopId: who.shop.id, userId: who.user.id, action: 'message', entity: 'order_message', entityId: id, detail: { orderId: order.id } });
     const written = loadMessages(tx, order).find((m) => m.id === id);
     if (!written) throw new Error(`Message ${id} was not written`);

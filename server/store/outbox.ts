@@ -23,7 +23,16 @@ export function queueMail(tx: Pick<Db, 'insert'>, message: QueuedMail, status: '
   if (!message.text.trim() || !message.html.trim()) throw new Error('Mail was built without both a text and an HTML part');
   const id = crypto.randomUUID();
   tx.insert(schema.outbox)
-    .values({ id, shopId, to: message.to, subject: message.subject, text: message.text, html: message.html, status, nextAttemptAt: status === 'pending' ? new Date() : null })
+    .values({
+      id,
+      shopId,
+      to: message.to,
+      subject: message.subject,
+      text: message.text,
+      html: message.html,
+      status,
+      nextAttemptAt: status === 'pending' ? new Date() : null,
+    })
     .run();
   return id;
 }

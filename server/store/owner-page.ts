@@ -9,7 +9,16 @@ import { analyzeRecords } from '@/shared/analysis';
 import { ownerCoreText } from '@/shared/fits-core';
 import { offerChecksum, revisionChecksum } from '@/shared/checksum';
 import { productCautions } from '@/shared/cautions';
-import type { Approval, approveSchema, OwnerDesk, OwnerOption, ownerOptionCreateSchema, ownerOptionPatchSchema, OwnerView, OwnerViewOption } from '@/shared/owner';
+import type {
+  Approval,
+  approveSchema,
+  OwnerDesk,
+  OwnerOption,
+  ownerOptionCreateSchema,
+  ownerOptionPatchSchema,
+  OwnerView,
+  OwnerViewOption,
+} from '@/shared/owner';
 
 import { conflict, HttpError, notFound } from '../http';
 import { toPage, type PageRequest } from '../paging';
@@ -26,7 +35,8 @@ type ApprovalRow = typeof schema.ownerApprovals.$inferSelect;
 type RevisionRow = typeof schema.sheetRevisions.$inferSelect;
 
 /** Missing, wrong, revoked and expired links all look the same. */
-export const linkGone = () => new HttpError(404, 'not_found', 'This link does not open a summary: it may have expired or been withdrawn. Ask the shop for a new one.');
+export const linkGone = () =>
+  new HttpError(404, 'not_found', 'This link does not open a summary: it may have expired or been withdrawn. Ask the shop for a new one.');
 
 export function toApproval(row: ApprovalRow): Approval {
   return {
@@ -125,7 +135,14 @@ function figures(a: ProfileAnalysis): OwnerViewOption['figures'] {
 
 /** The checksum over an option's whole offer in `currency`: what the owner's approval must quote. */
 export const optionOffer = (option: Pick<OptionRow, 'checksum' | 'title' | 'priceCents' | 'depositCents' | 'leadTimeDays'>, currency: string) =>
-  offerChecksum({ checksum: option.checksum, title: option.title, priceCents: option.priceCents, depositCents: option.depositCents, leadTimeDays: option.leadTimeDays, currency });
+  offerChecksum({
+    checksum: option.checksum,
+    title: option.title,
+    priceCents: option.priceCents,
+    depositCents: option.depositCents,
+    leadTimeDays: option.leadTimeDays,
+    currency,
+  });
 
 /** How this server prices and takes deposits. */
 export type OwnerTerms = { currency: string; depositsOn: boolean };
@@ -135,7 +152,12 @@ export type OwnerTerms = { currency: string; depositsOn: boolean };
  * each option compared in plain words with the first (the reference). Nothing
  * internal: no findings, notes, core notes, measurements or grinder threads.
  */
-export function loadOwnerView(db: Reader, link: Pick<LinkRow, 'shopId' | 'jobId' | 'expiresAt'>, photoUrl: (id: string) => string, terms: OwnerTerms): OwnerView {
+export function loadOwnerView(
+  db: Reader,
+  link: Pick<LinkRow, 'shopId' | 'jobId' | 'expiresAt'>,
+  photoUrl: (id: string) => string,
+  terms: OwnerTerms,
+): OwnerView {
   const job = db
     .select({ vehicle: schema.jobs.vehicle, customerName: schema.jobs.customerName, shopName: schema.shops.name })
     .from(schema.jobs)
@@ -252,9 +274,26 @@ export function createOption(db: Db, who: Actor, jobId: string, body: z.output<t
     const { sheetId, ...fields } = body;
     const checksum = revisionChecksum(revision);
     tx.insert(schema.ownerOptions)
-      .values({ id, shopId: who.shopId, jobId, sheetId, revisionId: revision.id, checksum, ...fields, position: (last?.position ?? 0) + 1, createdBy: who.userId })
+      .values({
+        id,
+        shopId: who.shopId,
+        jobId,
+        sheetId,
+        revisionId: revision.id,
+        checksum,
+        ...fields,
+        position: (last?.position ?? 0) + 1,
+        createdBy: who.userId,
+      })
       .run();
-    audit(tx, { shopId: who.shopId, userId: who.userId, action: 'create', entity: 'owner-option', entityId: id, detail: { jobId, sheetId, revision: revision.number, checksum } });
+    audit(tx, {
+      shopId: who.shopId,
+      userId: who.userId,
+      action: 'create',
+      entity: 'owner-option',
+      entityId: id,
+      detail: { jobId, sheetId, revision: revision.number, checksum },
+    });
     return loadOwnerDesk(tx, who.shopId, jobId);
   });
 }
@@ -267,7 +306,10 @@ export function updateOption(db: Db, who: Actor, id: string, { version, refreshR
     if (current.version !== version) throw conflict('Someone else changed this option: reload to see their changes');
     const price = changes.priceCents ?? current.priceCents;
     const deposit = changes.depositCents ?? current.depositCents;
-    if (deposit > price) throw new HttpError(400, 'invalid', 'depositCents: The deposit cannot be more than the price', { depositCents: 'The deposit cannot be more than the price' });
+    if (deposit > price)
+      throw new HttpError(400, 'invalid', 'depositCents: The deposit cannot be more than the price', {
+        depositCents: 'The deposit cannot be more than the price',
+      });
     const revision = refreshRevision ? latestRevision(tx, who.shopId, current.jobId, current.sheetId) : undefined;
     tx.update(schema.ownerOptions)
       .set({
@@ -294,8 +336,17 @@ export function deleteOption(db: Db, who: Actor, id: string): OwnerDesk {
   return db.transaction((tx) => {
     const current = loadOption(tx, who.shopId, id);
     requireNotApproved(tx, current.jobId);
-    tx.delete(schema.ownerOptions).where(and(eq(schema.ownerOptions.id, current.id), eq(schema.ownerOptions.shopId, who.shopId))).run();
-    audit(tx, { shopId: who.shopId, userId: who.userId, action: 'delete', entity: 'owner-option', entityId: current.id, detail: { jobId: current.jobId, title: current.title } });
+    tx.delete(schema.ownerOptions)
+      .where(and(eq(schema.ownerOptions.id, current.id), eq(schema.ownerOptions.shopId, who.shopId)))
+      .run();
+    audit(tx, {
+      shopId: who.shopId,
+      userId: who.userId,
+      action: 'delete',
+      entity: 'owner-option',
+      entityId: current.id,
+      detail: { jobId: current.jobId, title: current.title },
+    });
     return loadOwnerDesk(tx, who.shopId, current.jobId);
   });
 }
@@ -304,7 +355,14 @@ export function deleteOption(db: Db, who: Actor, id: string): OwnerDesk {
  * The owner approves one option through an open link: the checksum and offer they read must still be
  * the option's (a 409 if the builder changed it since); one approval per job, with its audit row.
  */
-export function approveOption(db: Db, linkId: string, userId: string | null, currency: string, body: z.output<typeof approveSchema>, after?: AfterWrite<ApprovalRow>): ApprovalRow {
+export function approveOption(
+  db: Db,
+  linkId: string,
+  userId: string | null,
+  currency: string,
+  body: z.output<typeof approveSchema>,
+  after?: AfterWrite<ApprovalRow>,
+): ApprovalRow {
   return db.transaction((tx) => {
     const link = linkById(tx, linkId);
     if (!linkOpen(link)) throw linkGone();
@@ -314,7 +372,8 @@ export function approveOption(db: Db, linkId: string, userId: string | null, cur
       .from(schema.ownerOptions)
       .where(and(eq(schema.ownerOptions.id, body.optionId), eq(schema.ownerOptions.jobId, link.jobId), eq(schema.ownerOptions.shopId, link.shopId)))
       .get();
-    if (!option) throw new HttpError(400, 'invalid', 'optionId: Choose one of the options on this page', { optionId: 'Choose one of the options on this page' });
+    if (!option)
+      throw new HttpError(400, 'invalid', 'optionId: Choose one of the options on this page', { optionId: 'Choose one of the options on this page' });
     // The whole offer, not only the revision: a price, deposit, currency, lead time or name changed since the page was read is refused.
     const offer = optionOffer(option, currency);
     if (option.checksum !== body.checksum || offer !== body.offer) {
@@ -340,7 +399,14 @@ export function approveOption(db: Db, linkId: string, userId: string | null, cur
       })
       .returning()
       .get();
-    audit(tx, { shopId: link.shopId, userId, action: 'approve', entity: 'owner-approval', entityId: row.id, detail: { jobId: link.jobId, optionId: option.id, checksum: option.checksum, offer, name: body.name, shareLinkId: link.id } });
+    audit(tx, {
+      shopId: link.shopId,
+      userId,
+      action: 'approve',
+      entity: 'owner-approval',
+      entityId: row.id,
+      detail: { jobId: link.jobId, optionId: option.id, checksum: option.checksum, offer, name: body.name, shareLinkId: link.id },
+    });
     after?.(tx, row);
     return row;
   });
@@ -364,9 +430,21 @@ export function ownerJobsPage(db: Reader, shopId: string, email: string, { limit
   const jobIds = page.rows.map((g) => g.jobId);
   if (!jobIds.length) return { jobs: [], nextCursor: null };
   const vehicles = new Map(
-    db.select({ id: schema.jobs.id, vehicle: schema.jobs.vehicle }).from(schema.jobs).where(inArray(schema.jobs.id, jobIds)).all().map((j) => [j.id, j.vehicle]),
+    db
+      .select({ id: schema.jobs.id, vehicle: schema.jobs.vehicle })
+      .from(schema.jobs)
+      .where(inArray(schema.jobs.id, jobIds))
+      .all()
+      .map((j) => [j.id, j.vehicle]),
   );
-  const approved = new Set(db.select({ jobId: schema.ownerApprovals.jobId }).from(schema.ownerApprovals).where(inArray(schema.ownerApprovals.jobId, jobIds)).all().map((a) => a.jobId));
+  const approved = new Set(
+    db
+      .select({ jobId: schema.ownerApprovals.jobId })
+      .from(schema.ownerApprovals)
+      .where(inArray(schema.ownerApprovals.jobId, jobIds))
+      .all()
+      .map((a) => a.jobId),
+  );
   const paid = paidJobIds(db, jobIds);
   return {
     jobs: jobIds.map((jobId) => ({ jobId, vehicle: vehicles.get(jobId) ?? '', approved: approved.has(jobId), paid: paid.has(jobId) })),

@@ -79,10 +79,23 @@ export function settlePaid(tx: Writer, session: SessionFacts, via: 'webhook' | '
   if (!row) return { kind: 'unknown' };
   if (row.state === 'paid' || row.state === 'refund-due' || row.state === 'refunded') return { kind: 'already', payment: row };
   const fields: Record<string, string> = {};
-  if (session.amount_total !== row.amountCents) fields['data.object.amount_total'] = `The deposit is ${row.amountCents} cents, not ${session.amount_total ?? 'none'}`;
+  if (session.amount_total !== row.amountCents)
+    fields['data.object.amount_total'] = `The deposit is ${row.amountCents} cents, not ${session.amount_total ?? 'none'}`;
   if (session.currency !== row.currency) fields['data.object.currency'] = `The deposit is in ${row.currency}, not ${session.currency ?? 'none'}`;
   if (Object.keys(fields).length) {
-    audit(tx, { shopId: row.shopId, userId: null, action: 'refuse', entity: 'payment', entityId: row.id, detail: { jobId: row.jobId, via, expected: { amountCents: row.amountCents, currency: row.currency }, reported: { amountCents: session.amount_total ?? null, currency: session.currency ?? null } } });
+    audit(tx, {
+      shopId: row.shopId,
+      userId: null,
+      action: 'refuse',
+      entity: 'payment',
+      entityId: row.id,
+      detail: {
+        jobId: row.jobId,
+        via,
+        expected: { amountCents: row.amountCents, currency: row.currency },
+        reported: { amountCents: session.amount_total ?? null, currency: session.currency ?? null },
+      },
+    });
     return { kind: 'refused', payment: row, fields };
   }
   const paidBefore = tx
@@ -91,7 +104,12 @@ export function settlePaid(tx: Writer, session: SessionFacts, via: 'webhook' | '
     .where(and(eq(schema.payments.approvalId, row.approvalId), eq(schema.payments.state, 'paid')))
     .get();
   const state = paidBefore ? ('refund-due' as const) : ('paid' as const);
-  const payment = tx.update(schema.payments).set({ state, paidAt: new Date(), paymentIntentId: intentOf(session) }).where(eq(schema.payments.id, row.id)).returning().get();
+  const payment = tx
+    .update(schema.payments)
+    .set({ state, paidAt: new Date(), paymentIntentId: intentOf(session) })
+    .where(eq(schema.payments.id, row.id))
+    .returning()
+    .get();
   audit(tx, {
     shopId: row.shopId,
     userId: null,
@@ -116,9 +134,17 @@ export function reserveDeposit(tx: Writer, link: Pick<LinkRow, 'shopId' | 'jobId
   const approval = loadApproval(tx, link.jobId);
   if (!approval) throw conflict('Approve an option before paying the deposit');
   if (approval.depositCents <= 0) throw conflict('The shop asks no deposit for this option');
-  const paid = tx.select({ id: schema.payments.id }).from(schema.payments).where(and(eq(schema.payments.approvalId, approval.id), eq(schema.payments.state, 'paid'))).get();
+  const paid = tx
+    .select({ id: schema.payments.id })
+    .from(schema.payments)
+    .where(and(eq(schema.payments.approvalId, approval.id), eq(schema.payments.state, 'paid')))
+    .get();
   if (paid) throw conflict('The deposit is already paid');
-  const open = tx.select().from(schema.payments).where(and(eq(schema.payments.approvalId, approval.id), eq(schema.payments.state, 'open'))).get();
+  const open = tx
+    .select()
+    .from(schema.payments)
+    .where(and(eq(schema.payments.approvalId, approval.id), eq(schema.payments.state, 'open')))
+    .get();
   if (open?.checkoutSessionId) return { kind: 'open' as const, payment: open, approval };
   if (open) {
     if (Date.now() - open.createdAt.getTime() < STALE_RESERVATION_MS) throw conflict('A payment page for this deposit is being opened: try again in a moment');
@@ -126,10 +152,24 @@ export function reserveDeposit(tx: Writer, link: Pick<LinkRow, 'shopId' | 'jobId
   }
   const payment = tx
     .insert(schema.payments)
-    .values({ id: crypto.randomUUID(), shopId: link.shopId, jobId: link.jobId, approvalId: approval.id, amountCents: approval.depositCents, currency: approval.currency })
+    .values({
+      id: crypto.randomUUID(),
+      shopId: link.shopId,
+      jobId: link.jobId,
+      approvalId: approval.id,
+      amountCents: approval.depositCents,
+      currency: approval.currency,
+    })
     .returning()
     .get();
-  audit(tx, { shopId: link.shopId, userId: null, action: 'create', entity: 'payment', entityId: payment.id, detail: { jobId: link.jobId, amountCents: payment.amountCents, currency: payment.currency } });
+  audit(tx, {
+    shopId: link.shopId,
+    userId: null,
+    action: 'create',
+    entity: 'payment',
+    entityId: payment.id,
+    detail: { jobId: link.jobId, amountCents: payment.amountCents, currency: payment.currency },
+  });
   return { kind: 'reserved' as const, payment, approval };
 }
 
@@ -140,19 +180,34 @@ export function storeSession(db: Pick<Db, 'update'>, paymentId: string, session:
 
 /** Removes a reservation whose session never opened. */
 export function dropReservation(db: Pick<Db, 'delete'>, paymentId: string) {
-  db.delete(schema.payments).where(and(eq(schema.payments.id, paymentId), isNull(schema.payments.checkoutSessionId))).run();
+  db.delete(schema.payments)
+    .where(and(eq(schema.payments.id, paymentId), isNull(schema.payments.checkoutSessionId)))
+    .run();
 }
 
 /** An open session the payment service says has expired. */
 export function markExpired(db: Pick<Db, 'update'>, paymentId: string) {
-  db.update(schema.payments).set({ state: 'expired' }).where(and(eq(schema.payments.id, paymentId), eq(schema.payments.state, 'open'))).run();
+  db.update(schema.payments)
+    .set({ state: 'expired' })
+    .where(and(eq(schema.payments.id, paymentId), eq(schema.payments.state, 'open')))
+    .run();
 }
 
 /** A second payment given back through the payment service, audited. */
 export function markRefunded(db: Db, payment: PaymentRow, refundId: string) {
   db.transaction((tx) => {
-    tx.update(schema.payments).set({ state: 'refunded', refundId }).where(and(eq(schema.payments.id, payment.id), eq(schema.payments.state, 'refund-due'))).run();
-    audit(tx, { shopId: payment.shopId, userId: null, action: 'refund', entity: 'payment', entityId: payment.id, detail: { jobId: payment.jobId, refundId, amountCents: payment.amountCents } });
+    tx.update(schema.payments)
+      .set({ state: 'refunded', refundId })
+      .where(and(eq(schema.payments.id, payment.id), eq(schema.payments.state, 'refund-due')))
+      .run();
+    audit(tx, {
+      shopId: payment.shopId,
+      userId: null,
+      action: 'refund',
+      entity: 'payment',
+      entityId: payment.id,
+      detail: { jobId: payment.jobId, refundId, amountCents: payment.amountCents },
+    });
   });
 }
 

@@ -122,7 +122,9 @@ export function deleteLibraryProfile(db: Db, who: Actor, id: string) {
     if (current.jobId !== null) {
       throw conflict('This profile belongs to a job and stays with its record. Only library profiles can be deleted.');
     }
-    tx.delete(schema.camProfiles).where(and(inShop(who.shopId, id), isNull(schema.camProfiles.jobId))).run();
+    tx.delete(schema.camProfiles)
+      .where(and(inShop(who.shopId, id), isNull(schema.camProfiles.jobId)))
+      .run();
     audit(tx, {
       shopId: who.shopId,
       userId: who.userId,

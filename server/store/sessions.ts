@@ -12,7 +12,13 @@ import { prepared } from './prepared';
 const liveSessionStatement = (db: Reader) =>
   prepared(db, 'access.live-session', (d) =>
     d
-      .select({ activeShopId: schema.sessions.activeOrganizationId, expiresAt: schema.sessions.expiresAt, name: schema.users.name, email: schema.users.email, emailVerified: schema.users.emailVerified })
+      .select({
+        activeShopId: schema.sessions.activeOrganizationId,
+        expiresAt: schema.sessions.expiresAt,
+        name: schema.users.name,
+        email: schema.users.email,
+        emailVerified: schema.users.emailVerified,
+      })
       .from(schema.sessions)
       .innerJoin(schema.users, eq(schema.users.id, schema.sessions.userId))
       .where(eq(schema.sessions.id, sql.placeholder('sessionId')))
@@ -65,11 +71,12 @@ export function setActiveShop(db: Pick<Db, 'update'>, sessionId: string, shopId:
 export function createShop(db: Db, who: { userId: string; sessionId: string }, body: { name: string; kind: ShopKind }, role: 'builder' | 'grinder'): string {
   return db.transaction((tx) => {
     const id = crypto.randomUUID();
-    const slug = `${body.name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '')}-${id.slice(0, 8)}`;
+    const slug = `${body.name
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, '-')
+      .replace(/^-|-$/g, '')}-${id.slice(0, 8)}`;
     tx.insert(schema.shops).values({ id, name: body.name, slug, kind: body.kind }).run();
-    tx.insert(schema.memberships)
-      .values({ id: crypto.randomUUID(), organizationId: id, userId: who.userId, role })
-      .run();
+    tx.insert(schema.memberships).values({ id: crypto.randomUUID(), organizationId: id, userId: who.userId, role }).run();
     setActiveShop(tx, who.sessionId, id);
     audit(tx, { shopId: id, userId: who.userId, action: 'create', entity: 'shop', entityId: id });
     return id;
@@ -82,7 +89,9 @@ export function joinInvitedShops(db: Db, user: { id: string; email: string }) {
     const pending = tx
       .select()
       .from(schema.invitations)
-      .where(and(eq(schema.invitations.email, user.email.toLowerCase()), eq(schema.invitations.status, 'pending'), gt(schema.invitations.expiresAt, new Date())))
+      .where(
+        and(eq(schema.invitations.email, user.email.toLowerCase()), eq(schema.invitations.status, 'pending'), gt(schema.invitations.expiresAt, new Date())),
+      )
       .all();
     for (const invitation of pending) {
       tx.insert(schema.memberships)

@@ -48,13 +48,21 @@ type NewLink = { id?: string; shopId: string; jobId: string; email: string | nul
 export function insertShareLink(tx: Pick<Db, 'insert'>, { id = crypto.randomUUID(), days, ...link }: NewLink) {
   const token = newShareToken();
   const expiresAt = new Date(Date.now() + days * 24 * 3600 * 1000);
-  const row = tx.insert(schema.shareLinks).values({ id, ...link, tokenHash: hashShareToken(token), expiresAt }).returning().get();
+  const row = tx
+    .insert(schema.shareLinks)
+    .values({ id, ...link, tokenHash: hashShareToken(token), expiresAt })
+    .returning()
+    .get();
   return { row, token };
 }
 
 /** The link a token opens (by its hash), whatever its state. */
 export function linkByToken(db: Reader, token: string): LinkRow | undefined {
-  return db.select().from(schema.shareLinks).where(eq(schema.shareLinks.tokenHash, hashShareToken(token))).get();
+  return db
+    .select()
+    .from(schema.shareLinks)
+    .where(eq(schema.shareLinks.tokenHash, hashShareToken(token)))
+    .get();
 }
 
 export function linkById(db: Reader, id: string): LinkRow | undefined {
@@ -71,7 +79,14 @@ export function ownLinks(db: Reader, shopId: string, email: string): LinkRow[] {
   return db
     .select()
     .from(schema.shareLinks)
-    .where(and(eq(schema.shareLinks.shopId, shopId), eq(schema.shareLinks.email, email.toLowerCase()), isNull(schema.shareLinks.revokedAt), gt(schema.shareLinks.expiresAt, new Date())))
+    .where(
+      and(
+        eq(schema.shareLinks.shopId, shopId),
+        eq(schema.shareLinks.email, email.toLowerCase()),
+        isNull(schema.shareLinks.revokedAt),
+        gt(schema.shareLinks.expiresAt, new Date()),
+      ),
+    )
     .orderBy(desc(schema.shareLinks.createdAt))
     .all();
 }
@@ -98,21 +113,36 @@ function inviteOwner(tx: Pick<Db, 'select' | 'insert'>, shopId: string, inviterI
     tx.insert(schema.memberships).values({ id: crypto.randomUUID(), organizationId: shopId, userId: user.id, role: 'customer' }).onConflictDoNothing().run();
     return;
   }
-  tx.insert(schema.invitations).values({ id: crypto.randomUUID(), organizationId: shopId, email, role: 'customer', status: 'pending', expiresAt, inviterId }).run();
+  tx.insert(schema.invitations)
+    .values({ id: crypto.randomUUID(), organizationId: shopId, email, role: 'customer', status: 'pending', expiresAt, inviterId })
+    .run();
 }
 
 /** A new link, with its token (shown this once; only its hash is kept). */
 export type CreatedShareLink = { link: ShareLink; token: string; expiresAt: Date; vehicle: string };
 
 /** A new link to the job's owner page (the job must offer an option), inviting the address it is mailed to. */
-export function createShareLink(db: Db, who: Actor, jobId: string, body: { email?: string | null; expiresInDays: number }, after?: AfterWrite<CreatedShareLink>): CreatedShareLink {
+export function createShareLink(
+  db: Db,
+  who: Actor,
+  jobId: string,
+  body: { email?: string | null; expiresInDays: number },
+  after?: AfterWrite<CreatedShareLink>,
+): CreatedShareLink {
   return db.transaction((tx) => {
     requireJob(tx, who.shopId, jobId);
     const hasOptions = tx.select({ id: schema.ownerOptions.id }).from(schema.ownerOptions).where(eq(schema.ownerOptions.jobId, jobId)).get();
     if (!hasOptions) throw conflict('Offer the owner at least one option before sharing the page');
     const made = insertShareLink(tx, { shopId: who.shopId, jobId, email: body.email ?? null, days: body.expiresInDays, createdBy: who.userId });
     const { row } = made;
-    audit(tx, { shopId: who.shopId, userId: who.userId, action: 'create', entity: 'share-link', entityId: row.id, detail: { jobId, expiresAt: row.expiresAt.toISOString(), emailed: Boolean(body.email) } });
+    audit(tx, {
+      shopId: who.shopId,
+      userId: who.userId,
+      action: 'create',
+      entity: 'share-link',
+      entityId: row.id,
+      detail: { jobId, expiresAt: row.expiresAt.toISOString(), emailed: Boolean(body.email) },
+    });
     if (body.email) inviteOwner(tx, who.shopId, who.userId, body.email, row.expiresAt);
     const created = { link: toShareLink(row), token: made.token, expiresAt: row.expiresAt, vehicle: jobVehicle(tx, jobId) ?? '' };
     after?.(tx, created);

@@ -156,12 +156,7 @@ export function jobCoreOf(db: Reader, shopId: string, jobId: string, engine: Eng
 }
 
 /** A new sheet on the job from one of its profiles, with revision 1 as a draft against the job's engine. */
-export function createSheet(
-  db: Db,
-  who: Actor,
-  jobId: string,
-  body: z.output<typeof sheetCreateSchema>,
-): SheetWithHistory {
+export function createSheet(db: Db, who: Actor, jobId: string, body: z.output<typeof sheetCreateSchema>): SheetWithHistory {
   return db.transaction((tx) => {
     requireJob(tx, who.shopId, jobId);
     const engine = requireEngine(tx, who.shopId, jobId);
@@ -209,7 +204,12 @@ export function createSheet(
  * Saves a sheet: edits the draft revision in place, or writes the next revision when the
  * latest is issued (or `newRevision` asks for one), leaving the earlier one as it was.
  */
-export function saveSheet(db: Db, who: Actor, id: string, { version, refreshEngine, newRevision, ...changes }: z.output<typeof sheetSaveSchema>): SheetWithHistory {
+export function saveSheet(
+  db: Db,
+  who: Actor,
+  id: string,
+  { version, refreshEngine, newRevision, ...changes }: z.output<typeof sheetSaveSchema>,
+): SheetWithHistory {
   return db.transaction((tx) => {
     const current = tx
       .select()

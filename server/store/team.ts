@@ -24,13 +24,18 @@ export function recipients(db: Reader, shopId: string, role: 'builder' | 'grinde
     .all();
 }
 
-
-
 /** The shop's staff (vehicle owners are not the team) and its open invitations. */
 export function loadTeam(db: Reader, ctx: TeamViewer): Team {
   const roles = [...staffRoles[ctx.shop.kind]];
   const members = db
-    .select({ id: schema.memberships.id, userId: schema.users.id, name: schema.users.name, email: schema.users.email, role: schema.memberships.role, joinedAt: schema.memberships.createdAt })
+    .select({
+      id: schema.memberships.id,
+      userId: schema.users.id,
+      name: schema.users.name,
+      email: schema.users.email,
+      role: schema.memberships.role,
+      joinedAt: schema.memberships.createdAt,
+    })
     .from(schema.memberships)
     .innerJoin(schema.users, eq(schema.users.id, schema.memberships.userId))
     .where(and(eq(schema.memberships.organizationId, ctx.shop.id), inArray(schema.memberships.role, roles)))
@@ -38,7 +43,13 @@ export function loadTeam(db: Reader, ctx: TeamViewer): Team {
     .all();
   const now = Date.now();
   const invitations = db
-    .select({ id: schema.invitations.id, email: schema.invitations.email, role: schema.invitations.role, expiresAt: schema.invitations.expiresAt, invitedBy: schema.users.name })
+    .select({
+      id: schema.invitations.id,
+      email: schema.invitations.email,
+      role: schema.invitations.role,
+      expiresAt: schema.invitations.expiresAt,
+      invitedBy: schema.users.name,
+    })
     .from(schema.invitations)
     .leftJoin(schema.users, eq(schema.users.id, schema.invitations.inviterId))
     .where(and(eq(schema.invitations.organizationId, ctx.shop.id), eq(schema.invitations.status, 'pending'), inArray(schema.invitations.role, roles)))

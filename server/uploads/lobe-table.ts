@@ -110,7 +110,11 @@ export function parseLobeTable(text: string, fileName: string): LobeTable {
     else {
       const crank = basis === 'cam' ? angle * 2 : angle;
       if (crank < lobeCsvLimits.minAngle || crank > lobeCsvLimits.maxAngle) {
-        problems.add(row, angleName, `Angle ${angle} is outside ${lobeCsvLimits.minAngle}…${lobeCsvLimits.maxAngle} crank degrees${basis === 'cam' ? ' (cam degrees are doubled)' : ''}`);
+        problems.add(
+          row,
+          angleName,
+          `Angle ${angle} is outside ${lobeCsvLimits.minAngle}…${lobeCsvLimits.maxAngle} crank degrees${basis === 'cam' ? ' (cam degrees are doubled)' : ''}`,
+        );
       }
       if (previous && !(angle > previous.angle)) {
         problems.add(row, angleName, `Angles must increase down the file: ${angle} does not come after ${previous.angle} on row ${previous.row}`);

@@ -3,7 +3,22 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { schema } from '@/db';
 
-import { bodyHeaders, errorShapeProblems, webhookCall, invalidStoredRows, lobeUpload, malformedJson, mutatedBody, nastyParam, nastyQuery, pageQuery, photoUpload, prototypeShape, toForm, type Upload } from './fuzz';
+import {
+  bodyHeaders,
+  errorShapeProblems,
+  webhookCall,
+  invalidStoredRows,
+  lobeUpload,
+  malformedJson,
+  mutatedBody,
+  nastyParam,
+  nastyQuery,
+  pageQuery,
+  photoUpload,
+  prototypeShape,
+  toForm,
+  type Upload,
+} from './fuzz';
 import { appRoutes, fillPath, matrix } from './matrix';
 import type { ApiRoute } from './routes';
 import { buildWorld, isolated, type Actor, type World } from './world';
@@ -32,7 +47,13 @@ beforeAll(async () => {
 afterAll(() => w?.t.close());
 
 /** Sends one request from the world's baseline and returns everything wrong with how the server took it. */
-async function send(who: Actor, method: string, url: string, body: unknown, headers?: Record<string, string>): Promise<{ status: number; code?: string; problems: string[] }> {
+async function send(
+  who: Actor,
+  method: string,
+  url: string,
+  body: unknown,
+  headers?: Record<string, string>,
+): Promise<{ status: number; code?: string; problems: string[] }> {
   return isolated(w, async (probe) => {
     const prototypes = prototypeShape();
     const res = await w.as[who].request(method, url, body, headers);
@@ -41,7 +62,14 @@ async function send(who: Actor, method: string, url: string, body: unknown, head
     if (res.status >= 500) problems.push(`${res.status}: ${JSON.stringify(res.body).slice(0, 200)}`);
     if (refusedPayment) {
       // A signed event for the wrong amount is refused and recorded on purpose (the event id, its outcome, an audit row); nothing is paid.
-      if (w.t.db.select().from(schema.payments).all().some((p) => p.state !== 'open' && p.checkoutSessionId === w.a.paidSessionId)) problems.push('a refused payment changed state');
+      if (
+        w.t.db
+          .select()
+          .from(schema.payments)
+          .all()
+          .some((p) => p.state !== 'open' && p.checkoutSessionId === w.a.paidSessionId)
+      )
+        problems.push('a refused payment changed state');
       problems.push(...invalidStoredRows(w.t.db));
     } else if (res.status >= 400) {
       if (probe.dbChanged()) problems.push(`${res.status} but the database changed`);
@@ -50,7 +78,11 @@ async function send(who: Actor, method: string, url: string, body: unknown, head
     } else {
       problems.push(...invalidStoredRows(w.t.db));
     }
-    if (prototypeShape() !== prototypes || ({} as Record<string, unknown>).polluted !== undefined || ([] as unknown as Record<string, unknown>).polluted !== undefined) {
+    if (
+      prototypeShape() !== prototypes ||
+      ({} as Record<string, unknown>).polluted !== undefined ||
+      ([] as unknown as Record<string, unknown>).polluted !== undefined
+    ) {
       problems.push('Object.prototype was polluted');
     }
     const code = (res.body as { error?: { code?: string } } | null)?.error?.code;
@@ -88,7 +120,10 @@ async function fuzzAddress(route: ApiRoute, who: Actor, url: string, body: unkno
       { numRuns: numRuns.param },
     );
   }
-  await fc.assert(fc.asyncProperty(nastyQuery, async (query) => expectClean(await send(who, route.method, `${url}?${query}`, body))), { numRuns: numRuns.query });
+  await fc.assert(
+    fc.asyncProperty(nastyQuery, async (query) => expectClean(await send(who, route.method, `${url}?${query}`, body))),
+    { numRuns: numRuns.query },
+  );
 }
 
 describe('fuzzing every write route', { timeout: 60_000 * scale }, () => {
@@ -103,14 +138,26 @@ describe('fuzzing every write route', { timeout: 60_000 * scale }, () => {
     const upload = uploads[key];
     if (valid instanceof FormData) {
       expect(upload, `${key} takes a multipart form: add its generator to uploads in tests/api/fuzz.test.ts`).toBeDefined();
-      await fc.assert(fc.asyncProperty(upload!, async (form) => expectClean(await send(who, route.method, url, toForm(form)))), { numRuns: runs.upload });
+      await fc.assert(
+        fc.asyncProperty(upload!, async (form) => expectClean(await send(who, route.method, url, toForm(form)))),
+        { numRuns: runs.upload },
+      );
     }
     const jsonSeed = valid instanceof FormData ? {} : valid;
     if (route.method !== 'DELETE') {
-      await fc.assert(fc.asyncProperty(mutatedBody(jsonSeed), async (text) => expectClean(await send(who, route.method, url, text))), { numRuns: runs.body });
-      await fc.assert(fc.asyncProperty(malformedJson(jsonSeed), async (text) => expectClean(await send(who, route.method, url, text))), { numRuns: runs.malformed });
+      await fc.assert(
+        fc.asyncProperty(mutatedBody(jsonSeed), async (text) => expectClean(await send(who, route.method, url, text))),
+        { numRuns: runs.body },
+      );
+      await fc.assert(
+        fc.asyncProperty(malformedJson(jsonSeed), async (text) => expectClean(await send(who, route.method, url, text))),
+        { numRuns: runs.malformed },
+      );
       const text = JSON.stringify(jsonSeed);
-      await fc.assert(fc.asyncProperty(bodyHeaders, async (headers) => expectClean(await send(who, route.method, url, text, headers))), { numRuns: runs.headers });
+      await fc.assert(
+        fc.asyncProperty(bodyHeaders, async (headers) => expectClean(await send(who, route.method, url, text, headers))),
+        { numRuns: runs.headers },
+      );
     }
     await fuzzAddress(route, who, url, valid, runs);
   });
@@ -120,7 +167,10 @@ describe('fuzzing every write route', { timeout: 60_000 * scale }, () => {
     const stored = (await w.as['A.tech'].get(url)).body.measurement;
     expect(stored.kind).toBe('lobes');
     const seed = { version: stored.version, data: stored.data };
-    await fc.assert(fc.asyncProperty(mutatedBody(seed), async (text) => expectClean(await send('A.tech', 'PATCH', url, text))), { numRuns: runs.body });
+    await fc.assert(
+      fc.asyncProperty(mutatedBody(seed), async (text) => expectClean(await send('A.tech', 'PATCH', url, text))),
+      { numRuns: runs.body },
+    );
   });
 });
 

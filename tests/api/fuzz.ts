@@ -34,15 +34,13 @@ function nested(depth: number): unknown {
   return value;
 }
 
-const pollution = fc
-  .constantFrom(...pollutionKeys)
-  .map((key) => {
-    const inner = {};
-    setOwn(inner, 'polluted', 'yes');
-    const outer = {};
-    setOwn(outer, key, key === 'constructor' ? { prototype: inner } : inner);
-    return outer;
-  });
+const pollution = fc.constantFrom(...pollutionKeys).map((key) => {
+  const inner = {};
+  setOwn(inner, 'polluted', 'yes');
+  const outer = {};
+  setOwn(outer, key, key === 'constructor' ? { prototype: inner } : inner);
+  return outer;
+});
 
 /** Values no field expects: numbers as strings, extremes, NaN and Infinity, unicode, huge strings, wrong shapes. */
 export const nastyValue: fc.Arbitrary<unknown> = fc.oneof(
@@ -144,7 +142,18 @@ export function malformedJson(seed: unknown): fc.Arbitrary<string> {
   return fc.oneof(
     fc.nat({ max: Math.max(text.length - 2, 0) }).map((n) => text.slice(0, n + 1)),
     fc.string({ minLength: 1, maxLength: 6 }).map((junk) => `${text}${junk}}`),
-    fc.constantFrom("{'version': 1}", '{"a":1,}', '{"a":01}', '{"a":NaN}', '{"a":Infinity}', '/* x */ {}', '\u00ff\u00fe', 'undefined', '"just a string"', '42'),
+    fc.constantFrom(
+      "{'version': 1}",
+      '{"a":1,}',
+      '{"a":01}',
+      '{"a":NaN}',
+      '{"a":Infinity}',
+      '/* x */ {}',
+      '\u00ff\u00fe',
+      'undefined',
+      '"just a string"',
+      '42',
+    ),
   );
 }
 
@@ -177,7 +186,9 @@ export const nastyParam: fc.Arbitrary<string> = fc.oneof(
 /** Cursors a list might be sent: base64url of odd JSON (wrong shapes, huge or negative times), raw junk, very long. */
 export const pageCursor: fc.Arbitrary<string> = fc.oneof(
   fc.jsonValue().map((v) => Buffer.from(JSON.stringify(v) ?? 'null').toString('base64url')),
-  fc.tuple(fc.oneof(fc.integer(), fc.double(), fc.constant(8.64e15 + 1)), fc.string({ maxLength: 120 })).map((t) => Buffer.from(JSON.stringify(t)).toString('base64url')),
+  fc
+    .tuple(fc.oneof(fc.integer(), fc.double(), fc.constant(8.64e15 + 1)), fc.string({ maxLength: 120 }))
+    .map((t) => Buffer.from(JSON.stringify(t)).toString('base64url')),
   fc.string({ maxLength: 60 }),
   fc.integer({ min: 190, max: 400 }).map((n) => 'A'.repeat(n)),
 );
@@ -195,7 +206,10 @@ export const pageQuery: fc.Arbitrary<{ limit?: string; cursor?: string }> = fc.r
 export const nastyQuery: fc.Arbitrary<string> = fc
   .array(
     fc.tuple(
-      fc.oneof(fc.constantFrom('kind', '__proto__', '__proto__[polluted]', 'constructor[prototype][polluted]', 'kind[]', 'version', 'limit', 'cursor', 'limit[]'), fc.string({ maxLength: 10 })),
+      fc.oneof(
+        fc.constantFrom('kind', '__proto__', '__proto__[polluted]', 'constructor[prototype][polluted]', 'kind[]', 'version', 'limit', 'cursor', 'limit[]'),
+        fc.string({ maxLength: 10 }),
+      ),
       fc.oneof(fc.string({ unit: 'grapheme', maxLength: 20 }), fc.constantFrom('yes', 'NaN', '-1', '0', '201', '1e309', '%', '%ZZ'), pageCursor),
     ),
     { minLength: 1, maxLength: 4 },
@@ -203,8 +217,7 @@ export const nastyQuery: fc.Arbitrary<string> = fc
   .map((pairs) => pairs.map(([k, v]) => `${encodeURIComponent(k)}=${v.startsWith('%') ? v : encodeURIComponent(v)}`).join('&'));
 
 /** What `Object.prototype` and `Array.prototype` hold now, to compare after a call. */
-export const prototypeShape = () =>
-  JSON.stringify([Object.getOwnPropertyNames(Object.prototype).sort(), Object.getOwnPropertyNames(Array.prototype).sort()]);
+export const prototypeShape = () => JSON.stringify([Object.getOwnPropertyNames(Object.prototype).sort(), Object.getOwnPropertyNames(Array.prototype).sort()]);
 
 /** A payment row as the deposit routes and the webhook write it. */
 const storedPayment = zod.object({
@@ -247,20 +260,28 @@ export function invalidStoredRows(db: Db): string[] {
     if (!(photoMimeTypes as readonly string[]).includes(p.mimeType)) problems.push(`photo ${p.id}: type ${p.mimeType}`);
   }
   for (const c of db.select().from(schema.checklistItems).all()) check(problems, `checklist item ${c.id}`, checklistAddSchema, { label: c.label });
-  for (const s of db.select().from(schema.shopSettings).all()) check(problems, `limits of ${s.shopId}`, shopLimitsSaveSchema, { version: s.version, limits: s.limits });
+  for (const s of db.select().from(schema.shopSettings).all())
+    check(problems, `limits of ${s.shopId}`, shopLimitsSaveSchema, { version: s.version, limits: s.limits });
   for (const o of db.select().from(schema.grindOrders).all()) {
     check(problems, `order ${o.id} quote`, orderMoveSchema.shape.quote, o.quote ?? undefined);
     check(problems, `order ${o.id} shipping`, orderMoveSchema.shape.shipping, o.shipping ?? undefined);
     if (!(orderStages as readonly string[]).includes(o.stage)) problems.push(`order ${o.id}: stage ${o.stage}`);
   }
   for (const m of db.select().from(schema.orderMessages).all()) check(problems, `message ${m.id}`, messageSchema, { body: m.body });
-  for (const p of db.select().from(schema.ownerPages).all()) check(problems, `owner page ${p.jobId}`, ownerPageSchema, { version: p.version, whatFailed: p.whatFailed });
+  for (const p of db.select().from(schema.ownerPages).all())
+    check(problems, `owner page ${p.jobId}`, ownerPageSchema, { version: p.version, whatFailed: p.whatFailed });
   for (const o of db.select().from(schema.ownerOptions).all()) {
     const { sheetId, title, ownerNote, priceCents, depositCents, leadTimeDays } = o;
     check(problems, `option ${o.id}`, ownerOptionCreateSchema, { sheetId, title, ownerNote, priceCents, depositCents, leadTimeDays });
   }
   for (const a of db.select().from(schema.ownerApprovals).all()) {
-    check(problems, `approval ${a.id}`, approveSchema, { optionId: a.optionId, checksum: a.checksum, offer: a.offerChecksum, name: a.approverName, agree: true });
+    check(problems, `approval ${a.id}`, approveSchema, {
+      optionId: a.optionId,
+      checksum: a.checksum,
+      offer: a.offerChecksum,
+      name: a.approverName,
+      agree: true,
+    });
   }
   for (const p of db.select().from(schema.payments).all()) {
     check(problems, `payment ${p.id}`, storedPayment, { amountCents: p.amountCents, currency: p.currency, state: p.state, paidAt: p.paidAt });
@@ -288,14 +309,33 @@ export type Upload = { files: FilePart[]; fields: [string, string][] };
 
 const nastyFileName = fc.oneof(
   fc.string({ unit: 'grapheme', maxLength: 30 }).map((s) => `${s}.png`),
-  fc.constantFrom('../../escape.png', '..\\..\\escape.jpg', '.png', 'photo', 'photo.exe', 'photo.png.sh', '__proto__', 'constructor.png', 'x.PNG', 'lobes.csv', 'lobes.CSV', 'lobes.txt'),
+  fc.constantFrom(
+    '../../escape.png',
+    '..\\..\\escape.jpg',
+    '.png',
+    'photo',
+    'photo.exe',
+    'photo.png.sh',
+    '__proto__',
+    'constructor.png',
+    'x.PNG',
+    'lobes.csv',
+    'lobes.CSV',
+    'lobes.txt',
+  ),
   fc.integer({ min: 200, max: 2_000 }).map((n) => `${'n'.repeat(n)}.jpg`),
 );
 const partField = (expected: string) =>
   fc.oneof({ weight: 4, arbitrary: fc.constant(expected) }, { weight: 1, arbitrary: fc.constantFrom('photo', 'file', 'files[]', ...pollutionKeys) });
 const textField = fc.tuple(
-  fc.oneof(fc.constantFrom('caption', 'note', 'shareable', ...pollutionKeys, '__proto__[polluted]', 'constructor[prototype][polluted]'), fc.string({ maxLength: 10 })),
-  fc.oneof(fc.string({ unit: 'grapheme', maxLength: 40 }), fc.integer({ min: 200, max: 5_000 }).map((n) => 'c'.repeat(n))),
+  fc.oneof(
+    fc.constantFrom('caption', 'note', 'shareable', ...pollutionKeys, '__proto__[polluted]', 'constructor[prototype][polluted]'),
+    fc.string({ maxLength: 10 }),
+  ),
+  fc.oneof(
+    fc.string({ unit: 'grapheme', maxLength: 40 }),
+    fc.integer({ min: 200, max: 5_000 }).map((n) => 'c'.repeat(n)),
+  ),
 );
 const imageHead = (head: number[]) => {
   const out = new Uint8Array(48);
@@ -331,7 +371,10 @@ const lobeCell = fc.oneof(
   fc.constantFrom('', ' ', 'NaN', 'Infinity', '-0', '1e309', '0x10', '"0.1"', '0,1', '١٢', '0.1.2'),
   fc.string({ unit: 'grapheme', maxLength: 6 }),
 );
-const lobeHeader = fc.oneof(fc.constantFrom('angle', 'cam_angle', '1I', '1E', '3e', '16I', '17I', '0E', '1X', '', '#', '__proto__'), fc.string({ maxLength: 6 }));
+const lobeHeader = fc.oneof(
+  fc.constantFrom('angle', 'cam_angle', '1I', '1E', '3e', '16I', '17I', '0E', '1X', '', '#', '__proto__'),
+  fc.string({ maxLength: 6 }),
+);
 const lineEnd = fc.constantFrom('\n', '\r\n', '\r');
 
 /** Lobe-table texts: a small valid table with a cell, row or header changed, or a table of odd cells. */
@@ -344,7 +387,11 @@ export const lobeCsv: fc.Arbitrary<string> = fc.oneof(
       return `${bom ? '\uFEFF' : ''}${rows.map((r) => r.join(',')).join(eol)}${eol}`;
     }),
   fc
-    .record({ header: fc.array(lobeHeader, { minLength: 1, maxLength: 6 }), rows: fc.array(fc.array(lobeCell, { maxLength: 7 }), { maxLength: 12 }), eol: lineEnd })
+    .record({
+      header: fc.array(lobeHeader, { minLength: 1, maxLength: 6 }),
+      rows: fc.array(fc.array(lobeCell, { maxLength: 7 }), { maxLength: 12 }),
+      eol: lineEnd,
+    })
     .map(({ header, rows, eol }) => [header, ...rows].map((r) => r.join(',')).join(eol)),
 );
 
@@ -408,7 +455,9 @@ export function webhookCall(sessionId: string, secret: string): fc.Arbitrary<Web
     { weight: 1, arbitrary: fc.constant(() => undefined) },
     {
       weight: 1,
-      arbitrary: fc.oneof(fc.constantFrom('', 't=', 'v1=', 't=1,v1=00', 't=NaN,v1=zz', ',,,', 't=1e309'), fc.string({ maxLength: 60 })).map((junk) => () => junk),
+      arbitrary: fc
+        .oneof(fc.constantFrom('', 't=', 'v1=', 't=1,v1=00', 't=NaN,v1=zz', ',,,', 't=1e309'), fc.string({ maxLength: 60 }))
+        .map((junk) => () => junk),
     },
   );
   return fc.record({ body, signature, type: fc.option(bodyHeaders.map((h) => h['content-type'])) }).map(({ body: text, signature: sign, type }) => {

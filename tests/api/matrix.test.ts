@@ -7,7 +7,19 @@ import { apiMiddleware, appRoutes, fillPath, matrix, notCalled, type MatrixRow }
 import { isApiPath, type ApiRoute } from './routes';
 import { schema } from '@/db';
 
-import { actors, buildWorld, internalTexts, isolated, paymentEvent, shopAMembers, shopAReaders, signWebhook, type Actor, type Marker, type World } from './world';
+import {
+  actors,
+  buildWorld,
+  internalTexts,
+  isolated,
+  paymentEvent,
+  shopAMembers,
+  shopAReaders,
+  signWebhook,
+  type Actor,
+  type Marker,
+  type World,
+} from './world';
 
 /** The app's own route table: every API route it registers, with the development tools on. */
 const table = appRoutes();
@@ -77,7 +89,13 @@ async function tryRoute(route: ApiRoute, row: MatrixRow, who: Actor): Promise<{ 
       const files = probe.filesChanged();
       if (files.length) problems.push(`changed files ${files.join(', ')}`);
     }
-    const unseen = !allowed ? seen : row.showsEveryone ? [] : row.ownerPage ? seen.filter((m) => !ownerPageShows(m, who)) : seen.filter((m) => !m.readers.includes(who));
+    const unseen = !allowed
+      ? seen
+      : row.showsEveryone
+        ? []
+        : row.ownerPage
+          ? seen.filter((m) => !ownerPageShows(m, who))
+          : seen.filter((m) => !m.readers.includes(who));
     if (unseen.length) problems.push(`showed ${unseen.map((m) => m.what).join(', ')}`);
     if (allowed && !row.ownerPage && !row.changesShopA && !insidersOfA.includes(who) && probe.shopAChanged()) problems.push("changed shop A's records");
     const said = `${route.key} as ${who} answered ${res.status}`;
@@ -150,7 +168,12 @@ describe('authorization matrix', { timeout: 60_000 }, () => {
 
 describe("the owner's page and the payment webhook", { timeout: 60_000 }, () => {
   const ownerPageRoutes = () => apiRoutes.filter((r) => matrix[r.key]?.ownerPage);
-  const paymentOf = (sessionId: string) => w.t.db.select().from(schema.payments).all().find((p) => p.checkoutSessionId === sessionId);
+  const paymentOf = (sessionId: string) =>
+    w.t.db
+      .select()
+      .from(schema.payments)
+      .all()
+      .find((p) => p.checkoutSessionId === sessionId);
 
   it('answers a wrong share token with 404 for everyone and changes nothing', async () => {
     const wrong = (w.a.shareToken[0] === 'A' ? 'B' : 'A') + w.a.shareToken.slice(1);
@@ -177,10 +200,17 @@ describe("the owner's page and the payment webhook", { timeout: 60_000 }, () => 
       for (const who of ['anonymous', 'A.builder', 'A.customer'] as const) {
         if (!row.allow.includes(who)) continue;
         await isolated(w, async () => {
-          const res = await w.as[who].request(route.method, fillPath(route.path, row.params?.(w) ?? {}), row.body?.(w, who) ?? (route.method === 'GET' ? undefined : {}));
+          const res = await w.as[who].request(
+            route.method,
+            fillPath(route.path, row.params?.(w) ?? {}),
+            row.body?.(w, who) ?? (route.method === 'GET' ? undefined : {}),
+          );
           expect(res.status, `${route.key} as ${who}`).toBeLessThan(300);
           const text = typeof res.body === 'string' ? res.body : JSON.stringify(res.body);
-          expect(internalTexts.filter((t) => text.includes(t)), `${route.key} as ${who}`).toEqual([]);
+          expect(
+            internalTexts.filter((t) => text.includes(t)),
+            `${route.key} as ${who}`,
+          ).toEqual([]);
         });
       }
     }
@@ -190,13 +220,19 @@ describe("the owner's page and the payment webhook", { timeout: 60_000 }, () => 
     const payload = JSON.stringify(paymentEvent(w.a.paidSessionId));
     expect(paymentOf(w.a.paidSessionId)?.state).toBe('open');
     await isolated(w, async (probe) => {
-      const forged = await w.as['B.builder'].request('POST', '/api/payments/webhook', payload, { 'stripe-signature': signWebhook(payload, 'whsec_test_someone_else') });
+      const forged = await w.as['B.builder'].request('POST', '/api/payments/webhook', payload, {
+        'stripe-signature': signWebhook(payload, 'whsec_test_someone_else'),
+      });
       expect(forged.status).toBe(400);
       expect(probe.dbChanged()).toBe(false);
-      const res = await w.as.anonymous.request('POST', '/api/payments/webhook', payload, { 'stripe-signature': signWebhook(payload, w.t.payments.webhookSecret) });
+      const res = await w.as.anonymous.request('POST', '/api/payments/webhook', payload, {
+        'stripe-signature': signWebhook(payload, w.t.payments.webhookSecret),
+      });
       expect(res).toEqual({ status: 200, body: { received: true, duplicate: false } });
       expect(paymentOf(w.a.paidSessionId)).toMatchObject({ state: 'paid', amountCents: 20_000 });
-      const replay = await w.as.anonymous.request('POST', '/api/payments/webhook', payload, { 'stripe-signature': signWebhook(payload, w.t.payments.webhookSecret) });
+      const replay = await w.as.anonymous.request('POST', '/api/payments/webhook', payload, {
+        'stripe-signature': signWebhook(payload, w.t.payments.webhookSecret),
+      });
       expect(replay.body).toEqual({ received: true, duplicate: true });
     });
     expect(paymentOf(w.a.paidSessionId)?.state).toBe('open');

@@ -60,7 +60,13 @@ const confirm = (w: World) => ({ sessionId: w.a.paidSessionId });
 const byToken = 'anyone holding the link is the owner: the 256-bit token is the secret (a wrong one is 404 for everyone, checked in matrix.test.ts)';
 const byAccount = "A's customer, signed in, to whose e-mail the builder sent the link; other shops' customers and staff are refused";
 /** The owner's page and its actions, the same at /api/share/:token and /api/my/jobs/:jobId. */
-const ownerRoutes = (prefix: string, allow: readonly Actor[], ownerPage: string, job: (w: World) => Record<string, string>, paid: (w: World) => Record<string, string>) => ({
+const ownerRoutes = (
+  prefix: string,
+  allow: readonly Actor[],
+  ownerPage: string,
+  job: (w: World) => Record<string, string>,
+  paid: (w: World) => Record<string, string>,
+) => ({
   [`GET ${prefix}`]: { allow, ownerPage, params: job },
   [`GET ${prefix}/photos/:photoId`]: { allow, ownerPage, params: (w: World) => ({ ...job(w), ...sharePhoto(w) }) },
   [`POST ${prefix}/approve`]: { allow, ownerPage, params: job, body: approve },
@@ -209,13 +215,24 @@ export const matrix: Record<string, MatrixRow> = {
   'POST /api/shop/mail-failures/:id/retry': { allow: builderA, params: (w) => ({ id: w.a.failedMailId }) },
   // An invitation, as the person it was sent to opens it.
   'GET /api/invitations/:id': { allow: ['B.tech'], params: bTechInvitation, showsEveryone: invitedSees },
-  'POST /api/invitations/:id/accept': { allow: ['B.tech'], params: bTechInvitation, showsEveryone: invitedSees, changesShopA: 'accepting makes B\'s tech a member of A, as A asked' },
-  'POST /api/invitations/:id/decline': { allow: ['B.tech'], params: bTechInvitation, showsEveryone: invitedSees, changesShopA: "declining closes A's invitation" },
+  'POST /api/invitations/:id/accept': {
+    allow: ['B.tech'],
+    params: bTechInvitation,
+    showsEveryone: invitedSees,
+    changesShopA: "accepting makes B's tech a member of A, as A asked",
+  },
+  'POST /api/invitations/:id/decline': {
+    allow: ['B.tech'],
+    params: bTechInvitation,
+    showsEveryone: invitedSees,
+    changesShopA: "declining closes A's invitation",
+  },
 
   // The development mailbox (demo mode only): each person reads only the mail addressed to them.
   'GET /api/dev/outbox': {
     allow: signedIn,
-    showsEveryone: 'each person reads only the mail addressed to them (orders.test.ts checks a stranger sees none of it), and that mail names the records it is about',
+    showsEveryone:
+      'each person reads only the mail addressed to them (orders.test.ts checks a stranger sees none of it), and that mail names the records it is about',
   },
   'GET /api/dev/outbox/:id': { allow: ['A.builder'], params: (w) => ({ id: w.a.outboxId }) },
 };

@@ -15,7 +15,9 @@ type Layer = {
 
 function join(prefix: string, part: unknown, where: string): string {
   if (typeof part !== 'string') {
-    throw new Error(`${where} under "${prefix || '/'}" is mounted on a ${Array.isArray(part) ? 'list' : typeof part} path; the route table reads string paths only`);
+    throw new Error(
+      `${where} under "${prefix || '/'}" is mounted on a ${Array.isArray(part) ? 'list' : typeof part} path; the route table reads string paths only`,
+    );
   }
   const joined = (prefix + (part === '/' ? '' : part)).replace(/\/+$/, '');
   return joined || '/';

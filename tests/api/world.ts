@@ -134,7 +134,17 @@ const text = {
 };
 
 /** Shop A's internal texts: never on the owner's page, whoever opens it. */
-export const internalTexts = [text.findings, text.complaint, text.sheetNote, text.coreNotes, text.orderNote, text.reply, text.measurement, text.lobes, text.caption];
+export const internalTexts = [
+  text.findings,
+  text.complaint,
+  text.sheetNote,
+  text.coreNotes,
+  text.orderNote,
+  text.reply,
+  text.measurement,
+  text.lobes,
+  text.caption,
+];
 
 /** A `checkout.session.completed` event for `sessionId`, as the payment service sends it, with `change` applied. */
 export const paymentEvent = (sessionId: string, change: Record<string, unknown> = {}) => ({
@@ -161,7 +171,10 @@ export const lobeTableRows = (): string[][] => [
   ['angle', '1I', '1E'],
   ...Array.from({ length: 9 }, (_, i) => [String(-40 + 10 * i), (0.07 * (4 - Math.abs(4 - i))).toFixed(3), (0.068 * (4 - Math.abs(4 - i))).toFixed(3)]),
 ];
-export const lobeCsvText = () => `${lobeTableRows().map((r) => r.join(',')).join('\n')}\n`;
+export const lobeCsvText = () =>
+  `${lobeTableRows()
+    .map((r) => r.join(','))
+    .join('\n')}\n`;
 
 function expectStatus(res: { status: number; body: unknown }, status: number, what: string) {
   if (res.status !== status) throw new Error(`${what}: ${res.status} ${JSON.stringify(res.body)}`);
@@ -170,7 +183,11 @@ function expectStatus(res: { status: number; body: unknown }, status: number, wh
 /** Builds the shops, people and records once; every matrix or fuzz call then starts from this state. */
 export async function buildWorld(): Promise<World> {
   // The share pages' per-address limit would refuse the suites' many calls from one address.
-  const t = await createTestApp({ devTools: true, calcRateLimit: { limit: 100_000, windowMs: 60_000 }, shareRateLimit: { limit: 1_000_000, windowMs: 60_000 } });
+  const t = await createTestApp({
+    devTools: true,
+    calcRateLimit: { limit: 100_000, windowMs: 60_000 },
+    shareRateLimit: { limit: 1_000_000, windowMs: 60_000 },
+  });
   const a = await makeJobWithEngine(t, text.shop);
   const builder = a.founder;
   const [aTech, aGrinder, aCustomer] = [
@@ -219,7 +236,10 @@ export async function buildWorld(): Promise<World> {
     data: { method: 'clay', intake: [{ crankAngle: -10, clearance: 0.22 }], exhaust: [{ crankAngle: 10, clearance: 0.2 }] },
   });
   expectStatus(measurement, 201, 'measurement');
-  const lobes = await aTech.upload(`/api/jobs/${a.jobId}/measurements/lobes`, formWith([['file', 'lobes.csv', lobeCsvText(), 'text/csv']], { note: text.lobes }));
+  const lobes = await aTech.upload(
+    `/api/jobs/${a.jobId}/measurements/lobes`,
+    formWith([['file', 'lobes.csv', lobeCsvText(), 'text/csv']], { note: text.lobes }),
+  );
   expectStatus(lobes, 201, 'lobe table');
   const photo = await aTech.upload(`/api/jobs/${a.jobId}/photos`, formWith([['photos', text.photoName, PNG, 'image/png']], { caption: text.caption }));
   expectStatus(photo, 201, 'photo');
@@ -388,7 +408,11 @@ async function paidJob(builder: Client, customer: { email: string }) {
   expectStatus(link, 201, 'paid job link');
   const token = link.body.token as string;
   const { id, checksum, offer } = (await new Client(builder.baseUrl).get(`/api/share/${token}`)).body.view.options[0];
-  expectStatus(await new Client(builder.baseUrl).post(`/api/share/${token}/approve`, { optionId: id, checksum, offer, name: 'Test Owner', agree: true }), 201, 'approval');
+  expectStatus(
+    await new Client(builder.baseUrl).post(`/api/share/${token}/approve`, { optionId: id, checksum, offer, name: 'Test Owner', agree: true }),
+    201,
+    'approval',
+  );
   const deposit = await new Client(builder.baseUrl).post(`/api/share/${token}/deposit`);
   expectStatus(deposit, 201, 'deposit');
   return { paidJobId: jobId, paidToken: token, paidSessionId: new URL(deposit.body.url as string).pathname.split('/').pop()! };
@@ -420,7 +444,14 @@ function tableNames(db: Db): string[] {
 
 function hashRows(db: Db, sql: string, params: unknown[] = []): string {
   return createHash('sha256')
-    .update(JSON.stringify(db.$client.prepare(sql).raw().all(...params)))
+    .update(
+      JSON.stringify(
+        db.$client
+          .prepare(sql)
+          .raw()
+          .all(...params),
+      ),
+    )
     .digest('hex');
 }
 
@@ -447,7 +478,13 @@ export function shopFingerprint(db: Db, shopId: string): string {
       const filters = table === 'shops' ? ['id = ?'] : columns.flatMap((c) => (ownerFilters[c] ? [ownerFilters[c]] : []));
       if (!filters.length) return [];
       const sql = `select * from ${quote(table)} where ${filters.join(' or ')} order by rowid`;
-      return [`${table}:${hashRows(db, sql, filters.map(() => shopId))}`];
+      return [
+        `${table}:${hashRows(
+          db,
+          sql,
+          filters.map(() => shopId),
+        )}`,
+      ];
     })
     .join('\n');
 }

@@ -69,7 +69,9 @@ function seedJobs(databasePath: string, count: number) {
   const db = new Database(databasePath);
   try {
     const shop = db
-      .prepare(`select m.shop_id as id from memberships m join users u on u.id = m.user_id join shops s on s.id = m.shop_id where u.email = ? and s.kind = 'repair' limit 1`)
+      .prepare(
+        `select m.shop_id as id from memberships m join users u on u.id = m.user_id join shops s on s.id = m.shop_id where u.email = ? and s.kind = 'repair' limit 1`,
+      )
       .get(demoAccounts[0]!.email) as { id: string } | undefined;
     if (!shop) throw new Error('the demo builder has no shop');
     const insert = db.prepare('insert into jobs (id, shop_id, vehicle, customer_name, complaint, created_at, updated_at) values (?, ?, ?, ?, ?, ?, ?)');
@@ -115,7 +117,9 @@ async function main() {
     const bare = await load(`${server.url}/api/health`);
     const sheetLoad = await load(`${server.url}${sheetPath}`, { cookie });
     const ratio = sheetLoad.rps / bare.rps;
-    console.log(`bare JSON route /api/health: ${Math.round(bare.rps)} req/s, p50 ${bare.p50} ms, p99 ${bare.p99} ms (${CONNECTIONS} connections, ${SECONDS} s)`);
+    console.log(
+      `bare JSON route /api/health: ${Math.round(bare.rps)} req/s, p50 ${bare.p50} ms, p99 ${bare.p99} ms (${CONNECTIONS} connections, ${SECONDS} s)`,
+    );
     console.log(`sheet with analysis ${sheetPath}: ${Math.round(sheetLoad.rps)} req/s, p50 ${sheetLoad.p50} ms, p99 ${sheetLoad.p99} ms`);
     console.log(`sheet/bare throughput ratio: ${ratio.toFixed(2)} (budget ≥ ${RATIO_BUDGET}); sheet p99 ${sheetLoad.p99} ms (budget ≤ ${P99_BUDGET_MS} ms)`);
 
@@ -123,7 +127,8 @@ async function main() {
     const unloaded = await latency(healthUrl, 1);
     const jobsUrl = `${server.url}/api/jobs`;
     const firstPage = await builder.get('/api/jobs');
-    if (firstPage.status !== 200 || firstPage.body.jobs.length !== 50 || !firstPage.body.nextCursor) throw new Error(`jobs list answered ${firstPage.status} without a first page of 50`);
+    if (firstPage.status !== 200 || firstPage.body.jobs.length !== 50 || !firstPage.body.nextCursor)
+      throw new Error(`jobs list answered ${firstPage.status} without a first page of 50`);
     await autocannon({ url: jobsUrl, connections: JOBS_CONNECTIONS, duration: 1, headers: { cookie } });
     const [jobsLoad, loadedHealth] = await Promise.all([latency(jobsUrl, JOBS_CONNECTIONS, { cookie }), latency(healthUrl, 1)]);
     const healthBudget = HEALTH_SLOWDOWN_BUDGET * Math.max(1, unloaded.p99);
@@ -131,7 +136,9 @@ async function main() {
     console.log(
       `GET /api/jobs, ${JOBS} jobs in the shop, first page: ${Math.round(jobsLoad.rps)} req/s, p50 ${jobsLoad.p50} ms, p99 ${jobsLoad.p99} ms (${JOBS_CONNECTIONS} connections; budget ≤ ${JOBS_P99_BUDGET_MS} ms)`,
     );
-    console.log(`/api/health meanwhile: p50 ${loadedHealth.p50} ms, p99 ${loadedHealth.p99} ms (budget ≤ ${healthBudget} ms, ${HEALTH_SLOWDOWN_BUDGET}× alone)`);
+    console.log(
+      `/api/health meanwhile: p50 ${loadedHealth.p50} ms, p99 ${loadedHealth.p99} ms (budget ≤ ${healthBudget} ms, ${HEALTH_SLOWDOWN_BUDGET}× alone)`,
+    );
 
     const missed = [
       coldStart > COLD_START_BUDGET_MS && 'cold start',

@@ -17,7 +17,10 @@ describe('password reset', () => {
     const phone = await openPage(browser, 'phone');
     const p = phone.page;
     await p.goto(`${baseUrl()}/sign-in`);
-    const signedUp = await p.request.post(`${baseUrl()}/api/auth/sign-up/email`, { data: { name: 'Reset Person', email, password: oldPassword }, headers: { origin: baseUrl() } });
+    const signedUp = await p.request.post(`${baseUrl()}/api/auth/sign-up/email`, {
+      data: { name: 'Reset Person', email, password: oldPassword },
+      headers: { origin: baseUrl() },
+    });
     expect(signedUp.status()).toBe(200);
 
     const desk = await openPage(browser, 'wide');

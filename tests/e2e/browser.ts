@@ -68,7 +68,11 @@ export async function expectAccessible(page: Page) {
   // Evaluated through the browser's debugging protocol: a script tag would be refused by the page's policy.
   await page.evaluate(fs.readFileSync(require.resolve('axe-core/axe.min.js'), 'utf8'));
   const violations = await page.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run: (ctx: Document) => Promise<{ violations: { id: string; impact: string | null; help: string; nodes: { target: unknown }[] }[] }> } }).axe;
+    const axe = (
+      window as unknown as {
+        axe: { run: (ctx: Document) => Promise<{ violations: { id: string; impact: string | null; help: string; nodes: { target: unknown }[] }[] }> };
+      }
+    ).axe;
     const result = await axe.run(document);
     return result.violations
       .filter((v) => v.impact === 'serious' || v.impact === 'critical')

@@ -16,7 +16,9 @@ describe.each(Object.keys(viewports) as ViewportName[])('at %s width', (viewport
     await page.getByTestId('sign-in-email').waitFor();
     expect(new URL(page.url()).pathname).toBe('/sign-in');
     // The server started by `npm start` is a demo server, and says so on every screen with the fakes it runs.
-    await expect.poll(() => page.getByTestId('demo-banner').textContent()).toMatch(/Demo server · invented data · test payments, no real money · mail kept in the dev mailbox/);
+    await expect
+      .poll(() => page.getByTestId('demo-banner').textContent())
+      .toMatch(/Demo server · invented data · test payments, no real money · mail kept in the dev mailbox/);
     await expectAccessible(page);
     await screenshot(page, `sign-in-${viewport}`);
     await page.getByTestId('sign-in-email').fill(demo.builder);

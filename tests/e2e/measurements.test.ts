@@ -112,7 +112,9 @@ describe.each(Object.keys(viewports) as ViewportName[])('the tech on the bench a
     await shown(page, 'ptv-save').click();
     await shown(page, 'ptv-saved').waitFor();
     const stored = await page.request.get(`${baseUrl()}/api/jobs/${jobId}/measurements`);
-    const ptvRecord = ((await stored.json()) as { measurements: { kind: string; updatedAt: string; data: { exhaust: { clearance: number }[] } }[] }).measurements
+    const ptvRecord = (
+      (await stored.json()) as { measurements: { kind: string; updatedAt: string; data: { exhaust: { clearance: number }[] } }[] }
+    ).measurements
       .filter((m) => m.kind === 'ptv-baseline')
       .sort((a, b) => b.updatedAt.localeCompare(a.updatedAt))[0];
     expect(ptvRecord?.data.exhaust[0]?.clearance).toBeCloseTo(0.19, 9);
@@ -154,9 +156,7 @@ describe.each(Object.keys(viewports) as ViewportName[])('the tech on the bench a
     await shown(page, 'sheet-choice').waitFor();
     const historyBefore = await page.locator('[data-testid="fit-check-history"]:visible [role="listitem"]').count();
     await shown(page, 'run-fit-checks').click();
-    await expect.poll(() => page.locator('[data-testid="fit-check-history"]:visible [role="listitem"]').count(), { timeout: 15_000 }).toBe(
-      historyBefore + 1,
-    );
+    await expect.poll(() => page.locator('[data-testid="fit-check-history"]:visible [role="listitem"]').count(), { timeout: 15_000 }).toBe(historyBefore + 1);
     expect(await shown(page, 'fit-check-status').textContent()).toMatch(/^(Pass|Watch|Fail)$/);
     const ptvText = (await shown(page, 'fit-ptv').textContent()) ?? '';
     expect(ptvText).toMatch(/(Pass|Watch|Fail)Piston-to-valve, intake/);

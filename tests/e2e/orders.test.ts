@@ -138,7 +138,10 @@ describe.each(Object.keys(viewports) as ViewportName[])('grind order from issue 
     expect(list).not.toContain(`New spec sheet from Juniper Flats Engine Works (demo): ${sheetTitle}, rev ${revision}`);
     expect(list).toContain(`quoted ${sheetTitle}, rev ${revision}`);
     expect(list).toContain(`Your cam is on its way: ${sheetTitle}, rev ${revision}`);
-    await outbox.getByRole('button', { name: new RegExp(`on its way: .*rev ${revision}\\s*To `) }).first().click();
+    await outbox
+      .getByRole('button', { name: new RegExp(`on its way: .*rev ${revision}\\s*To `) })
+      .first()
+      .click();
     await expect.poll(() => shown(b, 'mail-text').textContent()).toContain(`/orders/${orderId}`);
     expect(await shown(b, 'mail-reader').textContent()).toContain(`To ${demo.builder}`);
     await expect.poll(() => shown(b, 'mail-html').getAttribute('sandbox')).toBe('');

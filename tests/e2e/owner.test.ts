@@ -78,9 +78,14 @@ describe('owner summary, approval and deposit', () => {
     await expect.poll(() => o.locator('[role="alert"]:visible').first().textContent()).toContain('Tick the box');
     await shown(o, 'approve-agree').click();
     // Meanwhile the builder raises the towing price: the approval the owner sends quotes the old offer and is refused.
-    const desk = (await (await b.request.get(`${baseUrl()}/api/jobs/demo-job-flatbed-cam/owner`)).json()) as { desk: { options: { id: string; version: number }[] } };
+    const desk = (await (await b.request.get(`${baseUrl()}/api/jobs/demo-job-flatbed-cam/owner`)).json()) as {
+      desk: { options: { id: string; version: number }[] };
+    };
     const towingOption = desk.desk.options.find((op) => op.id === 'demo-option-towing')!;
-    const raised = await b.request.patch(`${baseUrl()}/api/owner-options/demo-option-towing`, { data: { version: towingOption.version, priceCents: 80_000 }, headers: { origin: baseUrl() } });
+    const raised = await b.request.patch(`${baseUrl()}/api/owner-options/demo-option-towing`, {
+      data: { version: towingOption.version, priceCents: 80_000 },
+      headers: { origin: baseUrl() },
+    });
     expect(raised.status()).toBe(200);
     await shown(o, 'approve').click();
     await expect.poll(() => shown(o, 'offer-changed').textContent()).toContain('reload the page and read it again');
@@ -119,7 +124,8 @@ describe('owner summary, approval and deposit', () => {
     await shown(b, 'owner-desk-screen').waitFor();
     await expect.poll(() => shown(b, 'desk-approval').textContent()).toContain('Delia Carrow approved “Towing regrind (demo)”');
     expect(await shown(b, 'desk-payment').textContent()).toMatch(/^Deposit paid: \$225\.00 on /);
-    const payments = ((await (await b.request.get(`${baseUrl()}/api/jobs/demo-job-flatbed-cam/owner`)).json()) as { desk: { payments: { state: string }[] } }).desk.payments;
+    const payments = ((await (await b.request.get(`${baseUrl()}/api/jobs/demo-job-flatbed-cam/owner`)).json()) as { desk: { payments: { state: string }[] } })
+      .desk.payments;
     expect(payments.map((p) => p.state)).toEqual(['paid']);
     expect(await shown(b, 'share-link-row').textContent()).toContain('last opened');
     await screenshot(b, 'owner-desk-paid-wide');

@@ -16,10 +16,15 @@ async function linkInMailbox(page: Page, subject: RegExp): Promise<string> {
   await page.goto(`${baseUrl()}/mailbox`);
   await shown(page, 'mailbox-screen').waitFor();
   const message = page.locator('[data-testid^="outbox-"][role="button"]:visible', { hasText: subject }).first();
-  await expect.poll(async () => {
-    await shown(page, 'outbox-refresh').click();
-    return message.count();
-  }, { timeout: 15_000 }).toBe(1);
+  await expect
+    .poll(
+      async () => {
+        await shown(page, 'outbox-refresh').click();
+        return message.count();
+      },
+      { timeout: 15_000 },
+    )
+    .toBe(1);
   await message.click();
   const text = (await shown(page, 'mail-text').textContent()) ?? '';
   const link = text.match(/https?:\/\/\S+/g)?.at(-1);
