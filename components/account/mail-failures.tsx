@@ -1,10 +1,11 @@
 import { StyleSheet, Text, View } from 'react-native';
 
 import { formatDateTime } from '@/constants/format';
-import { colors, radius, space, type as typeScale } from '@/constants/theme';
+import { colors, space, type as typeScale } from '@/constants/theme';
 import { useMailFailuresQuery, useRetryMailMutation } from '@/hooks/use-shop-mail';
 
 import { Button } from '@/components/ui/button';
+import { listRow } from '@/components/ui/list-row';
 import { ErrorNotice, Pending } from '@/components/ui/query-state';
 
 /** Mail about the shop that did not go out after every try, each with the mail server's last answer and a way to send it again. */
@@ -36,18 +37,7 @@ export function MailFailures() {
 
 const styles = StyleSheet.create({
   list: { gap: space.sm },
-  row: {
-    flexDirection: 'row',
-    flexWrap: 'wrap',
-    alignItems: 'center',
-    justifyContent: 'space-between',
-    gap: space.sm,
-    padding: space.md,
-    backgroundColor: colors.failSoft,
-    borderColor: colors.fail,
-    borderWidth: 1,
-    borderRadius: radius.md,
-  },
+  row: { ...listRow, backgroundColor: colors.failSoft, borderColor: colors.fail },
   what: { flexGrow: 1, flexShrink: 1, flexBasis: 240, gap: 2 },
   subject: { ...typeScale.bodyStrong, color: colors.ink },
   meta: { ...typeScale.small, color: colors.inkMuted },

@@ -1,8 +1,9 @@
 import { useMemo, useState } from 'react';
 import { StyleSheet, Text, View, type LayoutChangeEvent } from 'react-native';
-import Svg, { G, Line, Path, Rect, Text as SvgText } from 'react-native-svg';
+import Svg, { G, Path, Rect } from 'react-native-svg';
 
 import type { ProfileAnalysis } from '@/calc/analysis';
+import { PlotGrid } from '@/components/compare/plot-grid';
 import { colors, fonts, seriesColors, space, type as typeScale } from '@/constants/theme';
 
 import { buildPlotPaths, niceTicks, type PlotMode } from '@/lib/lift-plot-paths';
@@ -51,32 +52,19 @@ export function LiftPlot({ analyses, names, mode, height = 300, testID }: LiftPl
               fill={colors.overlapShade}
             />
           ) : null}
-          {niceTicks(paths.yMin, paths.yMax, 4).map((v) => (
-            <G key={`y${v}`}>
-              <Line x1={padding.left} x2={width - padding.right} y1={paths.y(v)} y2={paths.y(v)} stroke={colors.grid} strokeWidth={1} />
-              <SvgText x={padding.left - 6} y={paths.y(v) + 4} fontSize={11} fontFamily={fonts.mono} fill={colors.inkMuted} textAnchor="end">
-                {yLabel(v, mode)}
-              </SvgText>
-            </G>
-          ))}
-          {xTicks.map((deg) => (
-            <G key={`x${deg}`}>
-              <Line
-                x1={paths.x(deg)}
-                x2={paths.x(deg)}
-                y1={padding.top}
-                y2={height - padding.bottom}
-                stroke={deg === 0 || Math.abs(deg) === 180 ? colors.lineStrong : colors.grid}
-                strokeWidth={deg === 0 ? 1.5 : 1}
-              />
-              <SvgText x={paths.x(deg)} y={height - padding.bottom + 16} fontSize={11} fontFamily={fonts.medium} fill={colors.ink} textAnchor="middle">
-                {xLabel(deg)}
-              </SvgText>
-            </G>
-          ))}
-          <SvgText x={padding.left} y={height - 4} fontSize={11} fontFamily={fonts.regular} fill={colors.inkMuted}>
-            ← exhaust stroke · crank degrees · intake stroke →
-          </SvgText>
+          <PlotGrid
+            width={width}
+            height={height}
+            padding={padding}
+            x={paths.x}
+            y={paths.y}
+            yTicks={niceTicks(paths.yMin, paths.yMax, 4)}
+            yLabel={(v) => yLabel(v, mode)}
+            xTicks={xTicks}
+            xLabel={xLabel}
+            xStrong={(deg) => ({ strong: deg === 0 || Math.abs(deg) === 180, width: deg === 0 ? 1.5 : 1 })}
+            caption="← exhaust stroke · crank degrees · intake stroke →"
+          />
           {paths.series.map((s, i) => (
             <G key={names[i] ?? i}>
               <Path d={s.exhaust} stroke={seriesColors[i] ?? colors.ink} strokeWidth={2} strokeDasharray="6 4" fill="none" />

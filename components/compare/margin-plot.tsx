@@ -1,8 +1,9 @@
 import { useMemo, useState } from 'react';
 import { StyleSheet, Text, View, type LayoutChangeEvent } from 'react-native';
-import Svg, { Circle, G, Line, Path, Text as SvgText } from 'react-native-svg';
+import Svg, { Circle, Line, Path } from 'react-native-svg';
 
-import { colors, fonts, space, type as typeScale } from '@/constants/theme';
+import { PlotGrid } from '@/components/compare/plot-grid';
+import { colors, space, type as typeScale } from '@/constants/theme';
 import { niceTicks } from '@/lib/lift-plot-paths';
 import { buildMarginPaths, MARGIN_WINDOW } from '@/lib/margin-plot-paths';
 import type { FeasibilityResults } from '@/shared/sheets';
@@ -21,29 +22,19 @@ export function MarginPlot({ feasibility, height = 220, testID }: { feasibility:
     <View style={styles.box} onLayout={onLayout} testID={testID}>
       {paths ? (
         <Svg width={width} height={height} role="img" aria-label={description}>
-          {niceTicks(paths.yMin, paths.yMax, 4).map((v) => (
-            <G key={`y${v}`}>
-              <Line x1={padding.left} x2={width - padding.right} y1={paths.y(v)} y2={paths.y(v)} stroke={colors.grid} strokeWidth={1} />
-              <SvgText x={padding.left - 6} y={paths.y(v) + 4} fontSize={11} fontFamily={fonts.mono} fill={colors.inkMuted} textAnchor="end">
-                {v.toFixed(3)}
-              </SvgText>
-            </G>
-          ))}
-          {xTicks.map((deg) => (
-            <G key={`x${deg}`}>
-              <Line
-                x1={paths.x(deg)}
-                x2={paths.x(deg)}
-                y1={padding.top}
-                y2={height - padding.bottom}
-                stroke={deg === 0 ? colors.lineStrong : colors.grid}
-                strokeWidth={1}
-              />
-              <SvgText x={paths.x(deg)} y={height - padding.bottom + 15} fontSize={11} fontFamily={fonts.medium} fill={colors.ink} textAnchor="middle">
-                {deg === 0 ? 'nose' : `${deg}°`}
-              </SvgText>
-            </G>
-          ))}
+          <PlotGrid
+            width={width}
+            height={height}
+            padding={padding}
+            x={paths.x}
+            y={paths.y}
+            yTicks={niceTicks(paths.yMin, paths.yMax, 4)}
+            yLabel={(v) => v.toFixed(3)}
+            xTicks={xTicks}
+            xLabel={(deg) => (deg === 0 ? 'nose' : `${deg}°`)}
+            xStrong={(deg) => ({ strong: deg === 0 })}
+            caption="← opening flank · cam degrees · closing flank →"
+          />
           <Line x1={padding.left} x2={width - padding.right} y1={paths.y(0)} y2={paths.y(0)} stroke={colors.fail} strokeWidth={1.5} />
           <Line
             x1={padding.left}
@@ -54,9 +45,6 @@ export function MarginPlot({ feasibility, height = 220, testID }: { feasibility:
             strokeWidth={1.5}
             strokeDasharray="2 3"
           />
-          <SvgText x={padding.left} y={height - 3} fontSize={11} fontFamily={fonts.regular} fill={colors.inkMuted}>
-            ← opening flank · cam degrees · closing flank →
-          </SvgText>
           {paths.exhaust ? <Path d={paths.exhaust} stroke={colors.exhaust} strokeWidth={2} strokeDasharray="6 4" fill="none" /> : null}
           {paths.intake ? <Path d={paths.intake} stroke={colors.intake} strokeWidth={2.25} fill="none" /> : null}
           {paths.marks.map((m) => (

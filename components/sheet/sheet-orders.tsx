@@ -9,6 +9,7 @@ import type { Order } from '@/shared/orders';
 import type { SheetWithHistory } from '@/shared/sheets';
 
 import { Button } from '@/components/ui/button';
+import { noteInput } from '@/components/ui/note-input';
 import { ChoiceGroup } from '@/components/ui/choice-group';
 import { OrderMoves } from '@/components/order/order-moves';
 import { OrderStageChip } from '@/components/order/order-stage-chip';
@@ -162,17 +163,7 @@ const styles = StyleSheet.create({
   label: { ...typeScale.label, color: colors.ink },
   mono: { fontFamily: fonts.mono, color: colors.ink },
   row: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
-  note: {
-    ...typeScale.body,
-    minHeight: 80,
-    padding: space.sm,
-    borderWidth: 1.5,
-    borderColor: colors.lineStrong,
-    borderRadius: radius.md,
-    backgroundColor: colors.surface,
-    color: colors.ink,
-    textAlignVertical: 'top',
-  },
+  note: noteInput,
   confirm: { gap: space.md, padding: space.md, borderRadius: radius.md, borderWidth: 1, borderColor: colors.accent, backgroundColor: colors.accentSoft },
   list: { gap: space.md },
   item: { gap: space.sm, padding: space.md, borderRadius: radius.md, borderWidth: 1, borderColor: colors.line },

@@ -3,6 +3,7 @@ import { StyleSheet, Text, TextInput, useWindowDimensions, View } from 'react-na
 
 import { FitsCorePanel } from '@/components/compare/fits-core';
 import { Button } from '@/components/ui/button';
+import { noteInput } from '@/components/ui/note-input';
 import { CheckStatusChip } from '@/components/sheet/check-list';
 import { ChoiceGroup } from '@/components/ui/choice-group';
 import { ErrorNotice, Pending } from '@/components/ui/query-state';
@@ -183,17 +184,7 @@ const styles = StyleSheet.create({
   historyActive: { borderColor: colors.accent, backgroundColor: colors.accentSoft },
   historyTitle: { fontFamily: fonts.semibold, fontSize: 15, color: colors.ink },
   grow: { flex: 1, gap: 2 },
-  note: {
-    ...typeScale.body,
-    minHeight: 80,
-    padding: space.sm,
-    borderWidth: 1.5,
-    borderColor: colors.lineStrong,
-    borderRadius: radius.md,
-    backgroundColor: colors.surface,
-    color: colors.ink,
-    textAlignVertical: 'top',
-  },
+  note: noteInput,
   diffRow: { paddingVertical: space.xs, borderBottomWidth: 1, borderBottomColor: colors.grid, gap: 2 },
   diffLabel: { ...typeScale.small, color: colors.inkMuted },
   diffValue: { ...typeScale.number, fontSize: 14, color: colors.ink },

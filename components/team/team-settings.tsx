@@ -3,12 +3,13 @@ import { useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
 import { StyleSheet, Text, View } from 'react-native';
 
-import { colors, radius, space, type as typeScale } from '@/constants/theme';
+import { colors, space, type as typeScale } from '@/constants/theme';
 import { useChangeRoleMutation, useInviteMutation, useRemoveMemberMutation, useTeamQuery, useWithdrawInvitationMutation } from '@/hooks/use-team';
 import { roleLabels, type ShopRole } from '@/shared/roles';
 import { inviteSchema, type InviteInput, type Team, type TeamInvitation, type TeamMember } from '@/shared/team';
 
 import { Button } from '@/components/ui/button';
+import { listRow } from '@/components/ui/list-row';
 import { ChoiceGroup } from '@/components/ui/choice-group';
 import { applyServerErrors, FormField } from '@/components/ui/form-field';
 import { ErrorNotice, Pending } from '@/components/ui/query-state';
@@ -164,18 +165,7 @@ function InviteForm({ team }: { team: Team }) {
 const styles = StyleSheet.create({
   team: { gap: space.md },
   list: { gap: space.sm },
-  row: {
-    flexDirection: 'row',
-    flexWrap: 'wrap',
-    alignItems: 'center',
-    justifyContent: 'space-between',
-    gap: space.sm,
-    padding: space.md,
-    backgroundColor: colors.surface,
-    borderColor: colors.line,
-    borderWidth: 1,
-    borderRadius: radius.md,
-  },
+  row: { ...listRow },
   who: { flexGrow: 1, flexShrink: 1, flexBasis: 220, gap: 2 },
   name: { ...typeScale.bodyStrong, color: colors.ink },
   meta: { ...typeScale.small, color: colors.inkMuted },
