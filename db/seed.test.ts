@@ -7,12 +7,17 @@ import { DEMO_STOCK_REGRIND, DEMO_TOWING } from '@/calc/demo';
 import { createAuth } from '@/server/auth';
 import { createMailer } from '@/server/mail';
 import { resolveCheckLimits } from '@/calc/checks';
-import { latestMeasurements } from '@/server/store/measurements';
+import { analyzeColumn, latestMeasured } from '@/lib/compare-analysis';
+import { jobMeasurements, latestMeasurements } from '@/server/store/measurements';
+import { jobProfiles } from '@/server/store/profiles';
+import { loadShopLimits } from '@/server/store/shop-limits';
 import { analyzeForJob, revisionResults } from '@/shared/analysis';
+import { coreView } from '@/shared/fits-core';
 import { jobCore } from '@/shared/job-core';
 import { engineSchema } from '@/shared/engine';
 import { defaultChecklistLabels } from '@/shared/measurements';
 import { profileSpecSchema } from '@/shared/profile';
+import { unitConverter } from '@/state/units';
 
 import { demoLobeCsv, demoLobeIds, demoLobesFile } from './demo-lobes';
 import { openDb, schema } from './index';
@@ -93,6 +98,32 @@ describe('demo comparison data', () => {
     expect(f.cut).toBeCloseTo(1.25 - 1.2, 9);
     expect(f.cleanup?.limitingLobe).toBe('exhaust');
     expect(f.checks.find((c) => c.id === 'finishingStock' && c.subject === 'intake')?.status).toBe('fail');
+  });
+});
+
+describe('one answer to "fits the core?" on the demo job', () => {
+  it("the compare screen's path (listed measurements, the shop's limits, the job's profile) gives each stored demo sheet's headline and margins", async () => {
+    const db = openDb(':memory:');
+    const auth = createAuth({ db, baseURL: 'http://localhost:8080', secret: 'test-secret-test-secret-test-secret', mailer: createMailer({ db }) });
+    await seedDemo(db, auth);
+    const shopId = 'demo-shop-juniper-flats';
+    const engine = db.select().from(schema.engines).where(eq(schema.engines.jobId, demoJobId)).get()!.spec;
+    const limits = loadShopLimits(db, shopId).limits;
+    // What the client holds: the job's measurement list and the shop's limits, as the API sends them.
+    const job = jobCore({
+      measured: latestMeasured(jobMeasurements(db, shopId, demoJobId)),
+      limits: resolveCheckLimits(limits),
+      lifterType: engine.lifterType,
+    });
+    for (const sheetId of [demoSheetId, demoStockSheetId]) {
+      const rev = db.select().from(schema.sheetRevisions).where(eq(schema.sheetRevisions.sheetId, sheetId)).get()!;
+      const profile = jobProfiles(db, shopId, demoJobId).find((p) => p.label === rev.label)!;
+      const column = analyzeColumn(engine, profile, undefined, unitConverter(null, 'imperial', 'cc'), { job, limits });
+      const stored = rev.results.feasibility!;
+      expect(column.feasibility?.intake.envelope?.minMargin).toBe(stored.intake.envelope?.minMargin);
+      expect(column.feasibility?.exhaust.envelope?.minAt).toBe(stored.exhaust.envelope?.minAt);
+      expect(coreView(column.feasibility!).headline).toBe(coreView(stored).headline);
+    }
   });
 });
 
