@@ -18,5 +18,7 @@ export default defineConfig({
     ],
     environment: 'node',
     pool: 'forks',
+    // API tests sign several people up (scrypt hashing): on a busy 2-core machine 5 s is too tight.
+    testTimeout: 20_000,
   },
 });
