@@ -550,3 +550,31 @@ export const paymentEvents = sqliteTable('payment_events', {
   outcome: text('outcome'),
   receivedAt: createdAt(),
 });
+
+/**
+ * The sign-in library's rate-limit counters (its `rateLimit` model with storage
+ * "database"), so every server process counts one address's sign-in attempts together.
+ */
+export const authRateLimits = sqliteTable('auth_rate_limits', {
+  id: text('id').primaryKey(),
+  key: text('key').notNull().unique(),
+  count: integer('count').notNull(),
+  /** Milliseconds since the epoch. */
+  lastRequest: integer('last_request').notNull(),
+});
+
+/**
+ * The app's own rate-limit windows (analyses, share links): one row per limiter and
+ * client, shared by every server process. A row whose window has ended counts from one again.
+ */
+export const rateLimitHits = sqliteTable(
+  'rate_limit_hits',
+  {
+    /** The limiter's prefix and the client's key, e.g. "calc:user:…". */
+    key: text('key').primaryKey(),
+    hits: integer('hits').notNull(),
+    /** When the window ends, milliseconds since the epoch. */
+    resetAt: integer('reset_at').notNull(),
+  },
+  (t) => [index('rate_limit_hits_reset_idx').on(t.resetAt)],
+);

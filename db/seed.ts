@@ -4,7 +4,7 @@ import { resolveCheckLimits, type CheckLimitOverrides } from '@/calc/checks';
 import { DEMO_ENGINE, DEMO_GRINDING, DEMO_STOCK_REGRIND, DEMO_TOWING } from '@/calc/demo';
 import { createAuth, type Auth } from '@/server/auth';
 import { createMailer } from '@/server/mail';
-import { loadDotEnv, readConfig } from '@/server/config';
+import { authSecret, loadDotEnv, readConfig } from '@/server/config';
 import { shareUrl } from '@/server/mail/owner-mail';
 import { seedChecklist } from '@/server/store/checklist';
 import { latestMeasurements } from '@/server/store/measurements';
@@ -337,7 +337,7 @@ if (require.main === module && /db[\\/]seed\.ts$/.test(process.argv[1] ?? '')) {
     process.exit(0);
   }
   const db = openDb(config.databasePath);
-  seedDemo(db, createAuth({ db, baseURL: config.baseURL, secret: config.secret, mailer: createMailer({ db }) }))
+  seedDemo(db, createAuth({ db, baseURL: config.baseURL, secret: authSecret(config), mailer: createMailer({ db }) }))
     .then(() => {
       console.log(`Demo data is in ${config.databasePath}.`);
       console.log(`Demo owner's summary (no sign-in needed): ${newDemoShareLink(db, config.baseURL)}`);

@@ -147,7 +147,7 @@ export function createApp({
 }
 
 /** `uploads` in the database's folder (the data folder); a temp folder for an in-memory database. */
-function defaultUploadsDir(db: Db): string {
+export function defaultUploadsDir(db: Db): string {
   const file = db.$client.name;
   if (!file || file === ':memory:') return path.join(os.tmpdir(), 'lobewright-uploads');
   return path.join(path.dirname(file), 'uploads');

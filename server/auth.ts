@@ -126,6 +126,7 @@ export function createAuth({ db, baseURL, secret, rateLimit = false, mailer }: A
         shops: schema.shops,
         memberships: schema.memberships,
         invitations: schema.invitations,
+        authRateLimits: schema.authRateLimits,
       },
     }),
     user: { modelName: 'users' },
@@ -177,6 +178,9 @@ export function createAuth({ db, baseURL, secret, rateLimit = false, mailer }: A
     rateLimit: rateLimit
       ? {
           enabled: true,
+          // Counted in the database, so every server process sees one address's attempts together.
+          storage: 'database' as const,
+          modelName: 'authRateLimits',
           ...rateLimit.other,
           customRules: { '/sign-in/email': rateLimit.signIn, '/sign-up/email': rateLimit.signUp },
         }

@@ -1,4 +1,6 @@
+import { randomBytes } from 'node:crypto';
 import fs from 'node:fs';
+import path from 'node:path';
 
 /**
  * Reads `.env` (or the file ENV_FILE names) into the environment with Node's own
@@ -26,6 +28,9 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env) {
   if (authRateLimit !== 'on' && authRateLimit !== 'off') throw new Error(`AUTH_RATE_LIMIT must be on or off, got ${authRateLimit}`);
   const jobsPerMinute = Number(env.JOBS_PER_MINUTE ?? 30);
   if (!Number.isInteger(jobsPerMinute) || jobsPerMinute < 1) throw new Error(`JOBS_PER_MINUTE must be a whole number above 0, got ${env.JOBS_PER_MINUTE}`);
+  const webConcurrency = Number(env.WEB_CONCURRENCY || 1);
+  if (!Number.isInteger(webConcurrency) || webConcurrency < 1 || webConcurrency > 64)
+    throw new Error(`WEB_CONCURRENCY must be a whole number of processes from 1 to 64, got ${env.WEB_CONCURRENCY}`);
   const secret = env.BETTER_AUTH_SECRET ?? '';
   if (mode === 'production' && secret.length < 32) {
     throw new Error('Set BETTER_AUTH_SECRET to a random string of at least 32 characters in production');
@@ -34,7 +39,10 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env) {
     mode,
     port,
     baseURL,
-    secret: secret || 'lobewright-local-development-secret-change-me',
+    /** Unset in demo mode: a random secret kept beside the database (server/startup.ts demoSecret). */
+    secret: secret || undefined,
+    /** Server processes on one database file (WEB_CONCURRENCY, default 1): above 1, a primary forks that many workers. */
+    webConcurrency,
     databasePath: env.DATABASE_PATH || 'data/lobewright.sqlite',
     webDir: env.WEB_DIR || 'dist',
     /** Unset: e-mail is kept in the database's outbox table. */
@@ -52,6 +60,23 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env) {
 }
 
 export type Config = ReturnType<typeof readConfig>;
+
+/**
+ * The sign-in secret: BETTER_AUTH_SECRET, or in demo mode (production refuses to start
+ * without it) a random one made on the first start and kept beside the database, readable by
+ * this user alone, so sessions outlive a restart and every worker signs with the same one.
+ */
+export function authSecret({ secret, databasePath }: Pick<Config, 'secret' | 'databasePath'>): string {
+  if (secret) return secret;
+  const file = path.join(path.dirname(path.resolve(databasePath)), 'auth-secret');
+  fs.mkdirSync(path.dirname(file), { recursive: true });
+  try {
+    fs.writeFileSync(file, randomBytes(32).toString('base64url'), { flag: 'wx', mode: 0o600 });
+  } catch (error) {
+    if ((error as NodeJS.ErrnoException).code !== 'EEXIST') throw error;
+  }
+  return fs.readFileSync(file, 'utf8').trim();
+}
 
 /**
  * Express's `trust proxy`: unset, X-Forwarded-For is ignored and the address is the

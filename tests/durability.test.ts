@@ -19,7 +19,15 @@ afterAll(async () => {
 
 it('keeps every acknowledged write when the server is killed mid-stream, and the file passes integrity_check', async () => {
   const port = await freePort();
-  const env = { DATABASE_PATH: databasePath, WEB_DIR: path.join(dir, 'no-web-export'), NODE_ENV: 'test', AUTH_RATE_LIMIT: 'off', JOBS_PER_MINUTE: '100000' };
+  // Two workers on one file (WEB_CONCURRENCY=2): killing the process group takes both mid-write.
+  const env = {
+    DATABASE_PATH: databasePath,
+    WEB_DIR: path.join(dir, 'no-web-export'),
+    NODE_ENV: 'test',
+    AUTH_RATE_LIMIT: 'off',
+    JOBS_PER_MINUTE: '100000',
+    WEB_CONCURRENCY: '2',
+  };
   const first = await startServer(port, env);
   running.push(first);
 

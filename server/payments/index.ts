@@ -19,11 +19,20 @@ export function servicePayments({ secretKey, webhookSecret, currency }: { secret
   return { kind: 'service', stripe: new Stripe(secretKey, { maxNetworkRetries: 2 }), webhookSecret, currency };
 }
 
+/** Where the local fake listens and the secrets made up for this start: what another process needs to use it. */
+export type LocalPaymentsConnection = { port: number; apiKey: string; webhookSecret: string };
+
+/** The payment SDK pointed at a running local fake (the SDK's host, port and protocol settings). */
+export function localPaymentsClient({ port, apiKey, webhookSecret }: LocalPaymentsConnection, currency = 'usd'): Payments {
+  const stripe = new Stripe(apiKey, { host: LOOPBACK, port, protocol: 'http', maxNetworkRetries: 0, telemetry: false });
+  return { kind: 'local-fake', stripe, webhookSecret, currency };
+}
+
 /**
  * Starts the local fake payment service on the loopback interface, with an API key
  * and a webhook signing secret made up for this start and handed to the app
- * in-process (nothing to copy, nothing in the source), and an SDK client pointed
- * at it (the SDK's host, port and protocol settings).
+ * in-process, or to its workers through their environment (nothing to copy, nothing
+ * in the source), and an SDK client pointed at it.
  */
 export async function startLocalPayments({
   publicUrl,
@@ -34,11 +43,11 @@ export async function startLocalPayments({
   publicUrl: string;
   port?: number;
   currency?: string;
-}): Promise<{ payments: Payments; service: FakePaymentService; origin: string }> {
+}): Promise<{ payments: Payments; service: FakePaymentService; origin: string; connection: LocalPaymentsConnection }> {
   const apiKey = `sk_test_${randomBytes(24).toString('hex')}`;
   const webhookSecret = `whsec_${randomBytes(24).toString('base64url')}`;
   const service = createFakePaymentService({ webhookUrl: new URL('/api/payments/webhook', publicUrl).toString(), webhookSecret, apiKey });
   const { port: actual, origin } = await service.listen(port);
-  const stripe = new Stripe(apiKey, { host: LOOPBACK, port: actual, protocol: 'http', maxNetworkRetries: 0, telemetry: false });
-  return { payments: { kind: 'local-fake', stripe, webhookSecret, currency }, service, origin };
+  const connection = { port: actual, apiKey, webhookSecret };
+  return { payments: localPaymentsClient(connection, currency), service, origin, connection };
 }

@@ -9,6 +9,7 @@ import { requireSignedIn } from '../access';
 import { declareCalcFields, renamePrefixes } from '../calc-fields';
 import type { AppDeps } from '../deps';
 import { HttpError, parse, sendError } from '../http';
+import { databaseRateLimitStore } from '../store/rate-limits';
 
 export type CalcRateLimit = {
   /** Analyses requests one person may make per window. */
@@ -47,6 +48,7 @@ export function calcRouter({ auth, db }: AppDeps, rate: CalcRateLimit = defaultC
   };
 
   const limiter = rateLimit({
+    store: databaseRateLimitStore(db, 'calc:'),
     windowMs: rate.windowMs,
     limit: rate.limit,
     standardHeaders: 'draft-8',

@@ -25,6 +25,7 @@ import {
   updateOption,
 } from '../store/owner-page';
 import { requireShareablePhoto } from '../store/photos';
+import { databaseRateLimitStore } from '../store/rate-limits';
 import { createShareLink, linkByToken, linkOpen, markOpened, ownLinks, revokeShareLink, type LinkRow } from '../store/share-links';
 import { sendPhotoFile } from '../uploads/photo-files';
 
@@ -123,6 +124,7 @@ export function ownerPageRouter(deps: AppDeps, limit: ShareRateLimit = { windowM
     '/share',
     rateLimit({
       ...limit,
+      store: databaseRateLimitStore(db, 'share:'),
       standardHeaders: 'draft-8',
       legacyHeaders: false,
       handler: (_req, res) => res.status(429).json({ error: { code: 'rate_limited', message: 'Too many requests: wait a minute and try again' } }),
