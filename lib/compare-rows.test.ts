@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { analyzeProfile } from '@/calc/analysis';
 import { DEMO_ENGINE, DEMO_STOCK_REGRIND, DEMO_TOWING } from '@/calc/demo';
 
-import { compareRows, delta, formatValue } from '@/lib/compare-rows';
+import { cellText, compareRows, delta, formatValue } from '@/lib/compare-rows';
 
 const stock = analyzeProfile({ engine: DEMO_ENGINE, profile: DEMO_STOCK_REGRIND });
 const towing = analyzeProfile({ engine: DEMO_ENGINE, profile: DEMO_TOWING });
@@ -37,5 +37,17 @@ describe('comparison rows', () => {
     expect(formatValue(-0.0001, 2)).toBe('0.00');
     expect(delta(0.5, 0.5004, 3)).toEqual({ text: 'same', trend: 'same' });
     expect(delta(0.5, 0.47, 3)).toEqual({ text: '−0.030', trend: 'down' });
+  });
+
+  it('shows each valve event on its side of the dead centre, never as a negative figure', () => {
+    // Stock intake at 0.050 in: opens D/2 − ICL = 102 − 110 = −8° BTDC, that is 8° after TDC; closes
+    // D/2 + ICL − 180 = 102 + 110 − 180 = 32° ABDC (event identities, common practice, no source).
+    expect(row('at050.ivo').value(stock)).toBeCloseTo(-8, 9);
+    expect(cellText(row('at050.ivo'), stock)).toBe('8.0° ATDC');
+    expect(cellText(row('at050.ivc'), stock)).toBe('32.0° ABDC');
+    expect(cellText(row('icl'), stock)).toBe('110.0° ATDC');
+    for (const r of compareRows.filter((x) => x.side)) expect(cellText(r, stock), r.key).not.toMatch(/[-−]/);
+    // Other rows stay plain numbers with their sign.
+    expect(cellText(row('at050.overlap'), stock)).toBe('−21.0');
   });
 });

@@ -1,4 +1,5 @@
 import type { ProfileAnalysis } from '@/calc/analysis';
+import { eventAngle, type EventSide } from '@/lib/event-angle';
 
 /** Which way a change is worth pointing out to a builder: up, down, or no change at the shown precision. */
 export type Trend = 'up' | 'down' | 'same';
@@ -9,14 +10,16 @@ export type CompareRow = {
   label: string;
   unit: string;
   digits: number;
+  /** A valve event or centreline: the dead centre it counts from, and its cells name the side (never a negative figure). */
+  side?: EventSide;
   value: (a: ProfileAnalysis) => number;
 };
 
 const events = (height: 'at050' | 'advertised', title: string): CompareRow[] => [
-  { key: `${height}.ivo`, group: title, label: 'IVO', unit: '° BTDC', digits: 1, value: (a) => a.events[height].ivoBtdc },
-  { key: `${height}.ivc`, group: title, label: 'IVC', unit: '° ABDC', digits: 1, value: (a) => a.events[height].ivcAbdc },
-  { key: `${height}.evo`, group: title, label: 'EVO', unit: '° BBDC', digits: 1, value: (a) => a.events[height].evoBbdc },
-  { key: `${height}.evc`, group: title, label: 'EVC', unit: '° ATDC', digits: 1, value: (a) => a.events[height].evcAtdc },
+  { key: `${height}.ivo`, group: title, label: 'IVO', unit: '', side: 'BTDC', digits: 1, value: (a) => a.events[height].ivoBtdc },
+  { key: `${height}.ivc`, group: title, label: 'IVC', unit: '', side: 'ABDC', digits: 1, value: (a) => a.events[height].ivcAbdc },
+  { key: `${height}.evo`, group: title, label: 'EVO', unit: '', side: 'BBDC', digits: 1, value: (a) => a.events[height].evoBbdc },
+  { key: `${height}.evc`, group: title, label: 'EVC', unit: '', side: 'ATDC', digits: 1, value: (a) => a.events[height].evcAtdc },
   { key: `${height}.overlap`, group: title, label: 'Overlap', unit: '°', digits: 1, value: (a) => a.events[height].overlap },
 ];
 
@@ -29,8 +32,8 @@ export const compareRows: readonly CompareRow[] = [
   ...events('at050', 'Events at 0.050 in'),
   ...events('advertised', 'Events at advertised height'),
   { key: 'lsa', group: 'Centrelines', label: 'LSA', unit: '° cam', digits: 1, value: (a) => a.lsa },
-  { key: 'icl', group: 'Centrelines', label: 'ICL', unit: '° ATDC', digits: 1, value: (a) => a.icl },
-  { key: 'ecl', group: 'Centrelines', label: 'ECL', unit: '° BTDC', digits: 1, value: (a) => a.events.at050.ecl },
+  { key: 'icl', group: 'Centrelines', label: 'ICL', unit: '', side: 'ATDC', digits: 1, value: (a) => a.icl },
+  { key: 'ecl', group: 'Centrelines', label: 'ECL', unit: '', side: 'BTDC', digits: 1, value: (a) => a.events.at050.ecl },
   { key: 'advance', group: 'Centrelines', label: 'Advance', unit: '°', digits: 1, value: (a) => a.events.at050.advance },
   { key: 'lobe.i', group: 'Lift', label: 'Intake lobe lift', unit: 'in', digits: 3, value: (a) => a.intake.lobeLift },
   { key: 'lobe.e', group: 'Lift', label: 'Exhaust lobe lift', unit: 'in', digits: 3, value: (a) => a.exhaust.lobeLift },
@@ -64,6 +67,12 @@ export const compareRows: readonly CompareRow[] = [
 export function formatValue(value: number, digits: number): string {
   const text = value.toFixed(digits);
   return Number(text) === 0 ? (0).toFixed(digits) : text.replace('-', '−');
+}
+
+/** What a row's cell shows for one profile: an event on its side of the dead centre, any other figure as a number. */
+export function cellText(row: CompareRow, a: ProfileAnalysis): string {
+  const value = row.value(a);
+  return row.side ? eventAngle(value, row.side, row.digits) : formatValue(value, row.digits);
 }
 
 /** The change from the first profile, rounded to the row's precision, with its direction. */

@@ -3,7 +3,7 @@ import { ScrollView, StyleSheet, Text, View } from 'react-native';
 
 import type { ProfileAnalysis } from '@/calc/analysis';
 import { colors, fonts, seriesColors, space, type as typeScale } from '@/constants/theme';
-import { compareRows, delta, formatValue, type Trend } from '@/lib/compare-rows';
+import { cellText, compareRows, delta, type Trend } from '@/lib/compare-rows';
 
 const trendMark: Record<Trend, string> = { up: '▲', down: '▼', same: '' };
 
@@ -47,7 +47,7 @@ export function CompareTable({ analyses, names }: { analyses: readonly ProfileAn
                       const d = i === 0 ? null : delta(baseValue, value, row.digits);
                       return (
                         <View key={i} role="cell" style={styles.cell} testID={`cell-${row.key}-${i}`}>
-                          <Text style={styles.value}>{formatValue(value, row.digits)}</Text>
+                          <Text style={styles.value}>{cellText(row, a)}</Text>
                           {d ? (
                             <Text
                               style={[styles.delta, d.trend === 'same' ? styles.same : styles.changed]}

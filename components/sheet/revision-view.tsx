@@ -2,6 +2,7 @@ import { StyleSheet, Text, View } from 'react-native';
 
 import { colors, fonts, space, type as typeScale } from '@/constants/theme';
 import { lifterTypeLabels } from '@/shared/engine';
+import { EVENT_CONVENTION, eventAngle } from '@/lib/event-angle';
 import { coreView } from '@/shared/fits-core';
 import type { Revision } from '@/shared/sheets';
 
@@ -56,12 +57,15 @@ export function RevisionView({ revision }: { revision: Revision }) {
         <Row label="Valve lift (in)" intake={f(results.valveLift.intake, 3)} exhaust={f(results.valveLift.exhaust, 3)} />
         <Row label="Lash (in)" intake={f(i.lash, 3)} exhaust={f(e.lash, 3)} />
         <Row label="Rocker ratio" intake={f(engine.rockerRatioIntake, 2)} exhaust={f(engine.rockerRatioExhaust, 2)} />
-        <Row label="Opens at 0.050 in" intake={`${f(ev.ivoBtdc, 1)}° BTDC`} exhaust={`${f(ev.evoBbdc, 1)}° BBDC`} />
-        <Row label="Closes at 0.050 in" intake={`${f(ev.ivcAbdc, 1)}° ABDC`} exhaust={`${f(ev.evcAtdc, 1)}° ATDC`} />
-        <Row label="Opens, advertised" intake={`${f(ea.ivoBtdc, 1)}° BTDC`} exhaust={`${f(ea.evoBbdc, 1)}° BBDC`} />
-        <Row label="Closes, advertised" intake={`${f(ea.ivcAbdc, 1)}° ABDC`} exhaust={`${f(ea.evcAtdc, 1)}° ATDC`} />
-        <Row label="Centreline" intake={`${f(spec.icl, 1)}° ATDC`} exhaust={`${f(ev.ecl, 1)}° BTDC`} />
+        <Row label="Opens at 0.050 in" intake={eventAngle(ev.ivoBtdc, 'BTDC')} exhaust={eventAngle(ev.evoBbdc, 'BBDC')} />
+        <Row label="Closes at 0.050 in" intake={eventAngle(ev.ivcAbdc, 'ABDC')} exhaust={eventAngle(ev.evcAtdc, 'ATDC')} />
+        <Row label="Opens, advertised" intake={eventAngle(ea.ivoBtdc, 'BTDC')} exhaust={eventAngle(ea.evoBbdc, 'BBDC')} />
+        <Row label="Closes, advertised" intake={eventAngle(ea.ivcAbdc, 'ABDC')} exhaust={eventAngle(ea.evcAtdc, 'ATDC')} />
+        <Row label="Centreline" intake={eventAngle(spec.icl, 'ATDC')} exhaust={eventAngle(ev.ecl, 'BTDC')} />
       </View>
+      <Text style={styles.convention} testID="sheet-event-convention">
+        {EVENT_CONVENTION}
+      </Text>
       <View style={styles.facts}>
         <Fact label="Lobe separation" value={`${f(spec.lsa, 1)}° cam`} />
         <Fact label="Advance" value={`${f(ev.advance, 1)}°`} />
@@ -108,6 +112,7 @@ function Fact({ label, value, testID }: { label: string; value: string; testID?:
 }
 
 const styles = StyleSheet.create({
+  convention: { ...typeScale.small, color: colors.inkMuted },
   stack: { gap: space.lg },
   table: { width: '100%' },
   row: { flexDirection: 'row', paddingVertical: space.xs, borderBottomWidth: 1, borderBottomColor: colors.grid, gap: space.sm },

@@ -79,6 +79,17 @@ describe.each(Object.keys(viewports) as ViewportName[])('grind order from issue 
     expect(await shown(g, 'order-revision').textContent()).toContain(String(revision));
     expect(await shown(g, 'order-notes').textContent()).toBeTruthy();
     expect(await shown(g, 'order-screen').textContent()).toContain('Lifters');
+    // Events read on their side of the dead centre: the sheet says so, and no event carries a minus sign.
+    expect(await shown(g, 'sheet-event-convention').textContent()).toMatch(/never negative/);
+    for (const text of await shown(g, 'order-screen')
+      .getByText(/° (BTDC|ATDC|BBDC|ABDC)$/)
+      .allTextContents())
+      expect(text).not.toMatch(/[-−]/);
+    expect(
+      await shown(g, 'order-screen')
+        .getByText(/° (BTDC|ATDC|BBDC|ABDC)$/)
+        .count(),
+    ).toBeGreaterThanOrEqual(10);
     // The grinder's moves from "sent" are quote or ask for changes; the builder has none yet.
     expect(await shown(b, 'order-screen').getByTestId('order-moves').count()).toBe(0);
     await shown(g, 'move-quoted').click();
