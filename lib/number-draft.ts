@@ -138,7 +138,7 @@ export function rangeMessage(spec: NumberSpec, units: ShownUnits): string {
 
 /** What is wrong with a draft on its own (blank, not a number, out of range), or null. */
 export function checkDraft(spec: NumberSpec, draft: NumberDraft, units: ShownUnits): string | null {
-  if (draft.value === null) return spec.optional ? null : `Enter the ${lowerFirst(spec.label)}`;
+  if (draft.value === null) return spec.optional ? null : `Enter the ${lowerFirst(spec.label)}${spec.money ? ' in dollars, like 485.00' : ''}`;
   if (Number.isNaN(draft.value)) {
     return spec.money ? `${spec.label} must be an amount in dollars, like 485.00` : `${spec.label} must be a number, in ${shownUnit(spec, units)}`;
   }

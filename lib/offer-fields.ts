@@ -1,21 +1,22 @@
-import { draftsFor, type NumberDraft, type NumberSpec } from '@/lib/number-draft';
+import { draftsFor, rangeOf, type NumberDraft, type NumberSpec } from '@/lib/number-draft';
+import { centsSchema, leadTimeDaysSchema } from '@/shared/numbers';
 import { shareLinkLimits } from '@/shared/owner';
 
-/** The owner's offer: money in dollars and cents (saved as whole cents), lead time in whole days. Ranges follow shared/owner's schema. */
+const cents = rangeOf(centsSchema('Price'));
+/** Money as a person types it: dollars and cents, held in the record as whole cents; the range is the shared schema's, in dollars. */
+const dollars = { quantity: null, unit: '$', digits: 2, min: cents.min / 100, max: cents.max / 100, money: true } as const;
+/** A lead time in whole days, with the shared schema's range. */
+const days = { quantity: null, unit: 'days', digits: 0, ...rangeOf(leadTimeDaysSchema), integer: true } as const;
+
+/** The price and lead time fields, as the owner's offer and the grinder's quote both take them. */
+export const priceSpec: NumberSpec = { path: 'priceCents', label: 'Price', ...dollars };
+export const leadTimeSpec: NumberSpec = { path: 'leadTimeDays', label: 'Lead time', ...days };
+
+/** The owner's offer: money in dollars and cents (saved as whole cents), lead time in whole days. */
 export const offerNumberSpecs = {
-  price: { path: 'priceCents', label: 'Price', quantity: null, unit: '$', digits: 2, min: 0, max: 100_000, money: true },
-  deposit: {
-    path: 'depositCents',
-    label: 'Deposit',
-    quantity: null,
-    unit: '$',
-    digits: 2,
-    min: 0,
-    max: 100_000,
-    money: true,
-    hint: 'At most the price',
-  },
-  leadTime: { path: 'leadTimeDays', label: 'Lead time', quantity: null, unit: 'days', digits: 0, min: 0, max: 365, integer: true },
+  price: priceSpec,
+  deposit: { path: 'depositCents', label: 'Deposit', ...dollars, hint: 'At most the price' },
+  leadTime: leadTimeSpec,
 } as const satisfies Record<string, NumberSpec>;
 
 export const offerNumberList: readonly NumberSpec[] = Object.values(offerNumberSpecs);

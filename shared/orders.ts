@@ -1,7 +1,7 @@
 import { z } from 'zod';
 
 import type { Revision } from './sheets';
-import { versionSchema } from './numbers';
+import { centsSchema, leadTimeDaysSchema, versionSchema } from './numbers';
 
 /**
  * A grind order: one issued revision of a spec sheet, sent to one grinding shop.
@@ -42,8 +42,6 @@ export const issueSchema = z.strictObject({
 });
 export type IssueBody = z.input<typeof issueSchema>;
 
-const money = z.number({ error: 'Price must be a number' }).min(0, 'Price cannot be negative').max(100_000, 'Price looks too high');
-
 /** One move of an order; the fields a move needs are required by the server for that move. */
 export const orderMoveSchema = z.strictObject({
   version: versionSchema,
@@ -51,8 +49,8 @@ export const orderMoveSchema = z.strictObject({
   /** Required to quote. */
   quote: z
     .strictObject({
-      priceCents: money.int('Price is in whole cents'),
-      leadTimeDays: z.number({ error: 'Lead time must be a number of days' }).int().min(0).max(365),
+      priceCents: centsSchema('Price'),
+      leadTimeDays: leadTimeDaysSchema,
     })
     .optional(),
   /** Required to ask for changes; optional otherwise. */

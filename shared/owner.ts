@@ -6,7 +6,7 @@ import type { OwnerCoreAnswer } from './fits-core';
 
 import type { CheckStatus } from '@/calc/checks';
 import { emailAddress } from './me';
-import { versionSchema } from './numbers';
+import { centsSchema, leadTimeDaysSchema, versionSchema } from './numbers';
 
 /**
  * What the vehicle's owner sees: the shop's plain-words account of what failed,
@@ -15,13 +15,6 @@ import { versionSchema } from './numbers';
  */
 
 export const shareLinkLimits = { defaultDays: 30, maxDays: 90, tokenBytes: 32 } as const;
-
-const cents = (label: string) =>
-  z
-    .number({ error: `${label} must be a number of cents` })
-    .int(`${label} is in whole cents`)
-    .min(0, `${label} cannot be negative`)
-    .max(10_000_000, `${label} looks too high`);
 
 const ownerText = (max: number) => z.string({ error: 'Must be text' }).trim().max(max, `Keep it under ${max} characters`);
 
@@ -35,13 +28,9 @@ export type OwnerPageSave = z.input<typeof ownerPageSchema>;
 const optionFields = {
   title: z.string({ error: 'Name the option' }).trim().min(1, 'Name the option').max(120, 'Keep the name under 120 characters'),
   ownerNote: ownerText(2000).default(''),
-  priceCents: cents('Price'),
-  depositCents: cents('Deposit'),
-  leadTimeDays: z
-    .number({ error: 'Lead time must be a number of days' })
-    .int('Lead time is whole days')
-    .min(0, 'Lead time cannot be negative')
-    .max(365, 'Lead time is at most 365 days'),
+  priceCents: centsSchema('Price'),
+  depositCents: centsSchema('Deposit'),
+  leadTimeDays: leadTimeDaysSchema,
 };
 
 function depositWithinPrice(value: { priceCents?: number; depositCents?: number }, ctx: z.RefinementCtx) {

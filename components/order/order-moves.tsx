@@ -1,18 +1,17 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { StyleSheet, Text, View } from 'react-native';
-import { z } from 'zod';
 
 import { colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
-import { ApiError } from '@/lib/api';
-import { centsFromText } from '@/lib/number-draft';
 import { useMoveOrderMutation } from '@/hooks/use-orders';
+import { blankMove, moveFieldPaths, moveRules, quoteNumberSpecs, type MoveDraft } from '@/lib/order-move-fields';
 import { orderMoves, type Order, type OrderMove, type OrderStage } from '@/shared/orders';
+import { calcUnits } from '@/state/units';
 
 import { Button } from '@/components/ui/button';
+import { applyServerErrors, FormField } from '@/components/ui/form-field';
+import { DraftField, draftResolver } from '@/components/ui/number-field';
 import { ErrorNotice } from '@/components/ui/query-state';
-import { FormField } from '@/components/ui/form-field';
 
 export type OrderSide = 'builder' | 'grinder';
 
@@ -30,74 +29,31 @@ const moveLabels: Record<OrderStage, string> = {
 /** Moves that need more than a press open a short form first. */
 const needsForm: Partial<Record<OrderStage, true>> = { quoted: true, 'changes-asked': true, shipped: true };
 
-type MoveForm = { price: string; leadTime: string; message: string; carrier: string; tracking: string };
-const emptyForm: MoveForm = { price: '', leadTime: '', message: '', carrier: '', tracking: '' };
-
-/** Where the server's field names land on this form. */
-const formField: Record<string, keyof MoveForm> = {
-  'quote.priceCents': 'price',
-  'quote.leadTimeDays': 'leadTime',
-  message: 'message',
-  'shipping.carrier': 'carrier',
-  'shipping.tracking': 'tracking',
-};
-
-/** What a move's form must hold before it is sent, field by field (the server checks the same again). */
-function moveFormSchema(to: OrderStage | null) {
-  return z.object({ price: z.string(), leadTime: z.string(), message: z.string(), carrier: z.string(), tracking: z.string() }).superRefine((v, ctx) => {
-    const need = (ok: boolean, path: keyof MoveForm, message: string) => {
-      if (!ok) ctx.addIssue({ code: 'custom', path: [path], message });
-    };
-    if (to === 'quoted') {
-      const days = Number(v.leadTime);
-      need(Number.isFinite(centsFromText(v.price)), 'price', 'Enter the price in dollars, like 485.00');
-      need(v.leadTime.trim() !== '' && Number.isInteger(days) && days >= 0 && days <= 365, 'leadTime', 'Enter the lead time as whole days, 0 to 365');
-    }
-    if (to === 'changes-asked') need(v.message.trim() !== '', 'message', 'Say what should change on the sheet');
-    if (to === 'shipped') {
-      need(v.carrier.trim() !== '', 'carrier', 'Name the carrier');
-      need(v.tracking.trim() !== '', 'tracking', 'Enter the tracking text');
-    }
-  });
-}
-
-/** The request body of a move from its checked form. */
-function moveBody(order: Order, to: OrderStage, v: MoveForm): OrderMove {
-  const message = v.message.trim();
-  const body: OrderMove = { version: order.version, to };
-  if (to === 'quoted') body.quote = { priceCents: centsFromText(v.price), leadTimeDays: Number(v.leadTime) };
-  if (to === 'shipped') body.shipping = { carrier: v.carrier.trim(), tracking: v.tracking.trim() };
-  if (message || to === 'changes-asked') body.message = message;
-  return body;
-}
-
 /** The moves this side may make from the order's stage, as buttons, with the form each one needs. */
 export function OrderMoves({ order, side }: { order: Order; side: OrderSide }) {
   const moves = orderMoves[order.stage].filter((m) => m.by === side);
   const move = useMoveOrderMutation(order.id);
   const [open, setOpen] = useState<OrderStage | null>(null);
-  const { control, handleSubmit, setError, clearErrors, resetField } = useForm<MoveForm>({
-    defaultValues: emptyForm,
-    resolver: (values, context, options) => zodResolver(moveFormSchema(open))(values, context, options),
+  // Rebuilt each render, so the form open now decides what the next submit checks (money and days need no unit toggle).
+  // With no form open nothing is submitted through the form; moves without one send their body directly.
+  const rules = moveRules(order.version, open ?? 'quoted');
+  const { control, handleSubmit, setError, clearErrors, resetField } = useForm<MoveDraft, unknown, OrderMove>({
+    defaultValues: blankMove(),
+    resolver: draftResolver<MoveDraft, OrderMove>(rules.specs, rules.schema, rules.others, calcUnits),
   });
 
   if (moves.length === 0) return null;
 
-  const send = (to: OrderStage, values: MoveForm) =>
-    move.mutate(moveBody(order, to, values), {
+  // The notice below says the server's answer; its field messages also land on their fields.
+  const send = (body: OrderMove) =>
+    move.mutate(body, {
       onSuccess: () => {
         setOpen(null);
         resetField('message');
       },
-      onError: (error) => {
-        if (!(error instanceof ApiError)) return;
-        for (const [field, message] of Object.entries(error.fields)) {
-          const name = formField[field];
-          if (name) setError(name, { type: 'server', message });
-        }
-      },
+      onError: (error) => void applyServerErrors(error, setError, moveFieldPaths),
     });
-  const submit = (to: OrderStage) => handleSubmit((values) => send(to, values))();
+  const submit = handleSubmit(send);
 
   return (
     <View style={styles.stack} testID="order-moves">
@@ -113,7 +69,7 @@ export function OrderMoves({ order, side }: { order: Order; side: OrderSide }) {
               move.reset();
               clearErrors();
               if (needsForm[m.to]) setOpen(m.to);
-              else send(m.to, emptyForm);
+              else send({ version: order.version, to: m.to });
             }}
             testID={`move-${m.to}`}
           />
@@ -124,14 +80,14 @@ export function OrderMoves({ order, side }: { order: Order; side: OrderSide }) {
           <Text style={styles.formTitle}>{moveLabels[open]}</Text>
           {open === 'quoted' ? (
             <>
-              <FormField control={control} name="price" label="Price" unit="USD" keyboardType="decimal-pad" testID="quote-price" />
-              <FormField control={control} name="leadTime" label="Lead time" unit="days" keyboardType="numeric" testID="quote-lead-time" />
+              <DraftField control={control} spec={quoteNumberSpecs.price} units={calcUnits} testPrefix="quote" testID="quote-price" />
+              <DraftField control={control} spec={quoteNumberSpecs.leadTime} units={calcUnits} testPrefix="quote" testID="quote-lead-time" />
             </>
           ) : null}
           {open === 'shipped' ? (
             <>
-              <FormField control={control} name="carrier" label="Carrier" testID="ship-carrier" />
-              <FormField control={control} name="tracking" label="Tracking" testID="ship-tracking" />
+              <FormField control={control} name="shipping.carrier" label="Carrier" testID="ship-carrier" />
+              <FormField control={control} name="shipping.tracking" label="Tracking" testID="ship-tracking" />
             </>
           ) : null}
           <FormField
@@ -144,7 +100,7 @@ export function OrderMoves({ order, side }: { order: Order; side: OrderSide }) {
           />
           {move.isError ? <ErrorNotice error={move.error} /> : null}
           <View style={styles.row}>
-            <Button label={`Confirm: ${moveLabels[open].toLowerCase()}`} busy={move.isPending} onPress={() => submit(open)} testID={`confirm-${open}`} />
+            <Button label={`Confirm: ${moveLabels[open].toLowerCase()}`} busy={move.isPending} onPress={() => void submit()} testID={`confirm-${open}`} />
             <Button label="Cancel" variant="quiet" disabled={move.isPending} onPress={() => setOpen(null)} testID="cancel-move" />
           </View>
         </View>

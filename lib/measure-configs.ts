@@ -1,4 +1,4 @@
-import type { MeasureConfig, MeasureNumber } from '@/components/measure/measure-form';
+import type { MeasureConfig, MeasureNumber } from '@/lib/measure-fields';
 import { rangeOf, type Quantity } from '@/lib/number-draft';
 import { degreeSchema, ptvBaselineSchema, pushrodSchema, springsSchema } from '@/shared/measurements';
 
