@@ -4,7 +4,7 @@ import { schema } from '@/db';
 import { demoAccounts, demoJobId, demoPassword, demoSheetId, seedDemo } from '@/db/seed';
 import { revisionChecksum } from '@/shared/checksum';
 import { orderMoves, orderStages, type OrderStage } from '@/shared/orders';
-import { Client, createTestApp, makeJobWithEngine, makeProfileSpec, makeShop, memberWithRole, signUp, type TestApp } from '@/tests/fixtures';
+import { Client, createTestApp, makeJobWithEngine, makeProfileBody, makeProfileSpec, makeShop, memberWithRole, signUp, type TestApp } from '@/tests/fixtures';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -122,8 +122,9 @@ describe('who sees an order', { timeout: 30_000 }, () => {
   it('shows each grinding shop only its own orders, never drafts, and hides orders from everyone outside', async () => {
     const a = await issued('Seen A');
     const b = await issued('Seen B');
-    // A draft sheet in A's repair shop, never issued.
-    const draft = (await a.builder.post(`/api/jobs/${a.jobId}/sheets`, { title: 'Still a draft', profileId: a.profileId })).body.sheet;
+    // A draft sheet in A's repair shop, never issued (a second option: each sheet grinds its own profile).
+    const second = (await a.builder.post(`/api/jobs/${a.jobId}/profiles`, makeProfileBody({ label: 'Second option' }))).body.profile;
+    const draft = (await a.builder.post(`/api/jobs/${a.jobId}/sheets`, { title: 'Still a draft', profileId: second.id })).body.sheet;
 
     const incomingA = await a.grinder.get('/api/incoming');
     expect(incomingA.status).toBe(200);
@@ -331,14 +332,16 @@ describe('order e-mail', { timeout: 30_000 }, () => {
     expect(outboxTo(s.grinderFounder.email)).toHaveLength(1);
     expect(outboxTo(s.builder.email)).toHaveLength(0);
 
+    // The first order is quoted and shipped before the next revision is issued (a superseded revision cannot be quoted).
+    await s.grinder.post(`/api/orders/${s.order.id}/move`, { version: 1, to: 'quoted', ...extras('quoted') });
+    await s.grinder.post(`/api/orders/${s.order.id}/move`, { version: 2, to: 'grinding' });
+    await s.grinder.post(`/api/orders/${s.order.id}/move`, { version: 3, to: 'shipped', ...extras('shipped') });
+
     // A second order to the same shop reaches the grinder who joined since.
     const edited = await s.builder.patch(`/api/sheets/${s.sheet.id}`, { version: 2, note: 'Second try' });
     const second = await s.builder.post(`/api/sheets/${s.sheet.id}/issue`, { version: edited.body.sheet.version, grinderShopId: s.grinderShopId });
     expect(outboxTo(secondGrinder.email).map((m) => m.text.includes(`/orders/${second.body.order.id}`))).toEqual([true]);
 
-    await s.grinder.post(`/api/orders/${s.order.id}/move`, { version: 1, to: 'quoted', ...extras('quoted') });
-    await s.grinder.post(`/api/orders/${s.order.id}/move`, { version: 2, to: 'grinding' });
-    await s.grinder.post(`/api/orders/${s.order.id}/move`, { version: 3, to: 'shipped', ...extras('shipped') });
     await s.grinder.post(`/api/orders/${second.body.order.id}/move`, { version: 1, to: 'changes-asked', message: 'Exhaust lash, please' });
 
     for (const builder of [s.builder, secondBuilder]) {

@@ -119,7 +119,8 @@ describe('spec sheets', () => {
       [1, 'issued'],
       [2, 'draft'],
     ]);
-    expect(current).toMatchObject({ number: 2, state: 'draft', spec, label: 'Towing, advanced', note: 'As sent', issuedAt: null });
+    // The note belonged to revision 1: the next revision starts without it.
+    expect(current).toMatchObject({ number: 2, state: 'draft', spec, label: 'Towing, advanced', note: '', issuedAt: null });
     expect(current.id).not.toBe(firstId);
     expect(current.results).toEqual(expectedResults(makeEngineSpec(), spec));
     expect(rawRevision(firstId)).toEqual(before);
