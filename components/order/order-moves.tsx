@@ -8,7 +8,7 @@ import { colors, fonts, radius, space, type as typeScale } from '@/constants/the
 import { ApiError } from '@/lib/api';
 import { centsFromText } from '@/lib/number-draft';
 import { useMoveOrderMutation } from '@/hooks/use-orders';
-import { orderMoves, type Order, type OrderMove, type OrderStage } from '@/shared/orders';
+import { orderIsLive, orderMoves, type Order, type OrderMove, type OrderStage } from '@/shared/orders';
 
 import { Button } from '@/components/ui/button';
 import { ErrorNotice } from '@/components/ui/query-state';
@@ -73,7 +73,8 @@ function moveBody(order: Order, to: OrderStage, v: MoveForm): OrderMove {
 
 /** The moves this side may make from the order's stage, as buttons, with the form each one needs. */
 export function OrderMoves({ order, side }: { order: Order; side: OrderSide }) {
-  const moves = orderMoves[order.stage].filter((m) => m.by === side);
+  // A superseded order that had not reached the grinder's wheel is closed: the server refuses every move on it.
+  const moves = orderIsLive(order) ? orderMoves[order.stage].filter((m) => m.by === side) : [];
   const move = useMoveOrderMutation(order.id);
   const [open, setOpen] = useState<OrderStage | null>(null);
   const { control, handleSubmit, setError, clearErrors, resetField } = useForm<MoveForm>({
