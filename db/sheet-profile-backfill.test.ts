@@ -45,12 +45,7 @@ describe('binding existing sheets to their profiles (migrations 0009 to 0011)', 
     profile('van-stock', 'k', 'Stock', 1);
     const sheet = (id: string, job: string, label: string, at: number) => {
       run(`insert into spec_sheets (id, shop_id, job_id, title, created_at) values (?, 's', ?, ?, ?)`, id, job, `Sheet ${id}`, at);
-      run(
-        `insert into sheet_revisions (id, sheet_id, number, label, spec, engine, results) values (?, ?, 1, ?, '{}', '{}', '{}')`,
-        `${id}-1`,
-        id,
-        label,
-      );
+      run(`insert into sheet_revisions (id, sheet_id, number, label, spec, engine, results) values (?, ?, 1, ?, '{}', '{}', '{}')`, `${id}-1`, id, label);
     };
     // Started from the towing profile (the audit row says so) though its revision carries the stock label.
     sheet('audited', 'j', 'Stock', 10);
@@ -65,7 +60,10 @@ describe('binding existing sheets to their profiles (migrations 0009 to 0011)', 
 
     migrate(db, { migrationsFolder });
     const bound = Object.fromEntries(
-      (client.prepare('select id, profile_id from spec_sheets order by id').all() as { id: string; profile_id: string | null }[]).map((r) => [r.id, r.profile_id]),
+      (client.prepare('select id, profile_id from spec_sheets order by id').all() as { id: string; profile_id: string | null }[]).map((r) => [
+        r.id,
+        r.profile_id,
+      ]),
     );
     expect(bound).toEqual({ audited: 'towing', 'by-label': 'stock', 'second-stock': null, unmatched: null, van: 'van-stock' });
     // The unique index holds: a second sheet for one profile of a job is refused.

@@ -483,7 +483,10 @@ describe('a later revision supersedes the earlier orders', { timeout: 30_000 }, 
 
     const quote = await s.grinder.post(`/api/orders/${s.order.id}/move`, { version: 1, to: 'quoted', ...extras('quoted') });
     expect(quote.status).toBe(409);
-    expect(quote.body.error).toMatchObject({ code: 'superseded', message: expect.stringMatching(/Revision 1 .* superseded by revision 2 .* cannot be quoted/) });
+    expect(quote.body.error).toMatchObject({
+      code: 'superseded',
+      message: expect.stringMatching(/Revision 1 .* superseded by revision 2 .* cannot be quoted/),
+    });
     expect((await s.grinder.post(`/api/orders/${s.order.id}/move`, { version: 1, to: 'changes-asked', message: 'Hm' })).status).toBe(409);
     expect((await s.grinder.get(`/api/orders/${s.order.id}`)).body.order).toMatchObject({ stage: 'sent', version: 1 });
     expect(t.db.$client.prepare('select * from sheet_revisions where id = ?').get(s.order.revisionId)).toEqual(before);

@@ -285,8 +285,8 @@ describe('one sheet per option, bound to its profile by id', () => {
     expect(again.body.error).toMatchObject({ code: 'sheet_exists', message: expect.stringContaining('“Towing”') });
 
     // A second option whose label the first sheet's revision carries: it still gets a sheet of its own.
-    const stock = (await founder.post(`/api/jobs/${jobId}/profiles`, makeProfileBody({ label: makeProfileBody().label, spec: makeProfileSpec({ icl: 110 }) }))).body
-      .profile;
+    const stock = (await founder.post(`/api/jobs/${jobId}/profiles`, makeProfileBody({ label: makeProfileBody().label, spec: makeProfileSpec({ icl: 110 }) })))
+      .body.profile;
     const tried = makeProfileSpec({ icl: 109 });
     const created = await founder.post(`/api/jobs/${jobId}/sheets`, { title: 'Stock', profileId: stock.id, spec: tried });
     expect(created.status).toBe(201);
@@ -294,10 +294,12 @@ describe('one sheet per option, bound to its profile by id', () => {
     expect(created.body.sheet.current.results).toEqual(expectedResults(makeEngineSpec(), tried));
 
     const sheets = (await founder.get(`/api/jobs/${jobId}/sheets`)).body.sheets as { id: string; profileId: string }[];
-    expect(sheets.map((s) => [s.profileId, s.id]).sort()).toEqual([
-      [profileId, towing.id],
-      [stock.id, created.body.sheet.id],
-    ].sort());
+    expect(sheets.map((s) => [s.profileId, s.id]).sort()).toEqual(
+      [
+        [profileId, towing.id],
+        [stock.id, created.body.sheet.id],
+      ].sort(),
+    );
     // The towing sheet is as it was: nothing was written into another option's sheet.
     expect((await founder.get(`/api/sheets/${towing.id}`)).body.sheet).toEqual(towing);
   });
@@ -320,7 +322,9 @@ describe('notes on revisions', () => {
     const issuedBefore = rawRevision(sheet.current.id);
 
     const profile = (await founder.get(`/api/profiles/${profileId}`)).body.profile;
-    expect((await founder.patch(`/api/profiles/${profileId}`, { version: profile.version, coreNotes: 'Core is cracked at journal 2: new core' })).status).toBe(200);
+    expect((await founder.patch(`/api/profiles/${profileId}`, { version: profile.version, coreNotes: 'Core is cracked at journal 2: new core' })).status).toBe(
+      200,
+    );
     const next = await founder.patch(`/api/sheets/${sheet.id}`, { version: 1, spec: makeProfileSpec({ icl: 107 }) });
     expect(next.status).toBe(200);
     expect(next.body.sheet.current).toMatchObject({ number: 2, note: '', coreNotes: 'Core is cracked at journal 2: new core' });

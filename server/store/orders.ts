@@ -103,8 +103,7 @@ export function selectOrderRows(db: Reader, where: SQL | undefined, page?: PageR
       issuedAt: (r.issuedAt ?? order.createdAt).toISOString(),
       updatedAt: order.updatedAt.toISOString(),
       version: order.version,
-      supersededBy:
-        r.supersededNumber !== null && r.supersededAt !== null ? { number: r.supersededNumber, at: new Date(r.supersededAt).toISOString() } : null,
+      supersededBy: r.supersededNumber !== null && r.supersededAt !== null ? { number: r.supersededNumber, at: new Date(r.supersededAt).toISOString() } : null,
     },
   }));
 }

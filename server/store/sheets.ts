@@ -210,7 +210,11 @@ export function createSheet(db: Db, who: Actor, jobId: string, body: z.output<ty
     }
     const taken = sheetOfProfile(tx, who.shopId, jobId, profile.id);
     if (taken) {
-      throw new HttpError(409, 'sheet_exists', `${profile.label} already has its spec sheet, “${taken.title}”. Save to that sheet: it starts the next revision.`);
+      throw new HttpError(
+        409,
+        'sheet_exists',
+        `${profile.label} already has its spec sheet, “${taken.title}”. Save to that sheet: it starts the next revision.`,
+      );
     }
     const spec = body.spec ?? profile.spec;
     const results = computeResults(tx, who.shopId, jobId, engine, spec);

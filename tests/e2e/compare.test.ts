@@ -33,11 +33,15 @@ describe.each(Object.keys(viewports) as ViewportName[])('compare and revise at %
     const revisionsOf = async (id: string) =>
       ((await (await page.request.get(`${baseUrl()}/api/sheets/${id}`)).json()) as { sheet: { revisions: { id: string }[] } }).sheet.revisions.map((r) => r.id);
     const stockBefore = await revisionsOf('demo-sheet-flatbed-stock');
-    await shown(page, 'edit-choice').getByRole('radio', { name: /Stock-spec regrind/ }).click();
+    await shown(page, 'edit-choice')
+      .getByRole('radio', { name: /Stock-spec regrind/ })
+      .click();
     await expect.poll(() => shown(page, 'save-to-sheet').textContent()).toMatch(/^Save to the “Stock-spec regrind \(demo\)” sheet as revision \d+$/);
     expect(await shown(page, 'sheet-target').textContent()).toContain('“Stock-spec regrind for the flatbed (demo)”');
     await screenshot(page, `compare-stock-target-${viewport}`);
-    await shown(page, 'edit-choice').getByRole('radio', { name: /Towing regrind/ }).click();
+    await shown(page, 'edit-choice')
+      .getByRole('radio', { name: /Towing regrind/ })
+      .click();
     await expect.poll(() => shown(page, 'save-to-sheet').textContent()).toMatch(/^Save to the “Towing regrind \(demo\)” sheet as revision \d+$/);
     expect(await shown(page, 'sheet-target').textContent()).toContain('“Replacement cam for the flatbed (demo)”');
 
