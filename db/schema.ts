@@ -198,13 +198,18 @@ export const specSheets = sqliteTable(
     id: text('id').primaryKey(),
     shopId: shopRef(),
     jobId: jobRef(),
+    /**
+     * The job's profile (the option) this sheet grinds: one sheet per option. Null only when that profile
+     * was removed from the job, or an older sheet could not be matched to one; the sheet and its revisions stay.
+     */
+    profileId: text('profile_id').references(() => camProfiles.id, { onDelete: 'set null' }),
     title: text('title').notNull(),
     version: integer('version').notNull().default(1),
     createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
-  (t) => [index('spec_sheets_job_idx').on(t.jobId)],
+  (t) => [index('spec_sheets_job_idx').on(t.jobId), uniqueIndex('spec_sheets_job_profile_idx').on(t.jobId, t.profileId)],
 );
 
 /**
@@ -227,6 +232,8 @@ export const sheetRevisions = sqliteTable(
     engine: text('engine', { mode: 'json' }).$type<EngineSpec>().notNull(),
     results: text('results', { mode: 'json' }).$type<RevisionResults>().notNull(),
     note: text('note').notNull().default(''),
+    /** The profile's core notes when this revision was written: they go to the grinder with it. */
+    coreNotes: text('core_notes').notNull().default(''),
     createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
     createdAt: createdAt(),
     updatedAt: updatedAt(),

@@ -244,7 +244,10 @@ export async function seedDemo(db: Db, auth: Auth) {
   };
   const [stock, towing] = [demoProfiles[0]!, demoProfiles[1]!];
   const sheet = (id: string, title: string, profile: (typeof demoProfiles)[number], note: string, at = new Date()) => {
-    db.insert(schema.specSheets).values({ id, shopId, jobId: demoJobId, title, createdBy, createdAt: at, updatedAt: at }).onConflictDoNothing().run();
+    db.insert(schema.specSheets)
+      .values({ id, shopId, jobId: demoJobId, profileId: profile.jobCopyId, title, createdBy, createdAt: at, updatedAt: at })
+      .onConflictDoNothing()
+      .run();
     db.insert(schema.sheetRevisions)
       .values({
         id: `${id}-rev-1`,
@@ -256,6 +259,7 @@ export async function seedDemo(db: Db, auth: Auth) {
         engine: demoEngine,
         results: results(profile.spec),
         note,
+        coreNotes: profile.coreNotes,
         createdBy,
         createdAt: at,
         updatedAt: at,

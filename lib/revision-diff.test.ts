@@ -20,10 +20,12 @@ const revision = (overrides: Partial<Revision>): Revision => ({
   engine,
   results: revisionResults(analyzeRecords(engine, spec)),
   note: '',
+  coreNotes: '',
   createdBy: null,
   createdAt: '2026-01-01T00:00:00.000Z',
   updatedAt: '2026-01-01T00:00:00.000Z',
   issuedAt: null,
+  supersededBy: null,
   ...overrides,
 });
 
@@ -43,6 +45,12 @@ describe('revision diff', () => {
       { path: 'spec.intake.duration050', label: 'Intake duration at 0.050 in (°)', from: '212', to: '216' },
       { path: 'spec.lsa', label: 'Lobe separation (° cam)', from: '112', to: '110' },
       { path: 'engine.chamberCc', label: 'Engine: chamber (cc)', from: '68', to: '70' },
+    ]);
+  });
+
+  it('lists changed core notes, which go to the grinder with the revision', () => {
+    expect(diffRevisions(revision({}), revision({ coreNotes: 'Grind on the customer core' }))).toEqual([
+      { path: 'coreNotes', label: 'Core notes', from: '', to: 'Grind on the customer core' },
     ]);
   });
 });

@@ -5,6 +5,7 @@ export type RevisionChange = { path: string; label: string; from: string; to: st
 const labels: Record<string, string> = {
   label: 'Profile name',
   note: 'Note',
+  coreNotes: 'Core notes',
   'spec.intake.duration050': 'Intake duration at 0.050 in (°)',
   'spec.intake.advertisedDuration': 'Intake advertised duration (°)',
   'spec.intake.advertisedHeight': 'Intake advertised height (in)',
@@ -47,7 +48,7 @@ function flatten(value: unknown, prefix: string, out: Map<string, string>) {
   }
 }
 
-/** What a builder entered that differs between two revisions: profile values, engine snapshot, name and note. */
+/** What a builder entered that differs between two revisions: profile values, engine snapshot, name, note and core notes. */
 export function diffRevisions(a: Revision, b: Revision): RevisionChange[] {
   const left = new Map<string, string>();
   const right = new Map<string, string>();
@@ -55,7 +56,7 @@ export function diffRevisions(a: Revision, b: Revision): RevisionChange[] {
     [left, a],
     [right, b],
   ] as const) {
-    flatten({ label: r.label, note: r.note, spec: r.spec, engine: r.engine }, '', map);
+    flatten({ label: r.label, note: r.note, coreNotes: r.coreNotes, spec: r.spec, engine: r.engine }, '', map);
   }
   const paths = [...new Set([...left.keys(), ...right.keys()])];
   return paths.filter((p) => left.get(p) !== right.get(p)).map((p) => ({ path: p, label: labels[p] ?? p, from: left.get(p) ?? '—', to: right.get(p) ?? '—' }));

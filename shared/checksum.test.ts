@@ -64,10 +64,18 @@ describe('revisionChecksum', () => {
       { ...c, spec: { ...c.spec, intake: { ...c.spec.intake, duration050: c.spec.intake.duration050 + 1 } } },
       { ...c, spec: { ...c.spec, exhaust: { ...c.spec.exhaust, lobeLift: c.spec.exhaust.lobeLift + 0.001 } } },
       { ...c, engine: { ...c.engine, bore: c.engine.bore + 0.001 } },
+      { ...c, coreNotes: 'Core cracked at journal 2' },
     ];
     const sums = variants.map(revisionChecksum);
     for (const s of sums) expect(s).not.toBe(base);
     expect(new Set(sums).size).toBe(sums.length);
+  });
+});
+
+describe('core notes in the checksum', () => {
+  it('leaves a revision without core notes as it was summed before they travelled with it', () => {
+    expect(revisionChecksum({ ...content(), coreNotes: '' })).toBe(revisionChecksum(content()));
+    expect(revisionChecksum({ ...content(), coreNotes: undefined })).toBe(revisionChecksum(content()));
   });
 });
 

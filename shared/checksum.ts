@@ -37,11 +37,14 @@ export function sha256Hex(input: string): string {
 }
 
 /** The content a revision's checksum covers. */
-export type ChecksumContent = { number: number; label: string; spec: unknown; engine: unknown; note: string };
+export type ChecksumContent = { number: number; label: string; spec: unknown; engine: unknown; note: string; coreNotes?: string };
 
-/** First 12 hex characters of SHA-256 over the canonical JSON of the revision's number, label, spec, engine and note. */
-export function revisionChecksum({ number, label, spec, engine, note }: ChecksumContent): string {
-  return sha256Hex(canonicalJson({ number, label, spec, engine, note })).slice(0, 12);
+/**
+ * First 12 hex characters of SHA-256 over the canonical JSON of the revision's number, label, spec, engine, note and
+ * core notes. Empty core notes are left out, so a revision written before they travelled keeps its checksum.
+ */
+export function revisionChecksum({ number, label, spec, engine, note, coreNotes }: ChecksumContent): string {
+  return sha256Hex(canonicalJson({ number, label, spec, engine, note, coreNotes: coreNotes || undefined })).slice(0, 12);
 }
 
 /** What the owner is offered for one option: the revision (by its checksum) and the terms. */

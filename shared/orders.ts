@@ -1,6 +1,6 @@
 import { z } from 'zod';
 
-import type { Revision } from './sheets';
+import type { Revision, Supersession } from './sheets';
 import { centsSchema, leadTimeDaysSchema, versionSchema } from './numbers';
 
 /**
@@ -33,6 +33,15 @@ export const orderMoves: Record<OrderStage, { to: OrderStage; by: 'grinder' | 'b
   received: [{ to: 'installed', by: 'builder' }],
   installed: [],
 };
+
+/**
+ * Stages where the grinder has started on the metal: an order there stays on the grinder's list and may go on even
+ * when its revision is superseded. Before them, a superseded order is closed: off the list and refused every move.
+ */
+export const underWayStages: readonly OrderStage[] = ['grinding', 'shipped', 'received', 'installed'];
+
+/** Whether the order is still one to work on: its revision is live, or the grinding had started before it was superseded. */
+export const orderIsLive = (order: Pick<Order, 'stage' | 'supersededBy'>) => order.supersededBy === null || underWayStages.includes(order.stage);
 
 /** Builder issues the sheet's current draft revision to one grinding shop. */
 export const issueSchema = z.strictObject({
@@ -95,6 +104,8 @@ export type Order = {
   issuedAt: string;
   updatedAt: string;
   version: number;
+  /** A later revision of the sheet was issued: the order's revision is no longer the one to grind. */
+  supersededBy: Supersession | null;
 };
 
 /** What the grinder and the builder see on an order's page. */

@@ -12,11 +12,15 @@ import { versionSchema } from './numbers';
 export const revisionStates = ['draft', 'issued'] as const;
 export type RevisionState = (typeof revisionStates)[number];
 
-/** Start a spec sheet on a job from one of the job's profiles; revision 1 is a draft. */
+/**
+ * Start the spec sheet of one of the job's profiles (one sheet per profile); revision 1 is a draft with the
+ * profile's values, or with `spec` when given (values tried on the compare screen).
+ */
 export const sheetCreateSchema = z.strictObject({
   title: z.string({ error: 'Name the sheet' }).trim().min(1, 'Name the sheet').max(120, 'Keep the title under 120 characters'),
   profileId: z.string({ error: 'Choose the profile to grind' }).min(1, 'Choose the profile to grind'),
   note: z.string().trim().max(4000).default(''),
+  spec: profileSpecSchema.optional(),
 });
 export type SheetCreate = z.input<typeof sheetCreateSchema>;
 
@@ -93,16 +97,25 @@ export type Revision = {
   engine: EngineSpec;
   results: RevisionResults;
   note: string;
+  /** The profile's core notes when this revision was written; they go to the grinder with it. */
+  coreNotes: string;
   createdBy: string | null;
   createdAt: string;
   updatedAt: string;
   issuedAt: string | null;
+  /** The later revision of this sheet that was issued after this one, when it was issued; null while this one is live. */
+  supersededBy: Supersession | null;
 };
+
+/** A revision is superseded once a later revision of its sheet is issued. */
+export type Supersession = { number: number; at: string };
 
 export type Sheet = {
   id: string;
   shopId: string;
   jobId: string;
+  /** The job profile (the option) this sheet grinds; null for a sheet that no profile of the job owns. */
+  profileId: string | null;
   title: string;
   version: number;
   createdAt: string;

@@ -11,6 +11,7 @@ import { colors, space, type as typeScale } from '@/constants/theme';
 import { useSaveProfileMutation } from '@/hooks/use-profiles';
 import { useCreateSheetMutation, useJobSheetsQuery, useSaveSheetMutation } from '@/hooks/use-sheets';
 import type { CompareColumn } from '@/lib/compare-analysis';
+import { saveToSheetLabel, sheetOfProfile } from '@/lib/option-sheet';
 import { sameSpec, triedRecord, tryDraftFrom, tryValueSpecs, tryValuesSchema, type TryDraft } from '@/lib/try-values';
 import type { Profile, ProfileSpec } from '@/shared/profile';
 
@@ -39,8 +40,8 @@ export function TryValues({
   canWrite: boolean;
 }) {
   const sheets = useJobSheetsQuery(jobId);
-  // The sheet that holds this profile; with none, the most recently changed sheet.
-  const sheet = sheets.data?.find((s) => s.current.label === profile.label) ?? sheets.data?.[0];
+  // This profile's own sheet (each option has one), by id; with none yet, saving starts it.
+  const sheet = sheetOfProfile(sheets.data, profile.id);
   const saveSheet = useSaveSheetMutation(sheet?.id ?? '');
   const createSheet = useCreateSheetMutation(jobId);
   const saveProfile = useSaveProfileMutation(profile.id);
@@ -66,7 +67,7 @@ export function TryValues({
   const dirty = Boolean(draft && column && (Object.keys(column.fieldErrors).length > 0 || !sameSpec(column.spec, profile.spec)));
   const valid = column !== undefined && Object.keys(column.fieldErrors).length === 0 && column.analysis !== null;
   const busy = saveSheet.isPending || createSheet.isPending || saveProfile.isPending;
-  const sameAsSheet = Boolean(sheet && column && sheet.current.label === profile.label && sameSpec(sheet.current.spec, column.spec));
+  const sameAsSheet = Boolean(sheet && column && sameSpec(sheet.current.spec, column.spec));
 
   const run = async (action: () => Promise<string>) => {
     setSaved(null);
@@ -85,7 +86,8 @@ export function TryValues({
         discard();
         return `Saved as revision ${next.current.number} of “${next.title}”.`;
       }
-      const created = await createSheet.mutateAsync({ title: `Spec sheet: ${profile.label}`, profileId: profile.id, note: '' });
+      const created = await createSheet.mutateAsync({ title: `Spec sheet: ${profile.label}`, profileId: profile.id, note: '', spec });
+      discard();
       return `Started “${created.title}”, revision ${created.current.number}.`;
     }),
   );
@@ -110,6 +112,11 @@ export function TryValues({
         />
       ) : null}
       <Text style={styles.note}>Changes recompute at once on this device. Nothing is saved until you choose below.</Text>
+      <Text style={styles.note} testID="sheet-target">
+        {sheet
+          ? `Saving writes “${sheet.title}”, the sheet of ${profile.label}, and no other option’s sheet.`
+          : `${profile.label} has no spec sheet yet: saving starts its own.`}
+      </Text>
       {sameAsSheet ? <Text style={styles.note}>These values match the sheet’s current revision.</Text> : null}
       <UnitToggle volume={false} />
       {loadError ? (
@@ -134,10 +141,10 @@ export function TryValues({
       {canWrite ? (
         <View style={styles.actions}>
           <Button
-            label={sheet ? `Save to sheet as revision ${sheet.current.number + 1}` : 'Start a spec sheet with these values'}
+            label={saveToSheetLabel(profile.label, sheet)}
             onPress={toSheet}
             busy={saveSheet.isPending || createSheet.isPending}
-            disabled={!valid || busy || (!sheet && dirty) || sameAsSheet}
+            disabled={!valid || busy || sameAsSheet || !sheets.data}
             testID="save-to-sheet"
           />
           <Button

@@ -3,6 +3,7 @@ import { StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 
 import { LoadMore } from '@/components/ui/load-more';
 import { OrderStageChip } from '@/components/order/order-stage-chip';
+import { SupersededChip } from '@/components/order/superseded';
 import { EmptyState, ErrorNotice, Pending } from '@/components/ui/query-state';
 import { Screen } from '@/components/ui/screen';
 import { formatAge } from '@/constants/format';
@@ -47,6 +48,7 @@ function IncomingCard({ order, wide }: { order: Order; wide: boolean }) {
         <View style={styles.cardInner}>
           <View style={styles.head}>
             <OrderStageChip stage={order.stage} />
+            <SupersededChip supersededBy={order.supersededBy} testID="incoming-superseded" />
             <Text style={styles.age} testID="incoming-age">
               {age === 'just now' ? 'Sent just now' : `Sent ${age} ago`}
             </Text>

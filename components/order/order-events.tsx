@@ -11,6 +11,8 @@ function describe(event: OrderEvent): string {
   const to = event.detail?.to;
   if (isStage(to)) return orderStageLabels[to];
   if (event.action === 'issue') return orderStageLabels.sent;
+  const by = event.detail?.by;
+  if (event.action === 'supersede' && typeof by === 'number') return `Superseded by revision ${by}`;
   return event.action.replace(/[._-]+/g, ' ').replace(/^\w/, (c) => c.toUpperCase());
 }
 

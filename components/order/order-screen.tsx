@@ -7,7 +7,9 @@ import { orderSide } from '@/lib/order-side';
 import { OrderStageChip } from '@/components/order/order-stage-chip';
 import { OrderThread } from '@/components/order/order-thread';
 import { ErrorNotice, Pending } from '@/components/ui/query-state';
+import { RevisionNotes } from '@/components/sheet/revision-notes';
 import { RevisionView } from '@/components/sheet/revision-view';
+import { SupersededNotice } from '@/components/order/superseded';
 import { Screen, Section, type BackLink } from '@/components/ui/screen';
 import { formatDateTime, quoteSentence } from '@/constants/format';
 import { breakpoints, colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
@@ -67,6 +69,7 @@ function OrderView({ order, side, back }: { order: OrderDetail; side: OrderSide 
   const stage = (
     <Section title="Stage">
       <OrderStageChip stage={order.stage} testID="order-stage" />
+      <SupersededNotice order={order} testID="order-superseded" />
       {order.quote ? (
         <Text style={styles.body} testID="order-quote">
           {quoteSentence(order.quote)}
@@ -96,10 +99,7 @@ function OrderView({ order, side, back }: { order: OrderDetail; side: OrderSide 
         <Fact label="Bore × stroke" value={`${r.engine.bore.toFixed(3)} × ${r.engine.stroke.toFixed(3)} in`} />
         <Fact label="Base circle" value={r.spec.baseCircle === null ? 'grinder to state' : `${r.spec.baseCircle.toFixed(3)} in`} />
       </View>
-      <Text style={styles.label}>Core and base-circle notes</Text>
-      <Text style={styles.body} testID="order-notes">
-        {r.note || 'No notes on this revision.'}
-      </Text>
+      <RevisionNotes revision={r} testPrefix="order" />
     </Section>
   );
 

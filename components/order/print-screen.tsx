@@ -6,6 +6,7 @@ import { LiftPlot } from '@/components/ui/plots';
 import { NoPrint } from '@/components/ui/no-print';
 import { PrintButton } from '@/components/ui/print-button';
 import { ErrorNotice, Pending } from '@/components/ui/query-state';
+import { RevisionNotes } from '@/components/sheet/revision-notes';
 import { RevisionView } from '@/components/sheet/revision-view';
 import { formatDate } from '@/constants/format';
 import { colors, fonts, space, type as typeScale } from '@/constants/theme';
@@ -78,7 +79,7 @@ function PrintSheet({ order }: { order: OrderDetail }) {
         <Text role="heading" aria-level={2} style={styles.heading}>
           Core and base-circle notes
         </Text>
-        <Text style={styles.body}>{r.note || 'No notes on this revision.'}</Text>
+        <RevisionNotes revision={r} testPrefix="print" />
       </View>
       <Text style={styles.small}>
         Both shops confirm they hold the same revision when their checksums match. A revision never changes once issued; changes come as a new revision with a

@@ -13,6 +13,7 @@ import { noteInput } from '@/components/ui/note-input';
 import { ChoiceGroup } from '@/components/ui/choice-group';
 import { OrderMoves } from '@/components/order/order-moves';
 import { OrderStageChip } from '@/components/order/order-stage-chip';
+import { SupersededChip } from '@/components/order/superseded';
 import { EmptyState, ErrorNotice, Pending } from '@/components/ui/query-state';
 import { Section } from '@/components/ui/screen';
 
@@ -135,6 +136,7 @@ function OrderRow({ order, canMove }: { order: Order; canMove: boolean }) {
           Revision {order.revisionNumber} · {order.grinderShop.name}
         </Text>
         <OrderStageChip stage={order.stage} testID={`sheet-order-stage-${order.revisionNumber}`} />
+        <SupersededChip supersededBy={order.supersededBy} testID={`sheet-order-superseded-${order.revisionNumber}`} />
       </View>
       <Text style={styles.meta}>
         Issued {formatDateTime(order.issuedAt)} · checksum <Text style={styles.mono}>{order.checksum}</Text>

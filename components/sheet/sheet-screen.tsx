@@ -7,7 +7,9 @@ import { noteInput } from '@/components/ui/note-input';
 import { CheckStatusChip } from '@/components/sheet/check-list';
 import { ChoiceGroup } from '@/components/ui/choice-group';
 import { ErrorNotice, Pending } from '@/components/ui/query-state';
+import { RevisionNotes } from '@/components/sheet/revision-notes';
 import { RevisionView } from '@/components/sheet/revision-view';
+import { SupersededChip } from '@/components/order/superseded';
 import { Screen, Section, type BackLink } from '@/components/ui/screen';
 import { IssuePanel, SheetOrders } from '@/components/sheet/sheet-orders';
 import { formatDateTime } from '@/constants/format';
@@ -58,13 +60,14 @@ function SheetView({ sheet, back }: { sheet: SheetWithHistory; back: BackLink })
               <Text style={[styles.state, shown.state === 'issued' ? styles.issued : styles.draft]} testID="revision-state">
                 {shown.state === 'draft' ? 'Draft' : 'Issued'}
               </Text>
+              <SupersededChip supersededBy={shown.supersededBy} testID="revision-superseded" />
               <Text style={styles.meta}>saved {formatDateTime(shown.updatedAt)}</Text>
             </View>
             <RevisionView revision={shown} />
-            {shown.note ? <Text style={styles.body}>{shown.note}</Text> : null}
+            <RevisionNotes revision={shown} testPrefix="sheet" />
           </Section>
           <FitsCorePanel feasibility={shown.results.feasibility} testID="sheet-fits-core" />
-          {canWrite && shown.number === current.number ? <NoteEditor sheet={sheet} /> : null}
+          {canWrite && shown.number === current.number ? <NoteEditor key={`${current.id} ${current.state}`} sheet={sheet} /> : null}
         </View>
         <View style={[wide ? styles.side : undefined, styles.stack]}>
           {canIssue ? <IssuePanel sheet={sheet} /> : null}
@@ -76,6 +79,7 @@ function SheetView({ sheet, back }: { sheet: SheetWithHistory; back: BackLink })
                   <View style={styles.grow}>
                     <Text style={styles.historyTitle}>
                       Revision {r.number} · {r.state === 'issued' ? 'issued' : r.number === current.number ? 'draft' : 'earlier draft'}
+                      {r.supersededBy && r.state === 'issued' ? `, superseded by revision ${r.supersededBy.number}` : ''}
                     </Text>
                     <Text style={styles.meta}>
                       {r.label} · {formatDateTime(r.updatedAt)}
@@ -97,8 +101,9 @@ function SheetView({ sheet, back }: { sheet: SheetWithHistory; back: BackLink })
 
 function NoteEditor({ sheet }: { sheet: SheetWithHistory }) {
   const save = useSaveSheetMutation(sheet.id);
-  const [note, setNote] = useState(sheet.current.note);
   const issued = sheet.current.state === 'issued';
+  // An issued revision's note stays with it: the next revision's note starts empty.
+  const [note, setNote] = useState(issued ? '' : sheet.current.note);
   return (
     <Section title="Note for this revision">
       <Text style={styles.meta}>
@@ -110,7 +115,7 @@ function NoteEditor({ sheet }: { sheet: SheetWithHistory }) {
         label={issued ? `Save as revision ${sheet.current.number + 1}` : 'Save note'}
         onPress={() => save.mutate({ version: sheet.version, note })}
         busy={save.isPending}
-        disabled={note === sheet.current.note}
+        disabled={issued ? note.trim() === '' : note === sheet.current.note}
         testID="save-note"
       />
     </Section>

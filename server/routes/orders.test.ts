@@ -4,7 +4,7 @@ import { schema } from '@/db';
 import { demoAccounts, demoJobId, demoPassword, demoSheetId, seedDemo } from '@/db/seed';
 import { revisionChecksum } from '@/shared/checksum';
 import { orderMoves, orderStages, type OrderStage } from '@/shared/orders';
-import { Client, createTestApp, makeJobWithEngine, makeProfileSpec, makeShop, memberWithRole, signUp, type TestApp } from '@/tests/fixtures';
+import { Client, createTestApp, makeJobWithEngine, makeProfileBody, makeProfileSpec, makeShop, memberWithRole, signUp, type TestApp } from '@/tests/fixtures';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -122,8 +122,9 @@ describe('who sees an order', { timeout: 30_000 }, () => {
   it('shows each grinding shop only its own orders, never drafts, and hides orders from everyone outside', async () => {
     const a = await issued('Seen A');
     const b = await issued('Seen B');
-    // A draft sheet in A's repair shop, never issued.
-    const draft = (await a.builder.post(`/api/jobs/${a.jobId}/sheets`, { title: 'Still a draft', profileId: a.profileId })).body.sheet;
+    // A draft sheet in A's repair shop, never issued (a second option: each sheet grinds its own profile).
+    const second = (await a.builder.post(`/api/jobs/${a.jobId}/profiles`, makeProfileBody({ label: 'Second option' }))).body.profile;
+    const draft = (await a.builder.post(`/api/jobs/${a.jobId}/sheets`, { title: 'Still a draft', profileId: second.id })).body.sheet;
 
     const incomingA = await a.grinder.get('/api/incoming');
     expect(incomingA.status).toBe(200);
@@ -331,14 +332,16 @@ describe('order e-mail', { timeout: 30_000 }, () => {
     expect(outboxTo(s.grinderFounder.email)).toHaveLength(1);
     expect(outboxTo(s.builder.email)).toHaveLength(0);
 
+    // The first order is quoted and shipped before the next revision is issued (a superseded revision cannot be quoted).
+    await s.grinder.post(`/api/orders/${s.order.id}/move`, { version: 1, to: 'quoted', ...extras('quoted') });
+    await s.grinder.post(`/api/orders/${s.order.id}/move`, { version: 2, to: 'grinding' });
+    await s.grinder.post(`/api/orders/${s.order.id}/move`, { version: 3, to: 'shipped', ...extras('shipped') });
+
     // A second order to the same shop reaches the grinder who joined since.
     const edited = await s.builder.patch(`/api/sheets/${s.sheet.id}`, { version: 2, note: 'Second try' });
     const second = await s.builder.post(`/api/sheets/${s.sheet.id}/issue`, { version: edited.body.sheet.version, grinderShopId: s.grinderShopId });
     expect(outboxTo(secondGrinder.email).map((m) => m.text.includes(`/orders/${second.body.order.id}`))).toEqual([true]);
 
-    await s.grinder.post(`/api/orders/${s.order.id}/move`, { version: 1, to: 'quoted', ...extras('quoted') });
-    await s.grinder.post(`/api/orders/${s.order.id}/move`, { version: 2, to: 'grinding' });
-    await s.grinder.post(`/api/orders/${s.order.id}/move`, { version: 3, to: 'shipped', ...extras('shipped') });
     await s.grinder.post(`/api/orders/${second.body.order.id}/move`, { version: 1, to: 'changes-asked', message: 'Exhaust lash, please' });
 
     for (const builder of [s.builder, secondBuilder]) {
@@ -458,5 +461,68 @@ describe('demo data', { timeout: 60_000 }, () => {
     } finally {
       await demo.close();
     }
+  });
+});
+
+describe('a later revision supersedes the earlier orders', { timeout: 30_000 }, () => {
+  it("leaves the earlier order off the grinder's list, refuses to quote it with a 409, marks it superseded, and never changes its revision", async () => {
+    const s = await issued('Superseded');
+    const before = t.db.$client.prepare('select * from sheet_revisions where id = ?').get(s.order.revisionId);
+    const edited = await s.builder.patch(`/api/sheets/${s.sheet.id}`, { version: 2, spec: makeProfileSpec({ icl: 107 }) });
+    const second = await s.builder.post(`/api/sheets/${s.sheet.id}/issue`, { version: edited.body.sheet.version, grinderShopId: s.grinderShopId });
+    expect(second.status).toBe(201);
+    expect(second.body.order).toMatchObject({ revisionNumber: 2, supersededBy: null });
+
+    const incoming = (await s.grinder.get('/api/incoming')).body.orders as { id: string }[];
+    expect(incoming.map((o) => o.id)).toEqual([second.body.order.id]);
+
+    const old = (await s.grinder.get(`/api/orders/${s.order.id}`)).body.order;
+    expect(old.supersededBy).toEqual({ number: 2, at: second.body.order.issuedAt });
+    expect(old.revision.supersededBy).toEqual({ number: 2, at: second.body.order.issuedAt });
+    expect(old.events.map((e: { action: string }) => e.action)).toEqual(['issue', 'supersede']);
+
+    const quote = await s.grinder.post(`/api/orders/${s.order.id}/move`, { version: 1, to: 'quoted', ...extras('quoted') });
+    expect(quote.status).toBe(409);
+    expect(quote.body.error).toMatchObject({
+      code: 'superseded',
+      message: expect.stringMatching(/Revision 1 .* superseded by revision 2 .* cannot be quoted/),
+    });
+    expect((await s.grinder.post(`/api/orders/${s.order.id}/move`, { version: 1, to: 'changes-asked', message: 'Hm' })).status).toBe(409);
+    expect((await s.grinder.get(`/api/orders/${s.order.id}`)).body.order).toMatchObject({ stage: 'sent', version: 1 });
+    expect(t.db.$client.prepare('select * from sheet_revisions where id = ?').get(s.order.revisionId)).toEqual(before);
+
+    // The builder's sheet says which revisions are superseded; the live one can be quoted.
+    const sheet = (await s.builder.get(`/api/sheets/${s.sheet.id}`)).body.sheet;
+    expect(sheet.revisions.map((r: { number: number; supersededBy: unknown }) => [r.number, r.supersededBy])).toEqual([
+      [1, { number: 2, at: second.body.order.issuedAt }],
+      [2, null],
+    ]);
+    const orders = (await s.builder.get(`/api/sheets/${s.sheet.id}/orders`)).body.orders as { revisionNumber: number; supersededBy: unknown }[];
+    expect(orders.map((o) => [o.revisionNumber, o.supersededBy === null])).toEqual([
+      [2, true],
+      [1, false],
+    ]);
+    expect((await s.grinder.post(`/api/orders/${second.body.order.id}/move`, { version: 1, to: 'quoted', ...extras('quoted') })).status).toBe(200);
+  });
+
+  it('keeps an order the grinder had started grinding on the list, marked superseded, and lets it go on', async () => {
+    const s = await issued('Under way');
+    await s.grinder.post(`/api/orders/${s.order.id}/move`, { version: 1, to: 'quoted', ...extras('quoted') });
+    await s.grinder.post(`/api/orders/${s.order.id}/move`, { version: 2, to: 'grinding' });
+    const edited = await s.builder.patch(`/api/sheets/${s.sheet.id}`, { version: 2, note: 'Next time' });
+    const second = await s.builder.post(`/api/sheets/${s.sheet.id}/issue`, { version: edited.body.sheet.version, grinderShopId: s.grinderShopId });
+    const incoming = (await s.grinder.get('/api/incoming')).body.orders as { id: string; supersededBy: unknown }[];
+    expect(incoming.map((o) => [o.id, o.supersededBy !== null])).toEqual([
+      [second.body.order.id, false],
+      [s.order.id, true],
+    ]);
+    expect((await s.grinder.post(`/api/orders/${s.order.id}/move`, { version: 3, to: 'shipped', ...extras('shipped') })).status).toBe(200);
+  });
+
+  it("gives the grinder the profile's core notes on the issued revision", async () => {
+    const s = await issued('Core notes');
+    const detail = (await s.grinder.get(`/api/orders/${s.order.id}`)).body.order;
+    expect(detail.revision.coreNotes).toBe('Test core');
+    expect(detail.revision.note).toBe('');
   });
 });

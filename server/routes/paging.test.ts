@@ -210,16 +210,22 @@ describe('GET /api/incoming pages', { timeout: 60_000 }, () => {
     expect(issued.status).toBe(201);
     const first = t.db.select().from(schema.grindOrders).where(eq(schema.grindOrders.id, issued.body.order.id)).get()!;
     const revision = t.db.select().from(schema.sheetRevisions).where(eq(schema.sheetRevisions.id, first.revisionId)).get()!;
+    const sheetRow = t.db.select().from(schema.specSheets).where(eq(schema.specSheets.id, sheet.id)).get()!;
     t.db.transaction((tx) => {
       for (let i = 0; i < 11; i += 1) {
+        // Each order on a sheet of its own: a later issued revision of one sheet would supersede the earlier orders.
+        const sheetId = crypto.randomUUID();
+        tx.insert(schema.specSheets)
+          .values({ ...sheetRow, id: sheetId, profileId: null })
+          .run();
         const revisionId = crypto.randomUUID();
         tx.insert(schema.sheetRevisions)
-          .values({ ...revision, id: revisionId, number: revision.number + i + 1 })
+          .values({ ...revision, id: revisionId, sheetId, number: revision.number + i + 1 })
           .run();
         // Pairs share a creation time, so the id breaks ties.
         const at = new Date(first.createdAt.getTime() - 1000 * (1 + Math.floor(i / 2)));
         tx.insert(schema.grindOrders)
-          .values({ ...first, id: crypto.randomUUID(), revisionId, createdAt: at, updatedAt: at })
+          .values({ ...first, id: crypto.randomUUID(), sheetId, revisionId, createdAt: at, updatedAt: at })
           .run();
       }
     });

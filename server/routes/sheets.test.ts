@@ -119,7 +119,8 @@ describe('spec sheets', () => {
       [1, 'issued'],
       [2, 'draft'],
     ]);
-    expect(current).toMatchObject({ number: 2, state: 'draft', spec, label: 'Towing, advanced', note: 'As sent', issuedAt: null });
+    // The note belonged to revision 1: the next revision starts without it.
+    expect(current).toMatchObject({ number: 2, state: 'draft', spec, label: 'Towing, advanced', note: '', issuedAt: null });
     expect(current.id).not.toBe(firstId);
     expect(current.results).toEqual(expectedResults(makeEngineSpec(), spec));
     expect(rawRevision(firstId)).toEqual(before);
@@ -270,5 +271,71 @@ describe('demo data through the API', () => {
     const saved = await builder.patch(`/api/sheets/${demoSheetId}`, { version: sheet.version, newRevision: true, note: 'Demo revision 2' });
     expect(saved.status).toBe(200);
     expect(saved.body.sheet.revisions.map((r: { number: number }) => r.number)).toEqual([1, 2]);
+  });
+});
+
+describe('one sheet per option, bound to its profile by id', () => {
+  it('names its profile, refuses a second sheet for the same profile, and starts each other option its own sheet', async () => {
+    const { founder, jobId, profileId } = await makeJobWithEngine(t, 'Options shop');
+    const towing = (await founder.post(`/api/jobs/${jobId}/sheets`, { title: 'Towing', profileId })).body.sheet;
+    expect(towing.profileId).toBe(profileId);
+
+    const again = await founder.post(`/api/jobs/${jobId}/sheets`, { title: 'Towing again', profileId });
+    expect(again.status).toBe(409);
+    expect(again.body.error).toMatchObject({ code: 'sheet_exists', message: expect.stringContaining('“Towing”') });
+
+    // A second option whose label the first sheet's revision carries: it still gets a sheet of its own.
+    const stock = (await founder.post(`/api/jobs/${jobId}/profiles`, makeProfileBody({ label: makeProfileBody().label, spec: makeProfileSpec({ icl: 110 }) })))
+      .body.profile;
+    const tried = makeProfileSpec({ icl: 109 });
+    const created = await founder.post(`/api/jobs/${jobId}/sheets`, { title: 'Stock', profileId: stock.id, spec: tried });
+    expect(created.status).toBe(201);
+    expect(created.body.sheet).toMatchObject({ profileId: stock.id, current: { number: 1, spec: tried } });
+    expect(created.body.sheet.current.results).toEqual(expectedResults(makeEngineSpec(), tried));
+
+    const sheets = (await founder.get(`/api/jobs/${jobId}/sheets`)).body.sheets as { id: string; profileId: string }[];
+    expect(sheets.map((s) => [s.profileId, s.id]).sort()).toEqual(
+      [
+        [profileId, towing.id],
+        [stock.id, created.body.sheet.id],
+      ].sort(),
+    );
+    // The towing sheet is as it was: nothing was written into another option's sheet.
+    expect((await founder.get(`/api/sheets/${towing.id}`)).body.sheet).toEqual(towing);
+  });
+
+  it('answers bad tried values on a new sheet with a 400 naming the spec field', async () => {
+    const { founder, jobId, profileId } = await makeJobWithEngine(t, 'Options bad values');
+    const res = await founder.post(`/api/jobs/${jobId}/sheets`, { title: 'Towing', profileId, spec: { ...makeProfileSpec(), icl: 300 } });
+    expect(res.status).toBe(400);
+    expect(Object.keys(res.body.error.fields)).toEqual(['spec.icl']);
+    expect((await founder.get(`/api/jobs/${jobId}/sheets`)).body.sheets).toEqual([]);
+  });
+});
+
+describe('notes on revisions', () => {
+  it("carries the profile's core notes on each revision as written, and starts each new revision without the previous note", async () => {
+    const { founder, jobId, profileId } = await makeJobWithEngine(t, 'Notes shop');
+    const sheet = (await founder.post(`/api/jobs/${jobId}/sheets`, { title: 'Towing', profileId, note: 'Rev 1 only' })).body.sheet;
+    expect(sheet.current).toMatchObject({ note: 'Rev 1 only', coreNotes: makeProfileBody().coreNotes });
+    issue(sheet.current.id);
+    const issuedBefore = rawRevision(sheet.current.id);
+
+    const profile = (await founder.get(`/api/profiles/${profileId}`)).body.profile;
+    expect((await founder.patch(`/api/profiles/${profileId}`, { version: profile.version, coreNotes: 'Core is cracked at journal 2: new core' })).status).toBe(
+      200,
+    );
+    const next = await founder.patch(`/api/sheets/${sheet.id}`, { version: 1, spec: makeProfileSpec({ icl: 107 }) });
+    expect(next.status).toBe(200);
+    expect(next.body.sheet.current).toMatchObject({ number: 2, note: '', coreNotes: 'Core is cracked at journal 2: new core' });
+    // The issued revision keeps the core notes it went out with.
+    expect(next.body.sheet.revisions[0]).toMatchObject({ note: 'Rev 1 only', coreNotes: makeProfileBody().coreNotes });
+    expect(rawRevision(sheet.current.id)).toEqual(issuedBefore);
+
+    // A draft asked to become a new revision leaves its note behind too.
+    const noted = await founder.patch(`/api/sheets/${sheet.id}`, { version: 2, note: 'Rev 2 only' });
+    const third = await founder.patch(`/api/sheets/${sheet.id}`, { version: noted.body.sheet.version, newRevision: true, spec: makeProfileSpec({ icl: 106 }) });
+    expect(third.body.sheet.current).toMatchObject({ number: 3, note: '' });
+    expect(third.body.sheet.revisions[1]).toMatchObject({ number: 2, note: 'Rev 2 only' });
   });
 });

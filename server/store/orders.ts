@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, lt, or, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, lt, not, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
 import type { z } from 'zod';
 
@@ -7,7 +7,9 @@ import { schema } from '@/db';
 import { revisionChecksum } from '@/shared/checksum';
 import {
   orderMoves,
+  orderIsLive,
   orderStageLabels,
+  underWayStages,
   type issueSchema,
   type Order,
   type OrderDetail,
@@ -22,7 +24,7 @@ import { conflict, forbidden, HttpError, notFound } from '../http';
 import type { PageRequest } from '../paging';
 import { audit } from './audit';
 import type { Actor, AfterWrite, Reader } from './db';
-import { latestRevisionRow, toRevision } from './sheets';
+import { latestRevisionRow, revisionWithSupersession } from './sheets';
 
 type Side = 'builder' | 'grinder';
 
@@ -31,6 +33,21 @@ export type OrderViewer = { shop: { id: string; kind: ShopKind }; user: { id: st
 
 const repairShops = alias(schema.shops, 'repair_shops');
 const grinderShops = alias(schema.shops, 'grinder_shops');
+
+/** The first revision of the order's sheet issued after the order's own (the one that supersedes it), as `column`. */
+const supersedingRevision = <T>(column: 'number' | 'issued_at') =>
+  sql<T | null>`(select later.${sql.raw(column)} from ${schema.sheetRevisions} later where later.sheet_id = ${schema.grindOrders.sheetId} and later.state = 'issued' and later.number > ${schema.sheetRevisions.number} order by later.number limit 1)`;
+
+/**
+ * Orders the grinder still works on: the revision is live, or the grinding had begun before a later revision
+ * was issued (`orderIsLive` in shared/orders.ts says the same of one order).
+ */
+const liveOrders = or(
+  not(
+    sql`exists (select 1 from ${schema.sheetRevisions} later where later.sheet_id = ${schema.grindOrders.sheetId} and later.state = 'issued' and later.number > ${schema.sheetRevisions.number})`,
+  ),
+  inArray(schema.grindOrders.stage, [...underWayStages]),
+);
 
 /** Orders with their sheet, revision and both shops' names, filtered by `where` (which carries the shop scope). */
 export function selectOrders(db: Reader, where: SQL | undefined): Order[] {
@@ -55,6 +72,8 @@ export function selectOrderRows(db: Reader, where: SQL | undefined, page?: PageR
       issuedAt: schema.sheetRevisions.issuedAt,
       repairShopName: repairShops.name,
       grinderShopName: grinderShops.name,
+      supersededNumber: supersedingRevision<number>('number'),
+      supersededAt: supersedingRevision<number>('issued_at'),
     })
     .from(schema.grindOrders)
     .innerJoin(schema.specSheets, eq(schema.specSheets.id, schema.grindOrders.sheetId))
@@ -84,6 +103,7 @@ export function selectOrderRows(db: Reader, where: SQL | undefined, page?: PageR
       issuedAt: (r.issuedAt ?? order.createdAt).toISOString(),
       updatedAt: order.updatedAt.toISOString(),
       version: order.version,
+      supersededBy: r.supersededNumber !== null && r.supersededAt !== null ? { number: r.supersededNumber, at: new Date(r.supersededAt).toISOString() } : null,
     },
   }));
 }
@@ -151,7 +171,7 @@ function loadEvents(db: Reader, orderId: string): OrderEvent[] {
 }
 
 export function loadDetail(db: Reader, order: Order): OrderDetail {
-  const revision = db.select().from(schema.sheetRevisions).where(eq(schema.sheetRevisions.id, order.revisionId)).get();
+  const revision = revisionWithSupersession(db, order.revisionId);
   if (!revision) throw new Error(`Order ${order.id} has no revision`);
   const job = db
     .select({ vehicle: schema.jobs.vehicle })
@@ -159,7 +179,7 @@ export function loadDetail(db: Reader, order: Order): OrderDetail {
     .innerJoin(schema.jobs, eq(schema.jobs.id, schema.specSheets.jobId))
     .where(eq(schema.specSheets.id, order.sheetId))
     .get();
-  return { ...order, revision: toRevision(revision), vehicle: job?.vehicle ?? '', messages: loadMessages(db, order), events: loadEvents(db, order.id) };
+  return { ...order, revision, vehicle: job?.vehicle ?? '', messages: loadMessages(db, order), events: loadEvents(db, order.id) };
 }
 
 /** "From sent: the grinder can move it to quoted or changes-asked." */
@@ -193,9 +213,12 @@ export function sheetOrders(db: Reader, shopId: string, sheetId: string): Order[
   return selectOrders(db, and(eq(schema.grindOrders.sheetId, sheet.id), eq(schema.grindOrders.repairShopId, shopId)));
 }
 
-/** One page of a grinding shop's incoming orders, newest first, with one row more than the limit when there are more. */
+/**
+ * One page of a grinding shop's live incoming orders, newest first, with one row more than the limit when there are more.
+ * An order whose revision a later issue superseded before the grinding began is closed and left off.
+ */
 export function incomingRows(db: Reader, grinderShopId: string, page: PageRequest) {
-  return selectOrderRows(db, eq(schema.grindOrders.grinderShopId, grinderShopId), page);
+  return selectOrderRows(db, and(eq(schema.grindOrders.grinderShopId, grinderShopId), liveOrders), page);
 }
 
 /**
@@ -280,6 +303,23 @@ export function issueSheet(db: Db, who: Actor, sheetId: string, body: z.output<t
       entityId: id,
       detail: { to: 'sent', revision: issued.number, checksum },
     });
+    // Every earlier order on this sheet now holds a superseded revision: say so in its own history.
+    const earlier = tx
+      .select({ id: schema.grindOrders.id, stage: schema.grindOrders.stage, number: schema.sheetRevisions.number })
+      .from(schema.grindOrders)
+      .innerJoin(schema.sheetRevisions, eq(schema.sheetRevisions.id, schema.grindOrders.revisionId))
+      .where(and(eq(schema.grindOrders.sheetId, sheetId), lt(schema.sheetRevisions.number, issued.number)))
+      .all();
+    for (const old of earlier) {
+      audit(tx, {
+        shopId: who.shopId,
+        userId: who.userId,
+        action: 'supersede',
+        entity: 'order',
+        entityId: old.id,
+        detail: { revision: old.number, by: issued.number, stage: old.stage, closed: !underWayStages.includes(old.stage) },
+      });
+    }
     const [created] = selectOrders(tx, eq(schema.grindOrders.id, id));
     if (!created) throw new Error(`Order ${id} was not written`);
     after?.(tx, created);
@@ -303,6 +343,13 @@ export function moveOrder(
     if (current.version !== body.version) {
       throw conflict(
         `This order changed after you opened it (version ${current.version}, yours ${body.version}); it is now ${orderStageLabels[current.stage].toLowerCase()}. Reload and try again.`,
+      );
+    }
+    if (!orderIsLive(current) && current.supersededBy) {
+      throw new HttpError(
+        409,
+        'superseded',
+        `Revision ${current.revisionNumber} of “${current.sheetTitle}” was superseded by revision ${current.supersededBy.number} before grinding began, so this order cannot be quoted or moved. Work from revision ${current.supersededBy.number}.`,
       );
     }
     const move = orderMoves[current.stage].find((m) => m.to === body.to);

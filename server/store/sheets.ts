@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, gt, inArray, sql } from 'drizzle-orm';
 
 import type { Db } from '@/db';
 import { schema } from '@/db';
@@ -9,7 +9,7 @@ import { analyzeForJob, revisionResults } from '@/shared/analysis';
 import { jobCore, type JobCore } from '@/shared/job-core';
 import type { EngineSpec } from '@/shared/engine';
 import type { ProfileSpec } from '@/shared/profile';
-import type { Revision, RevisionResults, Sheet, sheetCreateSchema, sheetSaveSchema, SheetWithHistory } from '@/shared/sheets';
+import type { Revision, RevisionResults, Sheet, sheetCreateSchema, sheetSaveSchema, SheetWithHistory, Supersession } from '@/shared/sheets';
 
 import { conflict, HttpError, notFound } from '../http';
 import { audit } from './audit';
@@ -24,7 +24,35 @@ import { loadShopLimits } from './shop-limits';
 type SheetRow = typeof schema.specSheets.$inferSelect;
 type RevisionRow = typeof schema.sheetRevisions.$inferSelect;
 
-export function toRevision(row: RevisionRow): Revision {
+/**
+ * Which of one sheet's revisions are superseded, and by what: each revision's first later issued one
+ * (`revisions` oldest first). Worked out from the revisions themselves, so an issued row never changes to say so.
+ */
+export function supersessionsIn(revisions: readonly RevisionRow[]): Map<string, Supersession> {
+  const out = new Map<string, Supersession>();
+  let next: Supersession | null = null;
+  for (const r of [...revisions].reverse()) {
+    if (next) out.set(r.id, next);
+    if (r.state === 'issued' && r.issuedAt) next = { number: r.number, at: r.issuedAt.toISOString() };
+  }
+  return out;
+}
+
+/** The revision by id with what supersedes it (a later issued revision of its sheet), or undefined. */
+export function revisionWithSupersession(db: Reader, id: string): Revision | undefined {
+  const row = db.select().from(schema.sheetRevisions).where(eq(schema.sheetRevisions.id, id)).get();
+  if (!row) return undefined;
+  const later = db
+    .select()
+    .from(schema.sheetRevisions)
+    .where(and(eq(schema.sheetRevisions.sheetId, row.sheetId), eq(schema.sheetRevisions.state, 'issued'), gt(schema.sheetRevisions.number, row.number)))
+    .orderBy(asc(schema.sheetRevisions.number))
+    .limit(1)
+    .get();
+  return toRevision(row, later?.issuedAt ? { number: later.number, at: later.issuedAt.toISOString() } : null);
+}
+
+export function toRevision(row: RevisionRow, supersededBy: Supersession | null): Revision {
   return {
     id: row.id,
     sheetId: row.sheetId,
@@ -35,10 +63,12 @@ export function toRevision(row: RevisionRow): Revision {
     engine: row.engine,
     results: row.results,
     note: row.note,
+    coreNotes: row.coreNotes,
     createdBy: row.createdBy,
     createdAt: row.createdAt.toISOString(),
     updatedAt: row.updatedAt.toISOString(),
     issuedAt: row.issuedAt ? row.issuedAt.toISOString() : null,
+    supersededBy,
   };
 }
 
@@ -47,18 +77,21 @@ function toSheet(row: SheetRow, current: RevisionRow): Sheet {
     id: row.id,
     shopId: row.shopId,
     jobId: row.jobId,
+    profileId: row.profileId,
     title: row.title,
     version: row.version,
     createdAt: row.createdAt.toISOString(),
     updatedAt: row.updatedAt.toISOString(),
-    current: toRevision(current),
+    // The latest revision has no later one to supersede it.
+    current: toRevision(current, null),
   };
 }
 
 function withHistory(row: SheetRow, revisions: RevisionRow[]): SheetWithHistory {
   const latest = revisions[revisions.length - 1];
   if (!latest) throw new Error(`Sheet ${row.id} has no revisions`);
-  return { ...toSheet(row, latest), revisions: revisions.map(toRevision) };
+  const superseded = supersessionsIn(revisions);
+  return { ...toSheet(row, latest), revisions: revisions.map((r) => toRevision(r, superseded.get(r.id) ?? null)) };
 }
 
 const sheetStatements = (db: Reader) =>
@@ -155,6 +188,15 @@ export function jobCoreOf(db: Reader, shopId: string, jobId: string, engine: Eng
   return { job, limits };
 }
 
+/** The sheet that grinds this job profile, if it has one. */
+export function sheetOfProfile(db: Reader, shopId: string, jobId: string, profileId: string): SheetRow | undefined {
+  return db
+    .select()
+    .from(schema.specSheets)
+    .where(and(eq(schema.specSheets.jobId, jobId), eq(schema.specSheets.shopId, shopId), eq(schema.specSheets.profileId, profileId)))
+    .get();
+}
+
 /** A new sheet on the job from one of its profiles, with revision 1 as a draft against the job's engine. */
 export function createSheet(db: Db, who: Actor, jobId: string, body: z.output<typeof sheetCreateSchema>): SheetWithHistory {
   return db.transaction((tx) => {
@@ -166,10 +208,19 @@ export function createSheet(db: Db, who: Actor, jobId: string, body: z.output<ty
         profileId: "Choose one of this job's profiles",
       });
     }
-    const results = computeResults(tx, who.shopId, jobId, engine, profile.spec);
+    const taken = sheetOfProfile(tx, who.shopId, jobId, profile.id);
+    if (taken) {
+      throw new HttpError(
+        409,
+        'sheet_exists',
+        `${profile.label} already has its spec sheet, “${taken.title}”. Save to that sheet: it starts the next revision.`,
+      );
+    }
+    const spec = body.spec ?? profile.spec;
+    const results = computeResults(tx, who.shopId, jobId, engine, spec);
     const created = tx
       .insert(schema.specSheets)
-      .values({ id: crypto.randomUUID(), shopId: who.shopId, jobId, title: body.title, createdBy: who.userId })
+      .values({ id: crypto.randomUUID(), shopId: who.shopId, jobId, profileId: profile.id, title: body.title, createdBy: who.userId })
       .returning()
       .get();
     const revision = tx
@@ -180,10 +231,11 @@ export function createSheet(db: Db, who: Actor, jobId: string, body: z.output<ty
         number: 1,
         state: 'draft',
         label: profile.label,
-        spec: profile.spec,
+        spec,
         engine,
         results,
         note: body.note,
+        coreNotes: profile.coreNotes,
         createdBy: who.userId,
       })
       .returning()
@@ -194,7 +246,7 @@ export function createSheet(db: Db, who: Actor, jobId: string, body: z.output<ty
       action: 'create',
       entity: 'sheet',
       entityId: created.id,
-      detail: { jobId, profileId: profile.id, revision: 1 },
+      detail: { jobId, profileId: profile.id, revision: 1, ...(body.spec ? { fields: ['spec'] } : {}) },
     });
     return withHistory(created, [revision]);
   });
@@ -224,14 +276,18 @@ export function saveSheet(
     }
     const latest = latestRevisionRow(tx, id);
 
+    // An issued revision is the grinder's contract: never touch it, write the next one.
+    const startNext = latest.state === 'issued' || newRevision === true;
     const label = changes.label ?? latest.label;
     const spec = changes.spec ?? latest.spec;
-    const note = changes.note ?? latest.note;
+    // A note belongs to its revision: the next one starts without it.
+    const note = changes.note ?? (startNext ? '' : latest.note);
+    // The profile's core notes as they stand now go with the revision written (kept as they were if it left the job).
+    const profile = current.profileId ? findJobProfile(tx, who.shopId, current.jobId, current.profileId) : undefined;
+    const coreNotes = profile?.coreNotes ?? latest.coreNotes;
     const engine = refreshEngine ? requireEngine(tx, who.shopId, current.jobId) : latest.engine;
     const results = computeResults(tx, who.shopId, current.jobId, engine, spec);
 
-    // An issued revision is the grinder's contract: never touch it, write the next one.
-    const startNext = latest.state === 'issued' || newRevision === true;
     const saved = startNext
       ? tx
           .insert(schema.sheetRevisions)
@@ -245,13 +301,14 @@ export function saveSheet(
             engine,
             results,
             note,
+            coreNotes,
             createdBy: who.userId,
           })
           .returning()
           .get()
       : tx
           .update(schema.sheetRevisions)
-          .set({ label, spec, engine, results, note })
+          .set({ label, spec, engine, results, note, coreNotes })
           .where(and(eq(schema.sheetRevisions.id, latest.id), eq(schema.sheetRevisions.state, 'draft')))
           .returning()
           .get();

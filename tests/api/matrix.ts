@@ -107,7 +107,7 @@ export const matrix: Record<string, MatrixRow> = {
   'POST /api/jobs/:jobId/profiles': { allow: builderA, params: job, body: (w) => ({ fromProfileId: w.a.libraryProfileId }) },
 
   'GET /api/jobs/:jobId/sheets': { allow: shopAReaders, params: job },
-  'POST /api/jobs/:jobId/sheets': { allow: builderA, params: job, body: (w) => ({ title: 'Test second sheet', profileId: w.a.jobProfileId }) },
+  'POST /api/jobs/:jobId/sheets': { allow: builderA, params: job, body: (w) => ({ title: 'Test second sheet', profileId: w.a.spareProfileId }) },
   'GET /api/sheets/:id': { allow: shopAReaders, params: sheet },
   'PATCH /api/sheets/:id': {
     allow: builderA,

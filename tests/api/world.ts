@@ -61,6 +61,8 @@ export type World = {
     jobVersion: number;
     libraryProfileId: string;
     jobProfileId: string;
+    /** A job profile with no sheet yet: what the sheet route starts a sheet for (one sheet per profile). */
+    spareProfileId: string;
     /** Issued to G1, with an order. */
     sheetId: string;
     sheetVersion: number;
@@ -227,7 +229,12 @@ export async function buildWorld(): Promise<World> {
   expectStatus(issue, 201, 'issue');
   const orderId = issue.body.order.id as string;
   expectStatus(await g1.founder.post(`/api/orders/${orderId}/messages`, { body: text.reply }), 201, 'reply');
-  const draft = await builder.post(`/api/jobs/${a.jobId}/sheets`, { title: text.draft, profileId: a.profileId });
+  // Each sheet grinds its own profile: the draft sheet has a second one, and a third is left without a sheet.
+  const draftProfile = await builder.post(`/api/jobs/${a.jobId}/profiles`, makeProfileBody({ label: 'Test draft option' }));
+  expectStatus(draftProfile, 201, 'draft option profile');
+  const spareProfile = await builder.post(`/api/jobs/${a.jobId}/profiles`, makeProfileBody({ label: 'Test spare option' }));
+  expectStatus(spareProfile, 201, 'spare option profile');
+  const draft = await builder.post(`/api/jobs/${a.jobId}/sheets`, { title: text.draft, profileId: draftProfile.body.profile.id });
   expectStatus(draft, 201, 'draft sheet');
 
   const measurement = await aTech.post(`/api/jobs/${a.jobId}/measurements`, {
@@ -263,6 +270,7 @@ export async function buildWorld(): Promise<World> {
     jobVersion: job.body.job.version as number,
     libraryProfileId: library.body.profile.id as string,
     jobProfileId: a.profileId,
+    spareProfileId: spareProfile.body.profile.id as string,
     sheetId: sheet.body.sheet.id as string,
     sheetVersion: (sheet.body.sheet.version as number) + 1,
     draftSheetId: draft.body.sheet.id as string,
@@ -290,7 +298,8 @@ export async function buildWorld(): Promise<World> {
     { what: "the job's complaint", text: text.complaint, readers: shopAReaders },
     { what: "the job's findings", text: text.findings, readers: shopAReaders },
     { what: "the job profile's label", text: text.profile, readers: orderReaders },
-    { what: "the job profile's core notes", text: text.coreNotes, readers: shopAReaders },
+    // Core notes go to the grinder with the issued revision (never to the owner).
+    { what: "the job profile's core notes", text: text.coreNotes, readers: orderReaders },
     { what: "the owner's words", text: text.whatFailed, readers: shopAReaders, onOwnerPage: true },
     { what: "an option's title", text: text.option, readers: shopAReaders, onOwnerPage: true },
     { what: "an option's note for the owner", text: text.optionNote, readers: shopAReaders, onOwnerPage: true },

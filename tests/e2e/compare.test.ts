@@ -29,6 +29,22 @@ describe.each(Object.keys(viewports) as ViewportName[])('compare and revise at %
     await expectAccessible(page);
     await screenshot(page, `compare-${viewport}`);
 
+    // Each option saves into its own sheet: with the stock profile chosen, the button and the note name the stock sheet.
+    const revisionsOf = async (id: string) =>
+      ((await (await page.request.get(`${baseUrl()}/api/sheets/${id}`)).json()) as { sheet: { revisions: { id: string }[] } }).sheet.revisions.map((r) => r.id);
+    const stockBefore = await revisionsOf('demo-sheet-flatbed-stock');
+    await shown(page, 'edit-choice')
+      .getByRole('radio', { name: /Stock-spec regrind/ })
+      .click();
+    await expect.poll(() => shown(page, 'save-to-sheet').textContent()).toMatch(/^Save to the “Stock-spec regrind \(demo\)” sheet as revision \d+$/);
+    expect(await shown(page, 'sheet-target').textContent()).toContain('“Stock-spec regrind for the flatbed (demo)”');
+    await screenshot(page, `compare-stock-target-${viewport}`);
+    await shown(page, 'edit-choice')
+      .getByRole('radio', { name: /Towing regrind/ })
+      .click();
+    await expect.poll(() => shown(page, 'save-to-sheet').textContent()).toMatch(/^Save to the “Towing regrind \(demo\)” sheet as revision \d+$/);
+    expect(await shown(page, 'sheet-target').textContent()).toContain('“Replacement cam for the flatbed (demo)”');
+
     const before = await plot.locator('path').nth(3).getAttribute('d');
     // Try an intake duration the sheet does not hold yet, so every run writes a real change.
     const current = await page.request.get(`${baseUrl()}/api/sheets/demo-sheet-flatbed-towing`);
@@ -68,6 +84,9 @@ describe.each(Object.keys(viewports) as ViewportName[])('compare and revise at %
     expect(next).toBeGreaterThan(1);
     await shown(page, 'save-to-sheet').click();
     await expect.poll(() => shown(page, 'save-result').textContent()).toContain(`Saved as revision ${next}`);
+    // The towing values went into the towing sheet; the stock sheet holds what it held.
+    expect(await revisionsOf('demo-sheet-flatbed-stock')).toEqual(stockBefore);
+    expect((await revisionsOf('demo-sheet-flatbed-towing')).length).toBe(next);
     await screenshot(page, `compare-saved-${viewport}`);
 
     await shown(page, 'open-sheet').click();

@@ -19,6 +19,38 @@ async function builderSees(page: Page, revision: number, stage: string) {
   await expect.poll(() => shown(page, `sheet-order-stage-${revision}`).textContent()).toBe(stage);
 }
 
+/**
+ * The builder issues the towing sheet's current draft to the demo grinding shop, after starting a fresh draft when the
+ * latest revision is already issued; answers the revision number and the new order's id.
+ */
+async function issueDraft(b: Page, note: string) {
+  await b.goto(`${baseUrl()}${sheetPath}`);
+  await shown(b, 'sheet-screen').waitFor();
+  if ((await shown(b, 'revision-state').textContent()) === 'Issued') {
+    await shown(b, 'sheet-note').fill(`Regrind on the customer's core; browser run ${Date.now()}.`);
+    await shown(b, 'save-note').click();
+    await expect.poll(() => shown(b, 'revision-state').textContent()).toBe('Draft');
+  }
+  const subtitle = (await shown(b, 'sheet-screen').textContent()) ?? '';
+  const revision = Number(/Revision (\d+) \(draft/.exec(subtitle)?.[1]);
+  expect(revision).toBeGreaterThan(0);
+
+  // Issue to the demo grinding shop, with a confirm step.
+  await shown(b, 'issue-shop').getByRole('radio', { name: grinderName }).click();
+  await shown(b, 'issue-note').fill(note);
+  await shown(b, 'issue-start').click();
+  await expect.poll(() => shown(b, 'issue-confirm-box').textContent()).toContain(`Send revision ${revision}`);
+  await expectAccessible(b);
+  await shown(b, 'issue-confirm').click();
+  await expect.poll(() => shown(b, 'revision-state').textContent()).toBe('Issued');
+  await expect.poll(() => shown(b, `sheet-order-stage-${revision}`).textContent()).toBe('Sent to grinder');
+  await shown(b, 'issue-frozen').waitFor();
+  const orderHref = (await shown(b, `open-order-${revision}`).getAttribute('href')) ?? '';
+  const orderId = /\/orders\/([^/?#]+)/.exec(orderHref)?.[1] ?? '';
+  expect(orderId).not.toBe('');
+  return { revision, orderId };
+}
+
 describe.each(Object.keys(viewports) as ViewportName[])('grind order from issue to shipped at %s width', (viewport) => {
   it('builder issues the demo sheet, the grinder quotes, grinds and ships it, the builder follows each stage', async () => {
     const builder = await openPage(browser, viewport);
@@ -26,34 +58,13 @@ describe.each(Object.keys(viewports) as ViewportName[])('grind order from issue 
     const b = builder.page;
     const g = grinder.page;
 
-    // Builder: start a fresh draft when an earlier run left the latest revision issued.
+    // Builder: the sheet's title, then issue its draft (a fresh one when an earlier run left the latest revision issued).
     await signIn(b, demo.builder);
     await b.goto(`${baseUrl()}${sheetPath}`);
     await shown(b, 'sheet-screen').waitFor();
     const sheetTitle = (await shown(b, 'sheet-screen').locator('[role="heading"][aria-level="1"]').first().textContent()) ?? '';
     expect(sheetTitle.length).toBeGreaterThan(0);
-    if ((await shown(b, 'revision-state').textContent()) === 'Issued') {
-      await shown(b, 'sheet-note').fill(`Regrind on the customer's core; browser run ${Date.now()}.`);
-      await shown(b, 'save-note').click();
-      await expect.poll(() => shown(b, 'revision-state').textContent()).toBe('Draft');
-    }
-    const subtitle = (await shown(b, 'sheet-screen').textContent()) ?? '';
-    const revision = Number(/Revision (\d+) \(draft/.exec(subtitle)?.[1]);
-    expect(revision).toBeGreaterThan(0);
-
-    // Builder: issue to the demo grinding shop, with a confirm step.
-    await shown(b, 'issue-shop').getByRole('radio', { name: grinderName }).click();
-    await shown(b, 'issue-note').fill('Core is the original; keep the base circle as stated.');
-    await shown(b, 'issue-start').click();
-    await expect.poll(() => shown(b, 'issue-confirm-box').textContent()).toContain(`Send revision ${revision}`);
-    await expectAccessible(b);
-    await shown(b, 'issue-confirm').click();
-    await expect.poll(() => shown(b, 'revision-state').textContent()).toBe('Issued');
-    await expect.poll(() => shown(b, `sheet-order-stage-${revision}`).textContent()).toBe('Sent to grinder');
-    await shown(b, 'issue-frozen').waitFor();
-    const orderHref = (await shown(b, `open-order-${revision}`).getAttribute('href')) ?? '';
-    const orderId = /\/orders\/([^/?#]+)/.exec(orderHref)?.[1] ?? '';
-    expect(orderId).not.toBe('');
+    const { revision, orderId } = await issueDraft(b, 'Core is the original; keep the base circle as stated.');
     await expectAccessible(b);
     await screenshot(b, `orders-sheet-issued-${viewport}`);
 
@@ -78,6 +89,8 @@ describe.each(Object.keys(viewports) as ViewportName[])('grind order from issue 
     expect(((await shown(b, 'order-checksum').textContent()) ?? '').trim()).toBe(checksum);
     expect(await shown(g, 'order-revision').textContent()).toContain(String(revision));
     expect(await shown(g, 'order-notes').textContent()).toBeTruthy();
+    // The towing profile's core notes travel with the revision to the grinder (demo data).
+    expect(await shown(g, 'order-core-notes').textContent()).toContain('Check piston-to-valve clearance with clay');
     expect(await shown(g, 'order-screen').textContent()).toContain('Lifters');
     // Events read on their side of the dead centre: the sheet says so, and no event carries a minus sign.
     expect(await shown(g, 'sheet-event-convention').textContent()).toMatch(/never negative/);
@@ -184,6 +197,44 @@ describe.each(Object.keys(viewports) as ViewportName[])('grind order from issue 
     await b.goto(`${baseUrl()}${sheetPath}`);
     await shown(b, `sheet-order-${revision}`).getByRole('button', { name: 'Mark received' }).click();
     await expect.poll(() => shown(b, `sheet-order-stage-${revision}`).textContent()).toBe('Received at the shop');
+
+    expect(builder.errors).toEqual([]);
+    expect(grinder.errors).toEqual([]);
+    await builder.close();
+    await grinder.close();
+  }, 240_000);
+});
+
+describe.each(Object.keys(viewports) as ViewportName[])('a later revision supersedes the one sent at %s width', (viewport) => {
+  it("issuing the next revision closes the earlier order: off the grinder's list, marked superseded, no quote", async () => {
+    const builder = await openPage(browser, viewport);
+    const grinder = await openPage(browser, viewport);
+    const b = builder.page;
+    const g = grinder.page;
+    await signIn(b, demo.builder);
+    const first = await issueDraft(b, 'First go at the towing grind.');
+    const second = await issueDraft(b, 'Second go: this one replaces the first.');
+    expect(second.revision).toBe(first.revision + 1);
+
+    // Builder: the sheet marks the first order and revision superseded by the second.
+    await expect.poll(() => shown(b, `sheet-order-superseded-${first.revision}`).textContent()).toBe(`Superseded by rev ${second.revision}`);
+    expect(await shown(b, `history-${first.revision}`).textContent()).toContain(`superseded by revision ${second.revision}`);
+    expect(await shown(b, 'sheet-core-notes').textContent()).toContain('Check piston-to-valve clearance with clay');
+    await expectAccessible(b);
+    await screenshot(b, `orders-superseded-sheet-${viewport}`);
+
+    // Grinder: only the live order is on the list; the superseded one's page says it is closed and offers no move.
+    await signIn(g, demo.grinder);
+    await shown(g, 'incoming-screen').waitFor();
+    await shown(g, `incoming-${second.orderId}`).waitFor();
+    expect(await shown(g, 'incoming-list').getByTestId(`incoming-${first.orderId}`).count()).toBe(0);
+    await g.goto(`${baseUrl()}/orders/${first.orderId}`);
+    await shown(g, 'order-screen').waitFor();
+    await expect.poll(() => shown(g, 'order-superseded').textContent()).toContain('This order is closed: it cannot be quoted or moved.');
+    expect(await shown(g, 'order-screen').getByTestId('move-quoted').count()).toBe(0);
+    expect(await shown(g, 'order-events').textContent()).toMatch(/[Ss]uperseded/);
+    await expectAccessible(g);
+    await screenshot(g, `orders-superseded-grinder-${viewport}`);
 
     expect(builder.errors).toEqual([]);
     expect(grinder.errors).toEqual([]);

@@ -1,0 +1,1 @@
+CREATE UNIQUE INDEX `spec_sheets_job_profile_idx` ON `spec_sheets` (`job_id`,`profile_id`);
