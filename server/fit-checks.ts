@@ -12,7 +12,7 @@ import { PTV_SWEEP } from '@/calc/analysis';
 import { checkDegreeing, checkWornLobes } from '@/calc/checks';
 import { checkMinimum, resolveCheckLimits, worstStatus, type CheckLimitOverrides, type CheckResult, type SkippedCheck } from '@/calc/checks';
 import { CHECKING_HEIGHT_050 } from '@/calc/constants';
-import { degreeCam } from '@/calc/degree';
+import { degreeFromReadings } from '@/calc/degree';
 import { isCalcInputError } from '@/calc/errors';
 import { CYCLE_GRID } from '@/calc/lift-curve';
 import { ptvSweep } from '@/calc/ptv';
@@ -130,14 +130,8 @@ export function runFitChecks({ engine, spec, measured, limits: overrides }: FitC
   if (!readings) {
     skipped.push({ id: 'degreeing', subject: 'intake', note: 'not measured: record the piston-stop and flank readings at cam install' });
   } else {
-    const trueTdcOffset = (readings.stopAfter - readings.stopBefore) / 2;
-    const result = degreeCam({
-      openingAngle: readings.openingAngle - trueTdcOffset,
-      closingAngle: readings.closingAngle - trueTdcOffset,
-      sheetIcl: spec.icl,
-    });
-    degree = { ...result, trueTdcOffset };
-    checks.push(checkDegreeing(result, overrides));
+    degree = degreeFromReadings({ ...readings, sheetIcl: spec.icl });
+    checks.push(checkDegreeing(degree, overrides));
   }
 
   // Measured lobes: each table analysed; worn lobes against their own kind.

@@ -5,6 +5,7 @@ import type { CheckId } from '@/calc/checks';
 import { formatDateTime } from '@/constants/format';
 import { breakpoints, colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
 import { productCautions } from '@/shared/cautions';
+import { correctionText, iclText, revisionName, trueTdcText } from '@/lib/degree-readout';
 import type { FitCheckRun } from '@/shared/measurements';
 
 import { Cautions } from '@/components/compare/cautions';
@@ -25,7 +26,7 @@ const inch = (v: number) => `${v.toFixed(3).replace(/^-/, '−')} in`;
 const deg = (v: number) => `${v.toFixed(1).replace(/^-/, '−')}°`;
 
 /** One run's results, grouped by what was measured, with the cautions beside PTV and springs. */
-export function FitCheckResults({ run }: { run: FitCheckRun }) {
+export function FitCheckResults({ run, sheetTitle }: { run: FitCheckRun; sheetTitle: string }) {
   const wide = useWindowDimensions().width >= breakpoints.wide;
   const r = run.results;
 
@@ -60,10 +61,9 @@ export function FitCheckResults({ run }: { run: FitCheckRun }) {
       </Text>
     ) : null,
     degree: r.degree ? (
-      <Text style={styles.detail}>
-        Measured ICL {deg(r.degree.measuredIcl)} against the sheet&apos;s {deg(r.degree.sheetIcl)}
-        {r.degree.correction === 'none' ? ': no correction needed' : `: ${r.degree.correction} ${deg(r.degree.correctionDegrees)}`}. True TDC was{' '}
-        {deg(r.degree.trueTdcOffset)} on the wheel.
+      <Text style={styles.detail} testID="fit-degree-detail">
+        Measured ICL <Text testID="fit-degree-icl">{iclText(r.degree)}</Text>. {correctionText(r.degree, revisionName(sheetTitle, run.revisionNumber))} True TDC{' '}
+        {trueTdcText(r.degree.trueTdcOffset)}.
       </Text>
     ) : null,
     lobes: r.lobes ? (

@@ -144,7 +144,7 @@ describe.each(Object.keys(viewports) as ViewportName[])('the tech on the bench a
       'degree-closingAngle': '216',
     });
     expect(await shown(page, 'degree-true-tdc').textContent()).toContain('2.0° ATDC');
-    expect(await shown(page, 'degree-icl').textContent()).toBe('110.0° ATDC');
+    expect(await shown(page, 'degree-icl').textContent()).toBe('108.0° ATDC');
     await shown(page, 'degree-save').click();
     await shown(page, 'degree-saved').waitFor();
     await expectAccessible(page);
