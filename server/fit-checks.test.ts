@@ -27,3 +27,22 @@ describe('one ICL from one set of degree-wheel readings', () => {
     expect(live.reading).toEqual(run.degree);
   });
 });
+
+describe('a blank old-cam valve lift in the PTV baseline', () => {
+  it('is not measured, never zero: the valve check does not run and names the reading that lacks it', () => {
+    const baseline = {
+      method: 'clay' as const,
+      intake: [
+        { crankAngle: -10, clearance: 0.205, valveLift: 0.046 },
+        { crankAngle: 10, clearance: 0.19, valveLift: null },
+      ],
+      exhaust: [{ crankAngle: -10, clearance: 0.178, valveLift: 0.101 }],
+    };
+    const run = runFitChecks({ engine, spec, measured: { 'ptv-baseline': baseline }, limits: {} });
+    expect(run.checks.find((c) => c.id === 'ptvIntake')).toBeUndefined();
+    expect(run.ptv.intake).toBeNull();
+    expect(run.skipped).toContainEqual({ id: 'ptvIntake', subject: 'intake', note: "not measured: the old cam's valve lift for intake reading 2 (at 10° ATDC)" });
+    // The exhaust, fully measured, still runs.
+    expect(run.checks.find((c) => c.id === 'ptvExhaust')?.value).toBe(run.ptv.exhaust?.minClearance);
+  });
+});

@@ -58,8 +58,15 @@ export function runFitChecks({ engine, spec, measured, limits: overrides }: FitC
       skipped.push({ id, subject: valve, note: 'not measured: record a PTV baseline with the old cam (clay or checking springs)' });
       continue;
     }
+    // A blank old-cam lift is not measured, never zero: the valve's check does not run and names each reading that lacks it.
+    const readings = baseline[valve].filter((r): r is typeof r & { valveLift: number } => r.valveLift !== null);
+    if (readings.length < baseline[valve].length) {
+      const lacking = baseline[valve].flatMap((r, i) => (r.valveLift === null ? [`${valve} reading ${i + 1} (at ${r.crankAngle}° ATDC)`] : []));
+      skipped.push({ id, subject: valve, note: `not measured: the old cam's valve lift for ${lacking.join(', ')}` });
+      continue;
+    }
     let best: FitCheckPtv | null = null;
-    baseline[valve].forEach((reading, i) => {
+    readings.forEach((reading, i) => {
       const sweep = ptvSweep(
         {
           stroke: engine.stroke,

@@ -12,8 +12,8 @@ import { measure, versionSchema } from './numbers';
 const ptvReading = z.strictObject({
   crankAngle: measure('Crank angle', '° ATDC', -90, 90),
   clearance: measure('Clearance', 'in', 0, 1),
-  /** Old cam's valve lift at that angle, if measured. */
-  valveLift: measure('Valve lift at that angle', 'in', 0, 0.8).default(0),
+  /** Old cam's valve lift at that angle; null = not measured (the PTV check then does not run), never zero. */
+  valveLift: measure('Valve lift at that angle', 'in', 0, 0.8).nullable().default(null),
 });
 export const ptvBaselineSchema = z.strictObject({
   method: z.enum(['clay', 'checking-springs'], { error: 'Method is clay or checking springs' }),
@@ -259,6 +259,7 @@ export type ShopLimitsSave = z.input<typeof shopLimitsSaveSchema>;
  */
 export type FitCheckPtv = Omit<PtvSweep, 'clearance'> & {
   clearance: number[];
+  /** Only readings with the old cam's valve lift measured are swept. */
   baseline: { crankAngle: number; clearance: number; valveLift: number };
 };
 

@@ -20,7 +20,7 @@ const ptv = ptvBaselineSchema.shape.intake.element.shape;
 const ptvColumns = [
   num('crankAngle', 'Crank angle', ptv.crankAngle, degrees('° ATDC'), { hint: 'Before TDC is negative, e.g. −10' }),
   num('clearance', 'Clearance', ptv.clearance, inches),
-  num('valveLift', 'Old cam valve lift there', ptv.valveLift, inches, { hint: 'Leave blank if not measured', optional: true, blank: 'default' }),
+  num('valveLift', 'Old cam valve lift there', ptv.valveLift, inches, { hint: 'Blank if not measured: PTV is then not run', optional: true }),
 ];
 
 /** Piston-to-valve clearance with the old cam, per valve, at one or more crank angles. */

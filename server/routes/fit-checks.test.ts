@@ -196,4 +196,18 @@ describe('fit checks', () => {
     }
     expect((await a.founder.get(`/api/sheets/${a.sheetId}/fit-checks`)).body.runs).toHaveLength(1);
   });
+
+  it('keeps a blank old-cam valve lift as not measured through to the check, which says NOT RUN and names it', async () => {
+    const { tech, jobId, sheetId } = await sheetOnJob();
+    const saved = await tech.post(`/api/jobs/${jobId}/measurements`, {
+      kind: 'ptv-baseline',
+      data: { method: 'clay', intake: [{ crankAngle: -10, clearance: 0.165 }], exhaust: [{ crankAngle: 10, clearance: 0.19, valveLift: 0.041 }] },
+    });
+    expect(saved.status).toBe(201);
+    expect(saved.body.measurement.data.intake[0].valveLift).toBeNull();
+    const { results } = (await tech.post(`/api/sheets/${sheetId}/fit-checks`)).body.run;
+    expect(results.checks.map((c: Check) => c.id)).not.toContain('ptvIntake');
+    expect(results.skipped).toContainEqual({ id: 'ptvIntake', subject: 'intake', note: "not measured: the old cam's valve lift for intake reading 1 (at -10° ATDC)" });
+    expect(results.checks.map((c: Check) => c.id)).toContain('ptvExhaust');
+  });
 });
