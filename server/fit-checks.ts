@@ -18,7 +18,7 @@ import { CYCLE_GRID } from '@/calc/lift-curve';
 import { ptvSweep } from '@/calc/ptv';
 import { retainerToSealMargin, springCheck } from '@/calc/springs';
 import { analyzeRecords } from '@/shared/analysis';
-import { regrindFromPushrod } from '@/shared/job-core';
+import { pushrodAdviceOf, regrindFromPushrod } from '@/shared/job-core';
 import type { EngineSpec } from '@/shared/engine';
 import type { FitCheckPtv, FitCheckRun, MeasurementData } from '@/shared/measurements';
 import type { ProfileSpec } from '@/shared/profile';
@@ -131,6 +131,9 @@ export function runFitChecks({ engine, spec, measured, limits: overrides }: FitC
     );
   }
 
+  // The pushrod length for the target preload on this revision's base circle.
+  const pushrodAdvice = pushrodAdviceOf(pushrod, spec.baseCircle);
+
   // Degreeing: true TDC from the piston stops, then the ICL from the equal-lift flank readings.
   let degree: FitCheckResults['degree'] = null;
   const readings = measured.degree;
@@ -172,6 +175,7 @@ export function runFitChecks({ engine, spec, measured, limits: overrides }: FitC
     ptv,
     springs,
     preload: analysis.preload,
+    pushrod: pushrodAdvice,
     degree,
     lobes,
   };

@@ -3,7 +3,7 @@ import { z } from 'zod';
 import type { CheckLimits, CheckResult, CheckLimitOverrides, SkippedCheck } from '@/calc/checks';
 import type { DegreeResult } from '@/calc/degree';
 import type { LiftTableAnalysis, WornLobeResult } from '@/calc/measured';
-import type { PreloadResult } from '@/calc/regrind';
+import type { PreloadResult, PushrodAdvice } from '@/calc/regrind';
 import type { PtvSweep } from '@/calc/ptv';
 
 import { measure, versionSchema } from './numbers';
@@ -47,6 +47,8 @@ export const pushrodSchema = z.strictObject({
   /** Preload with the old cam, if measured. */
   originalPreload: measure('Preload with the old cam', 'in', 0, 0.2).nullable().default(null),
   stockBaseCircle: measure('Stock base circle', 'in', 0.6, 2),
+  /** Which cam the checking pushrod was read on; null = not said, so no pushrod advice is given. */
+  checkedOn: z.enum(['old-cam', 'reground-cam'], { error: 'Say which cam the checking pushrod was read on' }).nullable().default(null),
 });
 
 /** Degree-wheel readings at cam install. Crank degrees. */
@@ -286,6 +288,8 @@ export type FitCheckRun = {
       retainerToSealMargin: number;
     }[];
     preload: PreloadResult | null;
+    /** The pushrod length for the target preload, or what it lacks (runs stored before it was worked out have neither). */
+    pushrod?: { advice: PushrodAdvice | null; missing: string | null };
     degree: (DegreeResult & { trueTdcOffset: number }) | null;
     lobes: { analyses: { id: string; table: LiftTableAnalysis }[]; worn: WornLobeResult | null } | null;
   };

@@ -6,6 +6,7 @@ import { formatDateTime } from '@/constants/format';
 import { breakpoints, colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
 import { productCautions } from '@/shared/cautions';
 import { correctionText, iclText, revisionName, trueTdcText } from '@/lib/degree-readout';
+import { pushrodAdviceText } from '@/shared/job-core';
 import type { FitCheckRun } from '@/shared/measurements';
 
 import { Cautions } from '@/components/compare/cautions';
@@ -53,13 +54,20 @@ export function FitCheckResults({ run, sheetTitle }: { run: FitCheckRun; sheetTi
         ))}
       </>
     ),
-    preload: r.preload ? (
-      <Text style={styles.detail}>
-        Lifter drops {inch(r.preload.lifterDrop)}; preload with the same pushrods {inch(r.preload.newPreload)}; lengthen pushrods by{' '}
-        {inch(r.preload.pushrodIncrease)}
-        {r.preload.restoredPushrodLength !== null ? ` to ${inch(r.preload.restoredPushrodLength)}` : ''}
-      </Text>
-    ) : null,
+    preload: (
+      <>
+        {r.preload ? (
+          <Text style={styles.detail}>
+            Lifter drops {inch(r.preload.lifterDrop)}; preload with the same pushrods {inch(r.preload.newPreload)}.
+          </Text>
+        ) : null}
+        {r.pushrod ? (
+          <Text style={styles.detail} testID="fit-pushrod-advice">
+            {r.pushrod.advice ? pushrodAdviceText(r.pushrod.advice) : `No pushrod advice yet: ${r.pushrod.missing ?? 'record the pushrod readings'}.`}
+          </Text>
+        ) : null}
+      </>
+    ),
     degree: r.degree ? (
       <Text style={styles.detail} testID="fit-degree-detail">
         Measured ICL <Text testID="fit-degree-icl">{iclText(r.degree)}</Text>. {correctionText(r.degree, revisionName(sheetTitle, run.revisionNumber))} True TDC{' '}
@@ -89,10 +97,12 @@ export function FitCheckResults({ run, sheetTitle }: { run: FitCheckRun; sheetTi
         const checks = g.key === 'lobes' ? all.filter((c) => c.status !== 'pass') : all;
         const hiddenPasses = all.length - checks.length;
         const skipped = r.skipped.filter((s) => g.ids.includes(s.id));
-        if (checks.length === 0 && skipped.length === 0) return null;
+        if (checks.length === 0 && skipped.length === 0 && !(g.key === 'preload' && r.pushrod)) return null;
         const caution =
           g.key === 'ptv' ? (
             <Cautions title="Before the engine turns over" items={[productCautions.measure]} testID="caution-ptv" />
+          ) : g.key === 'preload' ? (
+            <Cautions title="Pushrods and preload" items={[productCautions.measure, productCautions.manual]} testID="caution-preload" />
           ) : g.key === 'springs' ? (
             <Cautions title="Springs and parts" items={[productCautions.measure, productCautions.manual]} testID="caution-springs" />
           ) : null;

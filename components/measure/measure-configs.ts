@@ -69,6 +69,14 @@ const pushrod = pushrodSchema.shape;
 /** Checking pushrod, lifter plunger travel and preload. */
 export const pushrodConfig: MeasureConfig = {
   kind: 'pushrod',
+  choice: {
+    key: 'checkedOn',
+    label: 'Checking pushrod read on',
+    choices: [
+      { value: 'old-cam', label: 'The old cam' },
+      { value: 'reground-cam', label: 'The reground cam' },
+    ],
+  },
   scalars: [
     num('checkingLength', 'Checking pushrod at zero lash', pushrod.checkingLength, inches),
     num('currentLength', 'Pushrod in the engine', pushrod.currentLength, inches, { hint: 'Blank if not known', optional: true }),

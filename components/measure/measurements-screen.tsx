@@ -65,7 +65,9 @@ export function MeasurementsScreen({ id }: { id: string }) {
   );
   const pushrod = (
     <Section title="Pushrod and preload">
-      <Text style={styles.help}>The checking pushrod at zero lash with the new cam on its base circle, and the lifter&apos;s plunger travel.</Text>
+      <Text style={styles.help}>
+        The checking pushrod set to zero lash with the lifter on the base circle (and which cam it was on), the preload wanted and the lifter&apos;s plunger travel.
+      </Text>
       <MeasureForm jobId={id} config={pushrodConfig} current={latestOfKind(list, 'pushrod')} canWrite={canWrite} testID="pushrod" />
     </Section>
   );

@@ -210,4 +210,37 @@ describe('fit checks', () => {
     expect(results.skipped).toContainEqual({ id: 'ptvIntake', subject: 'intake', note: "not measured: the old cam's valve lift for intake reading 1 (at -10° ATDC)" });
     expect(results.checks.map((c: Check) => c.id)).toContain('ptvExhaust');
   });
+
+  it('bases the pushrod advice on the checking pushrod at zero lash, the target preload and the base-circle cut', async () => {
+    // Issue finding 5. Geometry beside calc's test (calc/regrind.test.ts, from memory): length = zero-lash length
+    // + half the base-circle cut (read on the old cam) + target preload. Towing sheet base circle 1.200 in, stock 1.240 in.
+    const { tech, jobId, sheetId } = await sheetOnJob();
+    const reading = { plungerTravel: 0.12, originalPreload: 0.048, stockBaseCircle: 1.24, currentLength: 7.2, checkedOn: 'old-cam' };
+    const first = await tech.post(`/api/jobs/${jobId}/measurements`, { kind: 'pushrod', data: { ...reading, checkingLength: 7.15, targetPreload: 0.05 } });
+    expect(first.status).toBe(201);
+    const before = (await tech.post(`/api/sheets/${sheetId}/fit-checks`)).body.run.results.pushrod;
+    // 7.150 + 0.020 + 0.050 = 7.220 in
+    expect(before.advice.length).toBeCloseTo(7.22, 9);
+    expect(before.advice.change).toBeCloseTo(0.02, 9);
+    const changed = await tech.patch(`/api/measurements/${first.body.measurement.id}`, {
+      version: first.body.measurement.version,
+      data: { ...reading, checkingLength: 7.1, targetPreload: 0.03 },
+    });
+    expect(changed.status).toBe(200);
+    const after = (await tech.post(`/api/sheets/${sheetId}/fit-checks`)).body.run.results.pushrod;
+    // 7.100 + 0.020 + 0.030 = 7.150 in: 0.050 in shorter than the pushrods in the engine
+    expect(after.advice.length).toBeCloseTo(7.15, 9);
+    expect(after.advice.change).toBeCloseTo(-0.05, 9);
+    expect(after.missing).toBeNull();
+  });
+
+  it('names what the pushrod advice lacks instead of guessing which cam the checking pushrod was read on', async () => {
+    const { tech, jobId, sheetId } = await sheetOnJob();
+    await tech.post(`/api/jobs/${jobId}/measurements`, {
+      kind: 'pushrod',
+      data: { checkingLength: 7.15, targetPreload: 0.05, plungerTravel: 0.12, stockBaseCircle: 1.24 },
+    });
+    const { pushrod } = (await tech.post(`/api/sheets/${sheetId}/fit-checks`)).body.run.results;
+    expect(pushrod).toEqual({ advice: null, missing: 'say which cam the checking pushrod was read on (pushrod and preload)' });
+  });
 });
