@@ -1041,7 +1041,7 @@ export function analyzeProfile(input: AnalysisInput, options?: { workspace?: Ana
   // regrind preload
   let preload: PreloadResult | null = null;
   if (!isHydraulic(e.lifterType)) {
-    skipped.push({ id: 'hydraulicPreload', subject: 'lifters', note: 'solid lifters: set lash instead of preload' });
+    skipped.push({ id: 'hydraulicPreload', subject: 'lifters', note: 'solid lifters: set lash instead of preload', notApplicable: true });
   } else if (input.regrind === undefined || ip.baseCircle === undefined) {
     skipped.push({
       id: 'hydraulicPreload',

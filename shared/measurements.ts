@@ -1,6 +1,6 @@
 import { z } from 'zod';
 
-import type { CheckLimits, CheckResult, CheckLimitOverrides, SkippedCheck } from '@/calc/checks';
+import type { CheckLimits, CheckResult, CheckLimitOverrides, CheckSummary, SkippedCheck } from '@/calc/checks';
 import type { DegreeResult } from '@/calc/degree';
 import type { LiftTableAnalysis, WornLobeResult } from '@/calc/measured';
 import type { PreloadResult, PushrodAdvice } from '@/calc/regrind';
@@ -273,7 +273,12 @@ export type FitCheckRun = {
   revisionNumber: number;
   createdAt: string;
   createdBy: string | null;
+  /** Who ran it, by name (null when the account is gone). */
+  createdByName: string | null;
+  /** The run's one summary (summarizeChecks): Pass only when every check ran and passed, else "5 of 8 checks run". */
+  summary: CheckSummary;
   results: {
+    /** The worst verdict among the checks that ran; the summary says whether every check ran. */
     status: 'pass' | 'watch' | 'fail';
     checks: CheckResult[];
     skipped: SkippedCheck[];

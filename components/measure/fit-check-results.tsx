@@ -10,7 +10,7 @@ import { pushrodAdviceText } from '@/shared/job-core';
 import type { FitCheckRun } from '@/shared/measurements';
 
 import { Cautions } from '@/components/compare/cautions';
-import { CheckList, CheckStatusChip } from '@/components/sheet/check-list';
+import { CheckList, CheckSummaryChip } from '@/components/sheet/check-list';
 
 type Group = { key: string; title: string; ids: CheckId[] };
 
@@ -86,9 +86,10 @@ export function FitCheckResults({ run, sheetTitle }: { run: FitCheckRun; sheetTi
   return (
     <View style={styles.run} testID="fit-check-results">
       <View style={styles.summary}>
-        <CheckStatusChip status={r.status} testID="fit-check-status" />
+        <CheckSummaryChip summary={run.summary} testID="fit-check-status" />
         <Text style={styles.summaryText}>
           Revision {run.revisionNumber} · run {formatDateTime(run.createdAt)}
+          {run.createdByName ? ` by ${run.createdByName}` : ''}
         </Text>
       </View>
       {groups.map((g) => {

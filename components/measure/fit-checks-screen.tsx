@@ -3,7 +3,7 @@ import { useState } from 'react';
 import { Pressable, StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 
 import { Button } from '@/components/ui/button';
-import { CheckStatusChip } from '@/components/sheet/check-list';
+import { CheckSummaryChip } from '@/components/sheet/check-list';
 import { FitCheckResults } from '@/components/measure/fit-check-results';
 import { EmptyState, ErrorNotice, Pending } from '@/components/ui/query-state';
 import { Screen, Section } from '@/components/ui/screen';
@@ -96,7 +96,7 @@ function SheetRuns({ sheetId, sheetTitle }: { sheetId: string; sheetTitle: strin
                   style={[styles.historyItem, active && styles.historyActive]}
                   testID={`fit-run-${r.id}`}
                 >
-                  <CheckStatusChip status={r.results.status} />
+                  <CheckSummaryChip summary={r.summary} />
                   <Text style={styles.historyText}>
                     Revision {r.revisionNumber} · {formatDateTime(r.createdAt)}
                   </Text>

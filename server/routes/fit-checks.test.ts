@@ -243,4 +243,18 @@ describe('fit checks', () => {
     const { pushrod } = (await tech.post(`/api/sheets/${sheetId}/fit-checks`)).body.run.results;
     expect(pushrod).toEqual({ advice: null, missing: 'say which cam the checking pushrod was read on (pushrod and preload)' });
   });
+
+  it('summarizes a run as Pass only when every check ran, and says how many ran otherwise, with who ran it', async () => {
+    const { tech, jobId, sheetId } = await sheetOnJob();
+    const empty = (await tech.post(`/api/sheets/${sheetId}/fit-checks`)).body.run;
+    expect(empty.summary).toMatchObject({ status: 'incomplete', ran: 0, complete: false, label: 'No checks run yet' });
+    expect(empty.createdByName).toBe('A tech');
+    await tech.post(`/api/jobs/${jobId}/measurements`, { kind: 'degree', data: { stopBefore: 20, stopAfter: 24, checkingLift: 0.05, openingAngle: 10, closingAngle: 210 } });
+    const partial = (await tech.post(`/api/sheets/${sheetId}/fit-checks`)).body.run;
+    // One degreeing check ran (and passed); PTV ×2, springs ×2, preload and lobes did not: 1 of 7.
+    expect(partial.results.status).toBe('pass');
+    expect(partial.summary).toMatchObject({ status: 'incomplete', ran: 1, total: 7, label: '1 of 7 checks run' });
+    const listed = (await tech.get(`/api/sheets/${sheetId}/fit-checks`)).body.runs;
+    expect(listed[0]).toMatchObject({ id: partial.id, summary: partial.summary, createdByName: 'A tech' });
+  });
 });
