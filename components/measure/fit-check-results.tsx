@@ -87,7 +87,7 @@ export function FitCheckResults({ run, sheetTitle }: { run: FitCheckRun; sheetTi
     <View style={styles.run} testID="fit-check-results">
       <View style={styles.summary}>
         <CheckSummaryChip summary={run.summary} testID="fit-check-status" />
-        <Text style={styles.summaryText}>
+        <Text style={styles.summaryText} testID="fit-results-by">
           Revision {run.revisionNumber} · run {formatDateTime(run.createdAt)}
           {run.createdByName ? ` by ${run.createdByName}` : ''}
         </Text>
