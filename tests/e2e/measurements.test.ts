@@ -66,6 +66,17 @@ async function fill(page: Page, values: Record<string, string>) {
   for (const [testId, value] of Object.entries(values)) await shown(page, testId).fill(value);
 }
 
+/** From the measurements screen: opens the fit checks and runs them, waiting for the new run in the history. */
+async function runFitChecks(page: Page) {
+  await shown(page, 'open-fit-checks').click();
+  await shown(page, 'fit-checks-screen').waitFor();
+  await shown(page, 'sheet-choice').waitFor();
+  const runs = page.locator('[data-testid="fit-check-history"]:visible [role="listitem"]');
+  const before = await runs.count();
+  await shown(page, 'run-fit-checks').click();
+  await expect.poll(() => runs.count(), { timeout: 15_000 }).toBe(before + 1);
+}
+
 describe.each(Object.keys(viewports) as ViewportName[])('the tech on the bench at %s width', (viewport) => {
   it('uploads lobes, records PTV and springs, runs fit checks, adds a photo and ticks the checklist', async () => {
     const { page, errors, close } = await openPage(browser, viewport);
@@ -154,12 +165,7 @@ describe.each(Object.keys(viewports) as ViewportName[])('the tech on the bench a
     await screenshot(page, `measurements-${viewport}`);
 
     // Fit checks against the sheet's current revision.
-    await shown(page, 'open-fit-checks').click();
-    await shown(page, 'fit-checks-screen').waitFor();
-    await shown(page, 'sheet-choice').waitFor();
-    const historyBefore = await page.locator('[data-testid="fit-check-history"]:visible [role="listitem"]').count();
-    await shown(page, 'run-fit-checks').click();
-    await expect.poll(() => page.locator('[data-testid="fit-check-history"]:visible [role="listitem"]').count(), { timeout: 15_000 }).toBe(historyBefore + 1);
+    await runFitChecks(page);
     expect(await shown(page, 'fit-check-status').textContent()).toMatch(/^(Pass|Watch|Fail)$/);
     const ptvText = (await shown(page, 'fit-ptv').textContent()) ?? '';
     expect(ptvText).toMatch(/(Pass|Watch|Fail)Piston-to-valve, intake/);
@@ -190,11 +196,7 @@ describe.each(Object.keys(viewports) as ViewportName[])('the tech on the bench a
     await lift.fill('');
     await shown(page, 'ptv-save').click();
     await shown(page, 'ptv-saved').waitFor();
-    await shown(page, 'open-fit-checks').click();
-    await shown(page, 'fit-checks-screen').waitFor();
-    const runsNow = await page.locator('[data-testid="fit-check-history"]:visible [role="listitem"]').count();
-    await shown(page, 'run-fit-checks').click();
-    await expect.poll(() => page.locator('[data-testid="fit-check-history"]:visible [role="listitem"]').count(), { timeout: 15_000 }).toBe(runsNow + 1);
+    await runFitChecks(page);
     await expect.poll(() => shown(page, 'fit-ptv').textContent()).toContain("Not runPiston-to-valve, intake (intake)not measured: the old cam's valve lift for intake reading 2");
     expect(await shown(page, 'fit-check-status').textContent()).toMatch(/^((Fail|Watch) · )?\d+ of \d+ checks run$/);
     await screenshot(page, `fit-checks-not-run-${viewport}`);
