@@ -123,9 +123,9 @@ export function ownerFitText(results: Pick<ProfileAnalysis, 'checks' | 'skipped'
   const notMeasured = results.skipped.filter((s) => s.note.startsWith('not measured')).map((s) => CHECK_WORDS[s.id]);
   const checks = on === 'engine' ? "the shop's fit checks on the engine" : "the shop's fit checks";
   let fit: string;
-  if (fails.length) fit = `${checks.charAt(0).toUpperCase()}${checks.slice(1)} flag ${listWords(fails)} on the ${name} cam; the shop will change parts or the profile before fitting it.`;
-  else if (watches.length)
-    fit = `The ${name} cam passes ${checks}, with ${listWords(watches)} close to the limit, so the shop will check those on the engine.`;
+  if (fails.length)
+    fit = `${checks.charAt(0).toUpperCase()}${checks.slice(1)} flag ${listWords(fails)} on the ${name} cam; the shop will change parts or the profile before fitting it.`;
+  else if (watches.length) fit = `The ${name} cam passes ${checks}, with ${listWords(watches)} close to the limit, so the shop will check those on the engine.`;
   else if (results.checks.length === 0) fit = `None of ${checks} could be worked out for the ${name} cam yet.`;
   else fit = `The ${name} cam passes all of ${checks} that could be worked out${on === 'engine' ? ' from what was measured' : ' from the numbers'}.`;
   if (notMeasured.length) fit += ` Still to be measured on the engine: ${listWords([...new Set(notMeasured)])}.`;

@@ -187,7 +187,13 @@ describe('pushrodForPreload', () => {
 
   it('is what the lifter side of a cut gives as its pushrod advice', () => {
     // lifterSideOfCut builds its advice with this function; an independent hand value: 7.352 + 0.050/2 + 0.045 = 7.422 in.
-    const l = lifterSideOfCut({ cut: 0.05, originalPreload: 0.048, minimumPreload: 0.02, pushrodLength: 7.4, pushrodCheck: { checkingLength: 7.352, targetPreload: 0.045, checkedOn: 'old-cam' } });
+    const l = lifterSideOfCut({
+      cut: 0.05,
+      originalPreload: 0.048,
+      minimumPreload: 0.02,
+      pushrodLength: 7.4,
+      pushrodCheck: { checkingLength: 7.352, targetPreload: 0.045, checkedOn: 'old-cam' },
+    });
     expect(l.pushrod?.length).toBeCloseTo(7.422, 12);
     expect(l.pushrod?.change).toBeCloseTo(0.022, 12);
   });

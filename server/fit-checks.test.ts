@@ -41,7 +41,11 @@ describe('a blank old-cam valve lift in the PTV baseline', () => {
     const run = runFitChecks({ engine, spec, measured: { 'ptv-baseline': baseline }, limits: {} });
     expect(run.checks.find((c) => c.id === 'ptvIntake')).toBeUndefined();
     expect(run.ptv.intake).toBeNull();
-    expect(run.skipped).toContainEqual({ id: 'ptvIntake', subject: 'intake', note: "not measured: the old cam's valve lift for intake reading 2 (at 10° ATDC)" });
+    expect(run.skipped).toContainEqual({
+      id: 'ptvIntake',
+      subject: 'intake',
+      note: "not measured: the old cam's valve lift for intake reading 2 (at 10° ATDC)",
+    });
     // The exhaust, fully measured, still runs.
     expect(run.checks.find((c) => c.id === 'ptvExhaust')?.value).toBe(run.ptv.exhaust?.minClearance);
   });

@@ -59,19 +59,27 @@ describe('the fits-the-core words', () => {
     expect(flankOf(1)).toBe('at the nose');
   });
 
-describe('the pushrod advice on "fits the core?"', () => {
-  it('is the same advice, in the same words, as the fit checks give from the same readings', () => {
-    const regrind = { ...DEMO_FEASIBILITY_INPUT.regrind!, pushrodCheck: { checkingLength: 7.352, targetPreload: 0.045, checkedOn: 'old-cam' as const } };
-    const f = feasibilityResults(analyzeProfile({ ...DEMO_FEASIBILITY_INPUT, regrind }), from);
-    const advice = f.lifter!.pushrod!;
-    // By hand (geometry in calc/regrind.test.ts, from memory): base circle 1.240 → 1.200 in, so 7.352 + 0.020 + 0.045 = 7.417 in.
-    expect(advice.length).toBeCloseTo(7.417, 12);
-    const { advice: fromFitCheck } = pushrodAdviceOf(
-      { checkingLength: 7.352, targetPreload: 0.045, checkedOn: 'old-cam', stockBaseCircle: 1.24, currentLength: 7.4, plungerTravel: 0.12, originalPreload: 0.045 },
-      1.2,
-    );
-    expect(fromFitCheck?.length).toBeCloseTo(advice.length, 12);
-    expect(coreView(f).lifter).toContain(pushrodAdviceText(advice));
+  describe('the pushrod advice on "fits the core?"', () => {
+    it('is the same advice, in the same words, as the fit checks give from the same readings', () => {
+      const regrind = { ...DEMO_FEASIBILITY_INPUT.regrind!, pushrodCheck: { checkingLength: 7.352, targetPreload: 0.045, checkedOn: 'old-cam' as const } };
+      const f = feasibilityResults(analyzeProfile({ ...DEMO_FEASIBILITY_INPUT, regrind }), from);
+      const advice = f.lifter!.pushrod!;
+      // By hand (geometry in calc/regrind.test.ts, from memory): base circle 1.240 → 1.200 in, so 7.352 + 0.020 + 0.045 = 7.417 in.
+      expect(advice.length).toBeCloseTo(7.417, 12);
+      const { advice: fromFitCheck } = pushrodAdviceOf(
+        {
+          checkingLength: 7.352,
+          targetPreload: 0.045,
+          checkedOn: 'old-cam',
+          stockBaseCircle: 1.24,
+          currentLength: 7.4,
+          plungerTravel: 0.12,
+          originalPreload: 0.045,
+        },
+        1.2,
+      );
+      expect(fromFitCheck?.length).toBeCloseTo(advice.length, 12);
+      expect(coreView(f).lifter).toContain(pushrodAdviceText(advice));
+    });
   });
-});
 });

@@ -66,7 +66,8 @@ export function MeasurementsScreen({ id }: { id: string }) {
   const pushrod = (
     <Section title="Pushrod and preload">
       <Text style={styles.help}>
-        The checking pushrod set to zero lash with the lifter on the base circle (and which cam it was on), the preload wanted and the lifter&apos;s plunger travel.
+        The checking pushrod set to zero lash with the lifter on the base circle (and which cam it was on), the preload wanted and the lifter&apos;s plunger
+        travel.
       </Text>
       <MeasureForm jobId={id} config={pushrodConfig} current={latestOfKind(list, 'pushrod')} canWrite={canWrite} testID="pushrod" />
     </Section>
@@ -74,7 +75,8 @@ export function MeasurementsScreen({ id }: { id: string }) {
   const degree = (
     <Section title="Degree wheel">
       <Text style={styles.help}>
-        Piston stops either side of TDC, then, with the pointer left where it was, the crank angles where the dial shows the same lift on the opening and closing flanks of the number 1 intake lobe.
+        Piston stops either side of TDC, then, with the pointer left where it was, the crank angles where the dial shows the same lift on the opening and
+        closing flanks of the number 1 intake lobe.
       </Text>
       <MeasureForm
         jobId={id}

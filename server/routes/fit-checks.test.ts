@@ -207,7 +207,11 @@ describe('fit checks', () => {
     expect(saved.body.measurement.data.intake[0].valveLift).toBeNull();
     const { results } = (await tech.post(`/api/sheets/${sheetId}/fit-checks`)).body.run;
     expect(results.checks.map((c: Check) => c.id)).not.toContain('ptvIntake');
-    expect(results.skipped).toContainEqual({ id: 'ptvIntake', subject: 'intake', note: "not measured: the old cam's valve lift for intake reading 1 (at -10° ATDC)" });
+    expect(results.skipped).toContainEqual({
+      id: 'ptvIntake',
+      subject: 'intake',
+      note: "not measured: the old cam's valve lift for intake reading 1 (at -10° ATDC)",
+    });
     expect(results.checks.map((c: Check) => c.id)).toContain('ptvExhaust');
   });
 
@@ -249,7 +253,10 @@ describe('fit checks', () => {
     const empty = (await tech.post(`/api/sheets/${sheetId}/fit-checks`)).body.run;
     expect(empty.summary).toMatchObject({ status: 'incomplete', ran: 0, complete: false, label: 'No checks run yet' });
     expect(empty.createdByName).toBe('A tech');
-    await tech.post(`/api/jobs/${jobId}/measurements`, { kind: 'degree', data: { stopBefore: 20, stopAfter: 24, checkingLift: 0.05, openingAngle: 10, closingAngle: 210 } });
+    await tech.post(`/api/jobs/${jobId}/measurements`, {
+      kind: 'degree',
+      data: { stopBefore: 20, stopAfter: 24, checkingLift: 0.05, openingAngle: 10, closingAngle: 210 },
+    });
     const partial = (await tech.post(`/api/sheets/${sheetId}/fit-checks`)).body.run;
     // One degreeing check ran (and passed); PTV ×2, springs ×2, preload and lobes did not: 1 of 7.
     expect(partial.results.status).toBe('pass');

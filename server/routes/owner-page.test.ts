@@ -371,7 +371,9 @@ describe('the owner page after the fit checks ran on the engine (issue 14, findi
     // The tech measures a PTV baseline too tight for the towing lift and runs the checks: PTV fails.
     const tech = await memberWithRole(t, s.shopId, 'tech');
     const tight = [{ crankAngle: -10, clearance: 0.06, valveLift: 0.046 }];
-    expect((await tech.post(`/api/jobs/${s.jobId}/measurements`, { kind: 'ptv-baseline', data: { method: 'clay', intake: tight, exhaust: tight } })).status).toBe(201);
+    expect(
+      (await tech.post(`/api/jobs/${s.jobId}/measurements`, { kind: 'ptv-baseline', data: { method: 'clay', intake: tight, exhaust: tight } })).status,
+    ).toBe(201);
     const run = (await tech.post(`/api/sheets/${s.sheet.id}/fit-checks`)).body.run;
     expect(run.results.checks.find((c: { id: string }) => c.id === 'ptvIntake').status).toBe('fail');
 

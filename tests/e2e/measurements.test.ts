@@ -183,7 +183,9 @@ describe.each(Object.keys(viewports) as ViewportName[])('the tech on the bench a
     expect(await shown(page, 'fit-degree-icl').textContent()).toBe('108.0° ATDC');
     expect(await shown(page, 'fit-degree-detail').textContent()).toContain(liveCorrection);
     // The pushrod advice from the checking pushrod, the target preload and the base-circle cut (finding 5).
-    expect(await shown(page, 'fit-pushrod-advice').textContent()).toMatch(/^Pushrods \d\.\d{3} in long for 0\.045 in preload: the checking pushrod's 7\.352 in at zero lash/);
+    expect(await shown(page, 'fit-pushrod-advice').textContent()).toMatch(
+      /^Pushrods \d\.\d{3} in long for 0\.045 in preload: the checking pushrod's 7\.352 in at zero lash/,
+    );
     await expectAccessible(page);
     await screenshot(page, `fit-checks-${viewport}`);
 
@@ -197,7 +199,9 @@ describe.each(Object.keys(viewports) as ViewportName[])('the tech on the bench a
     await shown(page, 'ptv-save').click();
     await shown(page, 'ptv-saved').waitFor();
     await runFitChecks(page);
-    await expect.poll(() => shown(page, 'fit-ptv').textContent()).toContain("Not runPiston-to-valve, intake (intake)not measured: the old cam's valve lift for intake reading 2");
+    await expect
+      .poll(() => shown(page, 'fit-ptv').textContent())
+      .toContain("Not runPiston-to-valve, intake (intake)not measured: the old cam's valve lift for intake reading 2");
     expect(await shown(page, 'fit-check-status').textContent()).toMatch(/^((Fail|Watch) · )?\d+ of \d+ checks run$/);
     await screenshot(page, `fit-checks-not-run-${viewport}`);
     await shown(page, 'open-measurements').click();

@@ -197,7 +197,9 @@ describe('owner summary, approval and deposit', () => {
       expect(await shown(o, 'owner-option-demo-option-towing-status').textContent()).toBe(status);
       const checked = (await shown(o, 'owner-option-demo-option-towing-checked').textContent()) ?? '';
       expect(checked).toMatch(new RegExp(`^Checked on the engine against revision ${revision}, .+ by Obie Lusk \\(demo tech\\)$`));
-      expect(await shown(o, 'owner-option-demo-option-towing-fit').textContent()).toMatch(/^The (shop's fit checks on the engine|Towing regrind \(demo\) cam passes the shop's fit checks on the engine)/);
+      expect(await shown(o, 'owner-option-demo-option-towing-fit').textContent()).toMatch(
+        /^The (shop's fit checks on the engine|Towing regrind \(demo\) cam passes the shop's fit checks on the engine)/,
+      );
       expect(await o.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(viewports[viewport].width);
       await expectAccessible(o);
       await screenshot(o, `owner-checked-${viewport}`);
