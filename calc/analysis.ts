@@ -52,7 +52,7 @@ import {
   type LobeSpec,
 } from './lift-curve';
 import { baselineOffsetRaw, ptvSweepRaw, requireBaseline, requireValveAngle, type PtvBaseline, type PtvSweep } from './ptv';
-import { lifterSideOfCut, preloadAfterRegrind, regrindCleanup, type CleanupResult, type LifterCutResult, type PreloadResult } from './regrind';
+import { lifterSideOfCut, preloadAfterRegrind, regrindCleanup, type CheckedOn, type CleanupResult, type LifterCutResult, type PreloadResult } from './regrind';
 import { requireSpring, springCheckRaw, type SpringCheck } from './springs';
 
 const DEG_PER_RAD = 180 / Math.PI;
@@ -141,6 +141,8 @@ export interface RegrindInput {
   pushrodLength?: number;
   /** Lifter plunger travel, inches (optional). */
   plungerTravel?: number;
+  /** The checking pushrod at zero lash, the preload wanted and which cam it was read on (optional): gives the pushrod advice. */
+  pushrodCheck?: { checkingLength: number; targetPreload: number; checkedOn: CheckedOn };
 }
 
 /** The core the candidate is ground from: its stock sheet (the lobes before wear) and base circle. */
@@ -919,6 +921,7 @@ function feasibilityOf(
         minimumPreload: Math.max(0, limits.hydraulicPreload.min),
         pushrodLength: r.pushrodLength,
         plungerTravel: r.plungerTravel,
+        ...(r.pushrodCheck ? { pushrodCheck: r.pushrodCheck } : {}),
       },
       'regrind',
     );
@@ -1038,7 +1041,7 @@ export function analyzeProfile(input: AnalysisInput, options?: { workspace?: Ana
   // regrind preload
   let preload: PreloadResult | null = null;
   if (!isHydraulic(e.lifterType)) {
-    skipped.push({ id: 'hydraulicPreload', subject: 'lifters', note: 'solid lifters: set lash instead of preload' });
+    skipped.push({ id: 'hydraulicPreload', subject: 'lifters', note: 'solid lifters: set lash instead of preload', notApplicable: true });
   } else if (input.regrind === undefined || ip.baseCircle === undefined) {
     skipped.push({
       id: 'hydraulicPreload',

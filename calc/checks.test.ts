@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { checkMaximum, checkMinimum, checkRange, DEFAULT_CHECK_LIMITS, resolveCheckLimits, SHOP_SOURCE, worstStatus } from './checks';
+import { checkMaximum, checkMinimum, checkRange, DEFAULT_CHECK_LIMITS, resolveCheckLimits, SHOP_SOURCE, summarizeChecks, worstStatus } from './checks';
 import { CalcInputError } from './errors';
 
 const base = { id: 'coilBind' as const, subject: 'intake', unit: 'in', what: 'Coil-bind margin at max lift' };
@@ -112,5 +112,31 @@ describe('worstStatus', () => {
     expect(worstStatus([])).toBe('pass');
     expect(worstStatus([{ status: 'pass' }, { status: 'watch' }])).toBe('watch');
     expect(worstStatus([{ status: 'watch' }, { status: 'fail' }, { status: 'pass' }])).toBe('fail');
+  });
+});
+
+describe('summarizeChecks (issue 14, finding 7)', () => {
+  const pass = { status: 'pass' as const };
+  const fail = { status: 'fail' as const };
+  const notRun = (id: 'ptvIntake' | 'degreeing') => ({ id, subject: 'intake', note: 'not measured: record it' });
+
+  it('reads Pass only when every check ran and passed', () => {
+    expect(summarizeChecks({ checks: [pass, pass], skipped: [] })).toMatchObject({ status: 'pass', complete: true, ran: 2, total: 2, label: 'Pass' });
+  });
+
+  it('says how many ran when some did not, and never Pass', () => {
+    const five = [pass, pass, pass, pass, pass];
+    const s = summarizeChecks({ checks: five, skipped: [notRun('ptvIntake'), notRun('degreeing'), notRun('ptvIntake')] });
+    expect(s).toMatchObject({ status: 'incomplete', complete: false, ran: 5, total: 8, label: '5 of 8 checks run' });
+  });
+
+  it('puts a failure first even when checks are still to run', () => {
+    expect(summarizeChecks({ checks: [pass, fail], skipped: [notRun('degreeing')] })).toMatchObject({ status: 'fail', label: 'Fail · 2 of 3 checks run' });
+  });
+
+  it('leaves out a check that does not apply, and says when none ran', () => {
+    const solid = { id: 'hydraulicPreload' as const, subject: 'lifters', note: 'solid lifters: set lash instead of preload', notApplicable: true as const };
+    expect(summarizeChecks({ checks: [pass], skipped: [solid] })).toMatchObject({ status: 'pass', total: 1, label: 'Pass' });
+    expect(summarizeChecks({ checks: [], skipped: [notRun('degreeing')] })).toMatchObject({ status: 'incomplete', ran: 0, label: 'No checks run yet' });
   });
 });

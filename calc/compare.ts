@@ -114,16 +114,20 @@ function checkWords(checks: readonly CheckResult[], status: 'watch' | 'fail'): s
 /**
  * One sentence for the owner on how a profile fares in the shop's fit checks,
  * and what is still to be measured on the engine; `name` is what the text calls the cam.
+ * `on` says whether the checks were worked out from the numbers (an analysis) or run
+ * on the engine with what the tech measured (a fit-check run).
  */
-export function ownerFitText(analysis: ProfileAnalysis, name: string): string {
-  const fails = checkWords(analysis.checks, 'fail');
-  const watches = checkWords(analysis.checks, 'watch');
-  const notMeasured = analysis.skipped.filter((s) => s.note.startsWith('not measured')).map((s) => CHECK_WORDS[s.id]);
+export function ownerFitText(results: Pick<ProfileAnalysis, 'checks' | 'skipped'>, name: string, on: 'numbers' | 'engine' = 'numbers'): string {
+  const fails = checkWords(results.checks, 'fail');
+  const watches = checkWords(results.checks, 'watch');
+  const notMeasured = results.skipped.filter((s) => s.note.startsWith('not measured')).map((s) => CHECK_WORDS[s.id]);
+  const checks = on === 'engine' ? "the shop's fit checks on the engine" : "the shop's fit checks";
   let fit: string;
-  if (fails.length) fit = `The shop's fit checks flag ${listWords(fails)} on the ${name} cam; the shop will change parts or the profile before fitting it.`;
-  else if (watches.length)
-    fit = `The ${name} cam passes the shop's fit checks, with ${listWords(watches)} close to the limit, so the shop will check those on the engine.`;
-  else fit = `The ${name} cam passes all of the shop's fit checks that could be worked out from the numbers.`;
+  if (fails.length)
+    fit = `${checks.charAt(0).toUpperCase()}${checks.slice(1)} flag ${listWords(fails)} on the ${name} cam; the shop will change parts or the profile before fitting it.`;
+  else if (watches.length) fit = `The ${name} cam passes ${checks}, with ${listWords(watches)} close to the limit, so the shop will check those on the engine.`;
+  else if (results.checks.length === 0) fit = `None of ${checks} could be worked out for the ${name} cam yet.`;
+  else fit = `The ${name} cam passes all of ${checks} that could be worked out${on === 'engine' ? ' from what was measured' : ' from the numbers'}.`;
   if (notMeasured.length) fit += ` Still to be measured on the engine: ${listWords([...new Set(notMeasured)])}.`;
   return fit;
 }

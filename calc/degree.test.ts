@@ -1,6 +1,6 @@
 import * as fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { centerlineFromReadings, degreeCam } from './degree';
+import { centerlineFromReadings, degreeCam, degreeFromReadings, installedIcl } from './degree';
 import { lobeLiftAt, synthesizeLobe } from './lift-curve';
 
 describe('centerlineFromReadings', () => {
@@ -63,5 +63,40 @@ describe('degreeCam', () => {
   it('rejects a sheet ICL off the intake stroke', () => {
     expect(() => degreeCam({ openingAngle: 80, closingAngle: 128, sheetIcl: -10 })).toThrow(/sheetIcl/);
     expect(() => degreeCam({ openingAngle: 80, closingAngle: 128, sheetIcl: 106, tolerance: -1 })).toThrow(/tolerance/);
+  });
+});
+
+describe('degreeFromReadings', () => {
+  it('moves both flank readings by the true-TDC offset from the piston stops before taking the centreline', () => {
+    // Piston-stop method (common practice, no source): stops read 20° BTDC and 22° ATDC put true TDC
+    // halfway, at (22 − 20)/2 = 1° ATDC on the wheel. The flank readings 5° and 205° on that wheel are
+    // really 4° and 204° ATDC, so the ICL is (4 + 204)/2 = 104° ATDC; against a 108° sheet the cam sits
+    // 4° early, so it is retarded 4° (a later ICL than the sheet = retarded, common practice, no source).
+    const d = degreeFromReadings({ stopBefore: 20, stopAfter: 22, openingAngle: 5, closingAngle: 205, sheetIcl: 108 });
+    expect(d.trueTdcOffset).toBe(1);
+    expect(d.measuredIcl).toBe(104);
+    expect(d.difference).toBe(-4);
+    expect(d.correction).toBe('retard');
+    expect(d.correctionDegrees).toBe(4);
+  });
+
+  it('equal piston stops leave the readings as read', () => {
+    // Stops 24° either side: the pointer already sits on true TDC (common practice, no source).
+    expect(installedIcl({ stopBefore: 24, stopAfter: 24, openingAngle: 84, closingAngle: 130 })).toMatchObject({ trueTdcOffset: 0, measuredIcl: 107 });
+  });
+
+  it('property: shifting the wheel shifts stops and flanks alike, and the ICL does not move', () => {
+    // A wheel set k° off reads every angle k° later: the BTDC stop k° smaller, the ATDC stop k° larger.
+    fc.assert(
+      fc.property(fc.integer({ min: -4, max: 4 }), fc.integer({ min: 10, max: 30 }), fc.integer({ min: 0, max: 40 }), (k, stop, open) => {
+        const base = installedIcl({ stopBefore: stop, stopAfter: stop, openingAngle: open, closingAngle: open + 200 });
+        const shifted = installedIcl({ stopBefore: stop - k, stopAfter: stop + k, openingAngle: open + k, closingAngle: open + 200 + k });
+        expect(shifted.measuredIcl).toBeCloseTo(base.measuredIcl, 9);
+      }),
+    );
+  });
+
+  it('refuses a negative piston stop, naming it', () => {
+    expect(() => installedIcl({ stopBefore: -2, stopAfter: 20, openingAngle: 5, closingAngle: 205 })).toThrow(/stopBefore/);
   });
 });

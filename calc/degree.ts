@@ -75,3 +75,57 @@ export function degreeCam(input: EqualLiftReadings & { sheetIcl: number; toleran
     tolerance,
   };
 }
+
+/** Degree-wheel readings as taken at cam install, crank degrees on the wheel. */
+export interface WheelReadings {
+  /** Piston stop before TDC, degrees BTDC on the wheel (a positive number). */
+  stopBefore: number;
+  /** Piston stop after TDC, degrees ATDC on the wheel (a positive number). */
+  stopAfter: number;
+  /** Opening-flank angle on the wheel, degrees ATDC, read with the pointer where the stops were read. */
+  openingAngle: number;
+  /** Closing-flank angle on the wheel, degrees ATDC, same pointer. */
+  closingAngle: number;
+}
+
+export interface DegreeReading extends DegreeResult {
+  /** Where true TDC sits on the wheel, crank degrees ATDC (positive = the wheel reads late). */
+  trueTdcOffset: number;
+}
+
+/** Unchecked kernel of trueTdcOffset: halfway between the two piston stops, crank degrees ATDC on the wheel. */
+export function trueTdcOffsetRaw(stopBefore: number, stopAfter: number): number {
+  return (stopAfter - stopBefore) / 2;
+}
+
+/**
+ * The installed intake centreline from degree-wheel readings. True TDC is
+ * halfway between the piston stops (stopBefore° BTDC and stopAfter° ATDC), so
+ * the wheel reads true TDC at (stopAfter − stopBefore)/2 ATDC; both flank
+ * readings are moved by that offset before the centreline is taken halfway
+ * between them. Crank degrees ATDC.
+ */
+export function installedIcl(input: WheelReadings): { trueTdcOffset: number; measuredIcl: number; openingAngle: number; closingAngle: number } {
+  requireObject('input', input);
+  const before = requireNonNegative('stopBefore', input.stopBefore, 'crank degrees');
+  const after = requireNonNegative('stopAfter', input.stopAfter, 'crank degrees');
+  const trueTdcOffset = trueTdcOffsetRaw(before, after);
+  const openingAngle = requireFinite('openingAngle', input.openingAngle) - trueTdcOffset;
+  const closingAngle = requireFinite('closingAngle', input.closingAngle) - trueTdcOffset;
+  return { trueTdcOffset, measuredIcl: centerlineFromReadings({ openingAngle, closingAngle }), openingAngle, closingAngle };
+}
+
+/**
+ * The one path from degree-wheel readings to the installed ICL and its
+ * correction: installedIcl, then degreeCam against the sheet.
+ */
+export function degreeFromReadings(input: WheelReadings & { sheetIcl: number; tolerance?: number }): DegreeReading {
+  const { trueTdcOffset, openingAngle, closingAngle } = installedIcl(input);
+  const result = degreeCam({
+    openingAngle,
+    closingAngle,
+    sheetIcl: input.sheetIcl,
+    ...(input.tolerance === undefined ? {} : { tolerance: input.tolerance }),
+  });
+  return { ...result, trueTdcOffset };
+}

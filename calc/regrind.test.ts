@@ -1,7 +1,7 @@
 import * as fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { CalcInputError } from './errors';
-import { lifterSideOfCut, preloadAfterRegrind, pushrodChangeForRegrind, regrindCleanup } from './regrind';
+import { lifterSideOfCut, preloadAfterRegrind, pushrodChangeForRegrind, pushrodForPreload, regrindCleanup } from './regrind';
 
 /** Height of a roller follower's axle above the cam centre: base-circle radius + roller radius. */
 function rollerAxleHeight(baseCircleDiameter: number, rollerDiameter: number): number {
@@ -135,5 +135,66 @@ describe('lifterSideOfCut', () => {
     expect(() => lifterSideOfCut(null as never)).toThrow(CalcInputError);
     expect(() => lifterSideOfCut({ cut: -0.01, originalPreload: 0.045, minimumPreload: 0.02 })).toThrow(/^cut/);
     expect(() => lifterSideOfCut({ cut: 0.04, originalPreload: Number.NaN, minimumPreload: 0.02 })).toThrow(/originalPreload/);
+  });
+});
+
+describe('pushrodForPreload', () => {
+  // Geometry (from memory): with fixed rockers, an adjustable checking pushrod set to zero lash has the
+  // lifter plunger at the top of its travel; each inch of pushrod beyond that pushes the plunger down an
+  // inch (the rocker does not move, so its ratio does not enter), so length = zero-lash length + preload.
+  // Grinding the base circle smaller by Δd on the diameter drops the lifter Δd/2 (it rides on the radius),
+  // which the pushrod must make up when the zero-lash length was read on the old cam. Setting preload from
+  // a zero-lash checking pushrod is common practice, no source.
+  it('adds the lifter drop and the target preload to the zero-lash length (issue finding 5, by hand)', () => {
+    // Read on the old cam: 7.150 + 0.040/2 + 0.050 = 7.220 in; the 7.200 in pushrods are 0.020 in short.
+    const a = pushrodForPreload({ checkingLength: 7.15, targetPreload: 0.05, baseCircleReduction: 0.04, currentLength: 7.2 });
+    expect(a.lifterDrop).toBeCloseTo(0.02, 12);
+    expect(a.length).toBeCloseTo(7.22, 12);
+    expect(a.change).toBeCloseTo(0.02, 12);
+    // The changed readings: 7.100 + 0.020 + 0.030 = 7.150 in, 0.050 in shorter than the pushrods in the engine.
+    const b = pushrodForPreload({ checkingLength: 7.1, targetPreload: 0.03, baseCircleReduction: 0.04, currentLength: 7.2 });
+    expect(b.length).toBeCloseTo(7.15, 12);
+    expect(b.change).toBeCloseTo(-0.05, 12);
+  });
+
+  it('read on the reground cam the base circle is already in the reading', () => {
+    const a = pushrodForPreload({ checkingLength: 7.352, targetPreload: 0.045, baseCircleReduction: 0 });
+    expect(a).toMatchObject({ lifterDrop: 0, change: null, currentLength: null });
+    expect(a.length).toBeCloseTo(7.397, 12);
+  });
+
+  it('property: each input moves the length one for one, the base-circle cut by half', () => {
+    fc.assert(
+      fc.property(
+        fc.double({ min: 5, max: 10, noNaN: true }),
+        fc.double({ min: 0, max: 0.1, noNaN: true }),
+        fc.double({ min: 0, max: 0.2, noNaN: true }),
+        fc.double({ min: 0.001, max: 0.05, noNaN: true }),
+        (checkingLength, targetPreload, baseCircleReduction, d) => {
+          const base = pushrodForPreload({ checkingLength, targetPreload, baseCircleReduction }).length;
+          expect(pushrodForPreload({ checkingLength: checkingLength + d, targetPreload, baseCircleReduction }).length - base).toBeCloseTo(d, 9);
+          expect(pushrodForPreload({ checkingLength, targetPreload: targetPreload + d, baseCircleReduction }).length - base).toBeCloseTo(d, 9);
+          expect(pushrodForPreload({ checkingLength, targetPreload, baseCircleReduction: baseCircleReduction + d }).length - base).toBeCloseTo(d / 2, 9);
+        },
+      ),
+    );
+  });
+
+  it('refuses a negative cut or preload, naming the field', () => {
+    expect(() => pushrodForPreload({ checkingLength: 7.1, targetPreload: 0.03, baseCircleReduction: -0.01 })).toThrow(/baseCircleReduction/);
+    expect(() => pushrodForPreload({ checkingLength: 7.1, targetPreload: -0.03, baseCircleReduction: 0 }, 'pushrod')).toThrow(/pushrod\.targetPreload/);
+  });
+
+  it('is what the lifter side of a cut gives as its pushrod advice', () => {
+    // lifterSideOfCut builds its advice with this function; an independent hand value: 7.352 + 0.050/2 + 0.045 = 7.422 in.
+    const l = lifterSideOfCut({
+      cut: 0.05,
+      originalPreload: 0.048,
+      minimumPreload: 0.02,
+      pushrodLength: 7.4,
+      pushrodCheck: { checkingLength: 7.352, targetPreload: 0.045, checkedOn: 'old-cam' },
+    });
+    expect(l.pushrod?.length).toBeCloseTo(7.422, 12);
+    expect(l.pushrod?.change).toBeCloseTo(0.022, 12);
   });
 });

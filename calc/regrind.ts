@@ -22,6 +22,72 @@ export function pushrodChangeForRegrind(input: { baseCircleReduction: number }):
   return pushrodChangeRaw(reduction);
 }
 
+/** Which cam the checking pushrod was read on: the old (stock) cam, or the reground cam that will run. */
+export type CheckedOn = 'old-cam' | 'reground-cam';
+
+export interface PushrodInput {
+  /** Adjustable checking pushrod set to zero lash (lifter plunger at the top of its travel, no free play), inches. */
+  checkingLength: number;
+  /** Preload wanted: how far the pushrod should push the plunger down from zero lash, inches. */
+  targetPreload: number;
+  /**
+   * Base-circle diameter lost between the cam the checking pushrod was read on and the
+   * cam that will run, inches: the regrind's cut when read on the old cam, 0 when read on the reground one.
+   */
+  baseCircleReduction: number;
+  /** Pushrod length in the engine now, inches (optional). */
+  currentLength?: number;
+}
+
+export interface PushrodAdvice {
+  /** The checking length at zero lash it starts from, inches. */
+  checkingLength: number;
+  /** The preload it aims at, inches. */
+  targetPreload: number;
+  /** How far the lifter sits lower on the cam that will run than where the checking pushrod was read, inches. */
+  lifterDrop: number;
+  /** Pushrod length that gives the target preload on the cam that will run, inches. */
+  length: number;
+  /** length − the pushrod in the engine, inches (positive = longer), when that length is known. */
+  change: number | null;
+  /** The pushrod in the engine, inches, or null. */
+  currentLength: number | null;
+}
+
+/** pushrodForPreload's input from a checking-pushrod reading and the regrind's base-circle cut (diameter, inches). */
+export function pushrodCheckInput(
+  check: { checkingLength: number; targetPreload: number; checkedOn: CheckedOn },
+  cut: number,
+  currentLength?: number,
+): PushrodInput {
+  return {
+    checkingLength: check.checkingLength,
+    targetPreload: check.targetPreload,
+    baseCircleReduction: check.checkedOn === 'old-cam' ? cut : 0,
+    ...(currentLength === undefined ? {} : { currentLength }),
+  };
+}
+
+/**
+ * Pushrod length for a target preload on a hydraulic lifter with fixed rockers:
+ * length = checking length at zero lash + lifter drop + target preload, where
+ * the lifter drop is half the base-circle diameter lost since the checking
+ * pushrod was read (the lifter rides on the base-circle radius). At zero lash
+ * every extra inch of pushrod pushes the plunger down an inch, so the preload
+ * is the pushrod length beyond the zero-lash length (the rocker is fixed, so
+ * the rocker ratio does not enter). Argument shape: PushrodInput (inches).
+ */
+export function pushrodForPreload(input: PushrodInput, prefix?: string): PushrodAdvice {
+  requireObject(prefix ?? 'input', input);
+  const checkingLength = requireInRange(fieldPath(prefix, 'checkingLength'), input.checkingLength, { min: 0, max: 20, minOpen: true, unit: 'in' });
+  const targetPreload = requireInRange(fieldPath(prefix, 'targetPreload'), input.targetPreload, { min: 0, max: 0.25, unit: 'in' });
+  const reduction = requireInRange(fieldPath(prefix, 'baseCircleReduction'), input.baseCircleReduction, { min: 0, max: 1, maxOpen: true, unit: 'in' });
+  const current = input.currentLength === undefined ? null : requirePositive(fieldPath(prefix, 'currentLength'), input.currentLength, 'in');
+  const lifterDrop = pushrodChangeRaw(reduction);
+  const length = checkingLength + lifterDrop + targetPreload;
+  return { checkingLength, targetPreload, lifterDrop, length, change: current === null ? null : length - current, currentLength: current };
+}
+
 export interface PreloadInput {
   /** Lifter preload with the original cam, inches of plunger travel. */
   originalPreload: number;
@@ -198,6 +264,8 @@ export interface LifterCutInput {
   pushrodLength?: number;
   /** The lifter's total plunger travel, inches (optional, from the lifter maker). */
   plungerTravel?: number;
+  /** Checking pushrod at zero lash, inches, the preload wanted and which cam it was read on: with all three, the pushrod advice (pushrodForPreload). */
+  pushrodCheck?: { checkingLength: number; targetPreload: number; checkedOn: CheckedOn };
 }
 
 export interface LifterCutResult {
@@ -218,6 +286,8 @@ export interface LifterCutResult {
   stockPushrodsOk: boolean;
   /** Plunger travel left below the preload (null without plungerTravel), inches. */
   plungerTravelLeft: number | null;
+  /** The pushrod length for the target preload (pushrodForPreload), or null without the checking pushrod reading. */
+  pushrod: PushrodAdvice | null;
 }
 
 /**
@@ -250,5 +320,6 @@ export function lifterSideOfCut(input: LifterCutInput, prefix?: string): LifterC
     largestCutStockPushrods,
     stockPushrodsOk: p.newPreload >= minimum - 1e-12,
     plungerTravelLeft: p.plungerTravelLeft,
+    pushrod: input.pushrodCheck ? pushrodForPreload(pushrodCheckInput(input.pushrodCheck, cut, input.pushrodLength), fieldPath(prefix, 'pushrodCheck')) : null,
   };
 }

@@ -156,6 +156,7 @@ export const demoMeasurements = [
         targetPreload: 0.045,
         originalPreload: 0.048,
         stockBaseCircle: 1.25,
+        checkedOn: 'old-cam',
       },
     }),
   },

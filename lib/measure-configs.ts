@@ -20,7 +20,7 @@ const ptv = ptvBaselineSchema.shape.intake.element.shape;
 const ptvColumns = [
   num('crankAngle', 'Crank angle', ptv.crankAngle, degrees('° ATDC'), { hint: 'Before TDC is negative, e.g. −10' }),
   num('clearance', 'Clearance', ptv.clearance, inches),
-  num('valveLift', 'Old cam valve lift there', ptv.valveLift, inches, { hint: 'Leave blank if not measured', optional: true, blank: 'default' }),
+  num('valveLift', 'Old cam valve lift there', ptv.valveLift, inches, { hint: 'Blank if not measured: PTV is then not run', optional: true }),
 ];
 
 /** Piston-to-valve clearance with the old cam, per valve, at one or more crank angles. */
@@ -69,6 +69,14 @@ const pushrod = pushrodSchema.shape;
 /** Checking pushrod, lifter plunger travel and preload. */
 export const pushrodConfig: MeasureConfig = {
   kind: 'pushrod',
+  choice: {
+    key: 'checkedOn',
+    label: 'Checking pushrod read on',
+    choices: [
+      { value: 'old-cam', label: 'The old cam' },
+      { value: 'reground-cam', label: 'The reground cam' },
+    ],
+  },
   scalars: [
     num('checkingLength', 'Checking pushrod at zero lash', pushrod.checkingLength, inches),
     num('currentLength', 'Pushrod in the engine', pushrod.currentLength, inches, { hint: 'Blank if not known', optional: true }),

@@ -12,13 +12,13 @@ import { PTV_SWEEP } from '@/calc/analysis';
 import { checkDegreeing, checkWornLobes } from '@/calc/checks';
 import { checkMinimum, resolveCheckLimits, worstStatus, type CheckLimitOverrides, type CheckResult, type SkippedCheck } from '@/calc/checks';
 import { CHECKING_HEIGHT_050 } from '@/calc/constants';
-import { degreeCam } from '@/calc/degree';
+import { degreeFromReadings } from '@/calc/degree';
 import { isCalcInputError } from '@/calc/errors';
 import { CYCLE_GRID } from '@/calc/lift-curve';
 import { ptvSweep } from '@/calc/ptv';
 import { retainerToSealMargin, springCheck } from '@/calc/springs';
 import { analyzeRecords } from '@/shared/analysis';
-import { regrindFromPushrod } from '@/shared/job-core';
+import { pushrodAdviceOf, regrindFromPushrod } from '@/shared/job-core';
 import type { EngineSpec } from '@/shared/engine';
 import type { FitCheckPtv, FitCheckRun, MeasurementData } from '@/shared/measurements';
 import type { ProfileSpec } from '@/shared/profile';
@@ -58,8 +58,15 @@ export function runFitChecks({ engine, spec, measured, limits: overrides }: FitC
       skipped.push({ id, subject: valve, note: 'not measured: record a PTV baseline with the old cam (clay or checking springs)' });
       continue;
     }
+    // A blank old-cam lift is not measured, never zero: the valve's check does not run and names each reading that lacks it.
+    const readings = baseline[valve].filter((r): r is typeof r & { valveLift: number } => r.valveLift !== null);
+    if (readings.length < baseline[valve].length) {
+      const lacking = baseline[valve].flatMap((r, i) => (r.valveLift === null ? [`${valve} reading ${i + 1} (at ${r.crankAngle}° ATDC)`] : []));
+      skipped.push({ id, subject: valve, note: `not measured: the old cam's valve lift for ${lacking.join(', ')}` });
+      continue;
+    }
     let best: FitCheckPtv | null = null;
-    baseline[valve].forEach((reading, i) => {
+    readings.forEach((reading, i) => {
       const sweep = ptvSweep(
         {
           stroke: engine.stroke,
@@ -124,20 +131,17 @@ export function runFitChecks({ engine, spec, measured, limits: overrides }: FitC
     );
   }
 
+  // The pushrod length for the target preload on this revision's base circle.
+  const pushrodAdvice = pushrodAdviceOf(pushrod, spec.baseCircle);
+
   // Degreeing: true TDC from the piston stops, then the ICL from the equal-lift flank readings.
   let degree: FitCheckResults['degree'] = null;
   const readings = measured.degree;
   if (!readings) {
     skipped.push({ id: 'degreeing', subject: 'intake', note: 'not measured: record the piston-stop and flank readings at cam install' });
   } else {
-    const trueTdcOffset = (readings.stopAfter - readings.stopBefore) / 2;
-    const result = degreeCam({
-      openingAngle: readings.openingAngle - trueTdcOffset,
-      closingAngle: readings.closingAngle - trueTdcOffset,
-      sheetIcl: spec.icl,
-    });
-    degree = { ...result, trueTdcOffset };
-    checks.push(checkDegreeing(result, overrides));
+    degree = degreeFromReadings({ ...readings, sheetIcl: spec.icl });
+    checks.push(checkDegreeing(degree, overrides));
   }
 
   // Measured lobes: each table analysed; worn lobes against their own kind.
@@ -171,6 +175,7 @@ export function runFitChecks({ engine, spec, measured, limits: overrides }: FitC
     ptv,
     springs,
     preload: analysis.preload,
+    pushrod: pushrodAdvice,
     degree,
     lobes,
   };

@@ -5,6 +5,7 @@ import { analyzeProfile } from '@/calc/analysis';
 
 import { feasibilityResults } from './analysis';
 import { coreView, flankOf, ownerCoreText } from './fits-core';
+import { pushrodAdviceOf, pushrodAdviceText } from './job-core';
 
 const from = { from: 'measured lobe table', missing: [] };
 const towing = feasibilityResults(analyzeProfile(DEMO_FEASIBILITY_INPUT), from);
@@ -25,7 +26,8 @@ describe('the fits-the-core words', () => {
     expect(view.figures.find((f) => f.key === 'cleanup')?.value).toBe(`${towing.cleanup!.cleanupCut.toFixed(3)} in`);
     expect(view.figures.find((f) => f.key === 'largestLift')?.value).toBe(`${towing.cleanup!.largestLift.toFixed(3)} in`);
     expect(view.lifter).toContain(`preload falls to ${towing.lifter!.preloadLeft.toFixed(3)} in`);
-    expect(view.lifter).toContain(`pushrods ${towing.lifter!.restoredPushrodLength!.toFixed(3)} in long`);
+    // Without the checking pushrod reading there is no pushrod length to give: it says what it lacks (issue 14, finding 5).
+    expect(view.lifter).toContain('Pushrod length: record the checking pushrod at zero lash, the target preload and which cam it was read on.');
     expect(ownerCoreText(towing, 'Towing').answer).toBe('new-core');
   });
 
@@ -55,5 +57,29 @@ describe('the fits-the-core words', () => {
     expect(flankOf(-14)).toBe('14° cam before the nose, opening flank');
     expect(flankOf(22)).toBe('22° cam after the nose, closing flank');
     expect(flankOf(1)).toBe('at the nose');
+  });
+
+  describe('the pushrod advice on "fits the core?"', () => {
+    it('is the same advice, in the same words, as the fit checks give from the same readings', () => {
+      const regrind = { ...DEMO_FEASIBILITY_INPUT.regrind!, pushrodCheck: { checkingLength: 7.352, targetPreload: 0.045, checkedOn: 'old-cam' as const } };
+      const f = feasibilityResults(analyzeProfile({ ...DEMO_FEASIBILITY_INPUT, regrind }), from);
+      const advice = f.lifter!.pushrod!;
+      // By hand (geometry in calc/regrind.test.ts, from memory): base circle 1.240 → 1.200 in, so 7.352 + 0.020 + 0.045 = 7.417 in.
+      expect(advice.length).toBeCloseTo(7.417, 12);
+      const { advice: fromFitCheck } = pushrodAdviceOf(
+        {
+          checkingLength: 7.352,
+          targetPreload: 0.045,
+          checkedOn: 'old-cam',
+          stockBaseCircle: 1.24,
+          currentLength: 7.4,
+          plungerTravel: 0.12,
+          originalPreload: 0.045,
+        },
+        1.2,
+      );
+      expect(fromFitCheck?.length).toBeCloseTo(advice.length, 12);
+      expect(coreView(f).lifter).toContain(pushrodAdviceText(advice));
+    });
   });
 });

@@ -1,4 +1,6 @@
 import type { CheckResult, CheckStatus } from '@/calc/checks';
+
+import { pushrodAdviceText } from './job-core';
 import type { FeasibilityResults } from './sheets';
 
 /** The answer to "can this cam be ground from the old one?": yes, watch, no, or not worked out. */
@@ -109,9 +111,9 @@ export function coreView(f: FeasibilityResults | undefined, jobMissing?: readonl
 
   const l = f.lifter;
   const lifter = l
-    ? `The lifters sit ${inches(l.lifterDrop)} lower. With the stock pushrods preload falls to ${inches(l.preloadLeft)}${l.stockPushrodsOk ? '' : ', below the least the lifter wants'}; ${
-        l.restoredPushrodLength !== null ? `pushrods ${inches(l.restoredPushrodLength)} long` : `pushrods ${inches(l.pushrodIncrease)} longer`
-      } restore it. Stock pushrods allow a cut of up to ${inches(l.largestCutStockPushrods)}.`
+    ? `The lifters sit ${inches(l.lifterDrop)} lower. With the stock pushrods preload falls to ${inches(l.preloadLeft)}${l.stockPushrodsOk ? '' : ', below the least the lifter wants'}. Stock pushrods allow a cut of up to ${inches(l.largestCutStockPushrods)}. ${
+        l.pushrod ? pushrodAdviceText(l.pushrod) : 'Pushrod length: record the checking pushrod at zero lash, the target preload and which cam it was read on.'
+      }`
     : 'Not worked out: record the preload with the old cam and the pushrod length (hydraulic lifters).';
 
   const cut = f.cut === null ? null : inches(f.cut);

@@ -57,6 +57,8 @@ describe('the job core', () => {
       stockBaseCircle: pushrod.stockBaseCircle,
       plungerTravel: pushrod.plungerTravel,
       pushrodLength: pushrod.currentLength,
+      // The checking pushrod reading, for the pushrod advice (issue 14, finding 5).
+      pushrodCheck: { checkingLength: pushrod.checkingLength, targetPreload: pushrod.targetPreload, checkedOn: 'old-cam' },
     });
     expect(jobCore({ measured: { pushrod: { ...pushrod, originalPreload: null } }, limits: settings, lifterType: 'hydraulic-roller' }).regrind).toBeUndefined();
   });

@@ -3,6 +3,7 @@ import type { CheckLimits } from '@/calc/checks';
 import { CHECKING_HEIGHT_050 } from '@/calc/constants';
 import { isCalcInputError } from '@/calc/errors';
 import { analyzeLiftTable, findWornLobesByKind, lobeKind, tableMaxLifts } from '@/calc/measured';
+import { pushrodCheckInput, pushrodForPreload, type PushrodAdvice } from '@/calc/regrind';
 
 import type { LifterTypeName } from './engine';
 import type { MeasurementData } from './measurements';
@@ -78,8 +79,51 @@ export function regrindFromPushrod(pushrod: MeasurementData['pushrod'] | undefin
         stockBaseCircle: pushrod.stockBaseCircle,
         plungerTravel: pushrod.plungerTravel,
         ...(pushrod.currentLength !== null ? { pushrodLength: pushrod.currentLength } : {}),
+        ...(pushrod.checkedOn !== null
+          ? { pushrodCheck: { checkingLength: pushrod.checkingLength, targetPreload: pushrod.targetPreload, checkedOn: pushrod.checkedOn } }
+          : {}),
       }
     : undefined;
+}
+
+/**
+ * The pushrod advice for a sheet revision from the pushrod readings, by calc's one
+ * function (pushrodForPreload, the same one "fits the core?" uses): the checking
+ * pushrod at zero lash, the target preload and, when it was read on the old cam,
+ * the base-circle cut from the stock to the sheet's base circle. Inches. What it
+ * lacks is named, never taken as zero.
+ */
+export function pushrodAdviceOf(
+  pushrod: MeasurementData['pushrod'] | undefined,
+  regrindBaseCircle: number | null,
+): { advice: PushrodAdvice | null; missing: string | null } {
+  if (!pushrod) return { advice: null, missing: 'record the checking pushrod at zero lash and the target preload (pushrod and preload)' };
+  if (pushrod.checkedOn === null) return { advice: null, missing: 'say which cam the checking pushrod was read on (pushrod and preload)' };
+  let cut = 0;
+  if (pushrod.checkedOn === 'old-cam') {
+    if (regrindBaseCircle === null) return { advice: null, missing: "give the sheet's regrind base circle: the checking pushrod was read on the old cam" };
+    cut = pushrod.stockBaseCircle - regrindBaseCircle;
+    if (cut < 0) return { advice: null, missing: "the sheet's base circle is larger than the stock one: check both" };
+  }
+  const check = { checkingLength: pushrod.checkingLength, targetPreload: pushrod.targetPreload, checkedOn: pushrod.checkedOn };
+  return { advice: pushrodForPreload(pushrodCheckInput(check, cut, pushrod.currentLength ?? undefined), 'pushrod'), missing: null };
+}
+
+const inch = (v: number) => `${v.toFixed(3)} in`;
+
+/** The pushrod advice in words, the same wherever it is shown (fit checks, "fits the core?"). */
+export function pushrodAdviceText(a: PushrodAdvice): string {
+  const sum =
+    a.lifterDrop > 0
+      ? `the checking pushrod's ${inch(a.checkingLength)} at zero lash, + ${inch(a.lifterDrop)} the lifter drops with the smaller base circle, + ${inch(a.targetPreload)} preload`
+      : `the checking pushrod's ${inch(a.checkingLength)} at zero lash on the reground cam + ${inch(a.targetPreload)} preload`;
+  const change =
+    a.change === null || a.currentLength === null
+      ? ''
+      : Math.abs(a.change) < 0.0005
+        ? `; the ${inch(a.currentLength)} pushrods in the engine already give it`
+        : `; ${a.change > 0 ? 'lengthen' : 'shorten'} the ${inch(a.currentLength)} pushrods by ${inch(Math.abs(a.change))}`;
+  return `Pushrods ${inch(a.length)} long for ${inch(a.targetPreload)} preload: ${sum}${change}.`;
 }
 
 /**

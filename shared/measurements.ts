@@ -1,9 +1,9 @@
 import { z } from 'zod';
 
-import type { CheckLimits, CheckResult, CheckLimitOverrides, SkippedCheck } from '@/calc/checks';
+import type { CheckLimits, CheckResult, CheckLimitOverrides, CheckSummary, SkippedCheck } from '@/calc/checks';
 import type { DegreeResult } from '@/calc/degree';
 import type { LiftTableAnalysis, WornLobeResult } from '@/calc/measured';
-import type { PreloadResult } from '@/calc/regrind';
+import type { PreloadResult, PushrodAdvice } from '@/calc/regrind';
 import type { PtvSweep } from '@/calc/ptv';
 
 import { measure, versionSchema } from './numbers';
@@ -12,8 +12,8 @@ import { measure, versionSchema } from './numbers';
 const ptvReading = z.strictObject({
   crankAngle: measure('Crank angle', '° ATDC', -90, 90),
   clearance: measure('Clearance', 'in', 0, 1),
-  /** Old cam's valve lift at that angle, if measured. */
-  valveLift: measure('Valve lift at that angle', 'in', 0, 0.8).default(0),
+  /** Old cam's valve lift at that angle; null = not measured (the PTV check then does not run), never zero. */
+  valveLift: measure('Valve lift at that angle', 'in', 0, 0.8).nullable().default(null),
 });
 export const ptvBaselineSchema = z.strictObject({
   method: z.enum(['clay', 'checking-springs'], { error: 'Method is clay or checking springs' }),
@@ -47,6 +47,8 @@ export const pushrodSchema = z.strictObject({
   /** Preload with the old cam, if measured. */
   originalPreload: measure('Preload with the old cam', 'in', 0, 0.2).nullable().default(null),
   stockBaseCircle: measure('Stock base circle', 'in', 0.6, 2),
+  /** Which cam the checking pushrod was read on; null = not said, so no pushrod advice is given. */
+  checkedOn: z.enum(['old-cam', 'reground-cam'], { error: 'Say which cam the checking pushrod was read on' }).nullable().default(null),
 });
 
 /** Degree-wheel readings at cam install. Crank degrees. */
@@ -259,6 +261,7 @@ export type ShopLimitsSave = z.input<typeof shopLimitsSaveSchema>;
  */
 export type FitCheckPtv = Omit<PtvSweep, 'clearance'> & {
   clearance: number[];
+  /** Only readings with the old cam's valve lift measured are swept. */
   baseline: { crankAngle: number; clearance: number; valveLift: number };
 };
 
@@ -270,7 +273,12 @@ export type FitCheckRun = {
   revisionNumber: number;
   createdAt: string;
   createdBy: string | null;
+  /** Who ran it, by name (null when the account is gone). */
+  createdByName: string | null;
+  /** The run's one summary (summarizeChecks): Pass only when every check ran and passed, else "5 of 8 checks run". */
+  summary: CheckSummary;
   results: {
+    /** The worst verdict among the checks that ran; the summary says whether every check ran. */
     status: 'pass' | 'watch' | 'fail';
     checks: CheckResult[];
     skipped: SkippedCheck[];
@@ -285,6 +293,8 @@ export type FitCheckRun = {
       retainerToSealMargin: number;
     }[];
     preload: PreloadResult | null;
+    /** The pushrod length for the target preload, or what it lacks (runs stored before it was worked out have neither). */
+    pushrod?: { advice: PushrodAdvice | null; missing: string | null };
     degree: (DegreeResult & { trueTdcOffset: number }) | null;
     lobes: { analyses: { id: string; table: LiftTableAnalysis }[]; worn: WornLobeResult | null } | null;
   };

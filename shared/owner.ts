@@ -4,7 +4,7 @@ import type { OwnerComparison } from '@/calc/compare';
 
 import type { OwnerCoreAnswer } from './fits-core';
 
-import type { CheckStatus } from '@/calc/checks';
+import type { CheckStatus, CheckSummary } from '@/calc/checks';
 import { emailAddress } from './me';
 import { centsSchema, leadTimeDaysSchema, versionSchema } from './numbers';
 
@@ -167,6 +167,13 @@ export type OwnerViewOption = {
   revisionNumber: number;
   /** Worst fit-check status worked out from the numbers. */
   status: CheckStatus;
+  /**
+   * The one summary shown (summarizeChecks): of the latest fit-check run on the engine against this
+   * revision when there is one, else of the checks worked out from the numbers.
+   */
+  summary: CheckSummary;
+  /** The latest fit-check run against this option's revision: when, by whom; null when not run on the engine yet. */
+  checkedOnEngine: { revisionNumber: number; at: string; by: string | null } | null;
   /** Plain words against the first option (the reference); null for the reference itself. */
   comparison: OwnerComparison | null;
   /** The fit sentence for every option, the reference included. */

@@ -7,7 +7,7 @@ import { CompareTable } from '@/components/compare/compare-table';
 import { LiftPlot } from '@/components/ui/plots';
 import { ProfilePicker } from '@/components/compare/profile-picker';
 import { TryValues } from '@/components/compare/try-values';
-import { CheckList, CheckStatusChip } from '@/components/sheet/check-list';
+import { CheckList, ResultsSummaryChip } from '@/components/sheet/check-list';
 import { Button } from '@/components/ui/button';
 import { ChoiceGroup } from '@/components/ui/choice-group';
 import { EmptyState, ErrorNotice, Pending } from '@/components/ui/query-state';
@@ -192,7 +192,7 @@ function CompareView({
           ) : null}
           {shown.map((c, i) => (
             <Section key={c.profile.id} title={`Checks: ${c.profile.label}`}>
-              <CheckStatusChip status={c.analysis.status} testID={`status-${i}`} />
+              <ResultsSummaryChip results={c.analysis} testID={`status-${i}`} />
               <CheckList checks={c.analysis.checks} skipped={c.analysis.skipped} testID={`checks-${i}`} />
             </Section>
           ))}

@@ -11,7 +11,7 @@ import { lifterTypeLabels } from '@/shared/engine';
 import type { Profile } from '@/shared/profile';
 
 import { Button } from '@/components/ui/button';
-import { CheckStatusChip } from '@/components/sheet/check-list';
+import { ResultsSummaryChip } from '@/components/sheet/check-list';
 import { ErrorNotice, Pending } from '@/components/ui/query-state';
 import { Section } from '@/components/ui/screen';
 
@@ -159,7 +159,7 @@ export function JobSheets({ jobId }: { jobId: string }) {
                   {formatDateTime(s.current.updatedAt)}
                 </Text>
               </View>
-              <CheckStatusChip status={s.current.results.status} />
+              <ResultsSummaryChip results={s.current.results} testID={`job-sheet-${s.id}-status`} />
               <Button label="Open" variant="secondary" href={`/jobs/${jobId}/sheets/${s.id}`} testID={`open-sheet-${s.id}`} />
             </View>
           ))}

@@ -5,10 +5,12 @@ import type { CheckId } from '@/calc/checks';
 import { formatDateTime } from '@/constants/format';
 import { breakpoints, colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
 import { productCautions } from '@/shared/cautions';
+import { correctionText, iclText, revisionName, trueTdcText } from '@/lib/degree-readout';
+import { pushrodAdviceText } from '@/shared/job-core';
 import type { FitCheckRun } from '@/shared/measurements';
 
 import { Cautions } from '@/components/compare/cautions';
-import { CheckList, CheckStatusChip } from '@/components/sheet/check-list';
+import { CheckList, CheckSummaryChip } from '@/components/sheet/check-list';
 
 type Group = { key: string; title: string; ids: CheckId[] };
 
@@ -25,7 +27,7 @@ const inch = (v: number) => `${v.toFixed(3).replace(/^-/, '−')} in`;
 const deg = (v: number) => `${v.toFixed(1).replace(/^-/, '−')}°`;
 
 /** One run's results, grouped by what was measured, with the cautions beside PTV and springs. */
-export function FitCheckResults({ run }: { run: FitCheckRun }) {
+export function FitCheckResults({ run, sheetTitle }: { run: FitCheckRun; sheetTitle: string }) {
   const wide = useWindowDimensions().width >= breakpoints.wide;
   const r = run.results;
 
@@ -52,18 +54,24 @@ export function FitCheckResults({ run }: { run: FitCheckRun }) {
         ))}
       </>
     ),
-    preload: r.preload ? (
-      <Text style={styles.detail}>
-        Lifter drops {inch(r.preload.lifterDrop)}; preload with the same pushrods {inch(r.preload.newPreload)}; lengthen pushrods by{' '}
-        {inch(r.preload.pushrodIncrease)}
-        {r.preload.restoredPushrodLength !== null ? ` to ${inch(r.preload.restoredPushrodLength)}` : ''}
-      </Text>
-    ) : null,
+    preload: (
+      <>
+        {r.preload ? (
+          <Text style={styles.detail}>
+            Lifter drops {inch(r.preload.lifterDrop)}; preload with the same pushrods {inch(r.preload.newPreload)}.
+          </Text>
+        ) : null}
+        {r.pushrod ? (
+          <Text style={styles.detail} testID="fit-pushrod-advice">
+            {r.pushrod.advice ? pushrodAdviceText(r.pushrod.advice) : `No pushrod advice yet: ${r.pushrod.missing ?? 'record the pushrod readings'}.`}
+          </Text>
+        ) : null}
+      </>
+    ),
     degree: r.degree ? (
-      <Text style={styles.detail}>
-        Measured ICL {deg(r.degree.measuredIcl)} against the sheet&apos;s {deg(r.degree.sheetIcl)}
-        {r.degree.correction === 'none' ? ': no correction needed' : `: ${r.degree.correction} ${deg(r.degree.correctionDegrees)}`}. True TDC was{' '}
-        {deg(r.degree.trueTdcOffset)} on the wheel.
+      <Text style={styles.detail} testID="fit-degree-detail">
+        Measured ICL <Text testID="fit-degree-icl">{iclText(r.degree)}</Text>. {correctionText(r.degree, revisionName(sheetTitle, run.revisionNumber))} True TDC{' '}
+        {trueTdcText(r.degree.trueTdcOffset)}.
       </Text>
     ) : null,
     lobes: r.lobes ? (
@@ -78,9 +86,10 @@ export function FitCheckResults({ run }: { run: FitCheckRun }) {
   return (
     <View style={styles.run} testID="fit-check-results">
       <View style={styles.summary}>
-        <CheckStatusChip status={r.status} testID="fit-check-status" />
-        <Text style={styles.summaryText}>
+        <CheckSummaryChip summary={run.summary} testID="fit-check-status" />
+        <Text style={styles.summaryText} testID="fit-results-by">
           Revision {run.revisionNumber} · run {formatDateTime(run.createdAt)}
+          {run.createdByName ? ` by ${run.createdByName}` : ''}
         </Text>
       </View>
       {groups.map((g) => {
@@ -89,10 +98,12 @@ export function FitCheckResults({ run }: { run: FitCheckRun }) {
         const checks = g.key === 'lobes' ? all.filter((c) => c.status !== 'pass') : all;
         const hiddenPasses = all.length - checks.length;
         const skipped = r.skipped.filter((s) => g.ids.includes(s.id));
-        if (checks.length === 0 && skipped.length === 0) return null;
+        if (checks.length === 0 && skipped.length === 0 && !(g.key === 'preload' && r.pushrod)) return null;
         const caution =
           g.key === 'ptv' ? (
             <Cautions title="Before the engine turns over" items={[productCautions.measure]} testID="caution-ptv" />
+          ) : g.key === 'preload' ? (
+            <Cautions title="Pushrods and preload" items={[productCautions.measure, productCautions.manual]} testID="caution-preload" />
           ) : g.key === 'springs' ? (
             <Cautions title="Springs and parts" items={[productCautions.measure, productCautions.manual]} testID="caution-springs" />
           ) : null;

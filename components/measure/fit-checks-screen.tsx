@@ -3,7 +3,7 @@ import { useState } from 'react';
 import { Pressable, StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 
 import { Button } from '@/components/ui/button';
-import { CheckStatusChip } from '@/components/sheet/check-list';
+import { CheckSummaryChip } from '@/components/sheet/check-list';
 import { FitCheckResults } from '@/components/measure/fit-check-results';
 import { EmptyState, ErrorNotice, Pending } from '@/components/ui/query-state';
 import { Screen, Section } from '@/components/ui/screen';
@@ -45,12 +45,12 @@ export function FitChecksScreen({ id }: { id: string }) {
     >
       <Stack.Screen options={{ title: `Fit checks · ${job.data.vehicle}` }} />
       <SheetChoice sheets={sheetList} value={sheetId} onChange={setSheetId} />
-      {sheetId ? <SheetRuns key={sheetId} sheetId={sheetId} /> : null}
+      {sheetId ? <SheetRuns key={sheetId} sheetId={sheetId} sheetTitle={sheetList.find((s) => s.id === sheetId)?.title ?? 'the sheet'} /> : null}
     </Screen>
   );
 }
 
-function SheetRuns({ sheetId }: { sheetId: string }) {
+function SheetRuns({ sheetId, sheetTitle }: { sheetId: string; sheetTitle: string }) {
   const wide = useWindowDimensions().width >= breakpoints.wide;
   const runs = useFitCheckRunsQuery(sheetId);
   const run = useRunFitChecksMutation(sheetId);
@@ -96,7 +96,7 @@ function SheetRuns({ sheetId }: { sheetId: string }) {
                   style={[styles.historyItem, active && styles.historyActive]}
                   testID={`fit-run-${r.id}`}
                 >
-                  <CheckStatusChip status={r.results.status} />
+                  <CheckSummaryChip summary={r.summary} />
                   <Text style={styles.historyText}>
                     Revision {r.revisionNumber} · {formatDateTime(r.createdAt)}
                   </Text>
@@ -117,7 +117,7 @@ function SheetRuns({ sheetId }: { sheetId: string }) {
       ) : runs.isError ? (
         <ErrorNotice error={runs.error} onRetry={() => runs.refetch()} />
       ) : shown ? (
-        <FitCheckResults run={shown} />
+        <FitCheckResults run={shown} sheetTitle={sheetTitle} />
       ) : (
         <EmptyState title="Not run yet">
           <Text style={styles.meta}>Record the measurements, then run the checks against this sheet&apos;s current revision.</Text>

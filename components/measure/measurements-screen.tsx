@@ -19,6 +19,7 @@ import { latestOfKind, useJobMeasurementsQuery } from '@/hooks/use-measurements'
 import { useMeQuery } from '@/hooks/use-me';
 import { useJobSheetsQuery } from '@/hooks/use-sheets';
 import { useShopLimitsQuery } from '@/hooks/use-shop-limits';
+import { revisionName } from '@/lib/degree-readout';
 import { roleAllows } from '@/shared/roles';
 
 export function MeasurementsScreen({ id }: { id: string }) {
@@ -35,7 +36,7 @@ export function MeasurementsScreen({ id }: { id: string }) {
     sheetList.map((s) => s.id),
   );
   const sheet = sheetList.find((s) => s.id === sheetId) ?? null;
-  const sheetName = sheet ? `${sheet.title} rev ${sheet.current.number}` : null;
+  const sheetName = sheet ? revisionName(sheet.title, sheet.current.number) : null;
 
   if (measurements.isPending || job.isPending) return <Pending label="Loading the measurements…" />;
   if (measurements.isError || job.isError) {
@@ -65,14 +66,18 @@ export function MeasurementsScreen({ id }: { id: string }) {
   );
   const pushrod = (
     <Section title="Pushrod and preload">
-      <Text style={styles.help}>The checking pushrod at zero lash with the new cam on its base circle, and the lifter&apos;s plunger travel.</Text>
+      <Text style={styles.help}>
+        The checking pushrod set to zero lash with the lifter on the base circle (and which cam it was on), the preload wanted and the lifter&apos;s plunger
+        travel.
+      </Text>
       <MeasureForm jobId={id} config={pushrodConfig} current={latestOfKind(list, 'pushrod')} canWrite={canWrite} testID="pushrod" />
     </Section>
   );
   const degree = (
     <Section title="Degree wheel">
       <Text style={styles.help}>
-        Piston stops either side of TDC, then the crank angles where the dial shows the same lift on the opening and closing flanks of the number 1 intake lobe.
+        Piston stops either side of TDC, then, with the pointer left where it was, the crank angles where the dial shows the same lift on the opening and
+        closing flanks of the number 1 intake lobe.
       </Text>
       <MeasureForm
         jobId={id}
@@ -86,8 +91,7 @@ export function MeasurementsScreen({ id }: { id: string }) {
             stopAfter={draftNumber(draft.stopAfter)}
             openingAngle={draftNumber(draft.openingAngle)}
             closingAngle={draftNumber(draft.closingAngle)}
-            sheetIcl={sheet?.current.spec.icl ?? null}
-            sheetName={sheetName}
+            sheet={sheet && sheetName ? { icl: sheet.current.spec.icl, name: sheetName } : null}
           />
         )}
       />

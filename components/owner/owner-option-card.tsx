@@ -1,10 +1,11 @@
 import { Pressable, StyleSheet, Text, View } from 'react-native';
 
-import { formatCents } from '@/constants/format';
+import { formatCents, formatDateTime } from '@/constants/format';
 import { colors, fonts, radius, space } from '@/constants/theme';
 import type { OwnerViewOption } from '@/shared/owner';
 
 import { ownerType } from '@/components/owner/owner-type';
+import { CheckSummaryChip } from '@/components/sheet/check-list';
 import { Chip } from '@/components/ui/chip';
 
 type OwnerOptionCardProps = {
@@ -48,7 +49,17 @@ export function OwnerOptionCard({ option, currency, referenceTitle, chosen, onCh
       ) : (
         <Text style={styles.body}>This is the option the others are compared with{referenceTitle === option.title ? '' : ` (${referenceTitle})`}.</Text>
       )}
-      <Text style={styles.body}>{option.fit}</Text>
+      <View style={styles.checked} testID={`owner-option-${option.id}-checks`}>
+        <CheckSummaryChip summary={option.summary} testID={`owner-option-${option.id}-status`} />
+        <Text style={styles.small} testID={`owner-option-${option.id}-checked`}>
+          {option.checkedOnEngine
+            ? `Checked on the engine against revision ${option.checkedOnEngine.revisionNumber}, ${formatDateTime(option.checkedOnEngine.at)}${option.checkedOnEngine.by ? ` by ${option.checkedOnEngine.by}` : ''}`
+            : 'Worked out from the numbers; not yet checked on the engine'}
+        </Text>
+      </View>
+      <Text style={styles.body} testID={`owner-option-${option.id}-fit`}>
+        {option.fit}
+      </Text>
       <Text style={styles.strong} testID={`owner-option-${option.id}-core`}>
         {option.core.answer === 'old-cam' ? 'Your old camshaft will do. ' : option.core.answer === 'new-core' ? 'Needs a new core. ' : ''}
         <Text style={styles.body}>{option.core.text}</Text>
@@ -83,6 +94,7 @@ function Figure({ label, value }: { label: string; value: string }) {
 }
 
 const styles = StyleSheet.create({
+  checked: { flexDirection: 'row', alignItems: 'center', gap: space.sm, flexWrap: 'wrap' },
   card: { gap: space.md, padding: space.lg, borderRadius: radius.lg, borderWidth: 2, borderColor: colors.lineStrong, backgroundColor: colors.surface },
   chosen: { borderColor: colors.accent, borderWidth: 4 },
   head: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', gap: space.sm },

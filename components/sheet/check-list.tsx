@@ -1,6 +1,6 @@
 import { StyleSheet, Text, View } from 'react-native';
 
-import type { CheckResult, CheckStatus, SkippedCheck } from '@/calc/checks';
+import { summarizeChecks, type CheckResult, type CheckStatus, type CheckSummary, type SkippedCheck } from '@/calc/checks';
 import { colors, fonts, space, type as typeScale } from '@/constants/theme';
 
 import { Chip } from '@/components/ui/chip';
@@ -23,6 +23,18 @@ const checkNames: Record<CheckResult['id'], string> = {
   cleanup: 'Cut cleans up damage',
   largestCut: 'Cut vs hardened layer',
 };
+
+/** A summary of several checks (calc's summarizeChecks): "Pass" only when every check ran and passed, else e.g. "5 of 8 checks run". */
+export function CheckSummaryChip({ summary, testID }: { summary: CheckSummary; testID?: string }) {
+  return (
+    <Chip label={summary.label} tone={summary.status === 'incomplete' ? 'muted' : summary.status} look={summary.complete ? 'verdict' : 'tag'} testID={testID} />
+  );
+}
+
+/** The summary chip of a list of results (a sheet revision's, a compared profile's), by the same one summary. */
+export function ResultsSummaryChip({ results, testID }: { results: { checks: readonly CheckResult[]; skipped: readonly SkippedCheck[] }; testID?: string }) {
+  return <CheckSummaryChip summary={summarizeChecks(results)} testID={testID} />;
+}
 
 /** A check's verdict (pass, watch, fail) as a chip. */
 export function CheckStatusChip({ status, testID }: { status: CheckStatus; testID?: string }) {

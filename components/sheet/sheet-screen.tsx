@@ -4,7 +4,7 @@ import { StyleSheet, Text, TextInput, useWindowDimensions, View } from 'react-na
 import { FitsCorePanel } from '@/components/compare/fits-core';
 import { Button } from '@/components/ui/button';
 import { noteInput } from '@/components/ui/note-input';
-import { CheckStatusChip } from '@/components/sheet/check-list';
+import { ResultsSummaryChip } from '@/components/sheet/check-list';
 import { ChoiceGroup } from '@/components/ui/choice-group';
 import { ErrorNotice, Pending } from '@/components/ui/query-state';
 import { RevisionNotes } from '@/components/sheet/revision-notes';
@@ -56,7 +56,7 @@ function SheetView({ sheet, back }: { sheet: SheetWithHistory; back: BackLink })
         <View style={[wide ? styles.main : undefined, styles.stack]}>
           <Section title={shown.number === current.number ? `Revision ${shown.number}: current` : `Revision ${shown.number}`}>
             <View style={styles.badges}>
-              <CheckStatusChip status={shown.results.status} />
+              <ResultsSummaryChip results={shown.results} testID="revision-status" />
               <Text style={[styles.state, shown.state === 'issued' ? styles.issued : styles.draft]} testID="revision-state">
                 {shown.state === 'draft' ? 'Draft' : 'Issued'}
               </Text>

@@ -196,4 +196,72 @@ describe('fit checks', () => {
     }
     expect((await a.founder.get(`/api/sheets/${a.sheetId}/fit-checks`)).body.runs).toHaveLength(1);
   });
+
+  it('keeps a blank old-cam valve lift as not measured through to the check, which says NOT RUN and names it', async () => {
+    const { tech, jobId, sheetId } = await sheetOnJob();
+    const saved = await tech.post(`/api/jobs/${jobId}/measurements`, {
+      kind: 'ptv-baseline',
+      data: { method: 'clay', intake: [{ crankAngle: -10, clearance: 0.165 }], exhaust: [{ crankAngle: 10, clearance: 0.19, valveLift: 0.041 }] },
+    });
+    expect(saved.status).toBe(201);
+    expect(saved.body.measurement.data.intake[0].valveLift).toBeNull();
+    const { results } = (await tech.post(`/api/sheets/${sheetId}/fit-checks`)).body.run;
+    expect(results.checks.map((c: Check) => c.id)).not.toContain('ptvIntake');
+    expect(results.skipped).toContainEqual({
+      id: 'ptvIntake',
+      subject: 'intake',
+      note: "not measured: the old cam's valve lift for intake reading 1 (at -10° ATDC)",
+    });
+    expect(results.checks.map((c: Check) => c.id)).toContain('ptvExhaust');
+  });
+
+  it('bases the pushrod advice on the checking pushrod at zero lash, the target preload and the base-circle cut', async () => {
+    // Issue finding 5. Geometry beside calc's test (calc/regrind.test.ts, from memory): length = zero-lash length
+    // + half the base-circle cut (read on the old cam) + target preload. Towing sheet base circle 1.200 in, stock 1.240 in.
+    const { tech, jobId, sheetId } = await sheetOnJob();
+    const reading = { plungerTravel: 0.12, originalPreload: 0.048, stockBaseCircle: 1.24, currentLength: 7.2, checkedOn: 'old-cam' };
+    const first = await tech.post(`/api/jobs/${jobId}/measurements`, { kind: 'pushrod', data: { ...reading, checkingLength: 7.15, targetPreload: 0.05 } });
+    expect(first.status).toBe(201);
+    const before = (await tech.post(`/api/sheets/${sheetId}/fit-checks`)).body.run.results.pushrod;
+    // 7.150 + 0.020 + 0.050 = 7.220 in
+    expect(before.advice.length).toBeCloseTo(7.22, 9);
+    expect(before.advice.change).toBeCloseTo(0.02, 9);
+    const changed = await tech.patch(`/api/measurements/${first.body.measurement.id}`, {
+      version: first.body.measurement.version,
+      data: { ...reading, checkingLength: 7.1, targetPreload: 0.03 },
+    });
+    expect(changed.status).toBe(200);
+    const after = (await tech.post(`/api/sheets/${sheetId}/fit-checks`)).body.run.results.pushrod;
+    // 7.100 + 0.020 + 0.030 = 7.150 in: 0.050 in shorter than the pushrods in the engine
+    expect(after.advice.length).toBeCloseTo(7.15, 9);
+    expect(after.advice.change).toBeCloseTo(-0.05, 9);
+    expect(after.missing).toBeNull();
+  });
+
+  it('names what the pushrod advice lacks instead of guessing which cam the checking pushrod was read on', async () => {
+    const { tech, jobId, sheetId } = await sheetOnJob();
+    await tech.post(`/api/jobs/${jobId}/measurements`, {
+      kind: 'pushrod',
+      data: { checkingLength: 7.15, targetPreload: 0.05, plungerTravel: 0.12, stockBaseCircle: 1.24 },
+    });
+    const { pushrod } = (await tech.post(`/api/sheets/${sheetId}/fit-checks`)).body.run.results;
+    expect(pushrod).toEqual({ advice: null, missing: 'say which cam the checking pushrod was read on (pushrod and preload)' });
+  });
+
+  it('summarizes a run as Pass only when every check ran, and says how many ran otherwise, with who ran it', async () => {
+    const { tech, jobId, sheetId } = await sheetOnJob();
+    const empty = (await tech.post(`/api/sheets/${sheetId}/fit-checks`)).body.run;
+    expect(empty.summary).toMatchObject({ status: 'incomplete', ran: 0, complete: false, label: 'No checks run yet' });
+    expect(empty.createdByName).toBe('A tech');
+    await tech.post(`/api/jobs/${jobId}/measurements`, {
+      kind: 'degree',
+      data: { stopBefore: 20, stopAfter: 24, checkingLift: 0.05, openingAngle: 10, closingAngle: 210 },
+    });
+    const partial = (await tech.post(`/api/sheets/${sheetId}/fit-checks`)).body.run;
+    // One degreeing check ran (and passed); PTV ×2, springs ×2, preload and lobes did not: 1 of 7.
+    expect(partial.results.status).toBe('pass');
+    expect(partial.summary).toMatchObject({ status: 'incomplete', ran: 1, total: 7, label: '1 of 7 checks run' });
+    const listed = (await tech.get(`/api/sheets/${sheetId}/fit-checks`)).body.runs;
+    expect(listed[0]).toMatchObject({ id: partial.id, summary: partial.summary, createdByName: 'A tech' });
+  });
 });

@@ -355,3 +355,37 @@ describe('the approval binds the whole offer (finding 4)', () => {
     }
   });
 });
+
+describe('the owner page after the fit checks ran on the engine (issue 14, finding 7)', () => {
+  it('shows the latest run of the offered revision, when and by whom, and no longer says PTV is still to be measured', async () => {
+    const s = await sharedJob('Checked shop');
+    const o = owner();
+    const before = (await o.get(`/api/share/${s.token}`)).body.view as OwnerView;
+    const option = before.options[0]!;
+    expect(option.checkedOnEngine).toBeNull();
+    expect(option.fit).toContain('Still to be measured on the engine');
+    expect(option.fit).toContain('clearance to the piston');
+    expect(option.summary.complete).toBe(false);
+    expect(option.summary.label).toMatch(/^(Fail · |Watch · )?\d+ of \d+ checks run$/);
+
+    // The tech measures a PTV baseline too tight for the towing lift and runs the checks: PTV fails.
+    const tech = await memberWithRole(t, s.shopId, 'tech');
+    const tight = [{ crankAngle: -10, clearance: 0.06, valveLift: 0.046 }];
+    expect(
+      (await tech.post(`/api/jobs/${s.jobId}/measurements`, { kind: 'ptv-baseline', data: { method: 'clay', intake: tight, exhaust: tight } })).status,
+    ).toBe(201);
+    const run = (await tech.post(`/api/sheets/${s.sheet.id}/fit-checks`)).body.run;
+    expect(run.results.checks.find((c: { id: string }) => c.id === 'ptvIntake').status).toBe('fail');
+
+    const after = ((await o.get(`/api/share/${s.token}`)).body.view as OwnerView).options[0]!;
+    expect(after.checkedOnEngine).toEqual({ revisionNumber: run.revisionNumber, at: run.createdAt, by: 'A tech' });
+    expect(after.summary).toEqual(run.summary);
+    expect(after.summary.status).toBe('fail');
+    expect(after.summary.label).toMatch(/^Fail · \d+ of \d+ checks run$/);
+    expect(after.fit).toMatch(/^The shop's fit checks on the engine flag intake valve clearance to the piston/);
+    expect(after.fit).not.toMatch(/Still to be measured on the engine: .*clearance to the piston/);
+    // The builder's desk and the owner page read the same run.
+    const runs = (await s.builder.get(`/api/sheets/${s.sheet.id}/fit-checks`)).body.runs;
+    expect(runs[0].summary).toEqual(after.summary);
+  });
+});

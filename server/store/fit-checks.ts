@@ -2,6 +2,7 @@ import { and, desc, eq, sql } from 'drizzle-orm';
 
 import type { Db } from '@/db';
 import { schema } from '@/db';
+import { summarizeChecks } from '@/calc/checks';
 import type { FitCheckRun } from '@/shared/measurements';
 
 import { notFound } from '../http';
@@ -14,7 +15,7 @@ import { loadShopLimits } from './shop-limits';
 type RunRow = typeof schema.fitCheckRuns.$inferSelect;
 type RevisionRow = typeof schema.sheetRevisions.$inferSelect;
 
-function toRun(row: RunRow, revisionNumber: number): FitCheckRun {
+export function toRun(row: RunRow, revisionNumber: number, createdByName: string | null): FitCheckRun {
   return {
     id: row.id,
     sheetId: row.sheetId,
@@ -22,8 +23,23 @@ function toRun(row: RunRow, revisionNumber: number): FitCheckRun {
     revisionNumber,
     createdAt: row.createdAt.toISOString(),
     createdBy: row.createdBy,
+    createdByName,
+    summary: summarizeChecks(row.results),
     results: row.results,
   };
+}
+
+/** The newest run against a revision, with who ran it; null when it has not been checked. */
+export function latestRunOfRevision(db: Reader, shopId: string, revisionId: string): FitCheckRun | null {
+  const row = db
+    .select({ run: schema.fitCheckRuns, number: schema.sheetRevisions.number, name: schema.users.name })
+    .from(schema.fitCheckRuns)
+    .innerJoin(schema.sheetRevisions, eq(schema.sheetRevisions.id, schema.fitCheckRuns.revisionId))
+    .leftJoin(schema.users, eq(schema.users.id, schema.fitCheckRuns.createdBy))
+    .where(and(eq(schema.fitCheckRuns.revisionId, revisionId), eq(schema.fitCheckRuns.shopId, shopId)))
+    .orderBy(desc(schema.fitCheckRuns.createdAt), desc(sql`${schema.fitCheckRuns}.rowid`))
+    .get();
+  return row ? toRun(row.run, row.number, row.name) : null;
 }
 
 function requireSheet(db: Reader, shopId: string, id: string) {
@@ -40,13 +56,14 @@ function requireSheet(db: Reader, shopId: string, id: string) {
 export function sheetFitChecks(db: Reader, shopId: string, sheetId: string): FitCheckRun[] {
   const sheet = requireSheet(db, shopId, sheetId);
   return db
-    .select({ run: schema.fitCheckRuns, number: schema.sheetRevisions.number })
+    .select({ run: schema.fitCheckRuns, number: schema.sheetRevisions.number, name: schema.users.name })
     .from(schema.fitCheckRuns)
     .innerJoin(schema.sheetRevisions, eq(schema.sheetRevisions.id, schema.fitCheckRuns.revisionId))
+    .leftJoin(schema.users, eq(schema.users.id, schema.fitCheckRuns.createdBy))
     .where(and(eq(schema.fitCheckRuns.sheetId, sheet.id), eq(schema.fitCheckRuns.shopId, shopId)))
     .orderBy(desc(schema.fitCheckRuns.createdAt), desc(sql`${schema.fitCheckRuns}.rowid`))
     .all()
-    .map((r) => toRun(r.run, r.number));
+    .map((r) => toRun(r.run, r.number, r.name));
 }
 
 /** What a run is assembled from: the sheet's latest revision, the job's newest measurement of each kind, the shop's limits. */
@@ -78,6 +95,7 @@ export function recordFitCheck(db: Db, who: Actor, sheetId: string, assemble: (i
       entityId: row.id,
       detail: { sheetId: sheet.id, revision: revision.number, status: results.status },
     });
-    return toRun(row, revision.number);
+    const name = tx.select({ name: schema.users.name }).from(schema.users).where(eq(schema.users.id, who.userId)).get()?.name ?? null;
+    return toRun(row, revision.number, name);
   });
 }

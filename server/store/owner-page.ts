@@ -3,6 +3,7 @@ import type { z } from 'zod';
 
 import { compareProfilesForOwner, OWNER_CAUTIONS, ownerFitText } from '@/calc/compare';
 import type { ProfileAnalysis } from '@/calc/analysis';
+import { summarizeChecks } from '@/calc/checks';
 import type { Db } from '@/db';
 import { schema } from '@/db';
 import { analyzeRecords } from '@/shared/analysis';
@@ -27,6 +28,7 @@ import type { Actor, AfterWrite, Reader } from './db';
 import { requireJob } from './jobs';
 import { jobPayments, paidJobIds, toPayment } from './payments';
 import { shareablePhotos } from './photos';
+import { latestRunOfRevision } from './fit-checks';
 import { jobLinks, linkById, linkOpen, toShareLink, type LinkRow } from './share-links';
 import { loadShopLimits } from './shop-limits';
 
@@ -171,6 +173,8 @@ export function loadOwnerView(
   const reference = rows[0];
   const options = rows.map((r, i): OwnerViewOption => {
     const a = analyses[i]!;
+    // What the tech measured on the engine, once the fit checks ran against this revision, stands over the numbers alone.
+    const run = latestRunOfRevision(db, link.shopId, r.option.revisionId);
     return {
       id: r.option.id,
       title: r.option.title,
@@ -182,11 +186,13 @@ export function loadOwnerView(
       offer: optionOffer(r.option, terms.currency),
       revisionNumber: r.revision.number,
       status: a.status,
+      summary: run ? run.summary : summarizeChecks(a),
+      checkedOnEngine: run ? { revisionNumber: run.revisionNumber, at: run.createdAt, by: run.createdByName } : null,
       comparison:
         i === 0 || !reference
           ? null
           : compareProfilesForOwner({ current: analyses[0]!, candidate: a, currentName: reference.option.title, candidateName: r.option.title }),
-      fit: ownerFitText(a, r.option.title),
+      fit: run ? ownerFitText(run.results, r.option.title, 'engine') : ownerFitText(a, r.option.title),
       core: ownerCoreText(r.revision.results.feasibility, r.option.title),
       figures: figures(a),
     };

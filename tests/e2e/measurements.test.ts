@@ -66,6 +66,17 @@ async function fill(page: Page, values: Record<string, string>) {
   for (const [testId, value] of Object.entries(values)) await shown(page, testId).fill(value);
 }
 
+/** From the measurements screen: opens the fit checks and runs them, waiting for the new run in the history. */
+async function runFitChecks(page: Page) {
+  await shown(page, 'open-fit-checks').click();
+  await shown(page, 'fit-checks-screen').waitFor();
+  await shown(page, 'sheet-choice').waitFor();
+  const runs = page.locator('[data-testid="fit-check-history"]:visible [role="listitem"]');
+  const before = await runs.count();
+  await shown(page, 'run-fit-checks').click();
+  await expect.poll(() => runs.count(), { timeout: 15_000 }).toBe(before + 1);
+}
+
 describe.each(Object.keys(viewports) as ViewportName[])('the tech on the bench at %s width', (viewport) => {
   it('uploads lobes, records PTV and springs, runs fit checks, adds a photo and ticks the checklist', async () => {
     const { page, errors, close } = await openPage(browser, viewport);
@@ -136,7 +147,8 @@ describe.each(Object.keys(viewports) as ViewportName[])('the tech on the bench a
     await shown(page, 'springs-save').click();
     await shown(page, 'springs-saved').waitFor();
 
-    // Degree wheel: stops at 20° BTDC and 24° ATDC put true TDC at 2° ATDC; flanks at 4° and 216° give ICL 110° (common practice, no source).
+    // Degree wheel: stops at 20° BTDC and 24° ATDC put true TDC at 2° ATDC; flanks at 4° and 216° on the wheel are 2° and 214°
+    // from true TDC, so the ICL is 108° (piston-stop method, common practice, no source).
     await fill(page, {
       'degree-stopBefore': '20',
       'degree-stopAfter': '24',
@@ -144,19 +156,16 @@ describe.each(Object.keys(viewports) as ViewportName[])('the tech on the bench a
       'degree-closingAngle': '216',
     });
     expect(await shown(page, 'degree-true-tdc').textContent()).toContain('2.0° ATDC');
-    expect(await shown(page, 'degree-icl').textContent()).toBe('110.0° ATDC');
+    expect(await shown(page, 'degree-icl').textContent()).toBe('108.0° ATDC');
+    const liveCorrection = (await shown(page, 'degree-compare').textContent()) ?? '';
+    expect(liveCorrection).toMatch(/: (no correction needed|(advance|retard) the cam \d+\.\d°)\.$/);
     await shown(page, 'degree-save').click();
     await shown(page, 'degree-saved').waitFor();
     await expectAccessible(page);
     await screenshot(page, `measurements-${viewport}`);
 
     // Fit checks against the sheet's current revision.
-    await shown(page, 'open-fit-checks').click();
-    await shown(page, 'fit-checks-screen').waitFor();
-    await shown(page, 'sheet-choice').waitFor();
-    const historyBefore = await page.locator('[data-testid="fit-check-history"]:visible [role="listitem"]').count();
-    await shown(page, 'run-fit-checks').click();
-    await expect.poll(() => page.locator('[data-testid="fit-check-history"]:visible [role="listitem"]').count(), { timeout: 15_000 }).toBe(historyBefore + 1);
+    await runFitChecks(page);
     expect(await shown(page, 'fit-check-status').textContent()).toMatch(/^(Pass|Watch|Fail)$/);
     const ptvText = (await shown(page, 'fit-ptv').textContent()) ?? '';
     expect(ptvText).toMatch(/(Pass|Watch|Fail)Piston-to-valve, intake/);
@@ -170,8 +179,36 @@ describe.each(Object.keys(viewports) as ViewportName[])('the tech on the bench a
     expect(await shown(page, 'fit-degree').textContent()).toMatch(/(Pass|Watch|Fail)Cam degreed in/);
     expect(await shown(page, 'caution-ptv').textContent()).toContain('Predictions do not replace measurement');
     expect(await shown(page, 'caution-springs').textContent()).toContain('service manual');
+    // One ICL and one correction: the fit check shows the measurements screen's own words (issue 14, finding 4).
+    expect(await shown(page, 'fit-degree-icl').textContent()).toBe('108.0° ATDC');
+    expect(await shown(page, 'fit-degree-detail').textContent()).toContain(liveCorrection);
+    // The pushrod advice from the checking pushrod, the target preload and the base-circle cut (finding 5).
+    expect(await shown(page, 'fit-pushrod-advice').textContent()).toMatch(
+      /^Pushrods \d\.\d{3} in long for 0\.045 in preload: the checking pushrod's 7\.352 in at zero lash/,
+    );
     await expectAccessible(page);
     await screenshot(page, `fit-checks-${viewport}`);
+
+    // A blank old-cam valve lift is not measured: PTV intake does not run, names the reading, and the summary is not a verdict (findings 6, 7).
+    await shown(page, 'open-measurements').click();
+    await shown(page, 'measurements-screen').waitFor();
+    const lift = shown(page, 'ptv-intake-1-valveLift');
+    const savedLift = await lift.inputValue();
+    expect(savedLift).not.toBe('');
+    await lift.fill('');
+    await shown(page, 'ptv-save').click();
+    await shown(page, 'ptv-saved').waitFor();
+    await runFitChecks(page);
+    await expect
+      .poll(() => shown(page, 'fit-ptv').textContent())
+      .toContain("Not runPiston-to-valve, intake (intake)not measured: the old cam's valve lift for intake reading 2");
+    expect(await shown(page, 'fit-check-status').textContent()).toMatch(/^((Fail|Watch) · )?\d+ of \d+ checks run$/);
+    await screenshot(page, `fit-checks-not-run-${viewport}`);
+    await shown(page, 'open-measurements').click();
+    await shown(page, 'measurements-screen').waitFor();
+    await shown(page, 'ptv-intake-1-valveLift').fill(savedLift);
+    await shown(page, 'ptv-save').click();
+    await shown(page, 'ptv-saved').waitFor();
 
     // A photo of the failed lifter on the job's findings.
     await page.goto(`${baseUrl()}/jobs/${jobId}`);

@@ -1,7 +1,7 @@
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import { baseUrl, demo, expectAccessible, launch, openPage, screenshot, shown, signIn } from './browser';
+import { baseUrl, demo, expectAccessible, launch, openPage, screenshot, shown, signIn, viewports, type ViewportName } from './browser';
 
 const jobPath = '/jobs/demo-job-flatbed-cam';
 
@@ -166,4 +166,47 @@ describe('owner summary, approval and deposit', () => {
     expect(errors).toEqual([]);
     await close();
   });
+
+  it.each(Object.keys(viewports) as ViewportName[])(
+    'at %s width, the owner page shows the latest fit-check run of the towing revision: the same summary as the fit checks, when it ran and who ran it',
+    async (viewport) => {
+      const tech = await openPage(browser, viewport);
+      const owner = await openPage(browser, viewport);
+      const t = tech.page;
+      const o = owner.page;
+      await signIn(t, demo.tech);
+      await t.goto(`${baseUrl()}${jobPath}/fit-checks`);
+      await shown(t, 'fit-checks-screen').waitFor();
+      await shown(t, 'sheet-choice-demo-sheet-flatbed-towing').click();
+      await shown(t, 'run-fit-checks').click();
+      await expect.poll(() => shown(t, 'fit-results-by').textContent(), { timeout: 15_000 }).toContain('by Obie Lusk (demo tech)');
+      const status = (await shown(t, 'fit-check-status').textContent()) ?? '';
+      expect(status).toMatch(/^(Pass|Watch|Fail|((Fail|Watch) · )?\d+ of \d+ checks run)$/);
+      const revision = ((await shown(t, 'fit-results-by').textContent()) ?? '').match(/^Revision (\d+)/)?.[1];
+      expect(revision).toBeDefined();
+
+      // The builder makes a link for the owner (the API the desk's button calls).
+      const builder = await openPage(browser, viewport);
+      await signIn(builder.page, demo.builder);
+      const made = await builder.page.request.post(`${baseUrl()}/api/jobs/demo-job-flatbed-cam/share-links`, { data: {}, headers: { origin: baseUrl() } });
+      expect(made.status()).toBe(201);
+      const token = ((await made.json()) as { token: string }).token;
+      await builder.close();
+      await o.goto(`${baseUrl()}/share/${token}`);
+      await shown(o, 'owner-summary').waitFor();
+      expect(await shown(o, 'owner-option-demo-option-towing-status').textContent()).toBe(status);
+      const checked = (await shown(o, 'owner-option-demo-option-towing-checked').textContent()) ?? '';
+      expect(checked).toMatch(new RegExp(`^Checked on the engine against revision ${revision}, .+ by Obie Lusk \\(demo tech\\)$`));
+      expect(await shown(o, 'owner-option-demo-option-towing-fit').textContent()).toMatch(
+        /^The (shop's fit checks on the engine|Towing regrind \(demo\) cam passes the shop's fit checks on the engine)/,
+      );
+      expect(await o.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(viewports[viewport].width);
+      await expectAccessible(o);
+      await screenshot(o, `owner-checked-${viewport}`);
+      expect(tech.errors).toEqual([]);
+      expect(owner.errors).toEqual([]);
+      await tech.close();
+      await owner.close();
+    },
+  );
 });
