@@ -37,6 +37,7 @@ const pushrod = {
   targetPreload: 0.03,
   originalPreload: null,
   stockBaseCircle: 1.2,
+  checkedOn: 'old-cam',
 };
 
 describe('measurement drafts to the saved record', () => {
@@ -47,7 +48,7 @@ describe('measurement drafts to the saved record', () => {
   });
 
   it('saves a blank optional reading as null, never 0, and asks for a blank required one', () => {
-    let draft = measureDraftFrom(pushrodConfig, null);
+    let draft: MeasureDraft = { ...measureDraftFrom(pushrodConfig, null), checkedOn: 'reground-cam' };
     for (const [path, text] of [
       ['checkingLength', '7.8'],
       ['plungerTravel', '0.08'],
@@ -62,6 +63,8 @@ describe('measurement drafts to the saved record', () => {
     expect(saved?.originalPreload).not.toBe(0);
     const missing = resolve(pushrodConfig, type(pushrodConfig, draft, 'plungerTravel', ''));
     expect(missing).toEqual({ values: null, errors: { plungerTravel: 'Enter the lifter plunger travel' } });
+    const unsaid = resolve(pushrodConfig, { ...draft, checkedOn: '' });
+    expect(unsaid).toEqual({ values: null, errors: { checkedOn: 'Say which cam the checking pushrod was read on' } });
   });
 
   it('keeps a measured zero as zero, apart from a blank', () => {
