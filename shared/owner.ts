@@ -165,6 +165,11 @@ export type OwnerViewOption = {
   /** Checksum of the whole offer (shared/checksum.ts offerChecksum); the approval quotes it. */
   offer: string;
   revisionNumber: number;
+  /**
+   * Why the shop must offer this option again before it can be approved (its sheet has a newer revision, or its
+   * draft was edited after it was offered; optionStaleness in server/store/owner-page.ts), or null when it can be.
+   */
+  updating: string | null;
   /** Worst fit-check status worked out from the numbers. */
   status: CheckStatus;
   /**
@@ -201,3 +206,7 @@ export type OwnerView = {
   depositsOn: boolean;
   expiresAt: string;
 };
+
+/** What the owner reads about an option the shop has to offer again (OwnerViewOption.updating), on the page and in the 409. */
+export const ownerUpdatingText = (reason: string) =>
+  `The shop is still updating this option (${reason}), so it cannot be approved yet. Ask the shop to offer the current revision, then reload this page.`;

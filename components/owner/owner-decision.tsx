@@ -8,7 +8,7 @@ import { ApiError } from '@/lib/api';
 import { openPaymentPage } from '@/lib/payment-page';
 import { useStartDepositMutation } from '@/hooks/use-deposits';
 import { invalidateOwnerView, useApproveMutation } from '@/hooks/use-owner-page';
-import type { OwnerView, OwnerViewOption } from '@/shared/owner';
+import { ownerUpdatingText, type OwnerView, type OwnerViewOption } from '@/shared/owner';
 
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/text-field';
@@ -89,6 +89,11 @@ export function OwnerDecision({ base, view, chosen }: { base: string; view: Owne
       ) : (
         <Text style={styles.body}>Choose one of the options above first.</Text>
       )}
+      {chosen?.updating ? (
+        <Text role="alert" style={styles.error} testID="owner-option-updating">
+          {ownerUpdatingText(chosen.updating)}
+        </Text>
+      ) : null}
       <TextField label="Your name" value={name} onChangeText={setName} autoComplete="name" error={fields.name} testID="approver-name" />
       <Pressable
         role="checkbox"
@@ -109,7 +114,7 @@ export function OwnerDecision({ base, view, chosen }: { base: string; view: Owne
       <Button
         label="Approve"
         busy={approve.isPending}
-        disabled={!chosen || offerChanged}
+        disabled={!chosen || offerChanged || chosen.updating !== null}
         onPress={() => chosen && approve.mutate({ optionId: chosen.id, checksum: chosen.checksum, offer: chosen.offer, name, agree: agree as true })}
         testID="approve"
       />

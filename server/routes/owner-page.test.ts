@@ -221,6 +221,53 @@ describe('approval', () => {
   });
 });
 
+describe('an approval names the revision the sheet holds (one job, one truth, finding 2)', () => {
+  const approve = (o: ReturnType<typeof owner>, token: string, read: OwnerView['options'][number]) =>
+    o.post(`/api/share/${token}/approve`, { optionId: read.id, checksum: read.checksum, offer: read.offer, name: 'Test Owner', agree: true });
+
+  it('refuses an option whose sheet has a newer revision, even read fresh, and takes it once the builder offers the newest', async () => {
+    const s = await sharedJob('Newer revision shop');
+    const o = owner();
+    const edited = await s.builder.patch(`/api/sheets/${s.sheet.id}`, { version: s.sheet.version, note: 'Revision 2 for the grinder', newRevision: true });
+    expect(edited.status).toBe(200);
+    // The owner reloads: the option still offers revision 1, an earlier draft nobody will grind.
+    const read = ((await o.get(`/api/share/${s.token}`)).body.view as OwnerView).options[0]!;
+    expect(read.revisionNumber).toBe(1);
+    expect(read.updating).toContain('revision 2');
+    const refused = await approve(o, s.token, read);
+    expect(refused.status).toBe(409);
+    expect(refused.body.error.code).toBe('option_stale');
+    expect(refused.body.error.message).toContain('revision 2');
+    expect(t.db.select().from(schema.ownerApprovals).where(eq(schema.ownerApprovals.jobId, s.jobId)).get()).toBeUndefined();
+
+    const desk = (await s.builder.get(`/api/jobs/${s.jobId}/owner`)).body.desk;
+    await s.builder.patch(`/api/owner-options/${read.id}`, { version: desk.options[0].version, refreshRevision: true });
+    const fresh = ((await o.get(`/api/share/${s.token}`)).body.view as OwnerView).options[0]!;
+    expect(fresh.revisionNumber).toBe(2);
+    expect(fresh.updating).toBeNull();
+    const ok = await approve(o, s.token, fresh);
+    expect(ok.status).toBe(201);
+    const latest = t.db.select().from(schema.sheetRevisions).where(eq(schema.sheetRevisions.sheetId, s.sheet.id)).all().at(-1)!;
+    // The stored approval names the sheet's latest revision by id, with that revision's own checksum.
+    expect(ok.body.approval).toMatchObject({ revisionId: latest.id, checksum: revisionChecksum(latest) });
+  });
+
+  it('refuses a draft edited in place after the option was offered, and the desk flags it', async () => {
+    const s = await sharedJob('Edited draft shop');
+    const o = owner();
+    const edited = await s.builder.patch(`/api/sheets/${s.sheet.id}`, { version: s.sheet.version, note: 'Edited in the same draft' });
+    expect(edited.status).toBe(200);
+    expect(edited.body.sheet.current.number).toBe(1);
+    const desk = (await s.builder.get(`/api/jobs/${s.jobId}/owner`)).body.desk;
+    expect(desk.options[0].stale).toBe(true);
+    const read = ((await o.get(`/api/share/${s.token}`)).body.view as OwnerView).options[0]!;
+    const refused = await approve(o, s.token, read);
+    expect(refused.status).toBe(409);
+    expect(refused.body.error.code).toBe('option_stale');
+    expect(refused.body.error.message).toContain('edited');
+  });
+});
+
 describe('an owner with an account', () => {
   it('finds the summary sent to their e-mail, approves it signed in, and sees nothing else', async () => {
     const s = await sharedJob('Account owner shop');

@@ -20,6 +20,7 @@ import type {
   OwnerView,
   OwnerViewOption,
 } from '@/shared/owner';
+import { ownerUpdatingText } from '@/shared/owner';
 
 import { conflict, HttpError, notFound } from '../http';
 import { toPage, type PageRequest } from '../paging';
@@ -80,6 +81,18 @@ function optionRows(db: Reader, shopId: string, jobId: string) {
     .all();
 }
 
+/**
+ * Why an option no longer offers what its sheet holds, or null while it does: a later revision of its sheet was
+ * written, or its draft was edited after the option was bound to it (the content no longer has the option's
+ * checksum). The builder's desk flags it and the owner's approval is refused, so an approval always names the
+ * revision and checksum the sheet has.
+ */
+export function optionStaleness(option: Pick<OptionRow, 'checksum'>, revision: RevisionRow, latestNumber: number): string | null {
+  if (latestNumber > revision.number) return `the sheet has revision ${latestNumber}, newer than revision ${revision.number} this option offers`;
+  if (revisionChecksum(revision) !== option.checksum) return `revision ${revision.number} was edited after this option was offered`;
+  return null;
+}
+
 function toOption(row: OptionRow, revision: RevisionRow, latest: Map<string, number>): OwnerOption {
   return {
     id: row.id,
@@ -93,7 +106,7 @@ function toOption(row: OptionRow, revision: RevisionRow, latest: Map<string, num
     depositCents: row.depositCents,
     leadTimeDays: row.leadTimeDays,
     version: row.version,
-    stale: (latest.get(row.sheetId) ?? revision.number) > revision.number,
+    stale: optionStaleness(row, revision, latest.get(row.sheetId) ?? revision.number) !== null,
   };
 }
 
@@ -169,6 +182,7 @@ export function loadOwnerView(
   if (!job) throw new Error(`Share link points at a missing job ${link.jobId}`);
   const limits = loadShopLimits(db, link.shopId).limits;
   const rows = optionRows(db, link.shopId, link.jobId);
+  const latest = latestRevisionNumbers(db, link.jobId);
   const analyses = rows.map((r) => analyzeRecords(r.revision.engine, r.revision.spec, { limits }));
   const reference = rows[0];
   const options = rows.map((r, i): OwnerViewOption => {
@@ -185,6 +199,7 @@ export function loadOwnerView(
       checksum: r.option.checksum,
       offer: optionOffer(r.option, terms.currency),
       revisionNumber: r.revision.number,
+      updating: optionStaleness(r.option, r.revision, latest.get(r.option.sheetId) ?? r.revision.number),
       status: a.status,
       summary: run ? run.summary : summarizeChecks(a),
       checkedOnEngine: run ? { revisionNumber: run.revisionNumber, at: run.createdAt, by: run.createdByName } : null,
@@ -384,6 +399,18 @@ export function approveOption(
     const offer = optionOffer(option, currency);
     if (option.checksum !== body.checksum || offer !== body.offer) {
       throw new HttpError(409, 'offer_changed', 'The shop changed this option after you opened the page: reload the page and read it again before approving');
+    }
+    // The sheet moved on under the option (a newer revision, or its draft edited): approving would name a revision
+    // and checksum the sheet no longer holds, so the shop has to offer the current one first.
+    const revision = tx.select().from(schema.sheetRevisions).where(eq(schema.sheetRevisions.id, option.revisionId)).get();
+    const latest = tx
+      .select({ number: max(schema.sheetRevisions.number) })
+      .from(schema.sheetRevisions)
+      .where(eq(schema.sheetRevisions.sheetId, option.sheetId))
+      .get();
+    const stale = revision ? optionStaleness(option, revision, latest?.number ?? revision.number) : 'its revision is gone';
+    if (stale) {
+      throw new HttpError(409, 'option_stale', ownerUpdatingText(stale));
     }
     const row = tx
       .insert(schema.ownerApprovals)

@@ -26,6 +26,16 @@ describe('owner summary, approval and deposit', () => {
     expect(await shown(b, 'desk-option-0').textContent()).toContain('Stock-spec regrind (demo)');
     expect(await shown(b, 'desk-option-1').textContent()).toContain('Towing regrind (demo)');
     expect(await shown(b, 'desk-approval').textContent()).toBe('Not approved yet.');
+    // Browser tests share one server: where an earlier one saved a newer revision of a sheet, the desk flags the option
+    // and the builder offers the newest first (an owner cannot approve a revision the sheet has moved past).
+    for (const i of [0, 1]) {
+      const refresh = shown(b, `desk-option-refresh-${i}`);
+      if (await refresh.isVisible()) {
+        expect(await shown(b, `desk-option-${i}`).textContent()).toContain('The sheet has a newer revision');
+        await refresh.click();
+        await refresh.waitFor({ state: 'detached' });
+      }
+    }
     // A third option, with a deposit above its price refused first.
     await shown(b, 'add-option-sheet-demo-sheet-flatbed-stock').click();
     await shown(b, 'add-option-title').fill('Stock-spec, quick turnaround (demo)');
