@@ -124,4 +124,10 @@ export type Sheet = {
   current: Revision;
 };
 
-export type SheetWithHistory = Sheet & { revisions: Revision[] };
+export type SheetWithHistory = Sheet & {
+  revisions: Revision[];
+  /** The revision issuing sends to a grinder: the owner's approved one once there is an approval, else the latest draft; null when none can go. */
+  toIssue: { number: number; approved: boolean } | null;
+  /** Why no revision can be issued (toIssue is null), in words for the builder. */
+  issueBlocked: string | null;
+};

@@ -17,30 +17,32 @@ import { SupersededChip } from '@/components/order/superseded';
 import { EmptyState, ErrorNotice, Pending } from '@/components/ui/query-state';
 import { Section } from '@/components/ui/screen';
 
-/** Sends the sheet's current draft revision to one grinding shop, after a confirm step. */
+/** Sends the revision the server names (the owner's approved one, else the latest draft) to one grinding shop, after a confirm step. */
 export function IssuePanel({ sheet }: { sheet: SheetWithHistory }) {
-  const current = sheet.current;
-  const draft = current.state === 'draft';
-  const shops = useGrindingShopsQuery(draft);
+  const target = sheet.toIssue;
+  const shops = useGrindingShopsQuery(target !== null);
   const issue = useIssueSheetMutation(sheet.id);
   const [shopId, setShopId] = useState('');
   const [note, setNote] = useState('');
   const [confirming, setConfirming] = useState(false);
 
-  if (!draft) {
+  if (!target) {
     return (
       <Section title="Issue to a grinder">
         <Text style={styles.body} testID="issue-frozen">
-          Revision {current.number} is issued and frozen. To send changes, save a new note or values: that starts revision {current.number + 1} as a draft you
-          can issue.
+          {sheet.issueBlocked}
         </Text>
       </Section>
     );
   }
+  const current = { number: target.number };
   const chosen = shops.data?.find((s) => s.id === shopId);
   return (
     <Section title="Issue to a grinder">
-      <Text style={styles.meta}>Issuing freezes revision {current.number} for good. The grinder sees this revision only, never a draft.</Text>
+      <Text style={styles.meta} testID="issue-target">
+        {target.approved ? `The owner approved revision ${target.number}: that is the revision to send. ` : ''}Issuing freezes revision {target.number} for
+        good. The grinder sees this revision only, never a draft.
+      </Text>
       {shops.isPending ? <Pending label="Loading grinding shops…" /> : null}
       {shops.isError ? <ErrorNotice error={shops.error} onRetry={() => shops.refetch()} /> : null}
       {shops.data && shops.data.length === 0 ? <EmptyState title="No grinding shops on Lobewright yet" /> : null}

@@ -252,6 +252,55 @@ describe('an approval names the revision the sheet holds (one job, one truth, fi
     expect(ok.body.approval).toMatchObject({ revisionId: latest.id, checksum: revisionChecksum(latest) });
   });
 
+  it('keeps the approved draft as approved: a later save starts the next revision, and issuing sends the approved one with its checksum', async () => {
+    const s = await sharedJob('Approved draft shop');
+    const grinding = await makeShop(t, 'grinding', 'Approved draft grinding');
+    const o = owner();
+    const read = ((await o.get(`/api/share/${s.token}`)).body.view as OwnerView).options[0]!;
+    const ok = await approve(o, s.token, read);
+    expect(ok.status).toBe(201);
+    const approvedRow = t.db.select().from(schema.sheetRevisions).where(eq(schema.sheetRevisions.id, ok.body.approval.revisionId)).get()!;
+    expect(approvedRow.state).toBe('draft');
+
+    // The builder edits after the approval: revision 2 is written, the approved revision 1 stays word for word.
+    const sheet = (await s.builder.get(`/api/sheets/${s.sheet.id}`)).body.sheet;
+    expect(sheet.toIssue).toEqual({ number: 1, approved: true });
+    const saved = await s.builder.patch(`/api/sheets/${s.sheet.id}`, { version: sheet.version, note: 'A later idea, not approved' });
+    expect(saved.status).toBe(200);
+    expect(saved.body.sheet.current.number).toBe(2);
+    expect(saved.body.sheet.toIssue).toEqual({ number: 1, approved: true });
+    const after = t.db.select().from(schema.sheetRevisions).where(eq(schema.sheetRevisions.id, approvedRow.id)).get()!;
+    expect(after).toEqual(approvedRow);
+    expect(revisionChecksum(after)).toBe(ok.body.approval.checksum);
+
+    // Issuing sends revision 1, the approved one, not the newer draft: the order and the approval name one revision and checksum.
+    const issued = await s.builder.post(`/api/sheets/${s.sheet.id}/issue`, { version: saved.body.sheet.version, grinderShopId: grinding.shopId });
+    expect(issued.status).toBe(201);
+    expect(issued.body.order).toMatchObject({ revisionId: ok.body.approval.revisionId, revisionNumber: 1, checksum: ok.body.approval.checksum });
+    const next = (await s.builder.get(`/api/sheets/${s.sheet.id}`)).body.sheet;
+    expect(next.toIssue).toBeNull();
+    expect(next.issueBlocked).toMatch(/the one the owner approved, is already issued/);
+    const again = await s.builder.post(`/api/sheets/${s.sheet.id}/issue`, { version: next.version, grinderShopId: grinding.shopId });
+    expect(again.status).toBe(409);
+  });
+
+  it('refuses to issue a sheet the owner did not approve', async () => {
+    const s = await sharedJob('Other sheet shop');
+    const grinding = await makeShop(t, 'grinding', 'Other sheet grinding');
+    // One sheet per option: the second option is its own profile with its own sheet.
+    const second = await s.builder.post(`/api/jobs/${s.jobId}/profiles`, { label: 'Second', spec: s.sheet.current.spec });
+    const otherSheet = (await s.builder.post(`/api/jobs/${s.jobId}/sheets`, { title: 'Second option', profileId: second.body.profile.id })).body.sheet;
+    const o = owner();
+    const read = ((await o.get(`/api/share/${s.token}`)).body.view as OwnerView).options[0]!;
+    expect((await approve(o, s.token, read)).status).toBe(201);
+    const sheet = (await s.builder.get(`/api/sheets/${otherSheet.id}`)).body.sheet;
+    expect(sheet.toIssue).toBeNull();
+    expect(sheet.issueBlocked).toMatch(/owner approved another option/);
+    const res = await s.builder.post(`/api/sheets/${otherSheet.id}/issue`, { version: sheet.version, grinderShopId: grinding.shopId });
+    expect(res.status).toBe(409);
+    expect(t.db.select().from(schema.grindOrders).where(eq(schema.grindOrders.sheetId, otherSheet.id)).all()).toEqual([]);
+  });
+
   it('refuses a draft edited in place after the option was offered, and the desk flags it', async () => {
     const s = await sharedJob('Edited draft shop');
     const o = owner();

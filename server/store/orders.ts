@@ -24,7 +24,7 @@ import { conflict, forbidden, HttpError, notFound } from '../http';
 import type { PageRequest } from '../paging';
 import { audit } from './audit';
 import type { Actor, AfterWrite, Reader } from './db';
-import { latestRevisionRow, revisionWithSupersession } from './sheets';
+import { approvedRevisionId, issueTarget, revisionWithSupersession } from './sheets';
 
 type Side = 'builder' | 'grinder';
 
@@ -222,7 +222,7 @@ export function incomingRows(db: Reader, grinderShopId: string, page: PageReques
 }
 
 /**
- * Issues the sheet's latest draft revision to a grinding shop: one UPDATE flips it to issued, and
+ * Issues the sheet's revision to send (issueTarget: the approved one, else the latest draft) to a grinding shop: one UPDATE flips it to issued, and
  * the order starts at `sent` with the note as the thread's first message, audited on the sheet and the order.
  */
 export function issueSheet(db: Db, who: Actor, sheetId: string, body: z.output<typeof issueSchema>, after?: AfterWrite<Order>): Order {
@@ -233,10 +233,15 @@ export function issueSheet(db: Db, who: Actor, sheetId: string, body: z.output<t
       .where(and(eq(schema.specSheets.id, sheetId), eq(schema.specSheets.shopId, who.shopId)))
       .get();
     if (!sheet) throw notFound('Spec sheet');
-    const latest = latestRevisionRow(tx, sheetId);
-    if (latest.state !== 'draft') {
-      throw conflict(`Revision ${latest.number} is already issued — edit the sheet to start a new revision, then issue that.`);
-    }
+    const revisions = tx
+      .select()
+      .from(schema.sheetRevisions)
+      .where(eq(schema.sheetRevisions.sheetId, sheetId))
+      .orderBy(asc(schema.sheetRevisions.number))
+      .all();
+    const target = issueTarget(revisions, approvedRevisionId(tx, sheet.jobId));
+    if ('blocked' in target) throw conflict(target.blocked);
+    const revision = target.row;
     if (sheet.version !== body.version) {
       throw conflict(
         `Someone saved this spec sheet after you opened it (version ${sheet.version}, yours ${body.version}). Reload and check the revision before you issue it.`,
@@ -257,7 +262,7 @@ export function issueSheet(db: Db, who: Actor, sheetId: string, body: z.output<t
     const issued = tx
       .update(schema.sheetRevisions)
       .set({ state: 'issued', issuedAt, issuedToShopId: grinder.id })
-      .where(and(eq(schema.sheetRevisions.id, latest.id), eq(schema.sheetRevisions.state, 'draft')))
+      .where(and(eq(schema.sheetRevisions.id, revision.id), eq(schema.sheetRevisions.state, 'draft')))
       .returning()
       .get();
     if (!issued) throw conflict('This revision was issued while you were sending it. Reload to see it.');

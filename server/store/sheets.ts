@@ -87,11 +87,44 @@ function toSheet(row: SheetRow, current: RevisionRow): Sheet {
   };
 }
 
-function withHistory(row: SheetRow, revisions: RevisionRow[]): SheetWithHistory {
+/** The revision the owner approved on this job (the approval names one revision of one sheet), or null. */
+export function approvedRevisionId(db: Reader, jobId: string): string | null {
+  return db.select({ id: schema.ownerApprovals.revisionId }).from(schema.ownerApprovals).where(eq(schema.ownerApprovals.jobId, jobId)).get()?.id ?? null;
+}
+
+/**
+ * Which revision issuing the sheet sends to a grinder, or why none can go. Once the owner has approved, the firm
+ * order is the approved revision and no other: it goes even when a later draft was started after the approval, and a
+ * sheet the owner did not approve cannot be issued. Before any approval, it is the latest revision while a draft.
+ */
+export function issueTarget(revisions: readonly RevisionRow[], approvedId: string | null): { row: RevisionRow; approved: boolean } | { blocked: string } {
+  const latest = revisions[revisions.length - 1];
+  if (!latest) throw new Error('A sheet with no revisions');
+  if (approvedId) {
+    const approved = revisions.find((r) => r.id === approvedId);
+    if (!approved) return { blocked: 'The owner approved another option on this job, so this sheet is not the one to grind.' };
+    if (approved.state === 'issued') return { blocked: `Revision ${approved.number}, the one the owner approved, is already issued.` };
+    return { row: approved, approved: true };
+  }
+  if (latest.state === 'issued') {
+    return {
+      blocked: `Revision ${latest.number} is already issued — edit the sheet to start a new revision, then issue that. Saving a new note or values starts revision ${latest.number + 1} as a draft you can issue.`,
+    };
+  }
+  return { row: latest, approved: false };
+}
+
+function withHistory(db: Reader, row: SheetRow, revisions: RevisionRow[]): SheetWithHistory {
   const latest = revisions[revisions.length - 1];
   if (!latest) throw new Error(`Sheet ${row.id} has no revisions`);
   const superseded = supersessionsIn(revisions);
-  return { ...toSheet(row, latest), revisions: revisions.map((r) => toRevision(r, superseded.get(r.id) ?? null)) };
+  const target = issueTarget(revisions, approvedRevisionId(db, row.jobId));
+  return {
+    ...toSheet(row, latest),
+    revisions: revisions.map((r) => toRevision(r, superseded.get(r.id) ?? null)),
+    toIssue: 'row' in target ? { number: target.row.number, approved: target.approved } : null,
+    issueBlocked: 'blocked' in target ? target.blocked : null,
+  };
 }
 
 const sheetStatements = (db: Reader) =>
@@ -114,7 +147,7 @@ export function loadSheet(db: Reader, shopId: string, id: string): SheetWithHist
   const statements = sheetStatements(db);
   const sheet = statements.sheet.get({ id, shopId });
   if (!sheet) throw notFound('Spec sheet');
-  return withHistory(sheet, statements.revisions.all({ id }));
+  return withHistory(db, sheet, statements.revisions.all({ id }));
 }
 
 /** The sheet row in the shop, or a 404. */
@@ -248,7 +281,7 @@ export function createSheet(db: Db, who: Actor, jobId: string, body: z.output<ty
       entityId: created.id,
       detail: { jobId, profileId: profile.id, revision: 1, ...(body.spec ? { fields: ['spec'] } : {}) },
     });
-    return withHistory(created, [revision]);
+    return withHistory(tx, created, [revision]);
   });
 }
 
@@ -276,8 +309,8 @@ export function saveSheet(
     }
     const latest = latestRevisionRow(tx, id);
 
-    // An issued revision is the grinder's contract: never touch it, write the next one.
-    const startNext = latest.state === 'issued' || newRevision === true;
+    // An issued revision is the grinder's contract, and an approved one the owner's: never touch either, write the next one.
+    const startNext = latest.state === 'issued' || latest.id === approvedRevisionId(tx, current.jobId) || newRevision === true;
     const label = changes.label ?? latest.label;
     const spec = changes.spec ?? latest.spec;
     // A note belongs to its revision: the next one starts without it.
