@@ -272,6 +272,11 @@ describe('an approval names the revision the sheet holds (one job, one truth, fi
     const after = t.db.select().from(schema.sheetRevisions).where(eq(schema.sheetRevisions.id, approvedRow.id)).get()!;
     expect(after).toEqual(approvedRow);
     expect(revisionChecksum(after)).toBe(ok.body.approval.checksum);
+    // The engine is checked against the approved revision, the one to be ground, not the newer draft.
+    const tech = await memberWithRole(t, s.shopId, 'tech');
+    const run = await tech.post(`/api/sheets/${s.sheet.id}/fit-checks`);
+    expect(run.status).toBe(201);
+    expect(run.body.run).toMatchObject({ revisionId: approvedRow.id, revisionNumber: 1 });
 
     // Issuing sends revision 1, the approved one, not the newer draft: the order and the approval name one revision and checksum.
     const issued = await s.builder.post(`/api/sheets/${s.sheet.id}/issue`, { version: saved.body.sheet.version, grinderShopId: grinding.shopId });

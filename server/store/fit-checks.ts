@@ -9,7 +9,7 @@ import { notFound } from '../http';
 import { audit } from './audit';
 import type { Actor, Reader } from './db';
 import { latestMeasurements } from './measurements';
-import { latestRevisionRow } from './sheets';
+import { revisionToCheck } from './sheets';
 import { loadShopLimits } from './shop-limits';
 
 type RunRow = typeof schema.fitCheckRuns.$inferSelect;
@@ -66,7 +66,7 @@ export function sheetFitChecks(db: Reader, shopId: string, sheetId: string): Fit
     .map((r) => toRun(r.run, r.number, r.name));
 }
 
-/** What a run is assembled from: the sheet's latest revision, the job's newest measurement of each kind, the shop's limits. */
+/** What a run is assembled from: the revision to check (revisionToCheck: the approved one, else the latest), the job's newest measurement of each kind, the shop's limits. */
 export type FitCheckInputs = {
   revision: RevisionRow;
   measured: ReturnType<typeof latestMeasurements>;
@@ -80,7 +80,7 @@ export type FitCheckInputs = {
 export function recordFitCheck(db: Db, who: Actor, sheetId: string, assemble: (inputs: FitCheckInputs) => FitCheckRun['results']): FitCheckRun {
   return db.transaction((tx) => {
     const sheet = requireSheet(tx, who.shopId, sheetId);
-    const revision = latestRevisionRow(tx, sheet.id);
+    const revision = revisionToCheck(tx, sheet);
     const results = assemble({ revision, measured: latestMeasurements(tx, who.shopId, sheet.jobId), limits: loadShopLimits(tx, who.shopId).limits });
     const row = tx
       .insert(schema.fitCheckRuns)

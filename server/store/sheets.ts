@@ -92,6 +92,19 @@ export function approvedRevisionId(db: Reader, jobId: string): string | null {
   return db.select({ id: schema.ownerApprovals.revisionId }).from(schema.ownerApprovals).where(eq(schema.ownerApprovals.jobId, jobId)).get()?.id ?? null;
 }
 
+/** The revision the engine is checked against: the owner's approved one when it is on this sheet (the one ground), else the sheet's latest. */
+export function revisionToCheck(db: Reader, sheet: { id: string; jobId: string }): RevisionRow {
+  const approvedId = approvedRevisionId(db, sheet.jobId);
+  const approved = approvedId
+    ? db
+        .select()
+        .from(schema.sheetRevisions)
+        .where(and(eq(schema.sheetRevisions.id, approvedId), eq(schema.sheetRevisions.sheetId, sheet.id)))
+        .get()
+    : undefined;
+  return approved ?? latestRevisionRow(db, sheet.id);
+}
+
 /**
  * Which revision issuing the sheet sends to a grinder, or why none can go. Once the owner has approved, the firm
  * order is the approved revision and no other: it goes even when a later draft was started after the approval, and a
