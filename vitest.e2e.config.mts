@@ -1,6 +1,8 @@
 import { fileURLToPath } from 'node:url';
 import { defineConfig } from 'vitest/config';
 
+import BrowserTestOrder from './tests/e2e/sequencer';
+
 // Browser tests: one real server started as the README starts it, driven by Debian's Chromium.
 export default defineConfig({
   resolve: {
@@ -11,6 +13,7 @@ export default defineConfig({
     environment: 'node',
     globalSetup: ['tests/e2e/global-setup.ts'],
     fileParallelism: false,
+    sequence: { sequencer: BrowserTestOrder },
     testTimeout: 60_000,
     hookTimeout: 60_000,
   },
