@@ -63,10 +63,13 @@ export function analyzeForJob(
   }
 }
 
+/** Plotted margins are kept to a millionth of an inch, far below any grinder's or gauge's step; the minimum and its angle stay exact. */
+const MARGIN_DECIMALS = 1e6;
+
 const geometryJson = (g: LobeGeometry): FeasibilityResults['intake'] => ({
   pressureAngle: g.pressureAngle,
   curvature: g.curvature,
-  envelope: g.envelope ? { ...g.envelope, margin: Array.from(g.envelope.margin) } : null,
+  envelope: g.envelope ? { ...g.envelope, margin: Array.from(g.envelope.margin, (m) => Math.round(m * MARGIN_DECIMALS) / MARGIN_DECIMALS) } : null,
 });
 
 /** Checks that belong to "fits the core?" (the lifter side's preload among them). */

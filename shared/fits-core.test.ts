@@ -83,3 +83,21 @@ describe('the fits-the-core words', () => {
     });
   });
 });
+
+describe('the plotted margins a revision keeps', () => {
+  it('are calc’s margins to a millionth of an inch, with the minimum and its angle exactly as calc gave them', () => {
+    const analysis = analyzeProfile(DEMO_FEASIBILITY_INPUT);
+    const json = feasibilityResults(analysis, from);
+    for (const side of ['intake', 'exhaust'] as const) {
+      const calcEnvelope = analysis.feasibility[side].envelope!;
+      const kept = json[side].envelope!;
+      expect(kept.margin).toHaveLength(calcEnvelope.margin.length);
+      kept.margin.forEach((m, i) => {
+        expect(Math.abs(m - calcEnvelope.margin[i]!)).toBeLessThanOrEqual(5e-7);
+        expect(String(m)).toMatch(/^-?\d+(\.\d{1,6})?$/);
+      });
+      expect(kept.minMargin).toBe(calcEnvelope.minMargin);
+      expect(kept.minAt).toBe(calcEnvelope.minAt);
+    }
+  });
+});

@@ -89,7 +89,14 @@ function toSheet(row: SheetRow, current: RevisionRow): Sheet {
 
 /** The revision the owner approved on this job (the approval names one revision of one sheet), or null. */
 export function approvedRevisionId(db: Reader, jobId: string): string | null {
-  return db.select({ id: schema.ownerApprovals.revisionId }).from(schema.ownerApprovals).where(eq(schema.ownerApprovals.jobId, jobId)).get()?.id ?? null;
+  const statement = prepared(db, 'sheets.approved-revision', (d) =>
+    d
+      .select({ id: schema.ownerApprovals.revisionId })
+      .from(schema.ownerApprovals)
+      .where(eq(schema.ownerApprovals.jobId, sql.placeholder('jobId')))
+      .prepare(),
+  );
+  return statement.get({ jobId })?.id ?? null;
 }
 
 /** The revision the engine is checked against: the owner's approved one when it is on this sheet (the one ground), else the sheet's latest. */
