@@ -1,6 +1,6 @@
 import { useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 
-import type { Sheet, SheetCreate, SheetSave, SheetWithHistory } from '@/shared/sheets';
+import type { Revision, Sheet, SheetCreate, SheetSave, SheetWithHistory } from '@/shared/sheets';
 
 import { api, staleTimes } from '@/lib/api';
 
@@ -8,6 +8,7 @@ export const sheetKeys = {
   all: ['sheets'] as const,
   job: (jobId: string) => [...sheetKeys.all, 'job', jobId] as const,
   detail: (id: string) => [...sheetKeys.all, 'detail', id] as const,
+  revision: (id: string, number: number) => [...sheetKeys.all, 'detail', id, 'revision', number] as const,
 };
 
 export function useJobSheetsQuery(jobId: string) {
@@ -24,6 +25,16 @@ export function useSheetQuery(id: string, enabled = true) {
     staleTime: staleTimes.record,
     enabled,
     queryFn: async () => (await api<{ sheet: SheetWithHistory }>(`/api/sheets/${encodeURIComponent(id)}`)).sheet,
+  });
+}
+
+/** One earlier revision in full (the sheet's history carries no results); off while `number` is null. */
+export function useRevisionQuery(sheetId: string, number: number | null) {
+  return useQuery({
+    queryKey: sheetKeys.revision(sheetId, number ?? 0),
+    staleTime: staleTimes.record,
+    enabled: number !== null,
+    queryFn: async () => (await api<{ revision: Revision }>(`/api/sheets/${encodeURIComponent(sheetId)}/revisions/${number}`)).revision,
   });
 }
 

@@ -1,4 +1,4 @@
-import type { Revision } from '@/shared/sheets';
+import type { RevisionSummary } from '@/shared/sheets';
 
 export type RevisionChange = { path: string; label: string; from: string; to: string };
 
@@ -49,7 +49,7 @@ function flatten(value: unknown, prefix: string, out: Map<string, string>) {
 }
 
 /** What a builder entered that differs between two revisions: profile values, engine snapshot, name, note and core notes. */
-export function diffRevisions(a: Revision, b: Revision): RevisionChange[] {
+export function diffRevisions(a: RevisionSummary, b: RevisionSummary): RevisionChange[] {
   const left = new Map<string, string>();
   const right = new Map<string, string>();
   for (const [map, r] of [

@@ -124,10 +124,20 @@ export type Sheet = {
   current: Revision;
 };
 
+/**
+ * A revision in a sheet's history: all but its saved results. The latest one's results come as the sheet's
+ * `current`; an earlier one's from `GET /api/sheets/:id/revisions/:number`, so a long history stays light.
+ */
+export type RevisionSummary = Omit<Revision, 'results'>;
+
 export type SheetWithHistory = Sheet & {
-  revisions: Revision[];
+  /** Every revision, oldest first, without results (the latest in full is `current`). */
+  revisions: RevisionSummary[];
   /** The revision issuing sends to a grinder: the owner's approved one once there is an approval, else the latest draft; null when none can go. */
   toIssue: { number: number; approved: boolean } | null;
   /** Why no revision can be issued (toIssue is null), in words for the builder. */
   issueBlocked: string | null;
 };
+
+/** The path of one revision: `/api/sheets/:id/revisions/:number`, the number as the sheet shows it (1, 2, …). */
+export const revisionPathSchema = z.object({ number: z.coerce.number().int().min(1).max(1_000_000) });

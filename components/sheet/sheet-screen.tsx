@@ -16,10 +16,10 @@ import { formatDateTime } from '@/constants/format';
 import { breakpoints, colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
 import { ApiError } from '@/lib/api';
 import { useMeQuery } from '@/hooks/use-me';
-import { useSaveSheetMutation, useSheetQuery } from '@/hooks/use-sheets';
+import { useRevisionQuery, useSaveSheetMutation, useSheetQuery } from '@/hooks/use-sheets';
 import { diffRevisions } from '@/lib/revision-diff';
 import { roleAllows } from '@/shared/roles';
-import type { Revision, SheetWithHistory } from '@/shared/sheets';
+import type { RevisionSummary, SheetWithHistory } from '@/shared/sheets';
 
 export function SheetScreen({ id: jobId, sheetId }: { id: string; sheetId: string }) {
   const sheet = useSheetQuery(sheetId);
@@ -43,7 +43,11 @@ function SheetView({ sheet, back }: { sheet: SheetWithHistory; back: BackLink })
   const canIssue = roleAllows(role, { sheet: ['issue'] });
   const current = sheet.current;
   const [shownNumber, setShownNumber] = useState<number | null>(null);
-  const shown = sheet.revisions.find((r) => r.number === shownNumber) ?? current;
+  // The history carries no results: an earlier revision is fetched in full when asked for.
+  const olderNumber = shownNumber !== null && shownNumber !== current.number ? shownNumber : null;
+  const older = useRevisionQuery(sheet.id, olderNumber);
+  const shown = olderNumber === null ? current : older.data;
+  const shownLabel = olderNumber ?? current.number;
 
   return (
     <Screen
@@ -54,20 +58,28 @@ function SheetView({ sheet, back }: { sheet: SheetWithHistory; back: BackLink })
     >
       <View style={wide ? styles.columns : styles.stack}>
         <View style={[wide ? styles.main : undefined, styles.stack]}>
-          <Section title={shown.number === current.number ? `Revision ${shown.number}: current` : `Revision ${shown.number}`}>
-            <View style={styles.badges}>
-              <ResultsSummaryChip results={shown.results} testID="revision-status" />
-              <Text style={[styles.state, shown.state === 'issued' ? styles.issued : styles.draft]} testID="revision-state">
-                {shown.state === 'draft' ? 'Draft' : 'Issued'}
-              </Text>
-              <SupersededChip supersededBy={shown.supersededBy} testID="revision-superseded" />
-              <Text style={styles.meta}>saved {formatDateTime(shown.updatedAt)}</Text>
-            </View>
-            <RevisionView revision={shown} />
-            <RevisionNotes revision={shown} testPrefix="sheet" />
+          <Section title={shownLabel === current.number ? `Revision ${shownLabel}: current` : `Revision ${shownLabel}`}>
+            {shown ? (
+              <>
+                <View style={styles.badges}>
+                  <ResultsSummaryChip results={shown.results} testID="revision-status" />
+                  <Text style={[styles.state, shown.state === 'issued' ? styles.issued : styles.draft]} testID="revision-state">
+                    {shown.state === 'draft' ? 'Draft' : 'Issued'}
+                  </Text>
+                  <SupersededChip supersededBy={shown.supersededBy} testID="revision-superseded" />
+                  <Text style={styles.meta}>saved {formatDateTime(shown.updatedAt)}</Text>
+                </View>
+                <RevisionView revision={shown} />
+                <RevisionNotes revision={shown} testPrefix="sheet" />
+              </>
+            ) : older.isError ? (
+              <ErrorNotice error={older.error} onRetry={() => older.refetch()} />
+            ) : (
+              <Pending label={`Loading revision ${shownLabel}…`} />
+            )}
           </Section>
-          <FitsCorePanel feasibility={shown.results.feasibility} testID="sheet-fits-core" />
-          {canWrite && shown.number === current.number ? <NoteEditor key={`${current.id} ${current.state}`} sheet={sheet} /> : null}
+          {shown ? <FitsCorePanel feasibility={shown.results.feasibility} testID="sheet-fits-core" /> : null}
+          {canWrite && shownLabel === current.number ? <NoteEditor key={`${current.id} ${current.state}`} sheet={sheet} /> : null}
         </View>
         <View style={[wide ? styles.side : undefined, styles.stack]}>
           {canIssue ? <IssuePanel sheet={sheet} /> : null}
@@ -75,7 +87,7 @@ function SheetView({ sheet, back }: { sheet: SheetWithHistory; back: BackLink })
           <Section title="Revision history">
             <View role="list" style={styles.history}>
               {[...sheet.revisions].reverse().map((r) => (
-                <View key={r.id} role="listitem" style={[styles.historyItem, r.number === shown.number && styles.historyActive]} testID={`history-${r.number}`}>
+                <View key={r.id} role="listitem" style={[styles.historyItem, r.number === shownLabel && styles.historyActive]} testID={`history-${r.number}`}>
                   <View style={styles.grow}>
                     <Text style={styles.historyTitle}>
                       Revision {r.number} · {r.state === 'issued' ? 'issued' : r.number === current.number ? 'draft' : 'earlier draft'}
@@ -85,7 +97,7 @@ function SheetView({ sheet, back }: { sheet: SheetWithHistory; back: BackLink })
                       {r.label} · {formatDateTime(r.updatedAt)}
                     </Text>
                   </View>
-                  {r.number !== shown.number ? (
+                  {r.number !== shownLabel ? (
                     <Button label="Show" variant="quiet" onPress={() => setShownNumber(r.number)} testID={`show-revision-${r.number}`} />
                   ) : null}
                 </View>
@@ -122,7 +134,7 @@ function NoteEditor({ sheet }: { sheet: SheetWithHistory }) {
   );
 }
 
-function RevisionDiff({ revisions }: { revisions: Revision[] }) {
+function RevisionDiff({ revisions }: { revisions: RevisionSummary[] }) {
   const numbers = revisions.map((r) => r.number);
   const [a, setA] = useState(numbers[numbers.length - 2] ?? 1);
   const [b, setB] = useState(numbers[numbers.length - 1] ?? 1);

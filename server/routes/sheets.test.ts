@@ -49,7 +49,9 @@ describe('spec sheets', () => {
     const sheet = res.body.sheet;
     expect(sheet).toMatchObject({ jobId, title: 'Regrind for cylinder 3 failure', version: 1 });
     expect(sheet.revisions).toHaveLength(1);
-    expect(sheet.current).toEqual(sheet.revisions[0]);
+    // The history is the revisions without their results; the latest comes in full as `current`.
+    const { results: _results, ...summary } = sheet.current;
+    expect(sheet.revisions[0]).toEqual(summary);
     expect(sheet.current).toMatchObject({
       number: 1,
       state: 'draft',
@@ -225,6 +227,7 @@ describe('spec sheets', () => {
     expect((await a.founder.patch(`/api/sheets/${sheet.id}`, { version: 1, note: 'Taken' })).status).toBe(404);
     expect((await a.founder.get(`/api/jobs/${b.jobId}/sheets`)).status).toBe(404);
     expect((await a.founder.post(`/api/jobs/${b.jobId}/sheets`, { title: 'x', profileId: b.profileId })).status).toBe(404);
+    expect((await a.founder.get(`/api/sheets/${sheet.id}/revisions/1`)).status).toBe(404);
     expect((await b.founder.get(`/api/sheets/${sheet.id}`)).body.sheet).toEqual(sheet);
   });
 
@@ -337,5 +340,47 @@ describe('notes on revisions', () => {
     const third = await founder.patch(`/api/sheets/${sheet.id}`, { version: noted.body.sheet.version, newRevision: true, spec: makeProfileSpec({ icl: 106 }) });
     expect(third.body.sheet.current).toMatchObject({ number: 3, note: '' });
     expect(third.body.sheet.revisions[1]).toMatchObject({ number: 2, note: 'Rev 2 only' });
+  });
+
+  describe('an earlier revision, fetched in full', () => {
+    it('keeps the history light: each revision without results, any one of them in full by its number', async () => {
+      const { founder, jobId, profileId } = await makeJobWithEngine(t);
+      const created = (await founder.post(`/api/jobs/${jobId}/sheets`, { title: 'Sheet', profileId, note: 'First' })).body.sheet;
+      issue(created.current.id);
+      const spec = makeProfileSpec({ icl: 110 });
+      const saved = (await founder.patch(`/api/sheets/${created.id}`, { version: 1, spec })).body.sheet;
+      issue(saved.current.id);
+
+      const sheet = (await founder.get(`/api/sheets/${created.id}`)).body.sheet;
+      expect(sheet.revisions.map((r: object) => 'results' in r)).toEqual([false, false]);
+      expect(sheet.current.results).toEqual(expectedResults(makeEngineSpec(), spec));
+
+      const first = await founder.get(`/api/sheets/${created.id}/revisions/1`);
+      expect(first.status).toBe(200);
+      expect(first.body.revision).toMatchObject({ id: created.current.id, number: 1, state: 'issued', note: 'First', spec: makeProfileSpec() });
+      expect(first.body.revision.results).toEqual(expectedResults(makeEngineSpec(), makeProfileSpec()));
+      // What supersedes it is said the same way as in the history.
+      expect(first.body.revision.supersededBy).toEqual(sheet.revisions[0].supersededBy);
+      expect(first.body.revision.supersededBy).toMatchObject({ number: 2 });
+      const { results: _results, ...rest } = first.body.revision;
+      expect(rest).toEqual(sheet.revisions[0]);
+
+      const latest = await founder.get(`/api/sheets/${created.id}/revisions/2`);
+      expect(latest.body.revision).toEqual(sheet.current);
+    });
+
+    it('answers 404 for a number the sheet does not have and 400 naming the number for one that is not a revision number', async () => {
+      const { founder, jobId, profileId } = await makeJobWithEngine(t);
+      const sheet = (await founder.post(`/api/jobs/${jobId}/sheets`, { title: 'Sheet', profileId })).body.sheet;
+      const missing = await founder.get(`/api/sheets/${sheet.id}/revisions/2`);
+      expect(missing.status).toBe(404);
+      expect(missing.body.error.message).toBe('Revision not found');
+      for (const bad of ['0', 'abc', '1.5', '-1']) {
+        const res = await founder.get(`/api/sheets/${sheet.id}/revisions/${bad}`);
+        expect(res.status).toBe(400);
+        expect(res.body.error.fields).toHaveProperty('number');
+      }
+      expect((await founder.get(`/api/sheets/no-such-sheet/revisions/1`)).status).toBe(404);
+    });
   });
 });

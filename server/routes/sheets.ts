@@ -1,12 +1,12 @@
 import { Router } from 'express';
 
-import { sheetCreateSchema, sheetSaveSchema } from '@/shared/sheets';
+import { revisionPathSchema, sheetCreateSchema, sheetSaveSchema } from '@/shared/sheets';
 
 import { actorOf, requireShopRole } from '../access';
 import { declareCalcFields, renamePrefixes } from '../calc-fields';
 import type { AppDeps } from '../deps';
 import { parse } from '../http';
-import { createSheet, jobSheets, loadSheet, saveSheet } from '../store/sheets';
+import { createSheet, jobSheets, loadRevision, loadSheet, saveSheet } from '../store/sheets';
 
 /** A calc error on a revision names the sheet's own fields: `spec.*` for the profile, `engine.*` for the snapshot. */
 const revisionFields = renamePrefixes([
@@ -37,6 +37,12 @@ export function sheetsRouter({ db, auth }: AppDeps) {
   router.get('/sheets/:id', async (req, res) => {
     const ctx = await requireShopRole(auth, db, req, { job: ['read'] });
     res.json({ sheet: loadSheet(db, ctx.shop.id, req.params.id) });
+  });
+
+  router.get('/sheets/:id/revisions/:number', async (req, res) => {
+    const { number } = parse(revisionPathSchema, { number: req.params.number });
+    const ctx = await requireShopRole(auth, db, req, { job: ['read'] });
+    res.json({ revision: loadRevision(db, ctx.shop.id, req.params.id, number) });
   });
 
   router.patch('/sheets/:id', async (req, res) => {

@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, gt, inArray, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, getTableColumns, gt, inArray, sql } from 'drizzle-orm';
 
 import type { Db } from '@/db';
 import { schema } from '@/db';
@@ -9,7 +9,7 @@ import { analyzeForJob, revisionResults } from '@/shared/analysis';
 import { jobCore, type JobCore } from '@/shared/job-core';
 import type { EngineSpec } from '@/shared/engine';
 import type { ProfileSpec } from '@/shared/profile';
-import type { Revision, RevisionResults, Sheet, sheetCreateSchema, sheetSaveSchema, SheetWithHistory, Supersession } from '@/shared/sheets';
+import type { Revision, RevisionResults, RevisionSummary, Sheet, sheetCreateSchema, sheetSaveSchema, SheetWithHistory, Supersession } from '@/shared/sheets';
 
 import { conflict, HttpError, notFound } from '../http';
 import { audit } from './audit';
@@ -23,12 +23,16 @@ import { loadShopLimits } from './shop-limits';
 
 type SheetRow = typeof schema.specSheets.$inferSelect;
 type RevisionRow = typeof schema.sheetRevisions.$inferSelect;
+type RevisionSummaryRow = Omit<RevisionRow, 'results'>;
+
+/** The revision columns a sheet's history reads: all but the results, which only the latest brings. */
+const { results: _results, ...summaryColumns } = getTableColumns(schema.sheetRevisions);
 
 /**
  * Which of one sheet's revisions are superseded, and by what: each revision's first later issued one
  * (`revisions` oldest first). Worked out from the revisions themselves, so an issued row never changes to say so.
  */
-export function supersessionsIn(revisions: readonly RevisionRow[]): Map<string, Supersession> {
+export function supersessionsIn(revisions: readonly RevisionSummaryRow[]): Map<string, Supersession> {
   const out = new Map<string, Supersession>();
   let next: Supersession | null = null;
   for (const r of [...revisions].reverse()) {
@@ -53,6 +57,10 @@ export function revisionWithSupersession(db: Reader, id: string): Revision | und
 }
 
 export function toRevision(row: RevisionRow, supersededBy: Supersession | null): Revision {
+  return { ...toRevisionSummary(row, supersededBy), results: row.results };
+}
+
+function toRevisionSummary(row: RevisionSummaryRow, supersededBy: Supersession | null): RevisionSummary {
   return {
     id: row.id,
     sheetId: row.sheetId,
@@ -61,7 +69,6 @@ export function toRevision(row: RevisionRow, supersededBy: Supersession | null):
     label: row.label,
     spec: row.spec,
     engine: row.engine,
-    results: row.results,
     note: row.note,
     coreNotes: row.coreNotes,
     createdBy: row.createdBy,
@@ -117,7 +124,10 @@ export function revisionToCheck(db: Reader, sheet: { id: string; jobId: string }
  * order is the approved revision and no other: it goes even when a later draft was started after the approval, and a
  * sheet the owner did not approve cannot be issued. Before any approval, it is the latest revision while a draft.
  */
-export function issueTarget(revisions: readonly RevisionRow[], approvedId: string | null): { row: RevisionRow; approved: boolean } | { blocked: string } {
+export function issueTarget<Row extends RevisionSummaryRow>(
+  revisions: readonly Row[],
+  approvedId: string | null,
+): { row: Row; approved: boolean } | { blocked: string } {
   const latest = revisions[revisions.length - 1];
   if (!latest) throw new Error('A sheet with no revisions');
   if (approvedId) {
@@ -134,14 +144,13 @@ export function issueTarget(revisions: readonly RevisionRow[], approvedId: strin
   return { row: latest, approved: false };
 }
 
-function withHistory(db: Reader, row: SheetRow, revisions: RevisionRow[]): SheetWithHistory {
-  const latest = revisions[revisions.length - 1];
-  if (!latest) throw new Error(`Sheet ${row.id} has no revisions`);
+/** The sheet with its history (`revisions` oldest first, `latest` the last of them with its results). */
+function withHistory(db: Reader, row: SheetRow, revisions: readonly RevisionSummaryRow[], latest: RevisionRow): SheetWithHistory {
   const superseded = supersessionsIn(revisions);
   const target = issueTarget(revisions, approvedRevisionId(db, row.jobId));
   return {
     ...toSheet(row, latest),
-    revisions: revisions.map((r) => toRevision(r, superseded.get(r.id) ?? null)),
+    revisions: revisions.map((r) => toRevisionSummary(r, superseded.get(r.id) ?? null)),
     toIssue: 'row' in target ? { number: target.row.number, approved: target.approved } : null,
     issueBlocked: 'blocked' in target ? target.blocked : null,
   };
@@ -155,19 +164,43 @@ const sheetStatements = (db: Reader) =>
       .where(and(eq(schema.specSheets.id, sql.placeholder('id')), eq(schema.specSheets.shopId, sql.placeholder('shopId'))))
       .prepare(),
     revisions: d
-      .select()
+      .select(summaryColumns)
       .from(schema.sheetRevisions)
       .where(eq(schema.sheetRevisions.sheetId, sql.placeholder('id')))
       .orderBy(asc(schema.sheetRevisions.number))
       .prepare(),
+    results: d
+      .select({ results: schema.sheetRevisions.results })
+      .from(schema.sheetRevisions)
+      .where(eq(schema.sheetRevisions.id, sql.placeholder('revisionId')))
+      .prepare(),
+    revision: d
+      .select()
+      .from(schema.sheetRevisions)
+      .where(and(eq(schema.sheetRevisions.sheetId, sql.placeholder('id')), eq(schema.sheetRevisions.number, sql.placeholder('number'))))
+      .prepare(),
   }));
 
-/** The sheet with every revision, oldest first; a 404 for another shop's sheet. */
+/** The sheet with every revision, oldest first, and the latest with its results; a 404 for another shop's sheet. */
 export function loadSheet(db: Reader, shopId: string, id: string): SheetWithHistory {
   const statements = sheetStatements(db);
   const sheet = statements.sheet.get({ id, shopId });
   if (!sheet) throw notFound('Spec sheet');
-  return withHistory(db, sheet, statements.revisions.all({ id }));
+  const revisions = statements.revisions.all({ id });
+  const latest = revisions[revisions.length - 1];
+  const results = latest && statements.results.get({ revisionId: latest.id });
+  if (!latest || !results) throw new Error(`Sheet ${id} has no revisions`);
+  return withHistory(db, sheet, revisions, { ...latest, results: results.results });
+}
+
+/** One revision of the shop's sheet, by its number, with its results and what supersedes it; a 404 when either is missing. */
+export function loadRevision(db: Reader, shopId: string, id: string, number: number): Revision {
+  const statements = sheetStatements(db);
+  if (!statements.sheet.get({ id, shopId })) throw notFound('Spec sheet');
+  const row = statements.revision.get({ id, number });
+  if (!row) throw notFound('Revision');
+  const superseded = supersessionsIn(statements.revisions.all({ id }));
+  return toRevision(row, superseded.get(row.id) ?? null);
 }
 
 /** The sheet row in the shop, or a 404. */
@@ -301,7 +334,7 @@ export function createSheet(db: Db, who: Actor, jobId: string, body: z.output<ty
       entityId: created.id,
       detail: { jobId, profileId: profile.id, revision: 1, ...(body.spec ? { fields: ['spec'] } : {}) },
     });
-    return withHistory(tx, created, [revision]);
+    return withHistory(tx, created, [revision], revision);
   });
 }
 

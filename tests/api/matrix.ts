@@ -109,6 +109,7 @@ export const matrix: Record<string, MatrixRow> = {
   'GET /api/jobs/:jobId/sheets': { allow: shopAReaders, params: job },
   'POST /api/jobs/:jobId/sheets': { allow: builderA, params: job, body: (w) => ({ title: 'Test second sheet', profileId: w.a.spareProfileId }) },
   'GET /api/sheets/:id': { allow: shopAReaders, params: sheet },
+  'GET /api/sheets/:id/revisions/:number': { allow: shopAReaders, params: (w) => ({ ...sheet(w), number: '1' }) },
   'PATCH /api/sheets/:id': {
     allow: builderA,
     params: sheet,

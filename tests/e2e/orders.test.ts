@@ -223,6 +223,16 @@ describe.each(Object.keys(viewports) as ViewportName[])('a later revision supers
     await expectAccessible(b);
     await screenshot(b, `orders-superseded-sheet-${viewport}`);
 
+    // The history carries no results: the earlier revision is fetched in full when the builder asks for it.
+    await shown(b, `show-revision-${first.revision}`).click();
+    await expect.poll(() => shown(b, 'revision-superseded').textContent()).toContain(String(second.revision));
+    expect(await shown(b, 'revision-state').textContent()).toBe('Issued');
+    expect(await shown(b, 'revision-status').textContent()).not.toBe('');
+    await shown(b, 'sheet-checks').waitFor();
+    await shown(b, `show-revision-${second.revision}`).waitFor();
+    expect(await shown(b, 'sheet-screen').getByTestId('save-note').count()).toBe(0);
+    await expectAccessible(b);
+
     // Grinder: only the live order is on the list; the superseded one's page says it is closed and offers no move.
     await signIn(g, demo.grinder);
     await shown(g, 'incoming-screen').waitFor();
