@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 
 import { DEMO_ENGINE, DEMO_STOCK_REGRIND, DEMO_TOWING } from '@/calc/demo';
-import { analyzeColumn, chosenProfiles, summarizeColumns, toggleChoice } from '@/lib/compare-analysis';
+import { analyzeColumn, summarizeColumns } from '@/lib/compare-analysis';
+import { chosenProfiles, toggleChoice } from '@/lib/compare-selection';
 import { draftFromText } from '@/lib/number-draft';
 import { profileNumberSpecs } from '@/lib/profile-fields';
 import { tryDraftFrom } from '@/lib/try-values';

@@ -7,7 +7,6 @@ import { applyTryValues, type TryDraft } from '@/lib/try-values';
 import { analyzeForJob, analyzeRecords, feasibilityResults } from '@/shared/analysis';
 import type { EngineSpec } from '@/shared/engine';
 import type { JobCore } from '@/shared/job-core';
-import type { Measurement, MeasurementData, MeasurementKind } from '@/shared/measurements';
 import type { Profile, ProfileSpec } from '@/shared/profile';
 import type { FeasibilityResults } from '@/shared/sheets';
 
@@ -24,16 +23,6 @@ export type CompareColumn = {
 
 /** The job's core and the shop's limits the compare screen analyses with, as the server does for sheets. */
 export type CompareCore = { job: JobCore; limits: CheckLimitOverrides };
-
-/** The newest measurement of each kind from a job's list (as the server's latestMeasurements picks them). */
-export function latestMeasured(list: readonly Measurement[]): Partial<MeasurementData> {
-  const out: Partial<Record<MeasurementKind, { at: string; data: unknown }>> = {};
-  for (const m of list) {
-    const seen = out[m.kind];
-    if (!seen || m.createdAt > seen.at) out[m.kind] = { at: m.createdAt, data: m.data };
-  }
-  return Object.fromEntries(Object.entries(out).map(([k, v]) => [k, v.data])) as Partial<MeasurementData>;
-}
 
 /**
  * Runs calc's analysis on a profile with its tried-but-unsaved values (in calc units); a bad value keeps the
@@ -76,15 +65,4 @@ export function summarizeColumns(columns: readonly CompareColumn[]): {
       ? compareProfilesForOwner({ current: analyses[0], candidate: analyses[1], currentName: names[0], candidateName: names[1] })
       : null;
   return { shown, analyses, names, nearLimit, owner };
-}
-
-/** The profiles chosen on a job, in the order picked; with no choice yet, the job's first two. */
-export function chosenProfiles(picked: readonly string[] | undefined, profiles: readonly Profile[]): Profile[] {
-  const ids = picked ?? profiles.slice(0, 2).map((p) => p.id);
-  return ids.map((id) => profiles.find((p) => p.id === id)).filter((p): p is Profile => Boolean(p));
-}
-
-/** Adds or removes a profile from the comparison, keeping the three most recently picked. */
-export function toggleChoice(current: readonly string[], id: string): string[] {
-  return current.includes(id) ? current.filter((x) => x !== id) : [...current, id].slice(-3);
 }

@@ -4,8 +4,8 @@ import { DEMO_ENGINE, DEMO_FEASIBILITY_INPUT, DEMO_STOCK_REGRIND, DEMO_TOWING } 
 import { analyzeProfile } from '@/calc/analysis';
 
 import { feasibilityResults } from './analysis';
-import { coreView, flankOf, ownerCoreText } from './fits-core';
-import { pushrodAdviceOf, pushrodAdviceText } from './job-core';
+import { coreView, flankOf, ownerCoreText, pushrodAdviceText } from './fits-core';
+import { pushrodAdviceOf } from './job-core';
 
 const from = { from: 'measured lobe table', missing: [] };
 const towing = feasibilityResults(analyzeProfile(DEMO_FEASIBILITY_INPUT), from);

@@ -1,6 +1,6 @@
 import type { CheckResult, CheckStatus } from '@/calc/checks';
+import type { PushrodAdvice } from '@/calc/regrind';
 
-import { pushrodAdviceText } from './job-core';
 import type { FeasibilityResults } from './sheets';
 
 /** The answer to "can this cam be ground from the old one?": yes, watch, no, or not worked out. */
@@ -24,6 +24,21 @@ export const CORE_CHECK_TITLES: Record<string, string> = {
 
 const inches = (v: number) => `${v.toFixed(3)} in`;
 const signed = (v: number) => `${v >= 0 ? '+' : '−'}${Math.abs(v).toFixed(3)} in`;
+
+/** The pushrod advice in words, the same wherever it is shown (fit checks, "fits the core?"). */
+export function pushrodAdviceText(a: PushrodAdvice): string {
+  const sum =
+    a.lifterDrop > 0
+      ? `the checking pushrod's ${inches(a.checkingLength)} at zero lash, + ${inches(a.lifterDrop)} the lifter drops with the smaller base circle, + ${inches(a.targetPreload)} preload`
+      : `the checking pushrod's ${inches(a.checkingLength)} at zero lash on the reground cam + ${inches(a.targetPreload)} preload`;
+  const change =
+    a.change === null || a.currentLength === null
+      ? ''
+      : Math.abs(a.change) < 0.0005
+        ? `; the ${inches(a.currentLength)} pushrods in the engine already give it`
+        : `; ${a.change > 0 ? 'lengthen' : 'shorten'} the ${inches(a.currentLength)} pushrods by ${inches(Math.abs(a.change))}`;
+  return `Pushrods ${inches(a.length)} long for ${inches(a.targetPreload)} preload: ${sum}${change}.`;
+}
 
 /** Where on the lobe a cam angle from its centre falls, in the builder's words. */
 export function flankOf(at: number): string {

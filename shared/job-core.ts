@@ -109,23 +109,6 @@ export function pushrodAdviceOf(
   return { advice: pushrodForPreload(pushrodCheckInput(check, cut, pushrod.currentLength ?? undefined), 'pushrod'), missing: null };
 }
 
-const inch = (v: number) => `${v.toFixed(3)} in`;
-
-/** The pushrod advice in words, the same wherever it is shown (fit checks, "fits the core?"). */
-export function pushrodAdviceText(a: PushrodAdvice): string {
-  const sum =
-    a.lifterDrop > 0
-      ? `the checking pushrod's ${inch(a.checkingLength)} at zero lash, + ${inch(a.lifterDrop)} the lifter drops with the smaller base circle, + ${inch(a.targetPreload)} preload`
-      : `the checking pushrod's ${inch(a.checkingLength)} at zero lash on the reground cam + ${inch(a.targetPreload)} preload`;
-  const change =
-    a.change === null || a.currentLength === null
-      ? ''
-      : Math.abs(a.change) < 0.0005
-        ? `; the ${inch(a.currentLength)} pushrods in the engine already give it`
-        : `; ${a.change > 0 ? 'lengthen' : 'shorten'} the ${inch(a.currentLength)} pushrods by ${inch(Math.abs(a.change))}`;
-  return `Pushrods ${inch(a.length)} long for ${inch(a.targetPreload)} preload: ${sum}${change}.`;
-}
-
 /**
  * The core and grinding numbers for a job: the core is the job's measured lobe table
  * (the sound lobes give its shape and phasing, the worn-lobe finding gives each kind's

@@ -1,7 +1,9 @@
 import { atom, useAtom } from 'jotai';
 import { useMemo } from 'react';
 
-import { analyzeColumn, chosenProfiles, summarizeColumns, toggleChoice, type CompareCore } from '@/lib/compare-analysis';
+import { useCalc } from '@/components/ui/lazy-calc';
+import type { CompareCore } from '@/lib/compare-analysis';
+import { chosenProfiles, toggleChoice } from '@/lib/compare-selection';
 import type { PlotMode } from '@/lib/lift-plot-paths';
 import type { TryDraft } from '@/lib/try-values';
 import type { EngineSpec } from '@/shared/engine';
@@ -17,8 +19,12 @@ export const profileDraftsAtom = atom<Record<string, TryDraft | undefined>>({});
 /** What the compare plot shows. */
 export const plotModeAtom = atom<PlotMode>('lift');
 
-/** The compare screen's state for one job: the chosen profiles, their typed values and each one's analysis. */
+/**
+ * The compare screen's state for one job: the chosen profiles, their typed values and each one's analysis.
+ * Suspends until calc's chunk has loaded (see components/ui/lazy-calc.tsx).
+ */
 export function useCompare(jobId: string, engine: EngineSpec, profiles: readonly Profile[], core?: CompareCore) {
+  const { analyzeColumn, summarizeColumns } = useCalc();
   const [selection, setSelection] = useAtom(compareSelectionAtom);
   const [drafts, setDrafts] = useAtom(profileDraftsAtom);
   const [mode, setMode] = useAtom(plotModeAtom);
@@ -26,8 +32,8 @@ export function useCompare(jobId: string, engine: EngineSpec, profiles: readonly
   const { converter } = useUnits();
   const units = useMemo(() => converter ?? unitConverter(null, 'imperial', 'cc'), [converter]);
   const chosen = useMemo(() => chosenProfiles(selection[jobId], profiles), [selection, jobId, profiles]);
-  const columns = useMemo(() => chosen.map((p) => analyzeColumn(engine, p, drafts[p.id], units, core)), [engine, chosen, drafts, units, core]);
-  const summary = useMemo(() => summarizeColumns(columns), [columns]);
+  const columns = useMemo(() => chosen.map((p) => analyzeColumn(engine, p, drafts[p.id], units, core)), [analyzeColumn, engine, chosen, drafts, units, core]);
+  const summary = useMemo(() => summarizeColumns(columns), [summarizeColumns, columns]);
   const chosenIds = chosen.map((p) => p.id);
   const toggle = (id: string) => setSelection((s) => ({ ...s, [jobId]: toggleChoice(s[jobId] ?? chosenIds, id) }));
   const setDraft = (profileId: string, draft: TryDraft | undefined) => setDrafts((d) => ({ ...d, [profileId]: draft }));

@@ -1,6 +1,6 @@
 import { useLocalSearchParams } from 'expo-router';
 
-import { OwnerSummary } from '@/components/owner/owner-summary';
+import { OwnerSummary } from '@/components/owner/lazy-owner';
 import { ownerApiBase } from '@/hooks/use-owner-page';
 
 /** The owner's summary opened from a share link, with no account. */

@@ -1,10 +1,10 @@
-import { useMemo, useState } from 'react';
+import { Suspense, useMemo, useState } from 'react';
 import { StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 
 import { Cautions } from '@/components/compare/cautions';
 import { FitsCorePanel } from '@/components/compare/fits-core';
 import { CompareTable } from '@/components/compare/compare-table';
-import { LiftPlot } from '@/components/ui/plots';
+import { LiftPlot, useCalc } from '@/components/ui/lazy-calc';
 import { ProfilePicker } from '@/components/compare/profile-picker';
 import { TryValues } from '@/components/compare/try-values';
 import { CheckList, ResultsSummaryChip } from '@/components/sheet/check-list';
@@ -19,11 +19,11 @@ import { useMeQuery } from '@/hooks/use-me';
 import { useJobMeasurementsQuery } from '@/hooks/use-measurements';
 import { useJobProfilesQuery } from '@/hooks/use-profiles';
 import { useShopLimitsQuery } from '@/hooks/use-shop-limits';
-import { latestMeasured, type CompareCore } from '@/lib/compare-analysis';
-import { jobCore } from '@/shared/job-core';
+import { latestMeasured } from '@/lib/compare-selection';
 import { ApiError } from '@/lib/api';
 import { allCautions } from '@/shared/cautions';
 import type { EngineSpec } from '@/shared/engine';
+import type { Measurement, ShopLimitsResponse } from '@/shared/measurements';
 import type { Profile } from '@/shared/profile';
 import { roleAllows } from '@/shared/roles';
 import { useCompare } from '@/state/compare';
@@ -35,13 +35,6 @@ export function CompareScreen({ id: jobId }: { id: string }) {
   const profiles = useJobProfilesQuery(jobId);
   const measurements = useJobMeasurementsQuery(jobId);
   const limits = useShopLimitsQuery();
-  const lifterType = engine.data?.engine.lifterType;
-  // The job's core and the shop's settings, as the server takes them for a sheet (unreadable ones leave the core out).
-  const core = useMemo<CompareCore | undefined>(() => {
-    if (!lifterType || !measurements.data || !limits.data) return undefined;
-    const job = jobCore({ measured: latestMeasured(measurements.data), limits: limits.data.resolved, lifterType });
-    return { job, limits: limits.data.limits };
-  }, [lifterType, measurements.data, limits.data]);
   const back: BackLink = { href: { pathname: '/jobs/[id]', params: { id: jobId } }, label: 'Back to the job' };
 
   if (job.isPending || engine.isPending || profiles.isPending || measurements.isPending || limits.isPending)
@@ -64,7 +57,19 @@ export function CompareScreen({ id: jobId }: { id: string }) {
       </Screen>
     );
   }
-  return <CompareView jobId={jobId} vehicle={job.data?.vehicle ?? ''} engine={engine.data.engine} profiles={profiles.data ?? []} core={core} back={back} />;
+  return (
+    <Suspense fallback={<Pending label="Loading the analysis…" />}>
+      <CompareView
+        jobId={jobId}
+        vehicle={job.data?.vehicle ?? ''}
+        engine={engine.data.engine}
+        profiles={profiles.data ?? []}
+        measurements={measurements.data}
+        limits={limits.data}
+        back={back}
+      />
+    </Suspense>
+  );
 }
 
 function CompareView({
@@ -72,16 +77,25 @@ function CompareView({
   vehicle,
   engine,
   profiles,
-  core,
+  measurements,
+  limits,
   back,
 }: {
   jobId: string;
   vehicle: string;
   engine: EngineSpec;
   profiles: Profile[];
-  core: CompareCore | undefined;
+  measurements: Measurement[] | undefined;
+  limits: ShopLimitsResponse | undefined;
   back: BackLink;
 }) {
+  const { jobCore } = useCalc();
+  // The job's core and the shop's settings, as the server takes them for a sheet (unreadable ones leave the core out).
+  const core = useMemo(() => {
+    if (!measurements || !limits) return undefined;
+    const job = jobCore({ measured: latestMeasured(measurements), limits: limits.resolved, lifterType: engine.lifterType });
+    return { job, limits: limits.limits };
+  }, [jobCore, engine.lifterType, measurements, limits]);
   const wide = useWindowDimensions().width >= breakpoints.wide;
   const canWrite = roleAllows(useMeQuery().data?.activeShop?.role, { sheet: ['write'] });
   const {

@@ -8,7 +8,7 @@ import type { FeasibilityResults } from '@/shared/sheets';
 import { Cautions } from '@/components/compare/cautions';
 import { CheckList } from '@/components/sheet/check-list';
 import { Chip, type ChipTone } from '@/components/ui/chip';
-import { MarginPlot } from '@/components/ui/plots';
+import { MarginPlot } from '@/components/ui/lazy-calc';
 
 const verdictLabel: Record<CoreVerdict, string> = { pass: 'Fits', watch: 'Fits, watch', fail: 'Does not fit', 'not-run': 'Not run' };
 const verdictTone: Record<CoreVerdict, ChipTone> = { pass: 'pass', watch: 'watch', fail: 'fail', 'not-run': 'muted' };

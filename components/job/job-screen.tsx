@@ -6,7 +6,7 @@ import { Button } from '@/components/ui/button';
 import { JobChecklist } from '@/components/job/job-checklist';
 import { JobForm } from '@/components/job/job-form';
 import { JobPhotos } from '@/components/job/job-photos';
-import { OwnerSection } from '@/components/owner/owner-desk';
+import { OwnerSection } from '@/components/owner/lazy-owner';
 import { EngineSummary, JobProfiles, JobSheets } from '@/components/job/job-sections';
 import { ErrorNotice, Pending } from '@/components/ui/query-state';
 import { Screen, Section } from '@/components/ui/screen';

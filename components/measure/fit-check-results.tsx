@@ -6,7 +6,7 @@ import { formatDateTime } from '@/constants/format';
 import { breakpoints, colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
 import { productCautions } from '@/shared/cautions';
 import { correctionText, iclText, revisionName, trueTdcText } from '@/lib/degree-readout';
-import { pushrodAdviceText } from '@/shared/job-core';
+import { pushrodAdviceText } from '@/shared/fits-core';
 import type { FitCheckRun } from '@/shared/measurements';
 
 import { Cautions } from '@/components/compare/cautions';

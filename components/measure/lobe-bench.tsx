@@ -11,8 +11,8 @@ import type { ProfileSpec } from '@/shared/profile';
 
 import { Button } from '@/components/ui/button';
 import { ChoiceGroup } from '@/components/ui/choice-group';
-import { analyzeLobes, type LobeRow } from '@/lib/lobe-analysis';
-import { LobeOverlay } from '@/components/ui/plots';
+import type { LobeRow } from '@/lib/lobe-analysis';
+import { LobeOverlay, useCalc } from '@/components/ui/lazy-calc';
 
 type LobeBenchProps = {
   jobId: string;
@@ -27,11 +27,12 @@ type LobeBenchProps = {
 const inches = (v: number) => v.toFixed(3);
 const degrees = (v: number) => v.toFixed(1).replace(/^-/, '−');
 
-/** Upload a lobe table (CSV), read every lobe, flag worn ones, and draw one over the sheet's lobe. */
+/** Upload a lobe table (CSV), read every lobe, flag worn ones, and draw one over the sheet's lobe. Suspends until calc's chunk has loaded. */
 export function LobeBench({ jobId, current, canWrite, threshold, spec, specName }: LobeBenchProps) {
   const upload = useUploadLobesMutation(jobId);
   const [picked, setPicked] = useState<string | null>(null);
-  const rows = useMemo(() => (current ? analyzeLobes(current.data, threshold) : []), [current, threshold]);
+  const { analyzeLobes } = useCalc();
+  const rows = useMemo(() => (current ? analyzeLobes(current.data, threshold) : []), [analyzeLobes, current, threshold]);
   const worn = rows.filter((r) => r.wear?.worn);
   const firstWorn = worn[0]?.id ?? null;
   const shownId = picked && rows.some((r) => r.id === picked) ? picked : (firstWorn ?? rows[0]?.id ?? null);

@@ -1,7 +1,8 @@
+import { Suspense } from 'react';
 import { Stack } from 'expo-router';
 import { StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 
-import { DEFAULT_CHECK_LIMITS } from '@/calc/checks';
+import { DEFAULT_CHECK_LIMITS } from '@/calc/check-limits';
 import { Button } from '@/components/ui/button';
 import { DegreeReadout } from '@/components/measure/degree-readout';
 import { LobeBench } from '@/components/measure/lobe-bench';
@@ -99,14 +100,16 @@ export function MeasurementsScreen({ id }: { id: string }) {
   );
   const lobes = (
     <Section title="Measured lobes">
-      <LobeBench
-        jobId={id}
-        current={latestOfKind(list, 'lobes')}
-        canWrite={canWrite}
-        threshold={threshold}
-        spec={sheet?.current.spec ?? null}
-        specName={sheetName}
-      />
+      <Suspense fallback={<Pending label="Loading the lobe reader…" />}>
+        <LobeBench
+          jobId={id}
+          current={latestOfKind(list, 'lobes')}
+          canWrite={canWrite}
+          threshold={threshold}
+          spec={sheet?.current.spec ?? null}
+          specName={sheetName}
+        />
+      </Suspense>
     </Section>
   );
 

@@ -1,8 +1,8 @@
 import { Link } from 'expo-router';
-import { useMemo } from 'react';
+import { Suspense, useMemo } from 'react';
 import { ScrollView, StyleSheet, Text, View } from 'react-native';
 
-import { LiftPlot } from '@/components/ui/plots';
+import { LiftPlot, useCalc } from '@/components/ui/lazy-calc';
 import { NoPrint } from '@/components/ui/no-print';
 import { PrintButton } from '@/components/ui/print-button';
 import { ErrorNotice, Pending } from '@/components/ui/query-state';
@@ -11,7 +11,6 @@ import { RevisionView } from '@/components/sheet/revision-view';
 import { formatDate } from '@/constants/format';
 import { colors, fonts, space, type as typeScale } from '@/constants/theme';
 import { useOrderQuery } from '@/hooks/use-orders';
-import { analyzeRecords } from '@/shared/analysis';
 import { orderStageLabels, type OrderDetail } from '@/shared/orders';
 
 /** Widest the sheet gets, in CSS px: fits inside Letter and A4 at 12 mm margins, so the plot prints at the width it was drawn. */
@@ -23,14 +22,19 @@ export function PrintScreen({ id }: { id: string }) {
     <ScrollView style={styles.scroll} contentContainerStyle={styles.content} testID="print-screen">
       {order.isPending ? <Pending label="Preparing the sheet…" /> : null}
       {order.isError ? <ErrorNotice error={order.error} onRetry={() => order.refetch()} /> : null}
-      {order.data ? <PrintSheet order={order.data} /> : null}
+      {order.data ? (
+        <Suspense fallback={<Pending label="Preparing the sheet…" />}>
+          <PrintSheet order={order.data} />
+        </Suspense>
+      ) : null}
     </ScrollView>
   );
 }
 
 function PrintSheet({ order }: { order: OrderDetail }) {
   const r = order.revision;
-  const analysis = useMemo(() => analyzeRecords(r.engine, r.spec), [r.engine, r.spec]);
+  const { analyzeRecords } = useCalc();
+  const analysis = useMemo(() => analyzeRecords(r.engine, r.spec), [analyzeRecords, r.engine, r.spec]);
   return (
     <View style={styles.sheet}>
       <NoPrint>

@@ -1,6 +1,7 @@
 import { StyleSheet, Text, View } from 'react-native';
 
-import { summarizeChecks, type CheckResult, type CheckStatus, type CheckSummary, type SkippedCheck } from '@/calc/checks';
+import type { CheckResult, CheckStatus, SkippedCheck } from '@/calc/checks';
+import { summarizeChecks, type CheckSummary } from '@/calc/check-summary';
 import { colors, fonts, space, type as typeScale } from '@/constants/theme';
 
 import { Chip } from '@/components/ui/chip';

@@ -1,6 +1,6 @@
 import { useLocalSearchParams } from 'expo-router';
 
-import { OwnerSummary } from '@/components/owner/owner-summary';
+import { OwnerSummary } from '@/components/owner/lazy-owner';
 import { ownerApiBase } from '@/hooks/use-owner-page';
 
 /** A signed-in owner's summary of one job. */
