@@ -15,9 +15,11 @@ export type OrderMailFacts = {
   quote?: { priceCents: number; leadTimeDays: number } | null;
   shipping?: { carrier: string; tracking: string } | null;
   message?: string | null;
+  /** For a superseded order: the revision that supersedes it, and the stage the order had reached. */
+  superseded?: { by: number; stageLabel: string; underWay: boolean } | null;
 };
 
-export type OrderMailKind = 'issued' | 'quoted' | 'changes-asked' | 'shipped';
+export type OrderMailKind = 'issued' | 'quoted' | 'changes-asked' | 'shipped' | 'superseded';
 
 /** The order's page in the app. */
 export function orderLink(publicUrl: string, orderId: string) {
@@ -70,6 +72,25 @@ function content(kind: OrderMailKind, f: OrderMailFacts): { subject: string; lin
         ],
         action: 'Follow the order',
       };
+    case 'superseded': {
+      const by = f.superseded?.by;
+      return {
+        subject: `Superseded: ${f.sheetTitle}, rev ${f.revisionNumber} (now rev ${by})`,
+        lines: [
+          `${f.repairShopName} issued revision ${by} of "${f.sheetTitle}", which supersedes ${sheet}.`,
+          ...(f.superseded?.underWay
+            ? [
+                `Your order was under way (${f.superseded.stageLabel}), so it stays open.`,
+                `Agree with ${f.repairShopName} whether to stop or to finish it, and write down why in the order's thread.`,
+              ]
+            : [
+                `The order was not yet on the grinder (${f.superseded?.stageLabel ?? ''}), so it is now closed and cannot be quoted or moved.`,
+                `Do not grind revision ${f.revisionNumber}. If revision ${by} comes to you, it arrives as an order of its own.`,
+              ]),
+        ],
+        action: 'Open the superseded order',
+      };
+    }
   }
 }
 

@@ -519,6 +519,45 @@ describe('a later revision supersedes the earlier orders', { timeout: 30_000 }, 
     expect((await s.grinder.post(`/api/orders/${s.order.id}/move`, { version: 3, to: 'shipped', ...extras('shipped') })).status).toBe(200);
   });
 
+  it('mails the grinder of each order a new revision supersedes: closed before grinding, or under way', async () => {
+    const s = await issued('Told');
+    const other = await makeShop(t, 'grinding', 'Told other grinding');
+    const otherGrinder = await memberWithRole(t, other.shopId, 'grinder');
+    const supersededMail = (email: string) => outboxTo(email).filter((m) => /superseded/i.test(m.subject));
+
+    // Revision 2 goes to another grinding shop: the first shop hears its order is closed, and not who has the work now.
+    const edited = await s.builder.patch(`/api/sheets/${s.sheet.id}`, { version: 2, note: 'Second' });
+    const second = await s.builder.post(`/api/sheets/${s.sheet.id}/issue`, { version: edited.body.sheet.version, grinderShopId: other.shopId });
+    expect(second.status).toBe(201);
+    const [closed, ...more] = supersededMail(s.grinder.email);
+    expect(more).toHaveLength(0);
+    expect(closed!.subject).toContain('Told regrind');
+    expect(closed!.text).toContain('revision 1');
+    expect(closed!.text).toContain('revision 2');
+    expect(closed!.text).toMatch(/closed/);
+    expect(closed!.text).toMatch(/do not grind/i);
+    expect(closed!.text).toContain(`${t.url}/orders/${s.order.id}`);
+    expect(closed!.text).not.toContain('Told other grinding');
+    expect(supersededMail(otherGrinder.email)).toHaveLength(0);
+
+    // Revision 3 supersedes revision 2 while it is on the grinder: that shop hears it is under way and both shops decide.
+    await otherGrinder.post(`/api/orders/${second.body.order.id}/move`, { version: 1, to: 'quoted', ...extras('quoted') });
+    await otherGrinder.post(`/api/orders/${second.body.order.id}/move`, { version: 2, to: 'grinding' });
+    const sheetNow = (await s.builder.get(`/api/sheets/${s.sheet.id}`)).body.sheet;
+    const again = await s.builder.patch(`/api/sheets/${s.sheet.id}`, { version: sheetNow.version, note: 'Third' });
+    expect(again.status).toBe(200);
+    const third = await s.builder.post(`/api/sheets/${s.sheet.id}/issue`, { version: again.body.sheet.version, grinderShopId: other.shopId });
+    expect(third.status).toBe(201);
+    const [underWay, ...others] = supersededMail(otherGrinder.email);
+    expect(others).toHaveLength(0);
+    expect(underWay!.text).toContain('revision 3');
+    expect(underWay!.text).toContain('On the grinder');
+    expect(underWay!.text).toContain('Told repair');
+    expect(underWay!.text).toContain(`${t.url}/orders/${second.body.order.id}`);
+    // Revision 1 was superseded already: its shop is not told again.
+    expect(supersededMail(s.grinder.email)).toHaveLength(1);
+  });
+
   it("gives the grinder the profile's core notes on the issued revision", async () => {
     const s = await issued('Core notes');
     const detail = (await s.grinder.get(`/api/orders/${s.order.id}`)).body.order;

@@ -1,6 +1,6 @@
 import { Router } from 'express';
 
-import { issueSchema, messageSchema, orderMoveSchema, type Order } from '@/shared/orders';
+import { issueSchema, messageSchema, orderMoveSchema, orderStageLabels, underWayStages, type Order, type OrderStage } from '@/shared/orders';
 
 import { actorOf, requireMember, requireShopRole } from '../access';
 import type { AppDeps } from '../deps';
@@ -12,6 +12,9 @@ import { addOrderMessage, grindingShops, incomingRows, issueSheet, loadDetail, l
 import type { Writer } from '../store/db';
 import { recipients } from '../store/team';
 
+/** Stages in which the cam is still with the grinder: a superseded order there is mailed to the grinding shop. */
+const grinderHoldsStages: readonly OrderStage[] = ['sent', 'quoted', 'grinding'];
+
 /**
  * Grind orders: a builder issues a sheet's draft revision to a grinding shop; both
  * shops then move the order through the stages in shared/orders.ts, and talk in its thread.
@@ -19,10 +22,11 @@ import { recipients } from '../store/team';
 export function ordersRouter({ db, auth, mailer, publicUrl }: AppDeps) {
   const router = Router();
 
-  /** Queues order mail in the transaction of the move it tells of: to the grinders on issue, else to the builders. */
-  function queueOrderMail(tx: Writer, kind: OrderMailKind, order: Order, extra: Pick<OrderMailFacts, 'message'> = {}) {
-    const shop = kind === 'issued' ? order.grinderShop : order.repairShop;
-    const to = recipients(tx, shop.id, kind === 'issued' ? 'grinder' : 'builder');
+  /** Queues order mail in the transaction of the move it tells of: to the grinders on issue and supersession, else to the builders. */
+  function queueOrderMail(tx: Writer, kind: OrderMailKind, order: Order, extra: Pick<OrderMailFacts, 'message' | 'superseded'> = {}) {
+    const toGrinders = kind === 'issued' || kind === 'superseded';
+    const shop = toGrinders ? order.grinderShop : order.repairShop;
+    const to = recipients(tx, shop.id, toGrinders ? 'grinder' : 'builder');
     const facts: OrderMailFacts = {
       orderId: order.id,
       publicUrl,
@@ -46,7 +50,14 @@ export function ordersRouter({ db, auth, mailer, publicUrl }: AppDeps) {
   router.post('/sheets/:id/issue', async (req, res) => {
     const body = parse(issueSchema, req.body);
     const ctx = await requireShopRole(auth, db, req, { sheet: ['issue'] });
-    const order = issueSheet(db, actorOf(ctx), req.params.id, body, (tx, issued) => queueOrderMail(tx, 'issued', issued, { message: body.note || null }));
+    const order = issueSheet(db, actorOf(ctx), req.params.id, body, (tx, issued, superseded) => {
+      queueOrderMail(tx, 'issued', issued, { message: body.note || null });
+      // The grinder of each order this supersedes hears of it while the work is still in their hands.
+      for (const old of superseded.filter((o) => grinderHoldsStages.includes(o.stage))) {
+        const underWay = underWayStages.includes(old.stage);
+        queueOrderMail(tx, 'superseded', old, { superseded: { by: issued.revisionNumber, stageLabel: orderStageLabels[old.stage], underWay } });
+      }
+    });
     res.status(201).json({ order });
   });
 

@@ -23,7 +23,7 @@ import { roleAllows, type ShopKind, type ShopRole } from '@/shared/roles';
 import { conflict, forbidden, HttpError, notFound } from '../http';
 import type { PageRequest } from '../paging';
 import { audit } from './audit';
-import type { Actor, AfterWrite, Reader } from './db';
+import type { Actor, AfterWrite, Reader, Writer } from './db';
 import { approvedRevisionId, issueTarget, revisionWithSupersession } from './sheets';
 
 type Side = 'builder' | 'grinder';
@@ -225,7 +225,17 @@ export function incomingRows(db: Reader, grinderShopId: string, page: PageReques
  * Issues the sheet's revision to send (issueTarget: the approved one, else the latest draft) to a grinding shop: one UPDATE flips it to issued, and
  * the order starts at `sent` with the note as the thread's first message, audited on the sheet and the order.
  */
-export function issueSheet(db: Db, who: Actor, sheetId: string, body: z.output<typeof issueSchema>, after?: AfterWrite<Order>): Order {
+/**
+ * Issues the sheet's revision to be ground (see issueTarget) to a grinding shop. `after` runs in the same
+ * transaction with the new order and the earlier orders on the sheet that it supersedes.
+ */
+export function issueSheet(
+  db: Db,
+  who: Actor,
+  sheetId: string,
+  body: z.output<typeof issueSchema>,
+  after?: (tx: Writer, issued: Order, superseded: Order[]) => void,
+): Order {
   return db.transaction((tx) => {
     const sheet = tx
       .select()
@@ -327,7 +337,17 @@ export function issueSheet(db: Db, who: Actor, sheetId: string, body: z.output<t
     }
     const [created] = selectOrders(tx, eq(schema.grindOrders.id, id));
     if (!created) throw new Error(`Order ${id} was not written`);
-    after?.(tx, created);
+    // The orders this issue supersedes for the first time (an older one was superseded by an earlier issue already).
+    const superseded = earlier.length
+      ? selectOrders(
+          tx,
+          inArray(
+            schema.grindOrders.id,
+            earlier.map((o) => o.id),
+          ),
+        ).filter((o) => o.supersededBy?.number === issued.number)
+      : [];
+    after?.(tx, created, superseded);
     return created;
   });
 }
