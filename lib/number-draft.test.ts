@@ -78,6 +78,16 @@ describe('parseNumberText for money', () => {
   });
 });
 
+describe('parseNumberText for counts', () => {
+  it('reads a whole number with thousands commas, and nothing else', () => {
+    expect(parseNumberText('98,500', { count: true })).toBe(98_500);
+    expect(parseNumberText(' 123456 ', { count: true })).toBe(123_456);
+    expect(parseNumberText('', { count: true })).toBeNull();
+    // A single comma is a decimal comma elsewhere; in a count it is a typo, never 12.5 or 125.
+    for (const text of ['12,5', '1,2345', '-5', '12.5', '1e3', 'abc']) expect(parseNumberText(text, { count: true }), text).toBeNaN();
+  });
+});
+
 describe('money fields', () => {
   const price = offerNumberSpecs.price;
   it('shows saved cents as dollars and saves what is typed as cents', () => {

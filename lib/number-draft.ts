@@ -44,15 +44,19 @@ export type NumberSpec = {
 const numberPattern = /^[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i;
 /** Dollars and cents: digits with optional thousands commas, at most two decimals, never negative. */
 const moneyPattern = /^(\d{1,3}(,\d{3})+|\d+)(\.\d{1,2})?$|^\.\d{1,2}$/;
+/** A count such as an odometer reading: digits with optional thousands commas, no decimals, never negative. */
+const countPattern = /^(\d{1,3}(,\d{3})+|\d+)$/;
 
 /**
  * The one reader of typed numbers: null when blank, NaN when it is not a number.
  * Accepts a decimal comma and a typographic minus; with `money`, a leading `$`
- * and thousands commas instead, and at most two decimals ("$1,050.50").
+ * and thousands commas instead, and at most two decimals ("$1,050.50"); with
+ * `count`, a whole number with thousands commas ("123,400").
  */
-export function parseNumberText(text: string, options: { money?: boolean } = {}): number | null {
+export function parseNumberText(text: string, options: { money?: boolean; count?: boolean } = {}): number | null {
   const cleaned = text.trim().replace(/\s+/g, '').replace(/^−/, '-');
   if (cleaned === '') return null;
+  if (options.count) return countPattern.test(cleaned) ? Number(cleaned.replace(/,/g, '')) : Number.NaN;
   if (options.money) {
     const amount = cleaned.replace(/^\$/, '');
     return moneyPattern.test(amount) ? Number(amount.replace(/,/g, '')) : Number.NaN;

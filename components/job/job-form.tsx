@@ -5,6 +5,7 @@ import { StyleSheet, View } from 'react-native';
 import { z } from 'zod';
 
 import { space } from '@/constants/theme';
+import { parseNumberText } from '@/lib/number-draft';
 import { jobCreateSchema, jobStatuses, jobStatusLabels, mileageSchema, type Job, type JobStatus } from '@/shared/jobs';
 
 import { Button } from '@/components/ui/button';
@@ -15,7 +16,7 @@ import { ErrorNotice } from '@/components/ui/query-state';
 /** The form keeps mileage as typed text; it becomes a whole number (or blank) on submit. */
 const jobFormSchema = jobCreateSchema.extend({
   mileage: z.preprocess(
-    (value) => (typeof value === 'string' ? (value.trim() === '' ? null : Number(value.replace(/[,\s]/g, ''))) : value),
+    (value) => (typeof value === 'string' ? parseNumberText(value, { count: true }) : value),
     mileageSchema.nullable(),
   ),
   findings: z.string().trim().max(8000, 'Keep it under 8000 characters'),
