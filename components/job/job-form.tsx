@@ -15,10 +15,7 @@ import { ErrorNotice } from '@/components/ui/query-state';
 
 /** The form keeps mileage as typed text; it becomes a whole number (or blank) on submit. */
 const jobFormSchema = jobCreateSchema.extend({
-  mileage: z.preprocess(
-    (value) => (typeof value === 'string' ? parseNumberText(value, { count: true }) : value),
-    mileageSchema.nullable(),
-  ),
+  mileage: z.preprocess((value) => (typeof value === 'string' ? parseNumberText(value, { count: true }) : value), mileageSchema.nullable()),
   findings: z.string().trim().max(8000, 'Keep it under 8000 characters'),
   status: z.enum(jobStatuses),
 });
