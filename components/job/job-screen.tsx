@@ -11,6 +11,7 @@ import { EngineSummary, JobProfiles, JobSheets } from '@/components/job/job-sect
 import { ErrorNotice, Pending } from '@/components/ui/query-state';
 import { Screen, Section } from '@/components/ui/screen';
 import { JobStatusChip } from '@/components/job/job-status-chip';
+import { JobTimeline } from '@/components/job/job-timeline';
 import { formatDateTime, formatMiles } from '@/constants/format';
 import { breakpoints, colors, space, type as typeScale } from '@/constants/theme';
 import { ApiError } from '@/lib/api';
@@ -80,6 +81,7 @@ function JobDetail({ job }: { job: Job }) {
                 {job.findings || 'Nothing recorded from teardown yet.'}
               </Text>
             </Section>
+            <JobTimeline jobId={job.id} />
             <JobPhotos jobId={job.id} canWrite={canMeasure} />
             <Section title="Record">
               <JobStatusChip status={job.status} />

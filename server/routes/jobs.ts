@@ -3,6 +3,7 @@ import { Router } from 'express';
 import { jobCreateSchema, jobPatchSchema } from '@/shared/jobs';
 
 import { actorOf, requireShopRole } from '../access';
+import { loadLifecycle } from '../store/lifecycle';
 import type { AppDeps } from '../deps';
 import { notFound, parse } from '../http';
 import { pageRequest, toPage } from '../paging';
@@ -35,6 +36,11 @@ export function jobsRouter({ db, auth }: AppDeps, rate: JobCreateRateLimit = def
     const job = findJob(db, ctx.shop.id, req.params.id);
     if (!job) throw notFound('Job');
     res.json({ job });
+  });
+
+  router.get('/:id/lifecycle', async (req, res) => {
+    const ctx = await requireShopRole(auth, db, req, { job: ['read'] });
+    res.json({ lifecycle: loadLifecycle(db, ctx.shop.id, req.params.id) });
   });
 
   router.patch('/:id', async (req, res) => {

@@ -89,6 +89,7 @@ export const matrix: Record<string, MatrixRow> = {
   'GET /api/jobs': { allow: bothShopsReaders, query: () => 'limit=200' },
   'POST /api/jobs': { allow: bothBuilders, body: () => makeJobBody() },
   'GET /api/jobs/:id': { allow: shopAReaders, params: (w) => ({ id: w.a.jobId }) },
+  'GET /api/jobs/:id/lifecycle': { allow: shopAReaders, params: (w) => ({ id: w.a.jobId }) },
   'PATCH /api/jobs/:id': {
     allow: builderA,
     params: (w) => ({ id: w.a.jobId }),

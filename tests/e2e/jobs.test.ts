@@ -49,6 +49,9 @@ describe.each(Object.keys(viewports) as ViewportName[])('at %s width', (viewport
     await page.getByTestId('job-submit').click();
 
     await shown(page, 'job-screen').getByText('Test Owner · 98,500 mi').waitFor();
+    // A new job stands at its first stage, and nothing after it is done.
+    await expect.poll(() => shown(page, 'stage-findings-state').textContent()).toBe(' · Next');
+    await expect.poll(() => shown(page, 'stage-returned-state').textContent()).toBe(' · Not yet');
     await screenshot(page, `job-${viewport}`);
 
     await page.getByTestId('nav-jobs').click();
@@ -61,6 +64,9 @@ describe.each(Object.keys(viewports) as ViewportName[])('at %s width', (viewport
     await shown(page, 'job-findings').fill('Worn lobe on cylinder 5 intake');
     await shown(page, 'job-submit').click();
     await shown(page, 'job-findings-text').filter({ hasText: 'Worn lobe on cylinder 5 intake' }).waitFor();
+    // Writing the findings moves the job on: the timeline is read again from the server.
+    await expect.poll(() => shown(page, 'stage-findings-state').textContent()).toBe(' · Done');
+    await expect.poll(() => shown(page, 'stage-measured-state').textContent()).toBe(' · Next');
     expect(errors).toEqual([]);
     await close();
   });
