@@ -55,8 +55,6 @@ export function useCreateJobMutation() {
     mutationFn: async (body: JobCreate) => (await api<{ job: Job }>('/api/jobs', { method: 'POST', body })).job,
     onSuccess: (job) => {
       queryClient.setQueryData(jobKeys.detail(job.id), job);
-      // Findings and the stage are read into the job's lifecycle.
-      void queryClient.invalidateQueries({ queryKey: jobKeys.lifecycle(job.id) });
       return invalidateJobList(queryClient);
     },
   });

@@ -1,4 +1,4 @@
-import { aliasedTable, and, asc, desc, eq, inArray, min, ne } from 'drizzle-orm';
+import { aliasedTable, and, desc, eq, inArray, min, ne } from 'drizzle-orm';
 
 import { schema } from '@/db';
 import { lifecycleStageLabels, lifecycleStages, type Lifecycle, type LifecycleFacts, type LifecycleStage, type LifecycleStageKey } from '@/shared/lifecycle';
@@ -7,22 +7,17 @@ import { notFound } from '../http';
 import type { Reader } from './db';
 import { latestRunOfRevision } from './fit-checks';
 import { findJob } from './jobs';
+import { orderEvents } from './orders';
 import { loadApproval } from './owner-page';
 
 const iso = (at: Date | number | null | undefined) => (at == null ? null : new Date(at).toISOString());
 
-/** When the order was first moved to each of the stages the lifecycle names, from the order's audit rows. */
+/** When the order was first moved to each of the stages the lifecycle names, from the order's events. */
 function movedAt(db: Reader, orderId: string): NonNullable<LifecycleFacts['order']>['movedAt'] {
-  const moves = db
-    .select({ detail: schema.auditLog.detail, at: schema.auditLog.createdAt })
-    .from(schema.auditLog)
-    .where(and(eq(schema.auditLog.entity, 'order'), eq(schema.auditLog.entityId, orderId), eq(schema.auditLog.action, 'move')))
-    .orderBy(asc(schema.auditLog.id))
-    .all();
   const out: NonNullable<LifecycleFacts['order']>['movedAt'] = {};
-  for (const m of moves) {
-    const to = m.detail?.to;
-    if ((to === 'shipped' || to === 'received' || to === 'installed') && !out[to]) out[to] = m.at.toISOString();
+  for (const e of orderEvents(db, orderId)) {
+    const to = e.action === 'move' ? e.detail?.to : undefined;
+    if ((to === 'shipped' || to === 'received' || to === 'installed') && !out[to]) out[to] = e.at;
   }
   return out;
 }
@@ -55,7 +50,16 @@ export function lifecycleFacts(db: Reader, shopId: string, jobId: string): Lifec
   const grinders = aliasedTable(schema.shops, 'grinder_shops');
   const sheetIds = db.select({ id: schema.specSheets.id }).from(schema.specSheets).where(eq(schema.specSheets.jobId, jobId));
   const orders = db
-    .select({ order: schema.grindOrders, number: schema.sheetRevisions.number, grinderName: grinders.name })
+    .select({
+      order: {
+        id: schema.grindOrders.id,
+        revisionId: schema.grindOrders.revisionId,
+        checksum: schema.grindOrders.checksum,
+        createdAt: schema.grindOrders.createdAt,
+      },
+      number: schema.sheetRevisions.number,
+      grinderName: grinders.name,
+    })
     .from(schema.grindOrders)
     .innerJoin(schema.sheetRevisions, eq(schema.sheetRevisions.id, schema.grindOrders.revisionId))
     .innerJoin(grinders, eq(grinders.id, schema.grindOrders.grinderShopId))

@@ -153,7 +153,8 @@ export function loadMessages(db: Reader, order: Order): OrderMessage[] {
     }));
 }
 
-function loadEvents(db: Reader, orderId: string): OrderEvent[] {
+/** The order's audit rows, oldest first: its issue, moves, messages and supersession, with who did each. */
+export function orderEvents(db: Reader, orderId: string): OrderEvent[] {
   return db
     .select({
       id: schema.auditLog.id,
@@ -179,7 +180,7 @@ export function loadDetail(db: Reader, order: Order): OrderDetail {
     .innerJoin(schema.jobs, eq(schema.jobs.id, schema.specSheets.jobId))
     .where(eq(schema.specSheets.id, order.sheetId))
     .get();
-  return { ...order, revision, vehicle: job?.vehicle ?? '', messages: loadMessages(db, order), events: loadEvents(db, order.id) };
+  return { ...order, revision, vehicle: job?.vehicle ?? '', messages: loadMessages(db, order), events: orderEvents(db, order.id) };
 }
 
 /** "From sent: the grinder can move it to quoted or changes-asked." */
