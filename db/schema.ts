@@ -368,6 +368,13 @@ export const grindOrders = sqliteTable(
       .default('sent'),
     quote: text('quote', { mode: 'json' }).$type<NonNullable<Order['quote']>>(),
     shipping: text('shipping', { mode: 'json' }).$type<NonNullable<Order['shipping']>>(),
+    /**
+     * Null while the order is a request for a quote. Set once it is the job's firm order, the one to grind: `owner` when the
+     * owner approved its revision, `builder` when a builder confirmed it without the owner, with `firm_reason`.
+     */
+    firmBy: text('firm_by', { enum: ['owner', 'builder'] }),
+    firmAt: integer('firm_at', { mode: 'timestamp_ms' }),
+    firmReason: text('firm_reason'),
     version: integer('version').notNull().default(1),
     issuedBy: text('issued_by').references(() => users.id, { onDelete: 'set null' }),
     createdAt: createdAt(),
@@ -486,32 +493,45 @@ export const shareLinks = sqliteTable(
   (t) => [index('share_links_job_idx').on(t.jobId, t.createdAt), index('share_links_shop_email_idx').on(t.shopId, t.email, t.createdAt)],
 );
 
-/** The owner's approval of one option; bound to the exact revision by its checksum. One per job. */
-export const ownerApprovals = sqliteTable('owner_approvals', {
-  id: text('id').primaryKey(),
-  shopId: shopRef(),
-  jobId: text('job_id')
-    .notNull()
-    .unique()
-    .references(() => jobs.id, { onDelete: 'cascade' }),
-  optionId: text('option_id')
-    .notNull()
-    .references(() => ownerOptions.id),
-  revisionId: text('revision_id')
-    .notNull()
-    .references(() => sheetRevisions.id),
-  checksum: text('checksum').notNull(),
-  optionTitle: text('option_title').notNull(),
-  priceCents: integer('price_cents').notNull(),
-  depositCents: integer('deposit_cents').notNull(),
-  /** The rest of the offer the owner read: its currency, lead time, and the checksum over all of it (shared/checksum.ts offerChecksum). */
-  currency: text('currency').notNull().default('usd'),
-  leadTimeDays: integer('lead_time_days').notNull().default(0),
-  offerChecksum: text('offer_checksum').notNull().default(''),
-  approverName: text('approver_name').notNull(),
-  shareLinkId: text('share_link_id').references(() => shareLinks.id, { onDelete: 'set null' }),
-  createdAt: createdAt(),
-});
+/**
+ * The owner's approval of one option; bound to the exact revision by its checksum. One live approval per job: an
+ * approval whose revision was superseded before grinding is withdrawn (kept, with when and why) and the owner asked again.
+ */
+export const ownerApprovals = sqliteTable(
+  'owner_approvals',
+  {
+    id: text('id').primaryKey(),
+    shopId: shopRef(),
+    jobId: text('job_id')
+      .notNull()
+      .references(() => jobs.id, { onDelete: 'cascade' }),
+    optionId: text('option_id')
+      .notNull()
+      .references(() => ownerOptions.id),
+    revisionId: text('revision_id')
+      .notNull()
+      .references(() => sheetRevisions.id),
+    checksum: text('checksum').notNull(),
+    optionTitle: text('option_title').notNull(),
+    priceCents: integer('price_cents').notNull(),
+    depositCents: integer('deposit_cents').notNull(),
+    /** The rest of the offer the owner read: its currency, lead time, and the checksum over all of it (shared/checksum.ts offerChecksum). */
+    currency: text('currency').notNull().default('usd'),
+    leadTimeDays: integer('lead_time_days').notNull().default(0),
+    offerChecksum: text('offer_checksum').notNull().default(''),
+    approverName: text('approver_name').notNull(),
+    shareLinkId: text('share_link_id').references(() => shareLinks.id, { onDelete: 'set null' }),
+    withdrawnAt: integer('withdrawn_at', { mode: 'timestamp_ms' }),
+    withdrawnReason: text('withdrawn_reason'),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    uniqueIndex('owner_approvals_one_live_per_job_idx')
+      .on(t.jobId)
+      .where(sql`withdrawn_at is null`),
+    index('owner_approvals_job_idx').on(t.jobId, t.createdAt),
+  ],
+);
 
 /**
  * A deposit: one checkout session at the payment service. At most one is open per

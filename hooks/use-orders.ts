@@ -1,6 +1,6 @@
 import { useInfiniteQuery, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 
-import type { IssueBody, Order, OrderDetail, OrderMessage, OrderMove } from '@/shared/orders';
+import type { ConfirmOrderBody, IssueBody, Order, OrderDetail, OrderMessage, OrderMove } from '@/shared/orders';
 import type { Page } from '@/shared/paging';
 
 import { api, pagePath, staleTimes } from '@/lib/api';
@@ -98,6 +98,15 @@ export function useMoveOrderMutation(id: string) {
   const settle = useSettleOrder();
   return useMutation({
     mutationFn: async (body: OrderMove) => (await api<{ order: OrderDetail }>(`/api/orders/${enc(id)}/move`, { method: 'POST', body })).order,
+    onSuccess: settle,
+  });
+}
+
+/** A builder makes a request for a quote the job's firm order without the owner, with a reason. */
+export function useConfirmOrderMutation(id: string) {
+  const settle = useSettleOrder();
+  return useMutation({
+    mutationFn: async (body: ConfirmOrderBody) => (await api<{ order: OrderDetail }>(`/api/orders/${enc(id)}/confirm`, { method: 'POST', body })).order,
     onSuccess: settle,
   });
 }

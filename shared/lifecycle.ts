@@ -32,9 +32,10 @@ export type LifecycleFacts = {
   firstMeasurementAt: string | null;
   firstLinkAt: string | null;
   approval: { at: string; name: string; optionTitle: string; revisionNumber: number; checksum: string } | null;
-  /** The firm order: the one on the approved revision. */
+  /** The firm order: the one on the approved revision, or the one a builder confirmed without the owner (`confirmedReason`). */
   order: {
     at: string;
+    confirmedReason: string | null;
     grinderName: string;
     revisionNumber: number;
     checksum: string;

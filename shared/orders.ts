@@ -43,12 +43,35 @@ export const underWayStages: readonly OrderStage[] = ['grinding', 'shipped', 're
 /** Whether the order is still one to work on: its revision is live, or the grinding had started before it was superseded. */
 export const orderIsLive = (order: Pick<Order, 'stage' | 'supersededBy'>) => order.supersededBy === null || underWayStages.includes(order.stage);
 
-/** Builder issues the sheet's current draft revision to one grinding shop. */
+/**
+ * Why an order may be ground. An order starts as a request for a quote (`firm: null`); it becomes the job's one firm
+ * order when the owner approves its revision (`owner`), or when a builder confirms it without the owner (`builder`,
+ * with the reason, also kept in the audit log).
+ */
+export type Firmness = { by: 'owner' | 'builder'; at: string; reason: string | null };
+
+/** The one move that needs a firm order: the grinder starts on the metal only for the revision the job goes ahead with. */
+export const firmOnlyStage: OrderStage = 'grinding';
+
+/** The builder's reason for going ahead without the owner's approval (a fleet account, an owner who said yes by phone…). */
+export const firmReasonSchema = z
+  .string({ error: 'Say why this goes ahead without the owner’s approval' })
+  .trim()
+  .min(8, 'Say in a few words why this goes ahead without the owner’s approval')
+  .max(500, 'Keep the reason under 500 characters');
+
+/** Builder issues the sheet's current draft revision to one grinding shop: a request for a quote, or with `confirm` a firm order. */
 export const issueSchema = z.strictObject({
   version: versionSchema,
   grinderShopId: z.string({ error: 'Choose the grinding shop' }).min(1, 'Choose the grinding shop'),
   note: z.string().trim().max(2000, 'Keep the note under 2000 characters').default(''),
+  /** Firm from the start without the owner's approval. Not needed for the owner's approved revision, which is firm anyway. */
+  confirm: z.strictObject({ reason: firmReasonSchema }).optional(),
 });
+
+/** A builder makes a request for a quote the job's firm order without the owner's approval. */
+export const confirmOrderSchema = z.strictObject({ version: versionSchema, reason: firmReasonSchema });
+export type ConfirmOrderBody = z.input<typeof confirmOrderSchema>;
 export type IssueBody = z.input<typeof issueSchema>;
 
 /** One move of an order; the fields a move needs are required by the server for that move. */
@@ -106,6 +129,8 @@ export type Order = {
   version: number;
   /** A later revision of the sheet was issued: the order's revision is no longer the one to grind. */
   supersededBy: Supersession | null;
+  /** Null for a request for a quote; the grinder may start grinding only a firm order. */
+  firm: Firmness | null;
 };
 
 /** What the grinder and the builder see on an order's page. */

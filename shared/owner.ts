@@ -150,8 +150,13 @@ export type OwnerDesk = {
   options: OwnerOption[];
   links: ShareLink[];
   approval: Approval | null;
+  /** The approval last withdrawn, while no other has taken its place: the owner is being asked again. */
+  withdrawn: WithdrawnApproval | null;
   payments: Payment[];
 };
+
+/** An approval the shop withdrew because its revision was superseded before grinding began. */
+export type WithdrawnApproval = { optionTitle: string; checksum: string; at: string; reason: string };
 
 /** One option as the owner reads it. */
 export type OwnerViewOption = {
@@ -199,6 +204,8 @@ export type OwnerView = {
   options: OwnerViewOption[];
   cautions: string[];
   approval: Approval | null;
+  /** The approval last withdrawn, while no other has taken its place (see OwnerDesk). */
+  withdrawn: WithdrawnApproval | null;
   payment: Payment | null;
   /** Currency of every price and deposit on the page. */
   currency: string;

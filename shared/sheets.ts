@@ -134,7 +134,8 @@ export type SheetWithHistory = Sheet & {
   /** Every revision, oldest first, without results (the latest in full is `current`). */
   revisions: RevisionSummary[];
   /** The revision issuing sends to a grinder: the owner's approved one once there is an approval, else the latest draft; null when none can go. */
-  toIssue: { number: number; approved: boolean } | null;
+  /** `replacesApproved`: the owner's approved revision this one supersedes; issuing it withdraws that approval. */
+  toIssue: { number: number; approved: boolean; replacesApproved: number | null } | null;
   /** Why no revision can be issued (toIssue is null), in words for the builder. */
   issueBlocked: string | null;
 };

@@ -2,6 +2,7 @@ import { Link } from 'expo-router';
 import { StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 
 import { LoadMore } from '@/components/ui/load-more';
+import { FirmnessChip } from '@/components/order/order-firmness';
 import { OrderStageChip } from '@/components/order/order-stage-chip';
 import { SupersededChip } from '@/components/order/superseded';
 import { EmptyState, ErrorNotice, Pending } from '@/components/ui/query-state';
@@ -48,6 +49,7 @@ function IncomingCard({ order, wide }: { order: Order; wide: boolean }) {
         <View style={styles.cardInner}>
           <View style={styles.head}>
             <OrderStageChip stage={order.stage} />
+            <FirmnessChip order={order} testID="incoming-firmness" />
             <SupersededChip supersededBy={order.supersededBy} testID="incoming-superseded" />
             <Text style={styles.age} testID="incoming-age">
               {age === 'just now' ? 'Sent just now' : `Sent ${age} ago`}

@@ -13,6 +13,10 @@ function describe(event: OrderEvent): string {
   if (event.action === 'issue') return orderStageLabels.sent;
   const by = event.detail?.by;
   if (event.action === 'supersede' && typeof by === 'number') return `Superseded by revision ${by}`;
+  if (event.action === 'confirm') {
+    const reason = event.detail?.reason;
+    return by === 'owner' ? 'Firm order: the owner approved' : `Firm order without the owner: ${typeof reason === 'string' ? reason : ''}`;
+  }
   return event.action.replace(/[._-]+/g, ' ').replace(/^\w/, (c) => c.toUpperCase());
 }
 

@@ -5,7 +5,7 @@ import { StyleSheet, Text, View } from 'react-native';
 import { colors, fonts, radius, space, type as typeScale } from '@/constants/theme';
 import { useMoveOrderMutation } from '@/hooks/use-orders';
 import { blankMove, moveFieldPaths, moveRules, quoteNumberSpecs, type MoveDraft } from '@/lib/order-move-fields';
-import { orderIsLive, orderMoves, type Order, type OrderMove, type OrderStage } from '@/shared/orders';
+import { firmOnlyStage, orderIsLive, orderMoves, type Order, type OrderMove, type OrderStage } from '@/shared/orders';
 import { calcUnits } from '@/state/units';
 
 import { Button } from '@/components/ui/button';
@@ -32,7 +32,8 @@ const needsForm: Partial<Record<OrderStage, true>> = { quoted: true, 'changes-as
 /** The moves this side may make from the order's stage, as buttons, with the form each one needs. */
 export function OrderMoves({ order, side }: { order: Order; side: OrderSide }) {
   // A superseded order that had not reached the grinder's wheel is closed: the server refuses every move on it.
-  const moves = orderIsLive(order) ? orderMoves[order.stage].filter((m) => m.by === side) : [];
+  // A request for a quote is never ground: the grinding move waits for the firm order (the server refuses it too).
+  const moves = orderIsLive(order) ? orderMoves[order.stage].filter((m) => m.by === side && (order.firm !== null || m.to !== firmOnlyStage)) : [];
   const move = useMoveOrderMutation(order.id);
   const [open, setOpen] = useState<OrderStage | null>(null);
   // Rebuilt each render, so the form open now decides what the next submit checks (money and days need no unit toggle).

@@ -2,6 +2,7 @@ import { StyleSheet, Text, useWindowDimensions, View } from 'react-native';
 
 import { Button } from '@/components/ui/button';
 import { OrderEvents } from '@/components/order/order-events';
+import { ConfirmOrderPanel, FirmnessChip, firmnessText } from '@/components/order/order-firmness';
 import { OrderMoves, type OrderSide } from '@/components/order/order-moves';
 import { orderSide } from '@/lib/order-side';
 import { OrderStageChip } from '@/components/order/order-stage-chip';
@@ -68,7 +69,13 @@ function OrderView({ order, side, back }: { order: OrderDetail; side: OrderSide 
 
   const stage = (
     <Section title="Stage">
-      <OrderStageChip stage={order.stage} testID="order-stage" />
+      <View style={styles.chips}>
+        <OrderStageChip stage={order.stage} testID="order-stage" />
+        <FirmnessChip order={order} testID="order-firmness" />
+      </View>
+      <Text style={styles.body} testID="order-firmness-text">
+        {firmnessText(order, side)}
+      </Text>
       <SupersededNotice order={order} testID="order-superseded" />
       {order.quote ? (
         <Text style={styles.body} testID="order-quote">
@@ -81,6 +88,7 @@ function OrderView({ order, side, back }: { order: OrderDetail; side: OrderSide 
         </Text>
       ) : null}
       {side ? <OrderMoves order={order} side={side} /> : null}
+      {side === 'builder' ? <ConfirmOrderPanel order={order} /> : null}
       {waitingOn ? (
         <Text style={styles.meta}>
           Next from {waitingOn.by === 'grinder' ? order.grinderShop.name : order.repairShop.name}: {orderStageLabels[waitingOn.to].toLowerCase()}.
@@ -151,6 +159,7 @@ function Fact({ label, value, testID }: { label: string; value: string; testID?:
 }
 
 const styles = StyleSheet.create({
+  chips: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
   stack: { gap: space.lg },
   columns: { flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' },
   main: { flex: 3, minWidth: 0 },

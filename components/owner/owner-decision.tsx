@@ -82,6 +82,12 @@ export function OwnerDecision({ base, view, chosen }: { base: string; view: Owne
       <Text role="heading" aria-level={2} style={styles.heading}>
         Approve an option
       </Text>
+      {view.withdrawn ? (
+        <Text style={styles.body} role="alert" testID="owner-withdrawn">
+          Please approve again. Your approval of “{view.withdrawn.optionTitle}” was withdrawn on {formatDateTime(view.withdrawn.at)}, before any metal was cut:{' '}
+          {view.withdrawn.reason} Nothing is ground until you approve the option as it is now. A deposit you already paid counts toward it.
+        </Text>
+      ) : null}
       {chosen ? (
         <Text style={styles.body} testID="owner-chosen">
           You chose “{chosen.title}”: {money(chosen.priceCents)}, with a {money(chosen.depositCents)} deposit, ready in about {chosen.leadTimeDays} days.

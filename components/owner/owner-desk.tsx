@@ -66,7 +66,9 @@ export function OwnerStatus({
         </Text>
       ) : (
         <Text style={styles.body} testID="desk-approval">
-          Not approved yet.
+          {desk.withdrawn
+            ? `Approval withdrawn on ${formatDateTime(desk.withdrawn.at)}: ${desk.withdrawn.reason} The owner was e-mailed to approve again; offer them the current revision.`
+            : 'Not approved yet.'}
         </Text>
       )}
       <Text style={[styles.body, paid && styles.paid]} testID="desk-payment">

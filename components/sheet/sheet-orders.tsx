@@ -11,6 +11,7 @@ import type { SheetWithHistory } from '@/shared/sheets';
 import { Button } from '@/components/ui/button';
 import { noteInput } from '@/components/ui/note-input';
 import { ChoiceGroup } from '@/components/ui/choice-group';
+import { FirmnessChip } from '@/components/order/order-firmness';
 import { OrderMoves } from '@/components/order/order-moves';
 import { OrderStageChip } from '@/components/order/order-stage-chip';
 import { SupersededChip } from '@/components/order/superseded';
@@ -25,6 +26,8 @@ export function IssuePanel({ sheet }: { sheet: SheetWithHistory }) {
   const [shopId, setShopId] = useState('');
   const [note, setNote] = useState('');
   const [confirming, setConfirming] = useState(false);
+  const [firm, setFirm] = useState<'quote' | 'firm'>('quote');
+  const [reason, setReason] = useState('');
 
   if (!target) {
     return (
@@ -43,6 +46,12 @@ export function IssuePanel({ sheet }: { sheet: SheetWithHistory }) {
         {target.approved ? `The owner approved revision ${target.number}: that is the revision to send. ` : ''}Issuing freezes revision {target.number} for
         good. The grinder sees this revision only, never a draft.
       </Text>
+      {target.replacesApproved !== null ? (
+        <Text style={styles.warn} role="alert" testID="issue-withdraws">
+          The owner approved revision {target.replacesApproved}. Issuing revision {target.number} supersedes it before grinding, so their approval is withdrawn
+          and they are e-mailed to approve again. Offer them revision {target.number} on the owner page.
+        </Text>
+      ) : null}
       {shops.isPending ? <Pending label="Loading grinding shops…" /> : null}
       {shops.isError ? <ErrorNotice error={shops.error} onRetry={() => shops.refetch()} /> : null}
       {shops.data && shops.data.length === 0 ? <EmptyState title="No grinding shops on Lobewright yet" /> : null}
@@ -58,6 +67,39 @@ export function IssuePanel({ sheet }: { sheet: SheetWithHistory }) {
             }}
             testID="issue-shop"
           />
+          {target.approved ? (
+            <Text style={styles.meta}>It goes as the firm order: the one revision of this job the grinder may grind.</Text>
+          ) : (
+            <>
+              <ChoiceGroup
+                label="Send as"
+                value={firm}
+                choices={[
+                  { value: 'quote', label: 'Request for a quote' },
+                  { value: 'firm', label: 'Firm order without the owner' },
+                ]}
+                onChange={(v) => setFirm(v === 'firm' ? 'firm' : 'quote')}
+                testID="issue-kind"
+              />
+              {firm === 'firm' ? (
+                <>
+                  <Text style={styles.label} nativeID="issue-reason-label">
+                    Why it goes ahead without the owner
+                  </Text>
+                  <TextInput
+                    accessibilityLabel="Why it goes ahead without the owner"
+                    aria-labelledby="issue-reason-label"
+                    value={reason}
+                    onChangeText={setReason}
+                    style={styles.note}
+                    testID="issue-reason"
+                  />
+                </>
+              ) : (
+                <Text style={styles.meta}>The grinder can quote it but not grind it until the owner approves this revision or you confirm it.</Text>
+              )}
+            </>
+          )}
           <Text style={styles.label} nativeID="issue-note-label">
             Note for the grinder
           </Text>
@@ -74,7 +116,8 @@ export function IssuePanel({ sheet }: { sheet: SheetWithHistory }) {
           {confirming && chosen ? (
             <View style={styles.confirm} role="alert" testID="issue-confirm-box">
               <Text style={styles.body}>
-                Send revision {current.number} of “{sheet.title}” to {chosen.name}? It cannot be edited afterwards.
+                Send revision {current.number} of “{sheet.title}” to {chosen.name} as{' '}
+                {target.approved || firm === 'firm' ? 'the firm order' : 'a request for a quote'}? It cannot be edited afterwards.
               </Text>
               <View style={styles.row}>
                 <Button
@@ -82,7 +125,7 @@ export function IssuePanel({ sheet }: { sheet: SheetWithHistory }) {
                   busy={issue.isPending}
                   onPress={() =>
                     issue.mutate(
-                      { version: sheet.version, grinderShopId: chosen.id, note },
+                      { version: sheet.version, grinderShopId: chosen.id, note, ...(firm === 'firm' && !target.approved ? { confirm: { reason } } : {}) },
                       {
                         onSuccess: () => {
                           setConfirming(false);
@@ -138,6 +181,7 @@ function OrderRow({ order, canMove }: { order: Order; canMove: boolean }) {
           Revision {order.revisionNumber} · {order.grinderShop.name}
         </Text>
         <OrderStageChip stage={order.stage} testID={`sheet-order-stage-${order.revisionNumber}`} />
+        <FirmnessChip order={order} testID={`sheet-order-firm-${order.revisionNumber}`} />
         <SupersededChip supersededBy={order.supersededBy} testID={`sheet-order-superseded-${order.revisionNumber}`} />
       </View>
       <Text style={styles.meta}>
@@ -164,6 +208,15 @@ function OrderRow({ order, canMove }: { order: Order; canMove: boolean }) {
 const styles = StyleSheet.create({
   body: { ...typeScale.body, color: colors.ink },
   meta: { ...typeScale.small, color: colors.inkMuted },
+  warn: {
+    ...typeScale.body,
+    color: colors.ink,
+    padding: space.md,
+    borderRadius: radius.md,
+    borderWidth: 1,
+    borderColor: colors.watch,
+    backgroundColor: colors.watchSoft,
+  },
   label: { ...typeScale.label, color: colors.ink },
   mono: { fontFamily: fonts.mono, color: colors.ink },
   row: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },

@@ -1,7 +1,11 @@
 import { quoteSentence } from '@/constants/format';
 
+import type { Order } from '@/shared/orders';
+
+import type { Writer } from '../store/db';
+import { recipients } from '../store/team';
 import { composeMail } from './compose';
-import type { MailMessage } from './index';
+import { queueEach, type Mailer, type MailMessage } from './index';
 
 /** What an order e-mail needs to say; everything here is already checked by the route. */
 export type OrderMailFacts = {
@@ -15,11 +19,13 @@ export type OrderMailFacts = {
   quote?: { priceCents: number; leadTimeDays: number } | null;
   shipping?: { carrier: string; tracking: string } | null;
   message?: string | null;
+  /** Whether the order is firm (the one to grind) or a request for a quote, and why it is firm. */
+  firm?: { by: 'owner' | 'builder'; reason: string | null } | null;
   /** For a superseded order: the revision that supersedes it, and the stage the order had reached. */
   superseded?: { by: number; stageLabel: string; underWay: boolean } | null;
 };
 
-export type OrderMailKind = 'issued' | 'quoted' | 'changes-asked' | 'shipped' | 'superseded';
+export type OrderMailKind = 'issued' | 'confirmed' | 'quoted' | 'changes-asked' | 'shipped' | 'superseded';
 
 /** The order's page in the app. */
 export function orderLink(publicUrl: string, orderId: string) {
@@ -37,9 +43,22 @@ function content(kind: OrderMailKind, f: OrderMailFacts): { subject: string; lin
           `${f.repairShopName} has sent you ${sheet} to grind.`,
           'The revision is frozen: what you open is exactly what they sent.',
           ...(f.message ? [`Their note: ${f.message}`] : []),
+          f.firm
+            ? 'This is a firm order: once you have quoted it, you may grind it.'
+            : 'This is a request for a quote: quote it, but do not grind it until they confirm it.',
           'Open it to accept with a quote or to ask for changes.',
         ],
         action: 'Open the spec sheet',
+      };
+    case 'confirmed':
+      return {
+        subject: `Firm order: ${f.sheetTitle}, rev ${f.revisionNumber} from ${f.repairShopName}`,
+        lines: [
+          `${f.repairShopName} confirmed ${sheet} as the firm order for this job.`,
+          f.firm?.by === 'builder' ? `They go ahead without the owner's approval: ${f.firm.reason ?? ''}` : 'The vehicle owner approved this revision.',
+          'Once it is quoted you may start grinding. No other revision of this job will be firm.',
+        ],
+        action: 'Open the order',
       };
     case 'quoted':
       return {
@@ -105,4 +124,34 @@ export function orderMail(kind: OrderMailKind, to: { email: string; name: string
     link: orderLink(facts.publicUrl, facts.orderId),
     footer: 'Sent by Lobewright for the shops on this order.',
   });
+}
+
+/**
+ * Queues order mail in the transaction of the change it tells of: to the grinders on issue, confirmation and
+ * supersession, else to the builders.
+ */
+export function queueOrderMail(
+  tx: Writer,
+  { mailer, publicUrl }: { mailer: Mailer; publicUrl: string },
+  kind: OrderMailKind,
+  order: Order,
+  extra: Pick<OrderMailFacts, 'message' | 'superseded'> = {},
+) {
+  const toGrinders = kind === 'issued' || kind === 'confirmed' || kind === 'superseded';
+  const shop = toGrinders ? order.grinderShop : order.repairShop;
+  const to = recipients(tx, shop.id, toGrinders ? 'grinder' : 'builder');
+  const facts: OrderMailFacts = {
+    orderId: order.id,
+    publicUrl,
+    sheetTitle: order.sheetTitle,
+    revisionNumber: order.revisionNumber,
+    checksum: order.checksum,
+    repairShopName: order.repairShop.name,
+    grinderShopName: order.grinderShop.name,
+    quote: order.quote,
+    shipping: order.shipping,
+    firm: order.firm,
+    ...extra,
+  };
+  queueEach(mailer, tx, to, (person) => orderMail(kind, person, facts), shop.id);
 }

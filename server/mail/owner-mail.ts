@@ -86,3 +86,20 @@ export function queueBuilderMail(
   const vehicle = jobVehicle(tx, jobId) ?? 'vehicle';
   queueEach(mailer, tx, recipients(tx, shopId, 'builder'), (person) => ownerEventMail(kind, person, { ...facts, publicUrl, jobId, vehicle }), shopId);
 }
+
+/** To the owner: the approval they gave was withdrawn because the shop changed the spec before grinding; they are asked again. */
+export function approvalWithdrawnMail(to: Person, f: { shopName: string; vehicle: string; optionTitle: string; reason: string; url: string }): MailMessage {
+  return composeMail({
+    to,
+    subject: `${f.shopName}: please approve again for your ${f.vehicle}`,
+    lines: [
+      `You approved "${f.optionTitle}" for your ${f.vehicle}. Before the cam was ground, the shop changed its spec sheet.`,
+      `Why: ${f.reason}`,
+      'Your approval no longer stands, so nothing is ground until you approve again. A deposit you paid is kept and counts toward the new one.',
+      'Open the page with the link the shop sent you, or sign in with this address, to read the option as it is now.',
+    ],
+    action: 'Sign in to Your vehicles',
+    link: f.url,
+    footer: `Sent by Lobewright for ${f.shopName}.`,
+  });
+}

@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { schema } from '@/db';
 import { startLocalPayments } from '@/server/payments';
 import type { OwnerView } from '@/shared/owner';
-import { createTestApp, type TestApp } from '@/tests/fixtures';
+import { createTestApp, makeShop, memberWithRole, type TestApp } from '@/tests/fixtures';
 import { ownerPageKit } from '@/tests/owner-page-kit';
 
 let t: TestApp;
@@ -213,5 +213,39 @@ describe('deposits that cannot be forged or paid twice (findings 2 and 3)', () =
         .all()
         .filter((m) => m.to === s.builder.email && m.subject.startsWith('Deposit paid')),
     ).toHaveLength(1);
+  });
+});
+
+describe('a deposit paid under an approval that was withdrawn', () => {
+  it('counts toward the owner’s new approval: nothing more is asked while it covers the deposit', async () => {
+    const s = await sharedJob('Carried deposit');
+    const o = owner();
+    const read = async () => ((await o.get(`/api/share/${s.token}`)).body.view as OwnerView).options[0]!;
+    const approve = async () => {
+      const option = await read();
+      return o.post(`/api/share/${s.token}/approve`, { optionId: option.id, checksum: option.checksum, offer: option.offer, name: 'Test Owner', agree: true });
+    };
+    expect((await approve()).status).toBe(201);
+    const start = await o.post(`/api/share/${s.token}/deposit`);
+    expect((await fetch(new URL(start.body.url), { method: 'POST', redirect: 'manual' })).status).toBe(303);
+
+    // The grinder asks for changes on the approved revision; the builder issues revision 2, which withdraws the approval.
+    const grinding = await makeShop(t, 'grinding', 'Carried deposit grinding');
+    const grinder = await memberWithRole(t, grinding.shopId, 'grinder');
+    const sheet = () => s.builder.get(`/api/sheets/${s.sheet.id}`).then((r) => r.body.sheet);
+    const first = (await s.builder.post(`/api/sheets/${s.sheet.id}/issue`, { version: (await sheet()).version, grinderShopId: grinding.shopId })).body.order;
+    await grinder.post(`/api/orders/${first.id}/move`, { version: first.version, to: 'changes-asked', message: 'Core too worn for this base circle' });
+    await s.builder.patch(`/api/sheets/${s.sheet.id}`, { version: (await sheet()).version, note: 'Smaller base circle' });
+    expect((await s.builder.post(`/api/sheets/${s.sheet.id}/issue`, { version: (await sheet()).version, grinderShopId: grinding.shopId })).status).toBe(201);
+    expect(((await o.get(`/api/share/${s.token}`)).body.view as OwnerView).approval).toBeNull();
+
+    const desk = (await s.builder.get(`/api/jobs/${s.jobId}/owner`)).body.desk;
+    await s.builder.patch(`/api/owner-options/${desk.options[0].id}`, { version: desk.options[0].version, refreshRevision: true });
+    expect((await approve()).status).toBe(201);
+    const again = await o.post(`/api/share/${s.token}/deposit`);
+    expect(again.status).toBe(409);
+    expect(again.body.error.message).toMatch(/earlier approval covers it/);
+    expect(((await o.get(`/api/share/${s.token}`)).body.view as OwnerView).payment).toMatchObject({ state: 'paid', amountCents: 22_500 });
+    expect(t.db.select().from(schema.payments).where(eq(schema.payments.jobId, s.jobId)).all()).toHaveLength(1);
   });
 });

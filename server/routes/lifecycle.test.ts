@@ -105,13 +105,19 @@ describe('a job’s lifecycle', { timeout: 30_000 }, () => {
     expect(l.next).toBe('measured');
   });
 
-  it('counts no order as firm before the owner approves', async () => {
+  it('counts a request for a quote as no firm order, and a builder’s confirmation with its reason as one', async () => {
     const s = await sharedJob('Lifecycle quote shop');
     const grinding = await makeShop(t, 'grinding', 'Lifecycle quote grinding');
     const sheet = (await s.builder.get(`/api/sheets/${s.sheet.id}`)).body.sheet;
-    expect((await s.builder.post(`/api/sheets/${s.sheet.id}/issue`, { version: sheet.version, grinderShopId: grinding.shopId })).status).toBe(201);
+    const issued = await s.builder.post(`/api/sheets/${s.sheet.id}/issue`, { version: sheet.version, grinderShopId: grinding.shopId });
+    expect(issued.status).toBe(201);
     const l = (await s.builder.get(`/api/jobs/${s.jobId}/lifecycle`)).body.lifecycle as Lifecycle;
-    expect(l.stages.find((x) => x.key === 'ordered')).toMatchObject({ done: false, detail: '1 order out, none on an approved revision' });
+    expect(l.stages.find((x) => x.key === 'ordered')).toMatchObject({ done: false, detail: '1 order out for a quote, none firm yet' });
+    const reason = 'Fleet account: signed off by phone';
+    expect((await s.builder.post(`/api/orders/${issued.body.order.id}/confirm`, { version: 1, reason })).status).toBe(200);
+    const after = (await s.builder.get(`/api/jobs/${s.jobId}/lifecycle`)).body.lifecycle as Lifecycle;
+    expect(after.stages.find((x) => x.key === 'ordered')).toMatchObject({ done: true, detail: expect.stringContaining(issued.body.order.checksum) });
+    expect(after.stages.find((x) => x.key === 'approved')?.detail).toContain(reason);
   });
 
   it('is 404 for another shop’s job', async () => {

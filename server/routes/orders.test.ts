@@ -31,9 +31,18 @@ async function setup(name = 'Order shop') {
   return { ...repair, builder, sheet, grinderShopId: grinding.shopId, grinderFounder: grinding.founder, grinder };
 }
 
+/** The reason the tests give for a firm order without the owner's approval (invented). */
+const fleetReason = { reason: 'Fleet account: the fleet manager signs off by phone' };
+
+/** A sheet issued as a firm order the builder confirmed (the shop skips the owner step), ready to quote and grind. */
 async function issued(name?: string) {
   const s = await setup(name);
-  const res = await s.builder.post(`/api/sheets/${s.sheet.id}/issue`, { version: s.sheet.version, grinderShopId: s.grinderShopId, note: 'Grind on our core' });
+  const res = await s.builder.post(`/api/sheets/${s.sheet.id}/issue`, {
+    version: s.sheet.version,
+    grinderShopId: s.grinderShopId,
+    note: 'Grind on our core',
+    confirm: fleetReason,
+  });
   expect(res.status).toBe(201);
   return { ...s, order: res.body.order };
 }
@@ -527,7 +536,11 @@ describe('a later revision supersedes the earlier orders', { timeout: 30_000 }, 
 
     // Revision 2 goes to another grinding shop: the first shop hears its order is closed, and not who has the work now.
     const edited = await s.builder.patch(`/api/sheets/${s.sheet.id}`, { version: 2, note: 'Second' });
-    const second = await s.builder.post(`/api/sheets/${s.sheet.id}/issue`, { version: edited.body.sheet.version, grinderShopId: other.shopId });
+    const second = await s.builder.post(`/api/sheets/${s.sheet.id}/issue`, {
+      version: edited.body.sheet.version,
+      grinderShopId: other.shopId,
+      confirm: fleetReason,
+    });
     expect(second.status).toBe(201);
     const [closed, ...more] = supersededMail(s.grinder.email);
     expect(more).toHaveLength(0);

@@ -1,16 +1,37 @@
 import { Router } from 'express';
 
-import { issueSchema, messageSchema, orderMoveSchema, orderStageLabels, underWayStages, type Order, type OrderStage } from '@/shared/orders';
+import {
+  confirmOrderSchema,
+  issueSchema,
+  messageSchema,
+  orderMoveSchema,
+  orderStageLabels,
+  underWayStages,
+  type Order,
+  type OrderStage,
+} from '@/shared/orders';
 
 import { actorOf, requireMember, requireShopRole } from '../access';
 import type { AppDeps } from '../deps';
 import { forbidden, parse } from '../http';
 import { queueEach } from '../mail';
-import { orderMail, type OrderMailFacts, type OrderMailKind } from '../mail/order-mail';
+import { queueOrderMail as queueOrderMailOf, type OrderMailFacts, type OrderMailKind } from '../mail/order-mail';
+import { approvalWithdrawnMail } from '../mail/owner-mail';
+import { jobVehicle } from '../store/jobs';
 import { pageRequest, toPage } from '../paging';
-import { addOrderMessage, grindingShops, incomingRows, issueSheet, loadDetail, loadMessages, moveOrder, requireOrder, sheetOrders } from '../store/orders';
+import {
+  addOrderMessage,
+  confirmOrder,
+  grindingShops,
+  incomingRows,
+  issueSheet,
+  loadDetail,
+  loadMessages,
+  moveOrder,
+  requireOrder,
+  sheetOrders,
+} from '../store/orders';
 import type { Writer } from '../store/db';
-import { recipients } from '../store/team';
 
 /** Stages in which the cam is still with the grinder: a superseded order there is mailed to the grinding shop. */
 const grinderHoldsStages: readonly OrderStage[] = ['sent', 'quoted', 'grinding'];
@@ -19,28 +40,11 @@ const grinderHoldsStages: readonly OrderStage[] = ['sent', 'quoted', 'grinding']
  * Grind orders: a builder issues a sheet's draft revision to a grinding shop; both
  * shops then move the order through the stages in shared/orders.ts, and talk in its thread.
  */
-export function ordersRouter({ db, auth, mailer, publicUrl }: AppDeps) {
+export function ordersRouter(deps: AppDeps) {
+  const { db, auth, publicUrl } = deps;
   const router = Router();
-
-  /** Queues order mail in the transaction of the move it tells of: to the grinders on issue and supersession, else to the builders. */
-  function queueOrderMail(tx: Writer, kind: OrderMailKind, order: Order, extra: Pick<OrderMailFacts, 'message' | 'superseded'> = {}) {
-    const toGrinders = kind === 'issued' || kind === 'superseded';
-    const shop = toGrinders ? order.grinderShop : order.repairShop;
-    const to = recipients(tx, shop.id, toGrinders ? 'grinder' : 'builder');
-    const facts: OrderMailFacts = {
-      orderId: order.id,
-      publicUrl,
-      sheetTitle: order.sheetTitle,
-      revisionNumber: order.revisionNumber,
-      checksum: order.checksum,
-      repairShopName: order.repairShop.name,
-      grinderShopName: order.grinderShop.name,
-      quote: order.quote,
-      shipping: order.shipping,
-      ...extra,
-    };
-    queueEach(mailer, tx, to, (person) => orderMail(kind, person, facts), shop.id);
-  }
+  const queueOrderMail = (tx: Writer, kind: OrderMailKind, order: Order, extra?: Pick<OrderMailFacts, 'message' | 'superseded'>) =>
+    queueOrderMailOf(tx, deps, kind, order, extra);
 
   router.get('/grinding-shops', async (req, res) => {
     await requireShopRole(auth, db, req, { sheet: ['issue'] });
@@ -50,8 +54,26 @@ export function ordersRouter({ db, auth, mailer, publicUrl }: AppDeps) {
   router.post('/sheets/:id/issue', async (req, res) => {
     const body = parse(issueSchema, req.body);
     const ctx = await requireShopRole(auth, db, req, { sheet: ['issue'] });
-    const order = issueSheet(db, actorOf(ctx), req.params.id, body, (tx, issued, superseded) => {
+    const order = issueSheet(db, actorOf(ctx), req.params.id, body, (tx, issued, superseded, withdrawn) => {
       queueOrderMail(tx, 'issued', issued, { message: body.note || null });
+      // The owner whose approval this issue withdrew is asked again.
+      if (withdrawn) {
+        const vehicle = jobVehicle(tx, withdrawn.row.jobId) ?? 'vehicle';
+        const facts = {
+          shopName: issued.repairShop.name,
+          vehicle,
+          optionTitle: withdrawn.row.optionTitle,
+          reason: withdrawn.row.withdrawnReason ?? '',
+          url: `${publicUrl.replace(/\/+$/, '')}/my`,
+        };
+        queueEach(
+          deps.mailer,
+          tx,
+          withdrawn.emails.map((email) => ({ email, name: '' })),
+          (person) => approvalWithdrawnMail(person, facts),
+          issued.repairShop.id,
+        );
+      }
       // The grinder of each order this supersedes hears of it while the work is still in their hands.
       for (const old of superseded.filter((o) => grinderHoldsStages.includes(o.stage))) {
         const underWay = underWayStages.includes(old.stage);
@@ -87,6 +109,13 @@ export function ordersRouter({ db, auth, mailer, publicUrl }: AppDeps) {
       const { stage } = moved.order;
       if (stage === 'quoted' || stage === 'changes-asked' || stage === 'shipped') queueOrderMail(tx, stage, moved.order, { message: moved.message });
     });
+    res.json({ order: loadDetail(db, order) });
+  });
+
+  router.post('/orders/:id/confirm', async (req, res) => {
+    const body = parse(confirmOrderSchema, req.body);
+    const ctx = await requireMember(auth, db, req);
+    const order = confirmOrder(db, ctx, req.params.id, body, (tx, confirmed) => queueOrderMail(tx, 'confirmed', confirmed));
     res.json({ order: loadDetail(db, order) });
   });
 

@@ -264,11 +264,11 @@ describe('an approval names the revision the sheet holds (one job, one truth, fi
 
     // The builder edits after the approval: revision 2 is written, the approved revision 1 stays word for word.
     const sheet = (await s.builder.get(`/api/sheets/${s.sheet.id}`)).body.sheet;
-    expect(sheet.toIssue).toEqual({ number: 1, approved: true });
+    expect(sheet.toIssue).toEqual({ number: 1, approved: true, replacesApproved: null });
     const saved = await s.builder.patch(`/api/sheets/${s.sheet.id}`, { version: sheet.version, note: 'A later idea, not approved' });
     expect(saved.status).toBe(200);
     expect(saved.body.sheet.current.number).toBe(2);
-    expect(saved.body.sheet.toIssue).toEqual({ number: 1, approved: true });
+    expect(saved.body.sheet.toIssue).toEqual({ number: 1, approved: true, replacesApproved: null });
     const after = t.db.select().from(schema.sheetRevisions).where(eq(schema.sheetRevisions.id, approvedRow.id)).get()!;
     expect(after).toEqual(approvedRow);
     expect(revisionChecksum(after)).toBe(ok.body.approval.checksum);
@@ -282,11 +282,10 @@ describe('an approval names the revision the sheet holds (one job, one truth, fi
     const issued = await s.builder.post(`/api/sheets/${s.sheet.id}/issue`, { version: saved.body.sheet.version, grinderShopId: grinding.shopId });
     expect(issued.status).toBe(201);
     expect(issued.body.order).toMatchObject({ revisionId: ok.body.approval.revisionId, revisionNumber: 1, checksum: ok.body.approval.checksum });
+    expect(issued.body.order.firm).toMatchObject({ by: 'owner', reason: null });
+    // Revision 2, saved after the approval, is what can go next: it replaces the approved revision (see firm-orders.test.ts).
     const next = (await s.builder.get(`/api/sheets/${s.sheet.id}`)).body.sheet;
-    expect(next.toIssue).toBeNull();
-    expect(next.issueBlocked).toMatch(/the one the owner approved, is already issued/);
-    const again = await s.builder.post(`/api/sheets/${s.sheet.id}/issue`, { version: next.version, grinderShopId: grinding.shopId });
-    expect(again.status).toBe(409);
+    expect(next.toIssue).toEqual({ number: 2, approved: false, replacesApproved: 1 });
   });
 
   it('refuses to issue a sheet the owner did not approve', async () => {

@@ -24,16 +24,31 @@ describe('jobLifecycle', () => {
   });
 
   it('holds installed until the order is installed and the cam degreed, dated by the later of the two', () => {
-    const order = { at: '2026-01-01T00:00:00.000Z', grinderName: 'G', revisionNumber: 2, checksum: 'abc', movedAt: { installed: '2026-01-05T00:00:00.000Z' } };
+    const order = {
+      at: '2026-01-01T00:00:00.000Z',
+      confirmedReason: null,
+      grinderName: 'G',
+      revisionNumber: 2,
+      checksum: 'abc',
+      movedAt: { installed: '2026-01-05T00:00:00.000Z' },
+    };
     const degreedOnly = jobLifecycle({ ...none, degreedAt: '2026-01-06T00:00:00.000Z' }).stages.find((s) => s.key === 'installed');
     expect(degreedOnly).toMatchObject({ done: false, detail: 'Degreed; the order is not marked installed' });
     const both = jobLifecycle({ ...none, order, degreedAt: '2026-01-06T00:00:00.000Z' }).stages.find((s) => s.key === 'installed');
     expect(both).toMatchObject({ done: true, at: '2026-01-06T00:00:00.000Z', detail: null });
   });
 
+  it('counts the owner step as skipped, with the reason, when a builder confirmed the firm order without the owner', () => {
+    const order = { at: 'b', confirmedReason: 'Fleet account', grinderName: 'G', revisionNumber: 3, checksum: 'abc', movedAt: {} };
+    const approved = jobLifecycle({ ...none, order }).stages.find((s) => s.key === 'approved');
+    expect(approved).toMatchObject({ done: true, at: 'b', detail: 'Skipped: the shop confirmed revision 3 without the owner (Fleet account)' });
+    expect(jobLifecycle(none).stages.find((s) => s.key === 'approved')).toMatchObject({ done: false, detail: null });
+  });
+
   it('has no next stage once every stage is done', () => {
     const order = {
       at: 'a',
+      confirmedReason: null,
       grinderName: 'G',
       revisionNumber: 1,
       checksum: 'abc',

@@ -56,6 +56,9 @@ export function lifecycleFacts(db: Reader, shopId: string, jobId: string): Lifec
         revisionId: schema.grindOrders.revisionId,
         checksum: schema.grindOrders.checksum,
         createdAt: schema.grindOrders.createdAt,
+        firmBy: schema.grindOrders.firmBy,
+        firmAt: schema.grindOrders.firmAt,
+        firmReason: schema.grindOrders.firmReason,
       },
       number: schema.sheetRevisions.number,
       grinderName: grinders.name,
@@ -65,8 +68,12 @@ export function lifecycleFacts(db: Reader, shopId: string, jobId: string): Lifec
     .innerJoin(grinders, eq(grinders.id, schema.grindOrders.grinderShopId))
     .where(and(eq(schema.grindOrders.repairShopId, shopId), inArray(schema.grindOrders.sheetId, sheetIds)))
     .all();
-  const firm = approval ? orders.find((o) => o.order.revisionId === approval.revisionId) : undefined;
-  const run = approval ? latestRunOfRevision(db, shopId, approval.revisionId) : null;
+  // The job's firm order: the approved revision's, else the newest revision a builder confirmed without the owner.
+  const firm = approval
+    ? orders.find((o) => o.order.revisionId === approval.revisionId && o.order.firmBy !== null)
+    : orders.filter((o) => o.order.firmBy === 'builder').sort((a, b) => b.number - a.number)[0];
+  const checkedRevision = approval?.revisionId ?? firm?.order.revisionId;
+  const run = checkedRevision ? latestRunOfRevision(db, shopId, checkedRevision) : null;
   return {
     findings: job.findings.trim() !== '',
     firstMeasurementAt: iso(measured?.at),
@@ -83,7 +90,8 @@ export function lifecycleFacts(db: Reader, shopId: string, jobId: string): Lifec
         : null,
     order: firm
       ? {
-          at: firm.order.createdAt.toISOString(),
+          at: (firm.order.firmAt ?? firm.order.createdAt).toISOString(),
+          confirmedReason: firm.order.firmBy === 'builder' ? (firm.order.firmReason ?? '') : null,
           grinderName: firm.grinderName,
           revisionNumber: firm.number,
           checksum: firm.order.checksum,
@@ -109,9 +117,13 @@ export function jobLifecycle(f: LifecycleFacts): Lifecycle {
     measured: { done: f.firstMeasurementAt !== null, at: f.firstMeasurementAt, detail: null },
     offered: { done: f.firstLinkAt !== null, at: f.firstLinkAt, detail: f.firstLinkAt ? null : 'No summary link sent to the owner yet' },
     approved: {
-      done: f.approval !== null,
-      at: f.approval?.at ?? null,
-      detail: f.approval ? `${f.approval.optionTitle}, revision ${f.approval.revisionNumber} · ${f.approval.checksum}, by ${f.approval.name}` : null,
+      done: f.approval !== null || order?.confirmedReason != null,
+      at: f.approval?.at ?? (order?.confirmedReason != null ? order.at : null),
+      detail: f.approval
+        ? `${f.approval.optionTitle}, revision ${f.approval.revisionNumber} · ${f.approval.checksum}, by ${f.approval.name}`
+        : order?.confirmedReason != null
+          ? `Skipped: the shop confirmed revision ${order.revisionNumber} without the owner (${order.confirmedReason})`
+          : null,
     },
     ordered: {
       done: order !== null,
@@ -119,7 +131,7 @@ export function jobLifecycle(f: LifecycleFacts): Lifecycle {
       detail: order
         ? `Revision ${order.revisionNumber} · ${order.checksum} to ${order.grinderName}`
         : f.otherOrders > 0
-          ? `${f.otherOrders} ${f.otherOrders === 1 ? 'order' : 'orders'} out, none on an approved revision`
+          ? `${f.otherOrders} ${f.otherOrders === 1 ? 'order' : 'orders'} out for a quote, none firm yet`
           : null,
     },
     shipped: { done: Boolean(order?.movedAt.shipped), at: order?.movedAt.shipped ?? null, detail: null },

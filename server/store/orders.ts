@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, inArray, lt, not, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, isNotNull, isNull, lt, not, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
 import type { z } from 'zod';
 
@@ -6,6 +6,7 @@ import type { Db } from '@/db';
 import { schema } from '@/db';
 import { revisionChecksum } from '@/shared/checksum';
 import {
+  firmOnlyStage,
   orderMoves,
   orderIsLive,
   orderStageLabels,
@@ -24,6 +25,7 @@ import { conflict, forbidden, HttpError, notFound } from '../http';
 import type { PageRequest } from '../paging';
 import { audit } from './audit';
 import type { Actor, AfterWrite, Reader, Writer } from './db';
+import { loadApproval, withdrawApproval } from './owner-page';
 import { approvedRevisionId, issueTarget, revisionWithSupersession } from './sheets';
 
 type Side = 'builder' | 'grinder';
@@ -48,6 +50,57 @@ const liveOrders = or(
   ),
   inArray(schema.grindOrders.stage, [...underWayStages]),
 );
+
+/**
+ * The job's firm order on a revision no later issue has superseded, on any of its sheets, or undefined. A job has at
+ * most one: issuing, confirming and approving each refuse a second. A firm order superseded while under way is no
+ * longer it: it stays on the grinder's list, flagged for both shops to settle (SupersededNotice).
+ */
+export function liveFirmOrder(db: Reader, jobId: string): Order | undefined {
+  const sheets = db.select({ id: schema.specSheets.id }).from(schema.specSheets).where(eq(schema.specSheets.jobId, jobId));
+  return selectOrders(db, and(inArray(schema.grindOrders.sheetId, sheets), isNotNull(schema.grindOrders.firmBy))).find((o) => o.supersededBy === null);
+}
+
+/** The order on an issued revision (one per revision), or undefined. */
+export function orderOfRevision(db: Reader, revisionId: string): Order | undefined {
+  return selectOrders(db, eq(schema.grindOrders.revisionId, revisionId))[0];
+}
+
+/** The 409 when the job already has a firm order on another revision. */
+export function secondFirmOrder(firm: Order): HttpError {
+  return new HttpError(
+    409,
+    'firm_order_exists',
+    `Revision ${firm.revisionNumber} of “${firm.sheetTitle}” is already this job’s firm order with ${firm.grinderShop.name}. A job grinds one revision: ask for quotes on others, but confirm only one.`,
+  );
+}
+
+/** Makes an order the job's firm order, in the caller's transaction, with its audit row; answers the order as it now is. */
+export function makeFirm(
+  tx: Writer,
+  who: { shopId: string; userId: string | null },
+  orderId: string,
+  firm: { by: 'owner' | 'builder'; reason: string | null },
+) {
+  const row = tx
+    .update(schema.grindOrders)
+    .set({ firmBy: firm.by, firmAt: new Date(), firmReason: firm.reason, version: sql`${schema.grindOrders.version} + 1` })
+    .where(and(eq(schema.grindOrders.id, orderId), isNull(schema.grindOrders.firmBy)))
+    .returning({ version: schema.grindOrders.version })
+    .get();
+  if (!row) throw conflict('This order was confirmed while you were confirming it. Reload to see it.');
+  audit(tx, {
+    shopId: who.shopId,
+    userId: who.userId,
+    action: 'confirm',
+    entity: 'order',
+    entityId: orderId,
+    detail: { by: firm.by, reason: firm.reason, version: row.version },
+  });
+  const [order] = selectOrders(tx, eq(schema.grindOrders.id, orderId));
+  if (!order) throw new Error(`Order ${orderId} vanished`);
+  return order;
+}
 
 /** Orders with their sheet, revision and both shops' names, filtered by `where` (which carries the shop scope). */
 export function selectOrders(db: Reader, where: SQL | undefined): Order[] {
@@ -104,6 +157,7 @@ export function selectOrderRows(db: Reader, where: SQL | undefined, page?: PageR
       updatedAt: order.updatedAt.toISOString(),
       version: order.version,
       supersededBy: r.supersededNumber !== null && r.supersededAt !== null ? { number: r.supersededNumber, at: new Date(r.supersededAt).toISOString() } : null,
+      firm: order.firmBy && order.firmAt ? { by: order.firmBy, at: order.firmAt.toISOString(), reason: order.firmReason ?? null } : null,
     },
   }));
 }
@@ -235,7 +289,7 @@ export function issueSheet(
   who: Actor,
   sheetId: string,
   body: z.output<typeof issueSchema>,
-  after?: (tx: Writer, issued: Order, superseded: Order[]) => void,
+  after?: (tx: Writer, issued: Order, superseded: Order[], withdrawn: ReturnType<typeof withdrawApproval>) => void,
 ): Order {
   return db.transaction((tx) => {
     const sheet = tx
@@ -253,6 +307,13 @@ export function issueSheet(
     const target = issueTarget(revisions, approvedRevisionId(tx, sheet.jobId));
     if ('blocked' in target) throw conflict(target.blocked);
     const revision = target.row;
+    // The one firm order of the job, before this issue: a new revision supersedes it here only before grinding began.
+    const firmBefore = liveFirmOrder(tx, sheet.jobId);
+    if (target.replacesApproved !== null && firmBefore && underWayStages.includes(firmBefore.stage)) {
+      throw conflict(
+        `Grinding has begun on revision ${firmBefore.revisionNumber}, the one the owner approved (${orderStageLabels[firmBefore.stage].toLowerCase()}). Agree with ${firmBefore.grinderShop.name} whether it stops before you issue another revision.`,
+      );
+    }
     if (sheet.version !== body.version) {
       throw conflict(
         `Someone saved this spec sheet after you opened it (version ${sheet.version}, yours ${body.version}). Reload and check the revision before you issue it.`,
@@ -279,6 +340,24 @@ export function issueSheet(
     if (!issued) throw conflict('This revision was issued while you were sending it. Reload to see it.');
     const checksum = revisionChecksum(issued);
     const id = crypto.randomUUID();
+    // Superseding the approved revision before grinding withdraws the approval: the owner is asked again.
+    const withdrawn =
+      target.replacesApproved === null
+        ? undefined
+        : withdrawApproval(
+            tx,
+            who,
+            sheet.jobId,
+            `Revision ${issued.number} of “${sheet.title}” replaced revision ${target.replacesApproved}, the one approved, before grinding began.`,
+          );
+    // Firm from the start: the owner's approved revision, or the builder's confirmation with its reason.
+    const firm = target.approved ? { by: 'owner' as const, reason: null } : body.confirm ? { by: 'builder' as const, reason: body.confirm.reason } : null;
+    if (body.confirm && loadApproval(tx, sheet.jobId)) {
+      throw conflict('The owner approved an option on this job: the firm order is the approved revision, and needs no confirmation.');
+    }
+    const firmNow = firm ? liveFirmOrder(tx, sheet.jobId) : undefined;
+    // On this sheet, the issue supersedes the firm order it had; on another sheet, that one stays the job's.
+    if (firmNow && firmNow.sheetId !== sheetId) throw secondFirmOrder(firmNow);
     tx.insert(schema.grindOrders)
       .values({
         id,
@@ -289,6 +368,7 @@ export function issueSheet(
         checksum,
         stage: 'sent',
         issuedBy: who.userId,
+        ...(firm ? { firmBy: firm.by, firmAt: issuedAt, firmReason: firm.reason } : {}),
       })
       .run();
     if (body.note) {
@@ -317,7 +397,7 @@ export function issueSheet(
       action: 'issue',
       entity: 'order',
       entityId: id,
-      detail: { to: 'sent', revision: issued.number, checksum },
+      detail: { to: 'sent', revision: issued.number, checksum, firm: firm?.by ?? null, ...(firm?.reason ? { reason: firm.reason } : {}) },
     });
     // Every earlier order on this sheet now holds a superseded revision: say so in its own history.
     const earlier = tx
@@ -348,7 +428,7 @@ export function issueSheet(
           ),
         ).filter((o) => o.supersededBy?.number === issued.number)
       : [];
-    after?.(tx, created, superseded);
+    after?.(tx, created, superseded, withdrawn);
     return created;
   });
 }
@@ -376,6 +456,13 @@ export function moveOrder(
         409,
         'superseded',
         `Revision ${current.revisionNumber} of “${current.sheetTitle}” was superseded by revision ${current.supersededBy.number} before grinding began, so this order cannot be quoted or moved. Work from revision ${current.supersededBy.number}.`,
+      );
+    }
+    if (body.to === firmOnlyStage && !current.firm) {
+      throw new HttpError(
+        409,
+        'not_firm',
+        `Revision ${current.revisionNumber} of “${current.sheetTitle}” is a request for a quote, not a firm order: grind it only once the owner approves it or ${current.repairShop.name} confirms it.`,
       );
     }
     const move = orderMoves[current.stage].find((m) => m.to === body.to);
@@ -442,5 +529,34 @@ export function addOrderMessage(db: Db, who: OrderViewer, orderId: string, body:
     const written = loadMessages(tx, order).find((m) => m.id === id);
     if (!written) throw new Error(`Message ${id} was not written`);
     return written;
+  });
+}
+
+/**
+ * A builder makes a request for a quote the job's firm order without the owner's approval, with the reason kept on the
+ * order and in its audit row. Refused when the owner approved an option (that revision is the firm order), when the
+ * job already has a firm order, and on a closed or changes-asked order.
+ */
+export function confirmOrder(db: Db, who: OrderViewer, id: string, body: { version: number; reason: string }, after?: AfterWrite<Order>): Order {
+  return db.transaction((tx) => {
+    const { order: current, side } = requireOrder(tx, who, id);
+    if (side !== 'builder' || who.role !== 'builder') throw forbidden('Only a builder of the repair shop can confirm an order');
+    if (current.version !== body.version) {
+      throw conflict(`This order changed after you opened it (version ${current.version}, yours ${body.version}). Reload and try again.`);
+    }
+    if (current.firm) throw conflict('This order is already the firm order.');
+    if (!orderIsLive(current)) throw conflict(`Revision ${current.revisionNumber} was superseded: confirm the order on the latest revision instead.`);
+    if (current.stage !== 'sent' && current.stage !== 'quoted') {
+      throw conflict(`This order is ${orderStageLabels[current.stage].toLowerCase()}: only a sent or quoted request can be confirmed.`);
+    }
+    const jobId = tx.select({ jobId: schema.specSheets.jobId }).from(schema.specSheets).where(eq(schema.specSheets.id, current.sheetId)).get()?.jobId;
+    if (!jobId) throw notFound('Order');
+    if (loadApproval(tx, jobId))
+      throw conflict('The owner approved an option on this job: the firm order is the approved revision, and needs no confirmation.');
+    const firm = liveFirmOrder(tx, jobId);
+    if (firm) throw secondFirmOrder(firm);
+    const confirmed = makeFirm(tx, { shopId: who.shop.id, userId: who.user.id }, id, { by: 'builder', reason: body.reason });
+    after?.(tx, confirmed);
+    return confirmed;
   });
 }

@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, gt, inArray, isNull, max, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, gt, inArray, isNotNull, isNull, max, sql } from 'drizzle-orm';
 import type { z } from 'zod';
 
 import { compareProfilesForOwner, OWNER_CAUTIONS, ownerFitText } from '@/calc/compare';
@@ -19,14 +19,16 @@ import type {
   ownerOptionPatchSchema,
   OwnerView,
   OwnerViewOption,
+  WithdrawnApproval,
 } from '@/shared/owner';
 import { ownerUpdatingText } from '@/shared/owner';
 
 import { conflict, HttpError, notFound } from '../http';
 import { toPage, type PageRequest } from '../paging';
 import { audit } from './audit';
-import type { Actor, AfterWrite, Reader } from './db';
+import type { Actor, AfterWrite, Reader, Writer } from './db';
 import { requireJob } from './jobs';
+import { liveFirmOrder, makeFirm } from './orders';
 import { jobPayments, paidJobIds, toPayment } from './payments';
 import { shareablePhotos } from './photos';
 import { latestRunOfRevision } from './fit-checks';
@@ -110,8 +112,64 @@ function toOption(row: OptionRow, revision: RevisionRow, latest: Map<string, num
   };
 }
 
+/** The job's live approval: the one not withdrawn (a unique index allows one), or undefined. */
 export function loadApproval(db: Reader, jobId: string) {
-  return db.select().from(schema.ownerApprovals).where(eq(schema.ownerApprovals.jobId, jobId)).get();
+  return db
+    .select()
+    .from(schema.ownerApprovals)
+    .where(and(eq(schema.ownerApprovals.jobId, jobId), isNull(schema.ownerApprovals.withdrawnAt)))
+    .get();
+}
+
+/** The job's most recently withdrawn approval, shown to the owner and the builder until the owner approves again. */
+function withdrawnApproval(db: Reader, jobId: string, live: boolean): WithdrawnApproval | null {
+  if (live) return null;
+  const row = db
+    .select()
+    .from(schema.ownerApprovals)
+    .where(and(eq(schema.ownerApprovals.jobId, jobId), isNotNull(schema.ownerApprovals.withdrawnAt)))
+    .orderBy(desc(schema.ownerApprovals.withdrawnAt))
+    .limit(1)
+    .get();
+  return row?.withdrawnAt
+    ? { optionTitle: row.optionTitle, checksum: row.checksum, at: row.withdrawnAt.toISOString(), reason: row.withdrawnReason ?? '' }
+    : null;
+}
+
+/**
+ * Withdraws the job's live approval, in the caller's transaction, because its revision was superseded before grinding
+ * began: the row stays, with when and why, and the options open again for the owner to approve. Answers the withdrawn
+ * row with the addresses its owner's links went to, or undefined when there was none.
+ */
+export function withdrawApproval(tx: Writer, who: Actor, jobId: string, reason: string) {
+  const row = tx
+    .update(schema.ownerApprovals)
+    .set({ withdrawnAt: new Date(), withdrawnReason: reason })
+    .where(and(eq(schema.ownerApprovals.jobId, jobId), isNull(schema.ownerApprovals.withdrawnAt)))
+    .returning()
+    .get();
+  if (!row) return undefined;
+  audit(tx, {
+    shopId: who.shopId,
+    userId: who.userId,
+    action: 'withdraw',
+    entity: 'owner-approval',
+    entityId: row.id,
+    detail: { jobId, reason, checksum: row.checksum },
+  });
+  const links = tx
+    .select({ email: schema.shareLinks.email })
+    .from(schema.shareLinks)
+    .where(
+      and(
+        eq(schema.shareLinks.jobId, jobId),
+        isNull(schema.shareLinks.revokedAt),
+        gt(schema.shareLinks.expiresAt, new Date()),
+        isNotNull(schema.shareLinks.email),
+      ),
+    )
+    .all();
+  return { row, emails: [...new Set(links.flatMap((l) => (l.email ? [l.email] : [])))] };
 }
 
 export function loadOwnerPage(db: Reader, shopId: string, jobId: string) {
@@ -135,6 +193,7 @@ export function loadOwnerDesk(db: Reader, shopId: string, jobId: string): OwnerD
     options: optionRows(db, shopId, jobId).map((r) => toOption(r.option, r.revision, latest)),
     links: links.map(toShareLink),
     approval: approval ? toApproval(approval) : null,
+    withdrawn: withdrawnApproval(db, jobId, approval !== undefined),
     payments: jobPayments(db, jobId).map(toPayment),
   };
 }
@@ -226,6 +285,7 @@ export function loadOwnerView(
     options,
     cautions: [...OWNER_CAUTIONS, productCautions.practice],
     approval: approval ? toApproval(approval) : null,
+    withdrawn: withdrawnApproval(db, link.jobId, approval !== undefined),
     payment: payment ? toPayment(payment) : null,
     currency: terms.currency,
     depositsOn: terms.depositsOn,
@@ -412,6 +472,11 @@ export function approveOption(
     if (stale) {
       throw new HttpError(409, 'option_stale', ownerUpdatingText(stale));
     }
+    // The shop already went ahead with another revision without the owner: approving this one would make a second.
+    const firm = liveFirmOrder(tx, link.jobId);
+    if (firm && firm.revisionId !== option.revisionId) {
+      throw conflict('The shop has already ordered another option for this vehicle. Call the shop before you approve this one.');
+    }
     const row = tx
       .insert(schema.ownerApprovals)
       .values({
@@ -440,6 +505,13 @@ export function approveOption(
       entityId: row.id,
       detail: { jobId: link.jobId, optionId: option.id, checksum: option.checksum, offer, name: body.name, shareLinkId: link.id },
     });
+    // The revision was already sent for a quote: its order becomes the firm order, the one the grinder may grind.
+    const quoted = tx
+      .select({ id: schema.grindOrders.id, firmBy: schema.grindOrders.firmBy })
+      .from(schema.grindOrders)
+      .where(eq(schema.grindOrders.revisionId, option.revisionId))
+      .get();
+    if (quoted && !quoted.firmBy) makeFirm(tx, { shopId: link.shopId, userId }, quoted.id, { by: 'owner', reason: null });
     after?.(tx, row);
     return row;
   });
@@ -474,7 +546,7 @@ export function ownerJobsPage(db: Reader, shopId: string, email: string, { limit
     db
       .select({ jobId: schema.ownerApprovals.jobId })
       .from(schema.ownerApprovals)
-      .where(inArray(schema.ownerApprovals.jobId, jobIds))
+      .where(and(inArray(schema.ownerApprovals.jobId, jobIds), isNull(schema.ownerApprovals.withdrawnAt)))
       .all()
       .map((a) => a.jobId),
   );

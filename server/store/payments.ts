@@ -1,4 +1,4 @@
-import { and, desc, eq, inArray, isNull } from 'drizzle-orm';
+import { and, desc, eq, inArray, isNull, sql } from 'drizzle-orm';
 
 import type { Db } from '@/db';
 import { schema } from '@/db';
@@ -140,6 +140,14 @@ export function reserveDeposit(tx: Writer, link: Pick<LinkRow, 'shopId' | 'jobId
     .where(and(eq(schema.payments.approvalId, approval.id), eq(schema.payments.state, 'paid')))
     .get();
   if (paid) throw conflict('The deposit is already paid');
+  // A deposit paid under an approval that was withdrawn counts toward this one: the owner pays only the difference.
+  const credit = tx
+    .select({ cents: sql<number>`coalesce(sum(${schema.payments.amountCents}), 0)` })
+    .from(schema.payments)
+    .where(and(eq(schema.payments.jobId, link.jobId), eq(schema.payments.state, 'paid'), eq(schema.payments.currency, approval.currency)))
+    .get();
+  const dueCents = approval.depositCents - (credit?.cents ?? 0);
+  if (dueCents <= 0) throw conflict('The deposit is already paid: what you paid with your earlier approval covers it');
   const open = tx
     .select()
     .from(schema.payments)
@@ -157,7 +165,7 @@ export function reserveDeposit(tx: Writer, link: Pick<LinkRow, 'shopId' | 'jobId
       shopId: link.shopId,
       jobId: link.jobId,
       approvalId: approval.id,
-      amountCents: approval.depositCents,
+      amountCents: dueCents,
       currency: approval.currency,
     })
     .returning()

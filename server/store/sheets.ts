@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, getTableColumns, gt, inArray, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, getTableColumns, gt, inArray, isNull, sql } from 'drizzle-orm';
 
 import type { Db } from '@/db';
 import { schema } from '@/db';
@@ -94,13 +94,13 @@ function toSheet(row: SheetRow, current: RevisionRow): Sheet {
   };
 }
 
-/** The revision the owner approved on this job (the approval names one revision of one sheet), or null. */
+/** The revision of the job's live approval (the approval names one revision of one sheet), or null. */
 export function approvedRevisionId(db: Reader, jobId: string): string | null {
   const statement = prepared(db, 'sheets.approved-revision', (d) =>
     d
       .select({ id: schema.ownerApprovals.revisionId })
       .from(schema.ownerApprovals)
-      .where(eq(schema.ownerApprovals.jobId, sql.placeholder('jobId')))
+      .where(and(eq(schema.ownerApprovals.jobId, sql.placeholder('jobId')), isNull(schema.ownerApprovals.withdrawnAt)))
       .prepare(),
   );
   return statement.get({ jobId })?.id ?? null;
@@ -120,28 +120,33 @@ export function revisionToCheck(db: Reader, sheet: { id: string; jobId: string }
 }
 
 /**
- * Which revision issuing the sheet sends to a grinder, or why none can go. Once the owner has approved, the firm
- * order is the approved revision and no other: it goes even when a later draft was started after the approval, and a
- * sheet the owner did not approve cannot be issued. Before any approval, it is the latest revision while a draft.
+ * Which revision issuing the sheet sends to a grinder, or why none can go. Once the owner has approved, the approved
+ * revision goes while it is a draft, even with a later draft on the sheet, and a sheet the owner did not approve cannot
+ * be issued. Once the approved revision is issued, only a later draft can go: it supersedes the approved one
+ * (`replacesApproved`), and issuing it withdraws the approval so the owner is asked again. Before any approval, it is
+ * the latest revision while a draft.
  */
 export function issueTarget<Row extends RevisionSummaryRow>(
   revisions: readonly Row[],
   approvedId: string | null,
-): { row: Row; approved: boolean } | { blocked: string } {
+): { row: Row; approved: boolean; replacesApproved: number | null } | { blocked: string } {
   const latest = revisions[revisions.length - 1];
   if (!latest) throw new Error('A sheet with no revisions');
   if (approvedId) {
     const approved = revisions.find((r) => r.id === approvedId);
     if (!approved) return { blocked: 'The owner approved another option on this job, so this sheet is not the one to grind.' };
-    if (approved.state === 'issued') return { blocked: `Revision ${approved.number}, the one the owner approved, is already issued.` };
-    return { row: approved, approved: true };
+    if (approved.state === 'draft') return { row: approved, approved: true, replacesApproved: null };
+    if (latest.state === 'draft' && latest.number > approved.number) return { row: latest, approved: false, replacesApproved: approved.number };
+    return {
+      blocked: `Revision ${approved.number}, the one the owner approved, is already issued. To change it, save the sheet: that starts revision ${approved.number + 1}, and issuing it withdraws the owner’s approval so they can approve again.`,
+    };
   }
   if (latest.state === 'issued') {
     return {
       blocked: `Revision ${latest.number} is already issued — edit the sheet to start a new revision, then issue that. Saving a new note or values starts revision ${latest.number + 1} as a draft you can issue.`,
     };
   }
-  return { row: latest, approved: false };
+  return { row: latest, approved: false, replacesApproved: null };
 }
 
 /** The sheet with its history (`revisions` oldest first, `latest` the last of them with its results). */
@@ -151,7 +156,7 @@ function withHistory(db: Reader, row: SheetRow, revisions: readonly RevisionSumm
   return {
     ...toSheet(row, latest),
     revisions: revisions.map((r) => toRevisionSummary(r, superseded.get(r.id) ?? null)),
-    toIssue: 'row' in target ? { number: target.row.number, approved: target.approved } : null,
+    toIssue: 'row' in target ? { number: target.row.number, approved: target.approved, replacesApproved: target.replacesApproved } : null,
     issueBlocked: 'blocked' in target ? target.blocked : null,
   };
 }

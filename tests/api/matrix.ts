@@ -178,6 +178,12 @@ export const matrix: Record<string, MatrixRow> = {
     params: order,
     body: (w) => ({ version: w.a.orderVersion, to: 'quoted', quote: { priceCents: 18_500, leadTimeDays: 6 } }),
   },
+  'POST /api/orders/:id/confirm': {
+    // Only a builder of the repair shop makes a request for a quote firm without the owner; the grinder and a tech are refused.
+    allow: builderA,
+    params: order,
+    body: (w) => ({ version: w.a.orderVersion, reason: 'Fleet account: signed off by phone' }),
+  },
   'GET /api/orders/:id/messages': { allow: orderReaders, params: order },
   'POST /api/orders/:id/messages': { allow: orderReaders, params: order, body: () => ({ body: 'Core is at the counter' }) },
 

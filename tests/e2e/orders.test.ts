@@ -117,6 +117,24 @@ describe.each(Object.keys(viewports) as ViewportName[])('grind order from issue 
     expect(await shown(g, 'order-quote').textContent()).toContain('$485.00');
     await builderSees(b, revision, 'Accepted and quoted');
     expect(await shown(b, `sheet-order-quote-${revision}`).textContent()).toContain('6 days');
+    expect(await shown(b, `sheet-order-firm-${revision}`).textContent()).toBe('Request for a quote');
+
+    // A request for a quote is not ground: the grinder has no grinding move until the builder confirms it (this shop
+    // skips the owner step for this job, with a reason for the record).
+    expect(await shown(g, 'order-firmness').textContent()).toBe('Request for a quote');
+    expect(await shown(g, 'order-firmness-text').textContent()).toMatch(/do not grind it/);
+    expect(await shown(g, 'order-screen').getByTestId('move-grinding').count()).toBe(0);
+    await b.goto(`${baseUrl()}/orders/${orderId}`);
+    await shown(b, 'order-screen').waitFor();
+    await shown(b, 'confirm-reason').fill('Fleet account (demo): the fleet manager signed off by phone');
+    await expectAccessible(b);
+    await screenshot(b, `orders-builder-confirm-${viewport}`);
+    await shown(b, 'confirm-order-submit').click();
+    await expect.poll(() => shown(b, 'order-firmness').textContent()).toBe('Firm order');
+    expect(await shown(b, 'order-firmness-text').textContent()).toContain('fleet manager signed off');
+    await g.reload();
+    await shown(g, 'order-screen').waitFor();
+    await expect.poll(() => shown(g, 'order-firmness').textContent()).toBe('Firm order');
 
     // Grinder: a message, then start grinding; the builder sees both.
     await shown(g, 'message-body').fill('Core journals measure fine; grinding starts tomorrow morning.');
