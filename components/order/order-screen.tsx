@@ -18,7 +18,7 @@ import { ApiError } from '@/lib/api';
 import { useMeQuery } from '@/hooks/use-me';
 import { useOrderQuery } from '@/hooks/use-orders';
 import { useSheetQuery } from '@/hooks/use-sheets';
-import { orderMoves, orderStageLabels, type OrderDetail } from '@/shared/orders';
+import { firmOnlyStage, orderMoves, orderStageLabels, type OrderDetail } from '@/shared/orders';
 
 export function OrderScreen({ id }: { id: string }) {
   const order = useOrderQuery(id);
@@ -43,7 +43,8 @@ function OrderView({ order, side, back }: { order: OrderDetail; side: OrderSide 
   const wide = useWindowDimensions().width >= breakpoints.wide;
   const r = order.revision;
   const otherSide = side === 'grinder' ? order.repairShop.name : order.grinderShop.name;
-  const waitingOn = orderMoves[order.stage].find((m) => m.by !== side);
+  // A request for a quote waits on the firm order before the grinder's wheel: the firmness text says what comes next.
+  const waitingOn = orderMoves[order.stage].find((m) => m.by !== side && (order.firm !== null || m.to !== firmOnlyStage));
   const jobId = useSheetQuery(order.sheetId, side === 'builder').data?.jobId;
   const sheetBack = jobId
     ? ({ href: { pathname: '/jobs/[id]/sheets/[sheetId]', params: { id: jobId, sheetId: order.sheetId } }, label: 'Back to the spec sheet' } satisfies BackLink)
