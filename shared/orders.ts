@@ -53,6 +53,9 @@ export type Firmness = { by: 'owner' | 'builder'; at: string; reason: string | n
 /** The one move that needs a firm order: the grinder starts on the metal only for the revision the job goes ahead with. */
 export const firmOnlyStage: OrderStage = 'grinding';
 
+/** Stages from which a builder may confirm a request for a quote as the firm order (the server refuses any other). */
+export const confirmableStages: readonly OrderStage[] = ['sent', 'quoted'];
+
 /** The builder's reason for going ahead without the owner's approval (a fleet account, an owner who said yes by phone…). */
 export const firmReasonSchema = z
   .string({ error: 'Say why this goes ahead without the owner’s approval' })

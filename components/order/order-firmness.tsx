@@ -1,14 +1,14 @@
 import { useState } from 'react';
-import { StyleSheet, Text, TextInput, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 
-import { colors, space, type as typeScale } from '@/constants/theme';
+import { space } from '@/constants/theme';
 import { useConfirmOrderMutation } from '@/hooks/use-orders';
-import { orderIsLive, type Order } from '@/shared/orders';
+import { confirmableStages, orderIsLive, type Order } from '@/shared/orders';
 
 import { Button } from '@/components/ui/button';
 import { Chip } from '@/components/ui/chip';
-import { noteInput } from '@/components/ui/note-input';
 import { ErrorNotice } from '@/components/ui/query-state';
+import { TextField } from '@/components/ui/text-field';
 
 /** "Firm order" or "Request for a quote": whether the grinder may grind this revision. */
 export function FirmnessChip({ order, testID }: { order: Pick<Order, 'firm'>; testID?: string }) {
@@ -28,22 +28,17 @@ export function firmnessText(order: Order, side: 'builder' | 'grinder' | null): 
 export function ConfirmOrderPanel({ order }: { order: Order }) {
   const confirm = useConfirmOrderMutation(order.id);
   const [reason, setReason] = useState('');
-  if (order.firm || !orderIsLive(order) || (order.stage !== 'sent' && order.stage !== 'quoted')) return null;
+  if (order.firm || !orderIsLive(order) || !confirmableStages.includes(order.stage)) return null;
   return (
     <View style={styles.stack} testID="confirm-order">
-      <Text style={styles.label} nativeID="confirm-reason-label">
-        Go ahead without the owner: why?
-      </Text>
-      <TextInput
-        accessibilityLabel="Go ahead without the owner: why?"
-        aria-labelledby="confirm-reason-label"
+      <TextField
+        label="Go ahead without the owner: why?"
         value={reason}
         onChangeText={setReason}
         multiline
-        style={noteInput}
+        hint="The reason is kept with the order and in its history. Skip this if the owner will approve: their approval makes it firm."
         testID="confirm-reason"
       />
-      <Text style={styles.meta}>The reason is kept with the order and in its history. Skip this if the owner will approve: their approval makes it firm.</Text>
       {confirm.isError ? <ErrorNotice error={confirm.error} /> : null}
       <Button
         label="Confirm as the firm order"
@@ -58,6 +53,4 @@ export function ConfirmOrderPanel({ order }: { order: Order }) {
 
 const styles = StyleSheet.create({
   stack: { gap: space.sm },
-  label: { ...typeScale.label, color: colors.ink },
-  meta: { ...typeScale.small, color: colors.inkMuted },
 });

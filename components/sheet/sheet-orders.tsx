@@ -17,6 +17,7 @@ import { OrderStageChip } from '@/components/order/order-stage-chip';
 import { SupersededChip } from '@/components/order/superseded';
 import { EmptyState, ErrorNotice, Pending } from '@/components/ui/query-state';
 import { Section } from '@/components/ui/screen';
+import { TextField } from '@/components/ui/text-field';
 
 /** Sends the revision the server names (the owner's approved one, else the latest draft) to one grinding shop, after a confirm step. */
 export function IssuePanel({ sheet }: { sheet: SheetWithHistory }) {
@@ -82,19 +83,7 @@ export function IssuePanel({ sheet }: { sheet: SheetWithHistory }) {
                 testID="issue-kind"
               />
               {firm === 'firm' ? (
-                <>
-                  <Text style={styles.label} nativeID="issue-reason-label">
-                    Why it goes ahead without the owner
-                  </Text>
-                  <TextInput
-                    accessibilityLabel="Why it goes ahead without the owner"
-                    aria-labelledby="issue-reason-label"
-                    value={reason}
-                    onChangeText={setReason}
-                    style={styles.note}
-                    testID="issue-reason"
-                  />
-                </>
+                <TextField label="Why it goes ahead without the owner" value={reason} onChangeText={setReason} testID="issue-reason" />
               ) : (
                 <Text style={styles.meta}>The grinder can quote it but not grind it until the owner approves this revision or you confirm it.</Text>
               )}

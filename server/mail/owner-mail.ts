@@ -103,3 +103,21 @@ export function approvalWithdrawnMail(to: Person, f: { shopName: string; vehicle
     footer: `Sent by Lobewright for ${f.shopName}.`,
   });
 }
+
+/** Queues the "please approve again" mail to each address the job's open links went to, in the issue's transaction. */
+export function queueWithdrawnMail(
+  tx: Writer,
+  { mailer, publicUrl }: BuilderMailDeps,
+  withdrawn: { row: { jobId: string; optionTitle: string; withdrawnReason: string | null }; emails: string[] },
+  shop: { id: string; name: string },
+) {
+  const facts = {
+    shopName: shop.name,
+    vehicle: jobVehicle(tx, withdrawn.row.jobId) ?? 'vehicle',
+    optionTitle: withdrawn.row.optionTitle,
+    reason: withdrawn.row.withdrawnReason ?? '',
+    url: `${publicUrl.replace(/\/+$/, '')}/my`,
+  };
+  const owners = withdrawn.emails.map((email) => ({ email, name: '' }));
+  queueEach(mailer, tx, owners, (person) => approvalWithdrawnMail(person, facts), shop.id);
+}

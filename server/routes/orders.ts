@@ -1,23 +1,12 @@
 import { Router } from 'express';
 
-import {
-  confirmOrderSchema,
-  issueSchema,
-  messageSchema,
-  orderMoveSchema,
-  orderStageLabels,
-  underWayStages,
-  type Order,
-  type OrderStage,
-} from '@/shared/orders';
+import { confirmOrderSchema, issueSchema, messageSchema, orderMoveSchema, orderStageLabels, underWayStages, type OrderStage } from '@/shared/orders';
 
 import { actorOf, requireMember, requireShopRole } from '../access';
 import type { AppDeps } from '../deps';
 import { forbidden, parse } from '../http';
-import { queueEach } from '../mail';
-import { queueOrderMail as queueOrderMailOf, type OrderMailFacts, type OrderMailKind } from '../mail/order-mail';
-import { approvalWithdrawnMail } from '../mail/owner-mail';
-import { jobVehicle } from '../store/jobs';
+import { queueOrderMail } from '../mail/order-mail';
+import { queueWithdrawnMail } from '../mail/owner-mail';
 import { pageRequest, toPage } from '../paging';
 import {
   addOrderMessage,
@@ -31,7 +20,6 @@ import {
   requireOrder,
   sheetOrders,
 } from '../store/orders';
-import type { Writer } from '../store/db';
 
 /** Stages in which the cam is still with the grinder: a superseded order there is mailed to the grinding shop. */
 const grinderHoldsStages: readonly OrderStage[] = ['sent', 'quoted', 'grinding'];
@@ -41,10 +29,8 @@ const grinderHoldsStages: readonly OrderStage[] = ['sent', 'quoted', 'grinding']
  * shops then move the order through the stages in shared/orders.ts, and talk in its thread.
  */
 export function ordersRouter(deps: AppDeps) {
-  const { db, auth, publicUrl } = deps;
+  const { db, auth } = deps;
   const router = Router();
-  const queueOrderMail = (tx: Writer, kind: OrderMailKind, order: Order, extra?: Pick<OrderMailFacts, 'message' | 'superseded'>) =>
-    queueOrderMailOf(tx, deps, kind, order, extra);
 
   router.get('/grinding-shops', async (req, res) => {
     await requireShopRole(auth, db, req, { sheet: ['issue'] });
@@ -55,29 +41,13 @@ export function ordersRouter(deps: AppDeps) {
     const body = parse(issueSchema, req.body);
     const ctx = await requireShopRole(auth, db, req, { sheet: ['issue'] });
     const order = issueSheet(db, actorOf(ctx), req.params.id, body, (tx, issued, superseded, withdrawn) => {
-      queueOrderMail(tx, 'issued', issued, { message: body.note || null });
+      queueOrderMail(tx, deps, 'issued', issued, { message: body.note || null });
       // The owner whose approval this issue withdrew is asked again.
-      if (withdrawn) {
-        const vehicle = jobVehicle(tx, withdrawn.row.jobId) ?? 'vehicle';
-        const facts = {
-          shopName: issued.repairShop.name,
-          vehicle,
-          optionTitle: withdrawn.row.optionTitle,
-          reason: withdrawn.row.withdrawnReason ?? '',
-          url: `${publicUrl.replace(/\/+$/, '')}/my`,
-        };
-        queueEach(
-          deps.mailer,
-          tx,
-          withdrawn.emails.map((email) => ({ email, name: '' })),
-          (person) => approvalWithdrawnMail(person, facts),
-          issued.repairShop.id,
-        );
-      }
+      if (withdrawn) queueWithdrawnMail(tx, deps, withdrawn, issued.repairShop);
       // The grinder of each order this supersedes hears of it while the work is still in their hands.
       for (const old of superseded.filter((o) => grinderHoldsStages.includes(o.stage))) {
         const underWay = underWayStages.includes(old.stage);
-        queueOrderMail(tx, 'superseded', old, { superseded: { by: issued.revisionNumber, stageLabel: orderStageLabels[old.stage], underWay } });
+        queueOrderMail(tx, deps, 'superseded', old, { superseded: { by: issued.revisionNumber, stageLabel: orderStageLabels[old.stage], underWay } });
       }
     });
     res.status(201).json({ order });
@@ -107,7 +77,7 @@ export function ordersRouter(deps: AppDeps) {
     const ctx = await requireMember(auth, db, req);
     const { order } = moveOrder(db, ctx, req.params.id, body, (tx, moved) => {
       const { stage } = moved.order;
-      if (stage === 'quoted' || stage === 'changes-asked' || stage === 'shipped') queueOrderMail(tx, stage, moved.order, { message: moved.message });
+      if (stage === 'quoted' || stage === 'changes-asked' || stage === 'shipped') queueOrderMail(tx, deps, stage, moved.order, { message: moved.message });
     });
     res.json({ order: loadDetail(db, order) });
   });
@@ -115,7 +85,7 @@ export function ordersRouter(deps: AppDeps) {
   router.post('/orders/:id/confirm', async (req, res) => {
     const body = parse(confirmOrderSchema, req.body);
     const ctx = await requireMember(auth, db, req);
-    const order = confirmOrder(db, ctx, req.params.id, body, (tx, confirmed) => queueOrderMail(tx, 'confirmed', confirmed));
+    const order = confirmOrder(db, ctx, req.params.id, body, (tx, confirmed) => queueOrderMail(tx, deps, 'confirmed', confirmed));
     res.json({ order: loadDetail(db, order) });
   });
 

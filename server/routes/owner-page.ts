@@ -9,7 +9,6 @@ import type { AppDeps } from '../deps';
 import { notFound, parse } from '../http';
 import { queueEach } from '../mail';
 import { queueOrderMail } from '../mail/order-mail';
-import { orderOfRevision } from '../store/orders';
 import { queueBuilderMail, shareLinkMail, shareUrl } from '../mail/owner-mail';
 import { pageRequest } from '../paging';
 import { confirmDeposit, requirePayments, startDeposit } from '../payments/deposits';
@@ -181,11 +180,10 @@ function mountOwnerRoutes(router: Router, at: string, resolve: Resolve, deps: Ap
     const body = parse(approveSchema, req.body);
     // Resolve first (it may read the session); the checks and the write then share one transaction.
     const resolved = await resolve(req);
-    const approval = approveOption(db, resolved.link.id, resolved.userId ?? null, deps.currency, body, (tx, row) => {
+    const approval = approveOption(db, resolved.link.id, resolved.userId ?? null, deps.currency, body, (tx, row, firmed) => {
       queueBuilderMail(tx, deps, 'approved', row.jobId, row.shopId, { optionTitle: row.optionTitle, approverName: row.approverName, checksum: row.checksum });
       // A revision already out for a quote became the firm order: its grinder hears they may grind it.
-      const order = orderOfRevision(tx, row.revisionId);
-      if (order?.firm?.by === 'owner') queueOrderMail(tx, deps, 'confirmed', order);
+      if (firmed) queueOrderMail(tx, deps, 'confirmed', firmed);
     });
     res.status(201).json({ approval: toApproval(approval) });
   });

@@ -6,6 +6,7 @@ import type { Db } from '@/db';
 import { schema } from '@/db';
 import { revisionChecksum } from '@/shared/checksum';
 import {
+  confirmableStages,
   firmOnlyStage,
   orderMoves,
   orderIsLive,
@@ -61,6 +62,17 @@ export function liveFirmOrder(db: Reader, jobId: string): Order | undefined {
   return selectOrders(db, and(inArray(schema.grindOrders.sheetId, sheets), isNotNull(schema.grindOrders.firmBy))).find((o) => o.supersededBy === null);
 }
 
+/** One order by id, as selectOrders reads it, for a row this transaction has just written. */
+function writtenOrder(tx: Reader, id: string): Order {
+  const [order] = selectOrders(tx, eq(schema.grindOrders.id, id));
+  if (!order) throw new Error(`Order ${id} was not written`);
+  return order;
+}
+
+/** The 409 when a builder gives a reason to go ahead without the owner, on a job the owner has approved. */
+const approvedNeedsNoConfirmation = () =>
+  conflict('The owner approved an option on this job: the firm order is the approved revision, and needs no confirmation.');
+
 /** The order on an issued revision (one per revision), or undefined. */
 export function orderOfRevision(db: Reader, revisionId: string): Order | undefined {
   return selectOrders(db, eq(schema.grindOrders.revisionId, revisionId))[0];
@@ -97,9 +109,7 @@ export function makeFirm(
     entityId: orderId,
     detail: { by: firm.by, reason: firm.reason, version: row.version },
   });
-  const [order] = selectOrders(tx, eq(schema.grindOrders.id, orderId));
-  if (!order) throw new Error(`Order ${orderId} vanished`);
-  return order;
+  return writtenOrder(tx, orderId);
 }
 
 /** Orders with their sheet, revision and both shops' names, filtered by `where` (which carries the shop scope). */
@@ -304,10 +314,12 @@ export function issueSheet(
       .where(eq(schema.sheetRevisions.sheetId, sheetId))
       .orderBy(asc(schema.sheetRevisions.number))
       .all();
-    const target = issueTarget(revisions, approvedRevisionId(tx, sheet.jobId));
+    const approvedId = approvedRevisionId(tx, sheet.jobId);
+    const target = issueTarget(revisions, approvedId);
     if ('blocked' in target) throw conflict(target.blocked);
     const revision = target.row;
-    // The one firm order of the job, before this issue: a new revision supersedes it here only before grinding began.
+    // The job's one firm order before this issue: on this sheet the issue supersedes it (once grinding began, not while
+    // the owner's approval stands on it); on another sheet it stays the job's, so this issue cannot be firm too.
     const firmBefore = liveFirmOrder(tx, sheet.jobId);
     if (target.replacesApproved !== null && firmBefore && underWayStages.includes(firmBefore.stage)) {
       throw conflict(
@@ -352,12 +364,10 @@ export function issueSheet(
           );
     // Firm from the start: the owner's approved revision, or the builder's confirmation with its reason.
     const firm = target.approved ? { by: 'owner' as const, reason: null } : body.confirm ? { by: 'builder' as const, reason: body.confirm.reason } : null;
-    if (body.confirm && loadApproval(tx, sheet.jobId)) {
-      throw conflict('The owner approved an option on this job: the firm order is the approved revision, and needs no confirmation.');
-    }
-    const firmNow = firm ? liveFirmOrder(tx, sheet.jobId) : undefined;
+    // The approval read above still stands unless this issue withdrew it.
+    if (body.confirm && approvedId !== null && withdrawn === undefined) throw approvedNeedsNoConfirmation();
     // On this sheet, the issue supersedes the firm order it had; on another sheet, that one stays the job's.
-    if (firmNow && firmNow.sheetId !== sheetId) throw secondFirmOrder(firmNow);
+    if (firm && firmBefore && firmBefore.sheetId !== sheetId) throw secondFirmOrder(firmBefore);
     tx.insert(schema.grindOrders)
       .values({
         id,
@@ -416,8 +426,7 @@ export function issueSheet(
         detail: { revision: old.number, by: issued.number, stage: old.stage, closed: !underWayStages.includes(old.stage) },
       });
     }
-    const [created] = selectOrders(tx, eq(schema.grindOrders.id, id));
-    if (!created) throw new Error(`Order ${id} was not written`);
+    const created = writtenOrder(tx, id);
     // The orders this issue supersedes for the first time (an older one was superseded by an earlier issue already).
     const superseded = earlier.length
       ? selectOrders(
@@ -511,8 +520,7 @@ export function moveOrder(
         version: moved.version,
       },
     });
-    const [updated] = selectOrders(tx, eq(schema.grindOrders.id, id));
-    if (!updated) throw new Error(`Order ${id} vanished`);
+    const updated = writtenOrder(tx, id);
     const answer = { order: updated, message: body.message ?? null };
     after?.(tx, answer);
     return answer;
@@ -546,13 +554,12 @@ export function confirmOrder(db: Db, who: OrderViewer, id: string, body: { versi
     }
     if (current.firm) throw conflict('This order is already the firm order.');
     if (!orderIsLive(current)) throw conflict(`Revision ${current.revisionNumber} was superseded: confirm the order on the latest revision instead.`);
-    if (current.stage !== 'sent' && current.stage !== 'quoted') {
+    if (!confirmableStages.includes(current.stage)) {
       throw conflict(`This order is ${orderStageLabels[current.stage].toLowerCase()}: only a sent or quoted request can be confirmed.`);
     }
     const jobId = tx.select({ jobId: schema.specSheets.jobId }).from(schema.specSheets).where(eq(schema.specSheets.id, current.sheetId)).get()?.jobId;
     if (!jobId) throw notFound('Order');
-    if (loadApproval(tx, jobId))
-      throw conflict('The owner approved an option on this job: the firm order is the approved revision, and needs no confirmation.');
+    if (loadApproval(tx, jobId)) throw approvedNeedsNoConfirmation();
     const firm = liveFirmOrder(tx, jobId);
     if (firm) throw secondFirmOrder(firm);
     const confirmed = makeFirm(tx, { shopId: who.shop.id, userId: who.user.id }, id, { by: 'builder', reason: body.reason });

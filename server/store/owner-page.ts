@@ -22,13 +22,14 @@ import type {
   WithdrawnApproval,
 } from '@/shared/owner';
 import { ownerUpdatingText } from '@/shared/owner';
+import type { Order } from '@/shared/orders';
 
 import { conflict, HttpError, notFound } from '../http';
 import { toPage, type PageRequest } from '../paging';
 import { audit } from './audit';
-import type { Actor, AfterWrite, Reader, Writer } from './db';
+import type { Actor, Reader, Writer } from './db';
 import { requireJob } from './jobs';
-import { liveFirmOrder, makeFirm } from './orders';
+import { liveFirmOrder, makeFirm, orderOfRevision } from './orders';
 import { jobPayments, paidJobIds, toPayment } from './payments';
 import { shareablePhotos } from './photos';
 import { latestRunOfRevision } from './fit-checks';
@@ -121,9 +122,8 @@ export function loadApproval(db: Reader, jobId: string) {
     .get();
 }
 
-/** The job's most recently withdrawn approval, shown to the owner and the builder until the owner approves again. */
-function withdrawnApproval(db: Reader, jobId: string, live: boolean): WithdrawnApproval | null {
-  if (live) return null;
+/** The job's most recently withdrawn approval, shown to the owner and the builder while no live approval has replaced it. */
+function withdrawnApproval(db: Reader, jobId: string): WithdrawnApproval | null {
   const row = db
     .select()
     .from(schema.ownerApprovals)
@@ -193,7 +193,7 @@ export function loadOwnerDesk(db: Reader, shopId: string, jobId: string): OwnerD
     options: optionRows(db, shopId, jobId).map((r) => toOption(r.option, r.revision, latest)),
     links: links.map(toShareLink),
     approval: approval ? toApproval(approval) : null,
-    withdrawn: withdrawnApproval(db, jobId, approval !== undefined),
+    withdrawn: approval ? null : withdrawnApproval(db, jobId),
     payments: jobPayments(db, jobId).map(toPayment),
   };
 }
@@ -285,7 +285,7 @@ export function loadOwnerView(
     options,
     cautions: [...OWNER_CAUTIONS, productCautions.practice],
     approval: approval ? toApproval(approval) : null,
-    withdrawn: withdrawnApproval(db, link.jobId, approval !== undefined),
+    withdrawn: approval ? null : withdrawnApproval(db, link.jobId),
     payment: payment ? toPayment(payment) : null,
     currency: terms.currency,
     depositsOn: terms.depositsOn,
@@ -442,7 +442,8 @@ export function approveOption(
   userId: string | null,
   currency: string,
   body: z.output<typeof approveSchema>,
-  after?: AfterWrite<ApprovalRow>,
+  /** `firmed`: the order already out for a quote on the approved revision, which this approval made the firm order. */
+  after?: (tx: Writer, row: ApprovalRow, firmed: Order | undefined) => void,
 ): ApprovalRow {
   return db.transaction((tx) => {
     const link = linkById(tx, linkId);
@@ -506,13 +507,9 @@ export function approveOption(
       detail: { jobId: link.jobId, optionId: option.id, checksum: option.checksum, offer, name: body.name, shareLinkId: link.id },
     });
     // The revision was already sent for a quote: its order becomes the firm order, the one the grinder may grind.
-    const quoted = tx
-      .select({ id: schema.grindOrders.id, firmBy: schema.grindOrders.firmBy })
-      .from(schema.grindOrders)
-      .where(eq(schema.grindOrders.revisionId, option.revisionId))
-      .get();
-    if (quoted && !quoted.firmBy) makeFirm(tx, { shopId: link.shopId, userId }, quoted.id, { by: 'owner', reason: null });
-    after?.(tx, row);
+    const quoted = orderOfRevision(tx, option.revisionId);
+    const firmed = quoted && !quoted.firm ? makeFirm(tx, { shopId: link.shopId, userId }, quoted.id, { by: 'owner', reason: null }) : undefined;
+    after?.(tx, row, firmed);
     return row;
   });
 }
